@@ -1,0 +1,32 @@
+// @ts-check
+import { defineConfig, envField } from 'astro/config';
+import node from '@astrojs/node';
+import react from '@astrojs/react';
+import tailwind from '@astrojs/tailwind';
+
+const host = process.env.HOST || '127.0.0.1';
+const port = Number(process.env.PORT || 4321);
+
+export default defineConfig({
+  output: 'server',
+  adapter: node({ mode: 'standalone' }),
+  integrations: [react(), tailwind({ applyBaseStyles: true })],
+  server: { host, port },
+  devToolbar: { enabled: false },
+  security: {
+    checkOrigin: true,
+    allowedDomains: [{ hostname: '127.0.0.1' }, { hostname: 'localhost' }, { hostname: host }],
+  },
+  env: {
+    schema: {
+      DATABASE_URL: envField.string({ context: 'server', access: 'secret', optional: true }),
+      SMTP_URL: envField.string({ context: 'server', access: 'secret', optional: true }),
+      MAIL_FROM: envField.string({ context: 'server', access: 'public', optional: true, default: 'Bearline <noreply@bearline.invalid>' }),
+      DATA_DIR: envField.string({ context: 'server', access: 'public', optional: true }),
+      PUBLIC_ORIGIN: envField.string({ context: 'server', access: 'public', optional: true }),
+    },
+  },
+  vite: {
+    ssr: { external: ['@node-rs/argon2', 'pg', 'knex'] },
+  },
+});

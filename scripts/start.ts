@@ -1,0 +1,32 @@
+// npm start: database → migrate → demo scenario when empty → build when changed → serve.
+import { ensureDatabase } from './lib/database';
+import { migrateLatest } from './lib/migrate-runner';
+import { isDatabaseEmpty, runSeeds } from './lib/seed-runner';
+import { buildIfChanged } from './lib/build';
+import { startServer, waitForHttp } from './lib/server-process';
+import { startMailCatcher } from './lib/mail-catcher';
+import { DATA_DIR, HOST, PORT, SMTP_PORT, log } from './lib/project';
+
+async function main() {
+  const databaseUrl = await ensureDatabase();
+  const applied = await migrateLatest(databaseUrl);
+  log(applied.length ? `applied ${applied.length} migration(s)` : 'schema up to date');
+  if (await isDatabaseEmpty(databaseUrl)) {
+    log('empty database: loading the demo scenario…');
+    await runSeeds(databaseUrl);
+  }
+  buildIfChanged();
+  const smtpUrl = process.env.SMTP_URL ?? (await startMailCatcher({ port: SMTP_PORT, dir: `${DATA_DIR}/mail` }));
+  const server = startServer({ host: HOST, port: PORT, env: { DATABASE_URL: databaseUrl, SMTP_URL: smtpUrl, DATA_DIR } });
+  const stop = () => server.kill('SIGTERM');
+  process.on('SIGINT', stop);
+  process.on('SIGTERM', stop);
+  server.on('exit', (code) => process.exit(code ?? 0));
+  await waitForHttp(`http://${HOST}:${PORT}/api/health`);
+  log(`Bearline is running on http://${HOST}:${PORT}  (Ctrl+C stops the app; \`npm run stop\` stops the database)`);
+}
+
+main().catch((err) => {
+  console.error(`[bearline] ${err instanceof Error ? err.message : err}`);
+  process.exit(1);
+});

@@ -1,0 +1,27 @@
+import { z } from 'zod';
+import { ROLES } from '../domain/roles';
+
+export const RoleSchema = z.enum(ROLES, { errorMap: () => ({ message: `Choose one of: ${ROLES.join(', ')}` }) });
+
+export const PASSWORD_MIN = 10;
+
+export const NewUserSchema = z.object({
+  email: z.string().trim().min(1, 'Required').email('Enter a valid e-mail address').max(254),
+  name: z.string().trim().min(1, 'Required').max(120),
+  role: RoleSchema,
+  password: z.string().min(PASSWORD_MIN, `At least ${PASSWORD_MIN} characters`).max(200),
+});
+export type NewUserInput = z.infer<typeof NewUserSchema>;
+
+export const UserChangeSchema = z
+  .object({
+    role: RoleSchema.optional(),
+    name: z.string().trim().min(1, 'Required').max(120).optional(),
+    disabled: z.boolean().optional(),
+  })
+  .refine((v) => v.role !== undefined || v.name !== undefined || v.disabled !== undefined, {
+    message: 'Nothing to change',
+  });
+export type UserChangeInput = z.infer<typeof UserChangeSchema>;
+
+export const IdParamSchema = z.object({ id: z.string().regex(/^\d{1,18}$/, 'Not a valid id') });

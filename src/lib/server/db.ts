@@ -1,0 +1,19 @@
+// One Knex instance per app process.
+import knexFactory, { type Knex } from 'knex';
+import pg from 'pg';
+import { config } from './config';
+
+// bigint ids and counts come back as strings by default; numeric columns as numbers.
+pg.types.setTypeParser(pg.types.builtins.NUMERIC, (v) => (v === null ? null : Number(v)));
+
+let instance: Knex | null = null;
+
+export function getDb(): Knex {
+  if (!instance) {
+    if (!config.databaseUrl) throw new Error('DATABASE_URL is not set');
+    instance = knexFactory({ client: 'pg', connection: config.databaseUrl, pool: { min: 0, max: 10 } });
+  }
+  return instance;
+}
+
+export type Tx = Knex | Knex.Transaction;

@@ -1,0 +1,29 @@
+import { defineMiddleware } from 'astro:middleware';
+import { lucia, setSessionCookie } from './lib/server/auth';
+import { json } from './lib/server/http';
+import { isForeignWrite } from './lib/server/origin';
+
+export const onRequest = defineMiddleware(async (context, next) => {
+  if (isForeignWrite(context.request, context.url)) {
+    return json({ error: { code: 'FORBIDDEN', message: 'Cross-site request refused' } }, 403);
+  }
+
+  context.locals.user = null;
+  context.locals.session = null;
+  const sessionId = context.cookies.get(lucia.sessionCookieName)?.value ?? null;
+  if (sessionId) {
+    try {
+      const { session, user } = await lucia.validateSession(sessionId);
+      if (session?.fresh) setSessionCookie(context.cookies, context.url, session.id);
+      if (!session) setSessionCookie(context.cookies, context.url, null);
+      if (session && user && !user.disabledAt) {
+        context.locals.session = session;
+        context.locals.user = { id: user.id, email: user.email, name: user.name, role: user.role };
+      }
+    } catch (err) {
+      // Database down: carry on signed out; /api/health reports the cause.
+      console.error('[bearline] session lookup failed', err instanceof Error ? err.message : err);
+    }
+  }
+  return next();
+});
