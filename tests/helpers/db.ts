@@ -1,0 +1,18 @@
+// Integration-test database helpers: one Knex for the test database, truncation between tests.
+import type { Knex } from 'knex';
+import { getDb } from '../../src/lib/server/db';
+
+export function testDb(): Knex {
+  if (!process.env.DATABASE_URL) throw new Error('Integration tests need DATABASE_URL (run them through `npm test`)');
+  return getDb();
+}
+
+/** Empties every application table (keeps the migration bookkeeping and PostGIS tables). */
+export async function truncateAll(): Promise<void> {
+  const db = testDb();
+  const { rows } = await db.raw<{ rows: { tablename: string }[] }>(
+    `SELECT tablename FROM pg_tables WHERE schemaname = 'public'
+       AND tablename NOT LIKE 'knex_%' AND tablename <> 'spatial_ref_sys'`,
+  );
+  if (rows.length) await db.raw(`TRUNCATE ${rows.map((r) => `"${r.tablename}"`).join(', ')} RESTART IDENTITY CASCADE`);
+}
