@@ -106,12 +106,12 @@ export default function UsersAdmin({ currentUserId }: Props) {
 
   return (
     <div className="mt-6 grid gap-6 lg:grid-cols-[1fr_20rem]">
-      <section className="card" aria-labelledby="users-heading">
+      <section className="card min-w-0" aria-labelledby="users-heading">
         <div className="mb-3 flex flex-wrap items-center gap-3">
           <h2 id="users-heading">Accounts</h2>
-          <label className="ml-auto flex items-center gap-2 text-sm">
+          <label className="flex w-full items-center gap-2 text-sm sm:ml-auto sm:w-auto">
             <span className="sr-only">Search users</span>
-            <input type="search" placeholder="Search name, e-mail, role" className="field-input w-64" value={query} onChange={(e) => setQuery(e.target.value)} />
+            <input type="search" placeholder="Search name, e-mail, role" className="field-input w-full sm:w-64" value={query} onChange={(e) => setQuery(e.target.value)} />
           </label>
         </div>
         <p aria-live="polite" className="mb-2 min-h-5 text-sm text-ink-600" data-testid="users-notice">{notice}</p>
@@ -123,7 +123,7 @@ export default function UsersAdmin({ currentUserId }: Props) {
           <SortableTable rows={filtered} columns={columns} rowKey={(u) => u.id} initialSort={{ key: 'name', dir: 'asc' }} empty={query ? 'No user matches your search' : 'No users yet'} caption="Users" />
         )}
       </section>
-      <section className="card" aria-labelledby="new-user-heading">
+      <section className="card min-w-0" aria-labelledby="new-user-heading">
         <h2 id="new-user-heading">New user</h2>
         <form className="mt-3 space-y-3" onSubmit={create} noValidate>
           {formError && <p role="alert" className="text-sm text-alarm-700">{formError}</p>}
