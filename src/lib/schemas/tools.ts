@@ -1,0 +1,83 @@
+import { z } from 'zod';
+
+const number = (label: string) =>
+  z
+    .string({ required_error: `${label} is required` })
+    .trim()
+    .min(1, `${label} is required`)
+    .refine((s) => s !== '' && Number.isFinite(Number(s)), `${label} must be a number`)
+    .transform(Number);
+
+export const TechSchema = z.enum(['lte', 'nr', 'umts', 'gsm'], {
+  errorMap: () => ({ message: 'Choose lte, nr, umts or gsm' }),
+});
+
+export const ChannelQuerySchema = z
+  .object({
+    tech: TechSchema,
+    channel: number('Channel')
+      .refine((n) => Number.isInteger(n) && n >= 0, 'Channel must be a whole number ≥ 0')
+      .optional(),
+    freq_mhz: number('Frequency').refine((n) => n > 0, 'Frequency must be above 0 MHz').optional(),
+    band: z.string().trim().min(1).max(10).optional(),
+  })
+  .superRefine((v, ctx) => {
+    if (v.channel === undefined && v.freq_mhz === undefined) {
+      ctx.addIssue({ code: 'custom', path: ['channel'], message: 'Give a channel number or a frequency (freq_mhz)' });
+    }
+    if (v.channel !== undefined && v.freq_mhz !== undefined) {
+      ctx.addIssue({ code: 'custom', path: ['freq_mhz'], message: 'Give either a channel number or a frequency, not both' });
+    }
+  });
+export type ChannelQuery = z.infer<typeof ChannelQuerySchema>;
+
+/** "lat,lon" in decimal degrees. */
+export const LatLonParam = (label: string) =>
+  z
+    .string({ required_error: `${label} is required as lat,lon` })
+    .trim()
+    .transform((s, ctx) => {
+      const parts = s.split(',').map((p) => p.trim());
+      const [lat, lon] = parts.map(Number);
+      if (parts.length !== 2 || parts.some((p) => p === '') || !Number.isFinite(lat) || !Number.isFinite(lon)) {
+        ctx.addIssue({ code: 'custom', message: `${label} must be lat,lon in decimal degrees` });
+        return z.NEVER;
+      }
+      if (lat < -90 || lat > 90) {
+        ctx.addIssue({ code: 'custom', message: `${label}: latitude must be between -90 and 90` });
+        return z.NEVER;
+      }
+      if (lon < -180 || lon > 180) {
+        ctx.addIssue({ code: 'custom', message: `${label}: longitude must be between -180 and 180` });
+        return z.NEVER;
+      }
+      return { lat, lon };
+    });
+
+const height = (label: string) =>
+  number(label)
+    .refine((n) => n >= 0, `${label} cannot be negative`)
+    .refine((n) => n <= 1000, `${label} above 1000 m is not an antenna height`)
+    .optional()
+    .default('0');
+
+export const PathQuerySchema = z.object({
+  from: LatLonParam('from'),
+  to: LatLonParam('to'),
+  freq_mhz: number('Frequency')
+    .refine((n) => n >= 30 && n <= 100_000, 'Frequency must be between 30 and 100000 MHz')
+    .optional(),
+  h1_m: height('h1_m'),
+  h2_m: height('h2_m'),
+  k: number('k')
+    .refine((n) => n > 0 && n <= 10, 'k must be between 0 and 10')
+    .optional(),
+  date: z
+    .string()
+    .regex(/^\d{4}-\d{2}-\d{2}$/, 'Date must be YYYY-MM-DD')
+    .refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)), 'Not a real date')
+    .transform((s) => new Date(`${s}T00:00:00Z`))
+    .refine((d) => d.getUTCFullYear() >= 2025 && d.getUTCFullYear() <= 2029, 'The magnetic model covers 2025–2029')
+    .optional(),
+});
+export type PathQuery = z.infer<typeof PathQuerySchema>;
