@@ -1,0 +1,190 @@
+// Catalogue of customer antennas and cables: input schemas (shared by endpoints and the
+// admin forms) and the JSON shapes the API returns.
+import { z } from 'zod';
+
+export const ANTENNA_KINDS = ['directional', 'omni', 'stub'] as const;
+export type AntennaKind = (typeof ANTENNA_KINDS)[number];
+export const ANTENNA_KIND_LABELS: Record<AntennaKind, string> = {
+  directional: 'Directional',
+  omni: 'Omni',
+  stub: 'Stub / whip',
+};
+
+// Customer kit for 4G/5G spans roughly 700–3800 MHz; the limits leave room either side.
+export const FREQ_MIN_MHZ = 400;
+export const FREQ_MAX_MHZ = 6000;
+
+const num = (label: string) =>
+  z.number({ required_error: `${label} is required`, invalid_type_error: `${label} must be a number` }).finite();
+
+const freq = num('Frequency')
+  .min(FREQ_MIN_MHZ, `Frequency must be at least ${FREQ_MIN_MHZ} MHz`)
+  .max(FREQ_MAX_MHZ, `Frequency must be at most ${FREQ_MAX_MHZ} MHz`);
+
+const name = z
+  .string({ required_error: 'Required', invalid_type_error: 'Required' })
+  .trim()
+  .min(1, 'Required')
+  .max(80, 'At most 80 characters');
+
+const notes = z
+  .string()
+  .trim()
+  .max(2000, 'At most 2000 characters')
+  .nullish()
+  .transform((s) => (s ? s : null));
+
+/** Rows must be listed from the lowest frequency up, without repeats. */
+function increasingFrequencies<T extends { freq_mhz: number }>(rows: T[], ctx: z.RefinementCtx) {
+  rows.forEach((row, i) => {
+    if (i > 0 && row.freq_mhz <= rows[i - 1]!.freq_mhz) {
+      ctx.addIssue({ code: 'custom', path: [i, 'freq_mhz'], message: 'List frequencies from low to high, each once' });
+    }
+  });
+}
+
+export const GainRowSchema = z.object({
+  freq_mhz: freq,
+  gain_dbi: num('Gain').min(-10, 'Gain must be at least −10 dBi').max(30, 'Gain must be at most 30 dBi'),
+});
+
+export const GainTableSchema = z
+  .array(GainRowSchema, { required_error: 'Add at least one row', invalid_type_error: 'Add at least one row' })
+  .min(1, 'Add at least one row')
+  .max(40, 'At most 40 rows')
+  .superRefine(increasingFrequencies);
+
+export const LossRowSchema = z.object({
+  freq_mhz: freq,
+  loss_db_per_m: num('Loss').gt(0, 'Loss must be above 0 dB/m').max(5, 'Loss must be at most 5 dB/m'),
+});
+
+export const LossTableSchema = z
+  .array(LossRowSchema, { required_error: 'Add at least one row', invalid_type_error: 'Add at least one row' })
+  .min(1, 'Add at least one row')
+  .max(40, 'At most 40 rows')
+  .superRefine(increasingFrequencies);
+
+const kind = z.enum(ANTENNA_KINDS, { errorMap: () => ({ message: `Choose one of: ${ANTENNA_KINDS.join(', ')}` }) });
+const ports = num('Ports').int('Ports must be a whole number').min(1, 'At least 1 port').max(8, 'At most 8 ports');
+const beamwidth = num('Beamwidth').gt(0, 'Beamwidth must be above 0°').max(360, 'Beamwidth must be at most 360°');
+
+/** Omni and stub antennas radiate all round; a directional one has a narrower beam. */
+export function getBeamwidthProblem(k: AntennaKind, beamwidthDeg: number): string | null {
+  if (k === 'directional' && beamwidthDeg >= 360) return 'A directional antenna has a beam narrower than 360°';
+  if (k !== 'directional' && beamwidthDeg !== 360) return `An ${k === 'omni' ? 'omni' : 'stub'} antenna covers 360°`;
+  return null;
+}
+
+export const AntennaInputSchema = z
+  .object({
+    name,
+    kind,
+    ports: ports.default(1),
+    horizontal_beamwidth_deg: beamwidth.optional(),
+    gain_table: GainTableSchema,
+    notes,
+  })
+  .superRefine((v, ctx) => {
+    if (v.horizontal_beamwidth_deg === undefined) {
+      if (v.kind === 'directional') ctx.addIssue({ code: 'custom', path: ['horizontal_beamwidth_deg'], message: 'Required for a directional antenna' });
+      return;
+    }
+    const problem = getBeamwidthProblem(v.kind, v.horizontal_beamwidth_deg);
+    if (problem) ctx.addIssue({ code: 'custom', path: ['horizontal_beamwidth_deg'], message: problem });
+  })
+  .transform((v) => ({
+    name: v.name,
+    kind: v.kind,
+    ports: v.ports,
+    horizontalBeamwidthDeg: v.horizontal_beamwidth_deg ?? 360,
+    gainTable: v.gain_table.map((r) => ({ freqMhz: r.freq_mhz, gainDbi: r.gain_dbi })),
+    notes: v.notes,
+  }));
+export type AntennaInput = z.output<typeof AntennaInputSchema>;
+
+const atLeastOne = (v: Record<string, unknown>) => Object.values(v).some((x) => x !== undefined);
+
+export const AntennaChangeSchema = z
+  .object({
+    name: name.optional(),
+    kind: kind.optional(),
+    ports: ports.optional(),
+    horizontal_beamwidth_deg: beamwidth.optional(),
+    gain_table: GainTableSchema.optional(),
+    notes: notes.optional(),
+  })
+  .refine(atLeastOne, { message: 'Nothing to change' })
+  .transform((v) => ({
+    name: v.name,
+    kind: v.kind,
+    ports: v.ports,
+    horizontalBeamwidthDeg: v.horizontal_beamwidth_deg,
+    gainTable: v.gain_table?.map((r) => ({ freqMhz: r.freq_mhz, gainDbi: r.gain_dbi })),
+    notes: v.notes,
+  }));
+export type AntennaChange = z.output<typeof AntennaChangeSchema>;
+
+const connectorLoss = num('Connector loss').min(0, 'Cannot be negative').max(3, 'At most 3 dB per connector');
+const connectors = num('Connectors').int('Connectors must be a whole number').min(0, 'Cannot be negative').max(10, 'At most 10 connectors');
+
+export const CableInputSchema = z
+  .object({
+    name,
+    loss_table: LossTableSchema,
+    // 0.1–0.2 dB per mated pair below 3 GHz — common practice (DOMAIN.md §10).
+    connector_loss_db: connectorLoss.default(0.15),
+    connectors: connectors.default(2),
+    notes,
+  })
+  .transform((v) => ({
+    name: v.name,
+    lossTable: v.loss_table.map((r) => ({ freqMhz: r.freq_mhz, dbPerM: r.loss_db_per_m })),
+    connectorLossDb: v.connector_loss_db,
+    connectors: v.connectors,
+    notes: v.notes,
+  }));
+export type CableInput = z.output<typeof CableInputSchema>;
+
+export const CableChangeSchema = z
+  .object({
+    name: name.optional(),
+    loss_table: LossTableSchema.optional(),
+    connector_loss_db: connectorLoss.optional(),
+    connectors: connectors.optional(),
+    notes: notes.optional(),
+  })
+  .refine(atLeastOne, { message: 'Nothing to change' })
+  .transform((v) => ({
+    name: v.name,
+    lossTable: v.loss_table?.map((r) => ({ freqMhz: r.freq_mhz, dbPerM: r.loss_db_per_m })),
+    connectorLossDb: v.connector_loss_db,
+    connectors: v.connectors,
+    notes: v.notes,
+  }));
+export type CableChange = z.output<typeof CableChangeSchema>;
+
+// --- JSON the API returns ---------------------------------------------------------------
+
+export interface AntennaJson {
+  id: string;
+  name: string;
+  kind: AntennaKind;
+  ports: number;
+  horizontal_beamwidth_deg: number;
+  gain_table: { freq_mhz: number; gain_dbi: number }[];
+  notes: string | null;
+  created_at: string;
+  updated_at: string;
+}
+
+export interface CableJson {
+  id: string;
+  name: string;
+  loss_table: { freq_mhz: number; loss_db_per_m: number }[];
+  connector_loss_db: number;
+  connectors: number;
+  notes: string | null;
+  created_at: string;
+  updated_at: string;
+}
