@@ -8,6 +8,9 @@ export interface NavItem {
 }
 
 export const NAV_ITEMS: readonly NavItem[] = [
+  { href: '/map', label: 'Map', permission: 'map:view' },
+  { href: '/admin/operators', label: 'Operators', permission: 'reference:manage' },
+  { href: '/admin/regions', label: 'Regions', permission: 'reference:manage' },
   { href: '/admin/users', label: 'Users', permission: 'users:manage' },
 ];
 
