@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import { APP_URL, demoEmail, launchBrowser, signIn, watchOutsideRequests } from '../helpers/browser';
-import { navigationFor } from '../../src/lib/domain/navigation';
+import { headerNavigationFor } from '../../src/lib/domain/navigation';
 import { ROLES } from '../../src/lib/domain/roles';
 
 let browser: Browser;
@@ -20,7 +20,7 @@ describe('signing in through the form', () => {
     expect(new URL(page.url()).pathname).toBe('/');
     await expect(page.locator('[data-testid=whoami]').innerText()).resolves.toContain(role === 'admin' ? 'Admin' : role.charAt(0).toUpperCase() + role.slice(1));
     const links = await page.locator('nav[aria-label=Main] a').allInnerTexts();
-    expect(links).toEqual(navigationFor(role).map((n) => n.label));
+    expect(links).toEqual(headerNavigationFor(role).map((n) => n.label));
     if (role === 'admin') await page.screenshot({ path: 'test-results/home-admin.png' });
     expect(outside).toEqual([]);
     await page.close();

@@ -9,6 +9,7 @@ export interface NavItem {
 
 export const NAV_ITEMS: readonly NavItem[] = [
   { href: '/map', label: 'Map', permission: 'map:view' },
+  { href: '/tools', label: 'Tools', permission: 'tools:use' },
   { href: '/admin/operators', label: 'Operators', permission: 'reference:manage' },
   { href: '/admin/regions', label: 'Regions', permission: 'reference:manage' },
   { href: '/admin/users', label: 'Users', permission: 'users:manage' },
@@ -16,4 +17,17 @@ export const NAV_ITEMS: readonly NavItem[] = [
 
 export function navigationFor(role: Role): NavItem[] {
   return NAV_ITEMS.filter((item) => can(role, item.permission));
+}
+
+const isAdminPage = (item: NavItem) => item.href.startsWith('/admin/');
+
+/** The header: everyday pages, then one "Admin" entry leading to the admin pages. */
+export function headerNavigationFor(role: Role): NavItem[] {
+  const items = navigationFor(role);
+  const main = items.filter((i) => !isAdminPage(i));
+  return items.some(isAdminPage) ? [...main, { href: '/admin', label: 'Admin', permission: 'users:manage' }] : main;
+}
+
+export function adminNavigationFor(role: Role): NavItem[] {
+  return navigationFor(role).filter(isAdminPage);
 }

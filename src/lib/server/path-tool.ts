@@ -1,0 +1,59 @@
+// The path calculator: domain figures plus the terrain profile where elevation data covers the path.
+import { summarisePath, type PathSummary } from '../domain/path-summary';
+import type { PathQuery } from '../schemas/tools';
+
+export interface PathToolResult {
+  summary: PathSummary;
+  date: Date;
+  terrainNote: string | null;
+}
+
+export async function calculatePath(q: PathQuery, now: Date): Promise<PathToolResult> {
+  const date = q.date ?? now;
+  const summary = summarisePath({
+    from: q.from,
+    to: q.to,
+    freqMhz: q.freq_mhz,
+    fromHeightM: q.h1_m,
+    toHeightM: q.h2_m,
+    k: q.k,
+    date,
+  });
+  return { summary, date, terrainNote: 'No elevation data is loaded: terrain not checked.' };
+}
+
+const r = (n: number, d: number) => Math.round(n * 10 ** d) / 10 ** d;
+
+/** API shape: snake_case with units in the names. */
+export function toPathResponse({ summary: s, date, terrainNote }: PathToolResult) {
+  return {
+    distance_m: r(s.distanceM, 1),
+    bearing_true_deg: r(s.bearingTrueDeg, 3),
+    bearing_magnetic_deg: r(s.bearingMagneticDeg, 3),
+    declination_deg: r(s.declinationDeg, 3),
+    declination_date: date.toISOString().slice(0, 10),
+    reverse_bearing_true_deg: r(s.reverseBearingTrueDeg, 3),
+    elevation_deg: r(s.elevationDeg, 4),
+    fspl_db: s.fsplDb === null ? null : r(s.fsplDb, 2),
+    fresnel_radius_mid_m: s.fresnelRadiusMidM === null ? null : r(s.fresnelRadiusMidM, 2),
+    earth_bulge_mid_m: r(s.earthBulgeMidM, 2),
+    radio_horizon_km: r(s.radioHorizonKm, 2),
+    k: r(s.k, 4),
+    terrain: s.terrain && {
+      status: s.terrain.classification,
+      worst_clearance_m: s.terrain.worst ? r(s.terrain.worst.clearanceM, 2) : null,
+      worst_distance_m: s.terrain.worst ? r(s.terrain.worst.distanceM, 1) : null,
+      nu: s.terrain.worst ? r(s.terrain.worst.nu, 3) : null,
+      diffraction_loss_db: r(s.terrain.diffractionLossDb, 2),
+      profile: s.terrain.samples.map((p) => ({
+        distance_m: r(p.distanceM, 1),
+        ground_m: r(p.groundM, 1),
+        bulge_m: r(p.bulgeM, 2),
+        los_m: r(p.losM, 2),
+        fresnel_m: r(p.fresnelM, 2),
+        clearance_m: r(p.clearanceM, 2),
+      })),
+    },
+    ...(terrainNote ? { terrain_note: terrainNote } : {}),
+  };
+}

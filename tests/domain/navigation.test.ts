@@ -1,0 +1,24 @@
+import { describe, expect, it } from 'vitest';
+import { adminNavigationFor, headerNavigationFor } from '../../src/lib/domain/navigation';
+import { can, ROLES } from '../../src/lib/domain/roles';
+
+describe('navigation by role', () => {
+  it.each(ROLES)('shows the %s only pages their role may open', (role) => {
+    for (const item of headerNavigationFor(role)) expect(can(role, item.permission)).toBe(true);
+  });
+
+  it('folds admin pages behind one Admin entry, for admins only', () => {
+    const admin = headerNavigationFor('admin').map((i) => i.href);
+    expect(admin).toContain('/admin');
+    expect(admin.filter((h) => h.startsWith('/admin/'))).toEqual([]);
+    expect(adminNavigationFor('admin').map((i) => i.href)).toContain('/admin/users');
+    for (const role of ROLES.filter((r) => r !== 'admin')) {
+      expect(headerNavigationFor(role).map((i) => i.href)).not.toContain('/admin');
+      expect(adminNavigationFor(role)).toEqual([]);
+    }
+  });
+
+  it('gives every signed-in role the map and the tools', () => {
+    for (const role of ROLES) expect(headerNavigationFor(role).map((i) => i.label)).toEqual(expect.arrayContaining(['Map', 'Tools']));
+  });
+});
