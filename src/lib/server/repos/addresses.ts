@@ -1,0 +1,153 @@
+// The gazetteer: addresses with a position, imported from CSV and searched by the geocoder.
+import type { Tx } from '../db';
+import type { AddressJson, AddressRow } from '../../schemas/addresses';
+import { recordAudit } from './audit';
+
+export interface Address {
+  id: string;
+  label: string;
+  postcode: string | null;
+  lat: number;
+  lon: number;
+  source: string;
+  updatedAt: Date;
+}
+
+export interface GazetteerHit {
+  label: string;
+  postcode: string | null;
+  lat: number;
+  lon: number;
+  score: number;
+}
+
+interface AddressRowDb {
+  id: string;
+  label: string;
+  postcode: string | null;
+  lat: number;
+  lon: number;
+  source: string;
+  updated_at: Date;
+}
+
+const COLUMNS = ['id', 'label', 'postcode', 'source', 'updated_at'];
+
+function toAddress(r: AddressRowDb): Address {
+  return { id: String(r.id), label: r.label, postcode: r.postcode, lat: r.lat, lon: r.lon, source: r.source, updatedAt: r.updated_at };
+}
+
+export function addressJson(a: Address): AddressJson {
+  return { id: a.id, label: a.label, postcode: a.postcode, lat: a.lat, lon: a.lon, source: a.source, updated_at: a.updatedAt.toISOString() };
+}
+
+export async function listAddresses(
+  db: Tx,
+  query: { q?: string; limit: number; offset: number },
+): Promise<{ items: Address[]; total: number }> {
+  const base = db('addresses');
+  if (query.q) base.whereRaw('search_text ILIKE ?', [`%${query.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`]);
+  const [{ count }] = await base.clone().count<{ count: string }[]>('* as count');
+  const rows = await base
+    .select<AddressRowDb[]>([...COLUMNS, db.raw('ST_Y(geom) AS lat'), db.raw('ST_X(geom) AS lon')])
+    .orderBy([{ column: 'label' }, { column: 'id' }])
+    .limit(query.limit)
+    .offset(query.offset);
+  return { items: rows.map(toAddress), total: Number(count) };
+}
+
+export interface ImportSummary {
+  rows: number;
+  inserted: number;
+  updated: number;
+}
+
+const BATCH = 1000;
+
+/**
+ * Adds the rows, or moves an address already known by the same label and postcode. The
+ * caller opens the transaction, so a failed import leaves the gazetteer as it was.
+ */
+export async function importAddresses(
+  db: Tx,
+  rows: readonly AddressRow[],
+  meta: { fileName: string | null; sha256: string; bytes: number; source?: string },
+  actorId: string | null,
+): Promise<ImportSummary> {
+  let inserted = 0;
+  for (let i = 0; i < rows.length; i += BATCH) {
+    const batch = rows.slice(i, i + BATCH);
+    const { rows: result } = await db.raw<{ rows: { inserted: boolean }[] }>(
+      `INSERT INTO addresses (label, postcode, geom, source)
+       SELECT l, p, ST_SetSRID(ST_MakePoint(x, y), 4326), ?
+         FROM unnest(?::text[], ?::text[], ?::float8[], ?::float8[]) AS t(l, p, x, y)
+       ON CONFLICT (match_key) DO UPDATE
+         SET label = EXCLUDED.label, postcode = EXCLUDED.postcode, geom = EXCLUDED.geom,
+             source = EXCLUDED.source, updated_at = now()
+       RETURNING (xmax = 0) AS inserted`,
+      [
+        meta.source ?? 'import',
+        batch.map((r) => r.label),
+        batch.map((r) => r.postcode),
+        batch.map((r) => r.lon),
+        batch.map((r) => r.lat),
+      ],
+    );
+    inserted += result.filter((r) => r.inserted).length;
+  }
+  const summary = { rows: rows.length, inserted, updated: rows.length - inserted };
+  await recordAudit(db, {
+    userId: actorId,
+    action: 'import',
+    entity: 'addresses',
+    entityId: null,
+    after: { file: meta.fileName, sha256: meta.sha256, bytes: meta.bytes, ...summary },
+  });
+  return summary;
+}
+
+export async function countAddresses(db: Tx): Promise<number> {
+  const row = await db('addresses').count<{ count: string }[]>('* as count').first();
+  return Number(row?.count ?? 0);
+}
+
+// Word similarity finds the query inside a longer label ("mill farm" in "Mill Farm,
+// Crake Lane, Kelvarrow KV3 2PL"); 0.45 lets one typo through in a short word while
+// keeping unrelated streets out. Whole similarity breaks ties towards the shorter,
+// closer label. A postcode typed in full wins outright.
+const WORD_SIMILARITY_THRESHOLD = 0.45;
+
+export async function searchGazetteer(db: Tx, q: string, limit: number): Promise<GazetteerHit[]> {
+  const run = async (trx: Tx) => {
+    await trx.raw("SELECT set_config('pg_trgm.word_similarity_threshold', ?, true)", [String(WORD_SIMILARITY_THRESHOLD)]);
+    const { rows } = await trx.raw<{ rows: (GazetteerHit & { score: string | number })[] }>(
+      `SELECT label, postcode, ST_Y(geom) AS lat, ST_X(geom) AS lon,
+              LEAST(1, CASE WHEN replace(upper(coalesce(postcode, '')), ' ', '') = replace(upper(:q), ' ', '') THEN 1
+                            ELSE 0.8 * word_similarity(:q, search_text) + 0.2 * similarity(:q, search_text) END) AS score
+         FROM addresses
+        WHERE :q <% search_text
+        ORDER BY score DESC, label, id
+        LIMIT :limit`,
+      { q, limit },
+    );
+    return rows.map((r) => ({ ...r, score: Math.round(Number(r.score) * 1000) / 1000 }));
+  };
+  // set_config(…, true) lasts for the transaction only, so never leaks to pooled connections.
+  return 'isTransaction' in db && db.isTransaction ? run(db) : (db as import('knex').Knex).transaction(run);
+}
+
+/** Addresses nearest a point, closest first (KNN on the geometry index). */
+export async function findNearbyAddresses(db: Tx, lat: number, lon: number, limit: number, radiusM: number): Promise<Array<GazetteerHit & { distanceM: number }>> {
+  const { rows } = await db.raw<{ rows: Array<Omit<GazetteerHit, 'score'> & { distance_m: number }> }>(
+    `SELECT label, postcode, lat, lon, distance_m FROM (
+       SELECT label, postcode, ST_Y(geom) AS lat, ST_X(geom) AS lon,
+              ST_Distance(geom::geography, ST_SetSRID(ST_MakePoint(:lon, :lat), 4326)::geography) AS distance_m
+         FROM addresses
+        ORDER BY geom <-> ST_SetSRID(ST_MakePoint(:lon, :lat), 4326)
+        LIMIT :limit) near
+      WHERE distance_m <= :radius
+      ORDER BY distance_m`,
+    { lat, lon, limit, radius: radiusM },
+  );
+  return rows.map((r) => ({ label: r.label, postcode: r.postcode, lat: r.lat, lon: r.lon, distanceM: r.distance_m, score: 0 }));
+}

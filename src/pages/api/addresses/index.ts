@@ -1,0 +1,12 @@
+import { getDb } from '../../../lib/server/db';
+import { handler, json, parseQuery, requirePermission } from '../../../lib/server/http';
+import { addressJson, listAddresses } from '../../../lib/server/repos/addresses';
+import { AddressListQuerySchema } from '../../../lib/schemas/addresses';
+
+// The gazetteer page by page (admin page; the planner searches through /api/geocode).
+export const GET = handler(async ({ locals, url }) => {
+  requirePermission(locals, 'map:view');
+  const query = parseQuery(AddressListQuerySchema, url);
+  const { items, total } = await listAddresses(getDb(), query);
+  return json({ items: items.map(addressJson), total });
+});
