@@ -1,0 +1,60 @@
+// Regions: named polygons, imported as GeoJSON (RFC 7946). Shape checks here; the database checks
+// validity (self-intersections and the like) with ST_IsValid.
+import { z } from 'zod';
+
+const position = z
+  .array(z.number({ invalid_type_error: 'Coordinates must be numbers' }).finite(), { invalid_type_error: 'A position is [lon, lat]' })
+  .min(2, 'A position is [lon, lat]')
+  .max(3, 'A position is [lon, lat] or [lon, lat, height]')
+  .superRefine((p, ctx) => {
+    if (p[0]! < -180 || p[0]! > 180) ctx.addIssue({ code: 'custom', message: `Longitude ${p[0]} is outside −180…180` });
+    if (p[1]! < -90 || p[1]! > 90) ctx.addIssue({ code: 'custom', message: `Latitude ${p[1]} is outside −90…90` });
+  });
+
+const ring = z
+  .array(position, { invalid_type_error: 'A ring is a list of positions' })
+  .min(4, 'A ring needs at least four positions')
+  .max(100_000, 'At most 100000 positions per ring')
+  .refine((r) => r.length < 4 || (r[0]![0] === r[r.length - 1]![0] && r[0]![1] === r[r.length - 1]![1]), {
+    message: 'A ring must end where it starts',
+  });
+
+const polygonCoords = z.array(ring, { invalid_type_error: 'A polygon is a list of rings' }).min(1, 'A polygon needs an outer ring');
+
+const PolygonSchema = z.object({ type: z.literal('Polygon'), coordinates: polygonCoords });
+const MultiPolygonSchema = z.object({
+  type: z.literal('MultiPolygon'),
+  coordinates: z.array(polygonCoords).min(1, 'A multipolygon needs at least one polygon'),
+});
+
+export type PolygonGeometry = z.output<typeof PolygonSchema> | z.output<typeof MultiPolygonSchema>;
+
+const GeometrySchema = z.discriminatedUnion('type', [PolygonSchema, MultiPolygonSchema], {
+  errorMap: (issue, ctx) =>
+    issue.code === 'invalid_union_discriminator' ? { message: 'Give a GeoJSON Polygon or MultiPolygon (or a Feature with one)' } : { message: ctx.defaultError },
+});
+
+/** A Polygon or MultiPolygon, bare or wrapped in a Feature. */
+export const RegionGeometrySchema = z.preprocess(
+  (v) => (v && typeof v === 'object' && (v as { type?: unknown }).type === 'Feature' ? (v as { geometry?: unknown }).geometry : v),
+  GeometrySchema,
+);
+
+const name = z.string({ required_error: 'Required', invalid_type_error: 'Required' }).trim().min(1, 'Required').max(80, 'At most 80 characters');
+
+export const RegionInputSchema = z.object({ name, geometry: RegionGeometrySchema });
+export type RegionInput = z.output<typeof RegionInputSchema>;
+
+export const RegionChangeSchema = z
+  .object({ name: name.optional(), geometry: RegionGeometrySchema.optional() })
+  .refine((v) => v.name !== undefined || v.geometry !== undefined, { message: 'Nothing to change' });
+export type RegionChange = z.output<typeof RegionChangeSchema>;
+
+export interface RegionJson {
+  id: string;
+  name: string;
+  geometry: { type: 'MultiPolygon'; coordinates: number[][][][] };
+  area_km2: number;
+  created_at: string;
+  updated_at: string;
+}

@@ -1,0 +1,405 @@
+// Masts: map listing with filters, detail with cells and recent readings, and audited writes
+// with optimistic concurrency (row_version).
+import type { Knex } from 'knex';
+import type { Tx } from '../db';
+import type {
+  Bbox,
+  MastChange,
+  MastDetailJson,
+  MastFeatureCollectionJson,
+  MastFeatureJson,
+  MastFilter,
+  MastInput,
+  MastJson,
+  MastStatus,
+  OperatorRefJson,
+  StructureType,
+  Tech,
+} from '../../schemas/masts';
+import { ConflictError, NotFoundError } from '../errors';
+import { recordAudit } from './audit';
+import { cellJson, listCellsForMast, type Cell } from './cells';
+import { listRecentReadingsForMast, readingJson, type Reading } from './readings';
+
+export interface Mast {
+  id: string;
+  name: string;
+  reference: string | null;
+  lat: number;
+  lon: number;
+  groundElevationM: number | null;
+  structureHeightM: number | null;
+  structureType: StructureType;
+  status: MastStatus;
+  accessNotes: string | null;
+  source: string;
+  createdBy: string | null;
+  updatedBy: string | null;
+  createdAt: Date;
+  updatedAt: Date;
+  rowVersion: number;
+}
+
+export interface OperatorRef {
+  id: string;
+  name: string;
+  colour: string;
+}
+
+export interface MastSummary {
+  id: string;
+  name: string;
+  reference: string | null;
+  status: MastStatus;
+  structureType: StructureType;
+  lat: number;
+  lon: number;
+  operators: OperatorRef[];
+  /** Band labels, lowest downlink frequency first. */
+  bands: string[];
+  techs: Tech[];
+  cellCount: number;
+}
+
+export interface MastDetail extends Mast {
+  operators: OperatorRef[];
+  cells: Cell[];
+  recentReadings: Reading[];
+}
+
+interface MastRow {
+  id: string;
+  name: string;
+  reference: string | null;
+  lat: number;
+  lon: number;
+  ground_elevation_m: number | null;
+  structure_height_m: number | null;
+  structure_type: StructureType;
+  status: MastStatus;
+  access_notes: string | null;
+  source: string;
+  created_by: string | null;
+  updated_by: string | null;
+  created_at: Date;
+  updated_at: Date;
+  row_version: number;
+}
+
+const MAST_COLUMNS = [
+  'm.id',
+  'm.name',
+  'm.reference',
+  'm.ground_elevation_m',
+  'm.structure_height_m',
+  'm.structure_type',
+  'm.status',
+  'm.access_notes',
+  'm.source',
+  'm.created_by',
+  'm.updated_by',
+  'm.created_at',
+  'm.updated_at',
+  'm.row_version',
+];
+
+function toMast(r: MastRow): Mast {
+  return {
+    id: String(r.id),
+    name: r.name,
+    reference: r.reference,
+    lat: r.lat,
+    lon: r.lon,
+    groundElevationM: r.ground_elevation_m,
+    structureHeightM: r.structure_height_m,
+    structureType: r.structure_type,
+    status: r.status,
+    accessNotes: r.access_notes,
+    source: r.source,
+    createdBy: r.created_by === null ? null : String(r.created_by),
+    updatedBy: r.updated_by === null ? null : String(r.updated_by),
+    createdAt: r.created_at,
+    updatedAt: r.updated_at,
+    rowVersion: r.row_version,
+  };
+}
+
+export function mastJson(m: Mast): MastJson {
+  return {
+    id: m.id,
+    name: m.name,
+    reference: m.reference,
+    lat: m.lat,
+    lon: m.lon,
+    ground_elevation_m: m.groundElevationM,
+    structure_height_m: m.structureHeightM,
+    structure_type: m.structureType,
+    status: m.status,
+    access_notes: m.accessNotes,
+    source: m.source,
+    created_by: m.createdBy,
+    updated_by: m.updatedBy,
+    created_at: m.createdAt.toISOString(),
+    updated_at: m.updatedAt.toISOString(),
+    row_version: m.rowVersion,
+  };
+}
+
+export function mastDetailJson(m: MastDetail): MastDetailJson {
+  return {
+    ...mastJson(m),
+    operators: m.operators.map(operatorRefJson),
+    cells: m.cells.map(cellJson),
+    recent_readings: m.recentReadings.map(readingJson),
+  };
+}
+
+function operatorRefJson(o: OperatorRef): OperatorRefJson {
+  return { id: o.id, name: o.name, colour: o.colour };
+}
+
+export function mastFeatureJson(m: MastSummary): MastFeatureJson {
+  return {
+    type: 'Feature',
+    id: Number(m.id),
+    geometry: { type: 'Point', coordinates: [m.lon, m.lat] },
+    properties: {
+      id: m.id,
+      name: m.name,
+      reference: m.reference,
+      status: m.status,
+      structure_type: m.structureType,
+      operators: m.operators.map(operatorRefJson),
+      bands: m.bands,
+      techs: m.techs,
+      cell_count: m.cellCount,
+    },
+  };
+}
+
+export function mastFeatureCollectionJson(list: { items: MastSummary[]; truncated: boolean }): MastFeatureCollectionJson {
+  return { type: 'FeatureCollection', features: list.items.map(mastFeatureJson), truncated: list.truncated };
+}
+
+// --- Shared SQL for the list and the tiles -----------------------------------------------------
+
+/**
+ * Per-mast summary of its cells, for `LEFT JOIN LATERAL (…) s ON true` against `masts m`: cell_count,
+ * op_ids (bigint[]), bands (text[], lowest downlink MHz first) and techs (text[], oldest first).
+ */
+export const MAST_CELL_SUMMARY_SQL = `
+  SELECT count(*)::int AS cell_count,
+    coalesce(array_agg(DISTINCT c.operator_id ORDER BY c.operator_id), '{}') AS op_ids,
+    (SELECT coalesce(array_agg(b.band ORDER BY b.f NULLS LAST, b.band), '{}')
+       FROM (SELECT band, min(dl_mhz) AS f FROM cells WHERE mast_id = m.id GROUP BY band) b) AS bands,
+    (SELECT coalesce(array_agg(t.tech ORDER BY array_position(ARRAY['gsm','umts','lte','nr'], t.tech)), '{}')
+       FROM (SELECT DISTINCT tech FROM cells WHERE mast_id = m.id) t) AS techs
+  FROM cells c WHERE c.mast_id = m.id`;
+
+/** Adds the filters to a query over `masts m`: OR within a list, AND across lists; cell filters need one cell matching all. */
+export function applyMastFilter(db: Tx, q: Knex.QueryBuilder, filter: MastFilter): Knex.QueryBuilder {
+  if (filter.statuses?.length) q.whereIn('m.status', filter.statuses);
+  const { operatorIds, techs, bands } = filter;
+  if (operatorIds?.length || techs?.length || bands?.length) {
+    q.whereExists(function () {
+      this.select(db.raw('1')).from('cells as fc').whereRaw('fc.mast_id = m.id');
+      if (operatorIds?.length) this.whereIn('fc.operator_id', operatorIds);
+      if (techs?.length) this.whereIn('fc.tech', techs);
+      if (bands?.length) this.whereIn(['fc.tech', 'fc.band'], bands.map((b) => [b.tech, b.band]));
+    });
+  }
+  return q;
+}
+
+async function loadOperatorRefs(db: Tx): Promise<Map<string, OperatorRef>> {
+  const rows: Array<{ id: string; name: string; colour: string }> = await db('operators').select('id', 'name', 'colour');
+  return new Map(rows.map((r) => [String(r.id), { id: String(r.id), name: r.name, colour: r.colour }]));
+}
+
+export interface MastListOptions extends MastFilter {
+  bbox?: Bbox;
+  limit: number;
+}
+
+export async function listMasts(db: Tx, options: MastListOptions): Promise<{ items: MastSummary[]; truncated: boolean }> {
+  const q = db('masts as m')
+    .select(
+      'm.id',
+      'm.name',
+      'm.reference',
+      'm.status',
+      'm.structure_type',
+      db.raw('ST_Y(m.geom) AS lat'),
+      db.raw('ST_X(m.geom) AS lon'),
+      's.cell_count',
+      's.op_ids',
+      's.bands',
+      's.techs',
+    )
+    .joinRaw(`LEFT JOIN LATERAL (${MAST_CELL_SUMMARY_SQL}) s ON true`)
+    .orderBy('m.id')
+    .limit(options.limit + 1);
+  if (options.bbox) {
+    const b = options.bbox;
+    q.whereRaw('m.geom && ST_MakeEnvelope(?, ?, ?, ?, 4326)', [b.minLon, b.minLat, b.maxLon, b.maxLat]);
+  }
+  applyMastFilter(db, q, options);
+  const [rows, operators] = await Promise.all([q, loadOperatorRefs(db)]);
+  const items = (rows as Array<Record<string, unknown>>).slice(0, options.limit).map(
+    (r): MastSummary => ({
+      id: String(r.id),
+      name: r.name as string,
+      reference: r.reference as string | null,
+      status: r.status as MastStatus,
+      structureType: r.structure_type as StructureType,
+      lat: r.lat as number,
+      lon: r.lon as number,
+      operators: (r.op_ids as string[]).map((id) => operators.get(String(id))).filter((o): o is OperatorRef => o !== undefined),
+      bands: r.bands as string[],
+      techs: r.techs as Tech[],
+      cellCount: Number(r.cell_count),
+    }),
+  );
+  return { items, truncated: rows.length > options.limit };
+}
+
+async function findMastRow(db: Tx, id: string, forUpdate = false): Promise<Mast> {
+  const q = db('masts as m')
+    .select(...MAST_COLUMNS, db.raw('ST_Y(m.geom) AS lat'), db.raw('ST_X(m.geom) AS lon'))
+    .where('m.id', id)
+    .first();
+  if (forUpdate) q.forUpdate();
+  const row = (await q) as MastRow | undefined;
+  if (!row) throw new NotFoundError('Mast not found');
+  return toMast(row);
+}
+
+export async function findMast(db: Tx, id: string): Promise<MastDetail> {
+  const mast = await findMastRow(db, id);
+  const cells = await listCellsForMast(db, id);
+  const recentReadings = await listRecentReadingsForMast(db, id, 20);
+  const operators = new Map<string, OperatorRef>();
+  for (const c of cells) operators.set(c.operator.id, c.operator);
+  return { ...mast, operators: [...operators.values()].sort((a, b) => Number(a.id) - Number(b.id)), cells, recentReadings };
+}
+
+export interface MastSearchHit {
+  id: string;
+  name: string;
+  reference: string | null;
+  lat: number;
+  lon: number;
+}
+
+/** Escapes LIKE wildcards so user text matches literally. */
+export function escapeLike(text: string): string {
+  return text.replace(/[\\%_]/g, (c) => `\\${c}`);
+}
+
+/** Masts whose name or reference contains the text or resembles it (trigram similarity), best first. */
+export async function searchMasts(db: Tx, text: string, limit: number): Promise<MastSearchHit[]> {
+  const contains = `%${escapeLike(text)}%`;
+  const prefix = `${escapeLike(text)}%`;
+  const rows: Array<{ id: string; name: string; reference: string | null; lat: number; lon: number }> = await db('masts')
+    .select('id', 'name', 'reference', db.raw('ST_Y(geom) AS lat'), db.raw('ST_X(geom) AS lon'))
+    .where((w) => w.whereILike('name', contains).orWhereILike('reference', contains).orWhereRaw('name % ?', [text]))
+    .orderByRaw('(name ILIKE ? OR reference ILIKE ?) DESC', [prefix, prefix])
+    .orderByRaw('greatest(similarity(name, ?), coalesce(similarity(reference, ?), 0)) DESC', [text, text])
+    .orderBy('name')
+    .limit(limit);
+  return rows.map((r) => ({ id: String(r.id), name: r.name, reference: r.reference, lat: r.lat, lon: r.lon }));
+}
+
+async function assertReferenceFree(db: Tx, reference: string | null, exceptId?: string): Promise<void> {
+  if (!reference) return;
+  const q = db('masts').whereRaw('lower(reference) = lower(?)', [reference]);
+  if (exceptId) q.whereNot('id', exceptId);
+  const other = await q.first('id');
+  if (other) throw new ConflictError(`Mast ${other.id} already has the reference ${reference}`);
+}
+
+function pointSql(db: Tx, lat: number, lon: number) {
+  return db.raw('ST_SetSRID(ST_MakePoint(?, ?), 4326)', [lon, lat]);
+}
+
+export async function createMast(db: Tx, input: MastInput, actorId: string | null): Promise<Mast> {
+  await assertReferenceFree(db, input.reference);
+  const [row] = await db('masts')
+    .insert({
+      name: input.name,
+      reference: input.reference,
+      geom: pointSql(db, input.lat, input.lon),
+      ground_elevation_m: input.groundElevationM,
+      structure_height_m: input.structureHeightM,
+      structure_type: input.structureType,
+      status: input.status,
+      access_notes: input.accessNotes,
+      source: input.source,
+      created_by: actorId,
+      updated_by: actorId,
+    })
+    .returning('id');
+  const mast = await findMastRow(db, String(row.id));
+  await recordAudit(db, { userId: actorId, action: 'create', entity: 'mast', entityId: mast.id, after: auditView(mast) });
+  return mast;
+}
+
+function staleVersion(current: number): ConflictError {
+  return new ConflictError(`Someone else changed this mast meanwhile (now version ${current}). Reload it and apply your change again.`);
+}
+
+export async function updateMast(db: Tx, id: string, change: MastChange, actorId: string): Promise<Mast> {
+  const before = await findMastRow(db, id, true);
+  if (before.rowVersion !== change.rowVersion) throw staleVersion(before.rowVersion);
+  if (change.reference !== undefined) await assertReferenceFree(db, change.reference, id);
+  const patch: Record<string, unknown> = {
+    row_version: db.raw('row_version + 1'),
+    updated_at: db.fn.now(),
+    updated_by: actorId,
+  };
+  if (change.name !== undefined) patch.name = change.name;
+  if (change.reference !== undefined) patch.reference = change.reference;
+  if (change.lat !== undefined && change.lon !== undefined) patch.geom = pointSql(db, change.lat, change.lon);
+  if (change.groundElevationM !== undefined) patch.ground_elevation_m = change.groundElevationM;
+  if (change.structureHeightM !== undefined) patch.structure_height_m = change.structureHeightM;
+  if (change.structureType !== undefined) patch.structure_type = change.structureType;
+  if (change.status !== undefined) patch.status = change.status;
+  if (change.accessNotes !== undefined) patch.access_notes = change.accessNotes;
+  if (change.source !== undefined) patch.source = change.source;
+  const updated = await db('masts').where({ id, row_version: change.rowVersion }).update(patch);
+  if (updated === 0) throw staleVersion((await findMastRow(db, id)).rowVersion);
+  const after = await findMastRow(db, id);
+  await recordAudit(db, { userId: actorId, action: 'update', entity: 'mast', entityId: id, before: auditView(before), after: auditView(after) });
+  return after;
+}
+
+/** Deletes a mast and its cells (readings keep their values and lose the match). */
+export async function deleteMast(db: Tx, id: string, rowVersion: number | undefined, actorId: string): Promise<void> {
+  const before = await findMastRow(db, id, true);
+  if (rowVersion !== undefined && before.rowVersion !== rowVersion) throw staleVersion(before.rowVersion);
+  const cells = await db('cells').where({ mast_id: id }).count<{ count: string }[]>('* as count');
+  await db('masts').where({ id }).delete();
+  await recordAudit(db, {
+    userId: actorId,
+    action: 'delete',
+    entity: 'mast',
+    entityId: id,
+    before: { ...auditView(before), cells_deleted: Number(cells[0]?.count ?? 0) },
+  });
+}
+
+function auditView(m: Mast) {
+  return {
+    name: m.name,
+    reference: m.reference,
+    lat: m.lat,
+    lon: m.lon,
+    ground_elevation_m: m.groundElevationM,
+    structure_height_m: m.structureHeightM,
+    structure_type: m.structureType,
+    status: m.status,
+    access_notes: m.accessNotes,
+    source: m.source,
+    row_version: m.rowVersion,
+  };
+}
