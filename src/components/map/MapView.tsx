@@ -1,0 +1,296 @@
+import 'maplibre-gl/dist/maplibre-gl.css';
+import { useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState } from 'react';
+import Map, {
+  Layer,
+  NavigationControl,
+  ScaleControl,
+  Source,
+  useMap,
+  type MapLayerMouseEvent,
+  type MapRef,
+  type ViewState,
+} from 'react-map-gl/maplibre';
+import type { Map as MaplibreMap, StyleSpecification } from 'maplibre-gl';
+import { ApiError, mapApi, mastsApi, operatorsApi, regionsApi, type SearchHitDto } from '../../lib/client/api';
+import { loadLabelFonts } from './label-fonts';
+import {
+  MAST_SOURCE_ID,
+  MAST_SOURCE_LAYER,
+  MAST_SYMBOL_LAYER,
+  MAST_SYMBOL_LAYER_ID,
+  NO_MAST_FILTER,
+  buildMastFilter,
+  isFiltering,
+  mastSource,
+  selectedMastLayer,
+  type MastFilterState,
+} from './layers';
+import { MAST_ICON_PIXEL_RATIO, isMastIconId, mastIconImage, type OperatorMark } from './mast-icons';
+import MapFilters from './MapFilters';
+import MapLegend from './MapLegend';
+import MapSearch from './MapSearch';
+import MastPanel from './MastPanel';
+
+interface Props {
+  canEditMasts: boolean;
+}
+
+type InitialView = Partial<ViewState> & { bounds?: [number, number, number, number] };
+
+declare global {
+  interface Window {
+    /** The map instance, for browser tests and the console. */
+    bearlineMap?: MaplibreMap;
+  }
+}
+
+const VIEW_KEY = 'bearline.map.view';
+const WORLD_VIEW: InitialView = { longitude: 0, latitude: 20, zoom: 1.5 };
+
+/** Tile URLs made absolute on this page's origin (MapLibre's worker cannot resolve relative ones). */
+function rebaseStyle(style: StyleSpecification, origin: string): StyleSpecification {
+  const rebase = (t: string) => {
+    const u = new URL(t, origin);
+    return origin + decodeURI(u.pathname) + u.search;
+  };
+  const sources = Object.fromEntries(
+    Object.entries(style.sources).map(([id, s]) => [id, 'tiles' in s && s.tiles ? { ...s, tiles: s.tiles.map(rebase) } : s]),
+  );
+  return { ...style, sources };
+}
+
+function readSavedView(): InitialView | null {
+  try {
+    const v = JSON.parse(localStorage.getItem(VIEW_KEY) ?? 'null');
+    if (v && [v.longitude, v.latitude, v.zoom].every(Number.isFinite)) return { longitude: v.longitude, latitude: v.latitude, zoom: v.zoom };
+  } catch {
+    // A broken saved view is simply ignored.
+  }
+  return null;
+}
+
+/** The saved view, else the extent of the team's regions, else the world. */
+async function chooseInitialView(): Promise<InitialView> {
+  const saved = readSavedView();
+  if (saved) return saved;
+  try {
+    const { items } = await regionsApi.list();
+    let box: [number, number, number, number] | null = null;
+    for (const r of items)
+      for (const poly of r.geometry.coordinates)
+        for (const ring of poly)
+          for (const [lon, lat] of ring) {
+            box = box ? [Math.min(box[0], lon), Math.min(box[1], lat), Math.max(box[2], lon), Math.max(box[3], lat)] : [lon, lat, lon, lat];
+          }
+    if (box) return { bounds: box };
+  } catch {
+    // Without regions the map opens on the world.
+  }
+  return WORLD_VIEW;
+}
+
+/** Supplies mast marks to MapLibre as their image ids are first needed. */
+function MastImages({ operators }: { operators: readonly OperatorMark[] }) {
+  const { current } = useMap();
+  useEffect(() => {
+    const map = current?.getMap();
+    if (!map) return;
+    const onMissing = (e: { id: string }) => {
+      if (map.hasImage(e.id)) return;
+      const image = mastIconImage(e.id, operators);
+      if (image) map.addImage(e.id, image, { pixelRatio: MAST_ICON_PIXEL_RATIO });
+    };
+    // Colours may have changed since the marks were drawn.
+    for (const id of map.listImages()) {
+      if (!isMastIconId(id)) continue;
+      const image = mastIconImage(id, operators);
+      if (image) map.updateImage(id, image);
+    }
+    map.on('styleimagemissing', onMissing);
+    return () => {
+      map.off('styleimagemissing', onMissing);
+    };
+  }, [current, operators]);
+  return null;
+}
+
+function sortBands(bands: Iterable<string>): string[] {
+  const key = (b: string) => {
+    const m = /^([A-Za-z]*)(\d+)(.*)$/.exec(b);
+    return m ? `${m[1].toLowerCase() === 'n' ? '1' : m[1] ? '0' : '2'}${m[2].padStart(5, '0')}${m[3]}` : `3${b}`;
+  };
+  return [...bands].sort((a, b) => key(a).localeCompare(key(b)));
+}
+
+function useIsPhone(): boolean {
+  const [phone, setPhone] = useState(() => typeof window !== 'undefined' && window.matchMedia('(max-width: 639px)').matches);
+  useEffect(() => {
+    const mq = window.matchMedia('(max-width: 639px)');
+    const on = () => setPhone(mq.matches);
+    mq.addEventListener('change', on);
+    return () => mq.removeEventListener('change', on);
+  }, []);
+  return phone;
+}
+
+export default function MapView({ canEditMasts }: Props) {
+  const mapRef = useRef<MapRef>(null);
+  const frameRef = useRef<HTMLDivElement>(null);
+  const [top, setTop] = useState(64);
+  const [style, setStyle] = useState<StyleSpecification | null>(null);
+  const [operators, setOperators] = useState<OperatorMark[] | null>(null);
+  const [initialView, setInitialView] = useState<InitialView | null>(null);
+  const [loadError, setLoadError] = useState<string | null>(null);
+  const [filters, setFilters] = useState<MastFilterState>(NO_MAST_FILTER);
+  const [bands, setBands] = useState<string[]>([]);
+  const [selectedId, setSelectedId] = useState<string | null>(null);
+  const [hovering, setHovering] = useState(false);
+  const isPhone = useIsPhone();
+  const [filtersOpen, setFiltersOpen] = useState(false);
+  const origin = typeof window !== 'undefined' ? window.location.origin : '';
+
+  // The map fills the window below the app header, whatever height it wraps to.
+  useLayoutEffect(() => {
+    const measure = () => frameRef.current && setTop(Math.max(0, frameRef.current.getBoundingClientRect().top + window.scrollY));
+    measure();
+    window.addEventListener('resize', measure);
+    return () => window.removeEventListener('resize', measure);
+  }, []);
+
+  useEffect(() => {
+    Promise.all([loadLabelFonts(), mapApi.style<StyleSpecification>(), operatorsApi.list(), chooseInitialView()]).then(
+      ([, s, ops, view]) => {
+        setStyle(rebaseStyle(s, window.location.origin));
+        setOperators(ops.items.map((o) => ({ id: String(o.id), name: o.name, colour: o.colour })));
+        setInitialView(view);
+      },
+      (e: unknown) => setLoadError(e instanceof ApiError ? e.message : 'The map could not be loaded'),
+    );
+  }, []);
+
+  // A link such as /map?mast=12 opens that mast.
+  useEffect(() => {
+    const id = new URLSearchParams(window.location.search).get('mast');
+    if (id && /^\d+$/.test(id)) setSelectedId(id);
+  }, []);
+
+  const source = useMemo(() => mastSource(origin), [origin]);
+  const mastFilter = useMemo(() => buildMastFilter(filters), [filters]);
+  const selectedLayer = useMemo(() => selectedMastLayer(selectedId), [selectedId]);
+
+  const collectBands = useCallback(() => {
+    const map = mapRef.current?.getMap();
+    if (!map || !map.getSource(MAST_SOURCE_ID)) return;
+    const seen = new Set<string>();
+    for (const f of map.querySourceFeatures(MAST_SOURCE_ID, { sourceLayer: MAST_SOURCE_LAYER })) {
+      for (const b of String(f.properties?.bands ?? '').split(',')) if (b.trim()) seen.add(b.trim());
+    }
+    setBands((prev) => {
+      const next = new Set([...prev, ...seen]);
+      return next.size === prev.length ? prev : sortBands(next);
+    });
+  }, []);
+
+  const onLoad = useCallback(() => {
+    const map = mapRef.current?.getMap();
+    if (map) window.bearlineMap = map;
+    const id = new URLSearchParams(window.location.search).get('mast');
+    if (id && /^\d+$/.test(id)) {
+      mastsApi.get(id).then((m) => mapRef.current?.jumpTo({ center: [m.lon, m.lat], zoom: Math.max(mapRef.current.getZoom(), 13) }), () => undefined);
+    }
+  }, []);
+
+  const onMoveEnd = useCallback(() => {
+    const map = mapRef.current;
+    if (!map) return;
+    const c = map.getCenter();
+    try {
+      localStorage.setItem(VIEW_KEY, JSON.stringify({ longitude: c.lng, latitude: c.lat, zoom: map.getZoom() }));
+    } catch {
+      // Private windows may refuse storage; the view is then not remembered.
+    }
+  }, []);
+
+  const onClick = useCallback((e: MapLayerMouseEvent) => {
+    const f = e.features?.find((x) => x.layer.id === MAST_SYMBOL_LAYER_ID);
+    if (f?.properties?.id !== undefined) setSelectedId(String(f.properties.id));
+  }, []);
+
+  const onPick = useCallback((hit: SearchHitDto) => {
+    mapRef.current?.flyTo({ center: [hit.lon, hit.lat], zoom: hit.kind === 'mast' ? 14 : 13, essential: false });
+    if (hit.kind === 'mast') setSelectedId(hit.id);
+  }, []);
+
+  const closePanel = useCallback(() => setSelectedId(null), []);
+
+  const filterCount = filters.operators.length + filters.techs.length + filters.bands.length + (filters.statuses.length < 3 ? 1 : 0);
+
+  return (
+    <div ref={frameRef} className="relative w-full overflow-hidden bg-[#c9d9e3]" style={{ height: `calc(100dvh - ${top}px)`, minHeight: 360 }} data-testid="map-frame">
+      {loadError && (
+        <div role="alert" className="absolute inset-x-4 top-4 z-40 rounded-md border border-alarm-100 bg-alarm-50 p-3 text-sm text-alarm-700">
+          {loadError}
+        </div>
+      )}
+      {!style && !loadError && <p className="absolute inset-0 flex items-center justify-center text-ink-600">Loading the map…</p>}
+      {style && operators && initialView && (
+        <Map
+          ref={mapRef}
+          initialViewState={{ ...initialView, fitBoundsOptions: { padding: 40 } }}
+          mapStyle={style}
+          interactiveLayerIds={[MAST_SYMBOL_LAYER_ID]}
+          cursor={hovering ? 'pointer' : 'grab'}
+          onMouseEnter={() => setHovering(true)}
+          onMouseLeave={() => setHovering(false)}
+          onClick={onClick}
+          onLoad={onLoad}
+          onMoveEnd={onMoveEnd}
+          onIdle={collectBands}
+          maxZoom={18}
+          attributionControl={{ compact: true }}
+          dragRotate={false}
+          touchPitch={false}
+          style={{ position: 'absolute', inset: 0 }}
+        >
+          <NavigationControl position="top-right" showCompass={false} />
+          <ScaleControl position="bottom-right" unit="metric" />
+          <MastImages operators={operators} />
+          <Source id={MAST_SOURCE_ID} {...source}>
+            <Layer {...selectedLayer} />
+            <Layer {...MAST_SYMBOL_LAYER} filter={mastFilter} />
+          </Source>
+        </Map>
+      )}
+
+      {operators && (
+        <div className="pointer-events-none absolute left-3 right-14 top-3 z-20 flex max-w-sm flex-col gap-2">
+          <div className="pointer-events-auto flex gap-2">
+            <MapSearch onPick={onPick} />
+            <button
+              type="button"
+              className={`btn shrink-0 px-3 shadow-md ${filtersOpen || isFiltering(filters) ? 'bg-ink-700 text-white hover:bg-ink-800' : 'border border-ink-300 bg-white text-ink-800 hover:bg-ink-100'}`}
+              aria-expanded={filtersOpen}
+              aria-controls="map-filters-card"
+              onClick={() => setFiltersOpen(!filtersOpen)}
+              data-testid="filters-toggle"
+            >
+              Filters{filterCount > 0 && <span className="rounded-full bg-ember-500 px-1.5 text-xs text-white">{filterCount}</span>}
+            </button>
+          </div>
+          <div id="map-filters-card" hidden={!filtersOpen} className="pointer-events-auto max-h-[60vh] overflow-y-auto rounded-lg border border-ink-200 bg-white/95 p-3 shadow-md">
+            <MapFilters operators={operators} bands={sortBands(new Set([...bands, ...filters.bands]))} value={filters} onChange={setFilters} />
+          </div>
+        </div>
+      )}
+
+      {operators && !(isPhone && selectedId) && (
+        <div className="pointer-events-none absolute bottom-8 left-3 z-10">
+          <MapLegend operators={operators} defaultOpen={!isPhone} />
+        </div>
+      )}
+
+      {selectedId && operators && <MastPanel mastId={selectedId} operators={operators} canEdit={canEditMasts} onClose={closePanel} />}
+      <p className="sr-only" aria-live="polite">{selectedId ? '' : 'Select a mast on the map, or search for one by name, to see its cells.'}</p>
+    </div>
+  );
+}

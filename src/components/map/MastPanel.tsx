@@ -1,0 +1,210 @@
+import { useEffect, useMemo, useRef, useState } from 'react';
+import { ApiError, mastsApi, type CellDto, type MastDetailDto, type ReadingDto } from '../../lib/client/api';
+import { STRUCTURE_TYPE_LABELS, type StructureType } from '../../lib/schemas/masts';
+import { SortableTable, type Column } from '../ui/SortableTable';
+import { MAST_STATUS_LABELS, mastIconDataUrl, type OperatorMark } from './mast-icons';
+import { TECH_LABELS } from './MapFilters';
+
+interface Props {
+  mastId: string;
+  operators: readonly OperatorMark[];
+  canEdit: boolean;
+  onClose: () => void;
+}
+
+const STATUS_BADGE: Record<MastDetailDto['status'], string> = {
+  active: 'bg-moss-50 text-moss-700',
+  planned: 'bg-ember-50 text-ember-700',
+  decommissioned: 'bg-ink-100 text-ink-600',
+};
+
+const fmt = (v: number | null | undefined, digits = 0, unit = '') => (v === null || v === undefined ? '—' : `${v.toFixed(digits)}${unit}`);
+const fmtDate = (iso: string | null) => (iso ? new Date(iso).toLocaleDateString(undefined, { year: 'numeric', month: 'short', day: 'numeric' }) : '—');
+const fmtTime = (iso: string) => new Date(iso).toLocaleString(undefined, { month: 'short', day: 'numeric', hour: '2-digit', minute: '2-digit' });
+
+const bandOrder = (b: string) => {
+  const m = /^([A-Za-z]*)(\d+)/.exec(b);
+  return m ? `${m[1].toLowerCase() === 'n' ? 'n' : 'b'}${m[2].padStart(4, '0')}` : b;
+};
+
+function CopyPosition({ lat, lon }: { lat: number; lon: number }) {
+  const [copied, setCopied] = useState<string | null>(null);
+  const text = `${lat.toFixed(6)}, ${lon.toFixed(6)}`;
+  async function copy() {
+    try {
+      await navigator.clipboard.writeText(text);
+      setCopied('Copied');
+    } catch {
+      setCopied('Select and copy the text');
+    }
+    setTimeout(() => setCopied(null), 2000);
+  }
+  return (
+    <div className="flex flex-wrap items-center gap-2">
+      <code className="select-all rounded bg-ink-50 px-2 py-1 font-mono text-sm text-ink-900" data-testid="mast-position">{text}</code>
+      <button type="button" className="btn-secondary px-2.5 py-1 text-xs" onClick={copy} aria-label={`Copy position ${text}`}>
+        Copy
+      </button>
+      <span aria-live="polite" className="text-xs text-moss-700">{copied}</span>
+    </div>
+  );
+}
+
+/** Details of one mast: structure, position, operators, cells and recent readings. */
+export default function MastPanel({ mastId, operators, canEdit, onClose }: Props) {
+  const [mast, setMast] = useState<MastDetailDto | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  const headingRef = useRef<HTMLHeadingElement>(null);
+
+  useEffect(() => {
+    let stale = false;
+    setMast(null);
+    setError(null);
+    mastsApi.get(mastId).then(
+      (m) => !stale && setMast(m),
+      (e: unknown) => !stale && setError(e instanceof ApiError ? e.message : 'Could not load the mast'),
+    );
+    return () => {
+      stale = true;
+    };
+  }, [mastId]);
+
+  useEffect(() => {
+    if (mast) headingRef.current?.focus();
+  }, [mast]);
+
+  useEffect(() => {
+    const onKey = (e: KeyboardEvent) => e.key === 'Escape' && onClose();
+    window.addEventListener('keydown', onKey);
+    return () => window.removeEventListener('keydown', onKey);
+  }, [onClose]);
+
+  const cellsByOperator = useMemo(() => {
+    const counts = new Map<string, number>();
+    for (const c of mast?.cells ?? []) counts.set(c.operator.id, (counts.get(c.operator.id) ?? 0) + 1);
+    return counts;
+  }, [mast]);
+
+  const icon = useMemo(
+    () => (mast ? mastIconDataUrl(mast.status, mast.operators.map((o) => o.id), operators) : null),
+    [mast, operators],
+  );
+
+  const cellColumns: Column<CellDto>[] = [
+    {
+      key: 'operator',
+      label: 'Operator',
+      sortValue: (c) => c.operator.name,
+      render: (c) => (
+        <span className="inline-flex items-center gap-1.5 whitespace-nowrap">
+          <span aria-hidden="true" className="inline-block h-2.5 w-2.5 rounded-full" style={{ background: c.operator.colour }} />
+          {c.operator.name}
+        </span>
+      ),
+    },
+    { key: 'tech', label: 'Tech', sortValue: (c) => ['gsm', 'umts', 'lte', 'nr'].indexOf(c.tech), render: (c) => <span className="whitespace-nowrap">{TECH_LABELS[c.tech] ?? c.tech}</span> },
+    { key: 'band', label: 'Band', sortValue: (c) => bandOrder(c.band), render: (c) => c.band },
+    { key: 'channel', label: 'Channel', sortValue: (c) => c.channel, render: (c) => c.channel, className: 'text-right' },
+    { key: 'mhz', label: 'MHz', sortValue: (c) => c.dl_mhz, render: (c) => fmt(c.dl_mhz, 1), className: 'text-right' },
+    { key: 'pci', label: 'PCI', sortValue: (c) => c.pci, render: (c) => fmt(c.pci), className: 'text-right' },
+    { key: 'azimuth', label: 'Azimuth', sortValue: (c) => c.sector_azimuth_deg, render: (c) => fmt(c.sector_azimuth_deg, 0, '°'), className: 'text-right' },
+    { key: 'seen', label: 'Last observed', sortValue: (c) => c.last_observed_at, render: (c) => <span className="whitespace-nowrap">{fmtDate(c.last_observed_at)}</span> },
+  ];
+
+  const readingColumns: Column<ReadingDto>[] = [
+    { key: 'time', label: 'When', sortValue: (r) => r.taken_at, render: (r) => <span className="whitespace-nowrap">{fmtTime(r.taken_at)}</span> },
+    { key: 'tech', label: 'Tech', sortValue: (r) => r.tech, render: (r) => r.tech.toUpperCase() },
+    { key: 'pci', label: 'PCI', sortValue: (r) => r.pci, render: (r) => fmt(r.pci), className: 'text-right' },
+    { key: 'rsrp', label: 'RSRP dBm', sortValue: (r) => r.rsrp_dbm, render: (r) => fmt(r.rsrp_dbm), className: 'text-right' },
+    { key: 'rsrq', label: 'RSRQ dB', sortValue: (r) => r.rsrq_db, render: (r) => fmt(r.rsrq_db, 1), className: 'text-right' },
+    { key: 'sinr', label: 'SINR dB', sortValue: (r) => r.sinr_db, render: (r) => fmt(r.sinr_db, 1), className: 'text-right' },
+  ];
+
+  return (
+    <aside
+      aria-labelledby="mast-panel-heading"
+      data-testid="mast-panel"
+      className="pointer-events-auto absolute inset-x-0 bottom-0 z-30 flex max-h-[58%] flex-col rounded-t-2xl border border-ink-200 bg-white shadow-2xl sm:inset-x-auto sm:bottom-3 sm:right-3 sm:top-3 sm:max-h-none sm:w-[28rem] sm:rounded-xl"
+    >
+      <div className="mx-auto mt-2 h-1.5 w-10 shrink-0 rounded-full bg-ink-200 sm:hidden" aria-hidden="true" />
+      <header className="flex items-start gap-3 border-b border-ink-100 px-4 py-3">
+        {icon && <img src={icon} alt="" width={34} height={34} className="mt-0.5 shrink-0" />}
+        <div className="min-w-0 flex-1">
+          <h2 id="mast-panel-heading" ref={headingRef} tabIndex={-1} className="truncate text-lg outline-none">
+            {mast?.name ?? (error ? 'Mast' : 'Loading mast…')}
+          </h2>
+          {mast && (
+            <p className="mt-0.5 flex flex-wrap items-center gap-2 text-xs text-ink-600">
+              <span className={`rounded px-1.5 py-0.5 font-semibold ${STATUS_BADGE[mast.status]}`}>{MAST_STATUS_LABELS[mast.status]}</span>
+              {mast.reference && <span>Ref. {mast.reference}</span>}
+            </p>
+          )}
+        </div>
+        <button type="button" onClick={onClose} className="rounded p-1.5 text-ink-500 hover:bg-ink-100 hover:text-ink-900" aria-label="Close mast details">
+          <svg aria-hidden="true" viewBox="0 0 20 20" width="18" height="18"><path d="M5 5l10 10M15 5L5 15" stroke="currentColor" strokeWidth="2" strokeLinecap="round" /></svg>
+        </button>
+      </header>
+
+      <div className="min-h-0 flex-1 space-y-4 overflow-y-auto px-4 py-3 text-sm">
+        {error && <p role="alert" className="text-alarm-700">{error}</p>}
+        {!mast && !error && <p className="text-ink-500">Loading…</p>}
+        {mast && (
+          <>
+            <dl className="grid grid-cols-[7.5rem_1fr] gap-x-3 gap-y-1.5">
+              <dt className="text-ink-500">Structure</dt>
+              <dd>{STRUCTURE_TYPE_LABELS[mast.structure_type as StructureType] ?? mast.structure_type}{mast.structure_height_m !== null && `, ${fmt(mast.structure_height_m, 0, ' m')} high`}</dd>
+              <dt className="text-ink-500">Ground</dt>
+              <dd>{fmt(mast.ground_elevation_m, 0, ' m')} above sea level</dd>
+              <dt className="self-center text-ink-500">Position</dt>
+              <dd><CopyPosition lat={mast.lat} lon={mast.lon} /></dd>
+              {mast.access_notes && (
+                <>
+                  <dt className="text-ink-500">Access</dt>
+                  <dd className="whitespace-pre-line">{mast.access_notes}</dd>
+                </>
+              )}
+            </dl>
+
+            <section aria-labelledby="mast-operators-heading">
+              <h3 id="mast-operators-heading" className="mb-1.5 font-semibold text-ink-800">Operators</h3>
+              {mast.operators.length === 0 ? (
+                <p className="text-ink-500">No operator recorded on this mast.</p>
+              ) : (
+                <ul className="flex flex-wrap gap-1.5">
+                  {mast.operators.map((o) => (
+                    <li key={o.id} className="inline-flex items-center gap-1.5 rounded-full border border-ink-200 px-2.5 py-0.5">
+                      <span aria-hidden="true" className="inline-block h-2.5 w-2.5 rounded-full" style={{ background: o.colour }} />
+                      {o.name}
+                      <span className="text-xs text-ink-500">{cellsByOperator.get(o.id) ?? 0} cells</span>
+                    </li>
+                  ))}
+                </ul>
+              )}
+            </section>
+
+            <section aria-labelledby="mast-cells-heading" data-testid="mast-cells">
+              <h3 id="mast-cells-heading" className="mb-1.5 font-semibold text-ink-800">Cells ({mast.cells.length})</h3>
+              <SortableTable rows={mast.cells} columns={cellColumns} rowKey={(c) => c.id} initialSort={{ key: 'mhz', dir: 'asc' }} empty="No cells recorded" caption={`Cells on ${mast.name}`} />
+            </section>
+
+            <section aria-labelledby="mast-readings-heading">
+              <h3 id="mast-readings-heading" className="mb-1.5 font-semibold text-ink-800">Recent readings</h3>
+              {mast.recent_readings.length === 0 ? (
+                <p className="text-ink-500">No readings matched to this mast yet.</p>
+              ) : (
+                <SortableTable rows={mast.recent_readings} columns={readingColumns} rowKey={(r) => r.id} initialSort={{ key: 'time', dir: 'desc' }} caption={`Recent readings for ${mast.name}`} />
+              )}
+            </section>
+
+            {canEdit && (
+              <nav aria-label="Mast actions" className="flex flex-wrap gap-2 border-t border-ink-100 pt-3">
+                <a className="btn-secondary py-1.5" href={`/masts/${mast.id}/edit`}>Edit mast</a>
+                <a className="btn-secondary py-1.5" href={`/masts/${mast.id}/edit#cells`}>Edit cells</a>
+              </nav>
+            )}
+          </>
+        )}
+      </div>
+    </aside>
+  );
+}

@@ -1,0 +1,110 @@
+// Layer and source specs for the mast map, with stable ids.
+import type {
+  CircleLayerSpecification,
+  ExpressionSpecification,
+  FilterSpecification,
+  SymbolLayerSpecification,
+  VectorSourceSpecification,
+} from 'maplibre-gl';
+import { LABEL_FONTS, tilePathTemplate } from '../../lib/domain/map-style';
+import { MAST_ICON_EXPRESSION, MAST_STATUSES, type MastStatus } from './mast-icons';
+
+export const MAST_SOURCE_ID = 'masts';
+export const MAST_SOURCE_LAYER = 'masts';
+export const MAST_SYMBOL_LAYER_ID = 'masts-symbol';
+export const MAST_SELECTED_LAYER_ID = 'masts-selected';
+export const MAST_TILE_MAX_ZOOM = 14;
+
+/** Zoom at which mast names appear. */
+export const MAST_LABEL_MIN_ZOOM = 11.5;
+
+export function mastSource(origin: string): VectorSourceSpecification {
+  return {
+    type: 'vector',
+    tiles: [origin + tilePathTemplate('masts')],
+    minzoom: 0,
+    maxzoom: MAST_TILE_MAX_ZOOM,
+  };
+}
+
+const status = ['coalesce', ['get', 'status'], 'active'] as unknown as ExpressionSpecification;
+
+/**
+ * Masts as one symbol each. Overlapping marks are not drawn (`icon-overlap:
+ * never`), so dense areas thin out when zoomed out; active masts with more
+ * operators win the placement.
+ */
+export const MAST_SYMBOL_LAYER: Omit<SymbolLayerSpecification, 'source'> = {
+  id: MAST_SYMBOL_LAYER_ID,
+  type: 'symbol',
+  'source-layer': MAST_SOURCE_LAYER,
+  layout: {
+    'icon-image': MAST_ICON_EXPRESSION as unknown as ExpressionSpecification,
+    'icon-size': ['interpolate', ['linear'], ['zoom'], 7, 0.55, 10, 0.78, 13, 1],
+    'icon-overlap': 'never',
+    'icon-padding': 0,
+    'symbol-sort-key': [
+      '-',
+      ['match', status, 'active', 0, 'planned', 20, 40],
+      ['to-number', ['get', 'op_count'], 0],
+    ],
+    'text-field': ['step', ['zoom'], '', MAST_LABEL_MIN_ZOOM, ['to-string', ['get', 'name']]],
+    'text-font': [...LABEL_FONTS.semibold],
+    'text-size': 11.5,
+    'text-variable-anchor': ['top', 'right', 'left', 'bottom'],
+    'text-radial-offset': 1.35,
+    'text-justify': 'auto',
+    'text-optional': true,
+    'text-max-width': 9,
+  },
+  paint: {
+    'text-color': ['match', status, 'decommissioned', '#6b7784', '#1f3043'],
+    'text-halo-color': 'rgba(255,255,255,0.95)',
+    'text-halo-width': 1.5,
+  },
+};
+
+/** A ring under the selected mast. */
+export function selectedMastLayer(id: string | null): Omit<CircleLayerSpecification, 'source'> {
+  return {
+    id: MAST_SELECTED_LAYER_ID,
+    type: 'circle',
+    'source-layer': MAST_SOURCE_LAYER,
+    filter: ['==', ['to-string', ['get', 'id']], id ?? ''],
+    paint: {
+      'circle-radius': ['interpolate', ['linear'], ['zoom'], 7, 11, 10, 15, 13, 19],
+      'circle-color': 'rgba(217,137,26,0.18)',
+      'circle-stroke-color': '#d9891a',
+      'circle-stroke-width': 2.5,
+    },
+  };
+}
+
+export interface MastFilterState {
+  operators: string[];
+  techs: string[];
+  bands: string[];
+  statuses: MastStatus[];
+}
+
+export const NO_MAST_FILTER: MastFilterState = { operators: [], techs: [], bands: [], statuses: [...MAST_STATUSES] };
+
+/** True when a comma-separated list attribute ("B20,B3") contains any of the values. */
+function listHasAny(attribute: string, values: readonly string[]): ExpressionSpecification {
+  const padded = ['concat', ',', ['coalesce', ['to-string', ['get', attribute]], ''], ','];
+  return ['any', ...values.map((v) => ['in', `,${v},`, padded])] as unknown as ExpressionSpecification;
+}
+
+/** The layer filter for the chosen operators, technologies, bands and statuses. Empty lists mean "any". */
+export function buildMastFilter(f: MastFilterState): FilterSpecification {
+  const parts: unknown[] = [];
+  if (f.operators.length) parts.push(listHasAny('op_ids', f.operators));
+  if (f.techs.length) parts.push(listHasAny('techs', f.techs));
+  if (f.bands.length) parts.push(listHasAny('bands', f.bands));
+  if (f.statuses.length < MAST_STATUSES.length) parts.push(['in', status, ['literal', f.statuses]]);
+  return (parts.length ? ['all', ...parts] : ['all']) as unknown as FilterSpecification;
+}
+
+export function isFiltering(f: MastFilterState): boolean {
+  return f.operators.length + f.techs.length + f.bands.length > 0 || f.statuses.length < MAST_STATUSES.length;
+}
