@@ -11,7 +11,8 @@ import Map, {
   type ViewState,
 } from 'react-map-gl/maplibre';
 import type { Map as MaplibreMap, StyleSpecification } from 'maplibre-gl';
-import { ApiError, mapApi, mastsApi, operatorsApi, regionsApi, type SearchHitDto } from '../../lib/client/api';
+import type { FeatureCollection } from 'geojson';
+import { ApiError, mapApi, mastsApi, operatorsApi, regionsApi, type RegionDto, type SearchHitDto } from '../../lib/client/api';
 import { loadLabelFonts } from './label-fonts';
 import {
   MAST_SOURCE_ID,
@@ -19,6 +20,9 @@ import {
   MAST_SYMBOL_LAYER,
   MAST_SYMBOL_LAYER_ID,
   NO_MAST_FILTER,
+  REGION_LABEL_LAYER,
+  REGION_LINE_LAYER,
+  REGION_SOURCE_ID,
   buildMastFilter,
   isFiltering,
   mastSource,
@@ -69,24 +73,31 @@ function readSavedView(): InitialView | null {
   return null;
 }
 
-/** The saved view, else the extent of the team's regions, else the world. */
-async function chooseInitialView(): Promise<InitialView> {
+function boundsOf(regions: readonly RegionDto[]): [number, number, number, number] | null {
+  let box: [number, number, number, number] | null = null;
+  for (const r of regions)
+    for (const poly of r.geometry.coordinates)
+      for (const ring of poly)
+        for (const [lon, lat] of ring)
+          box = box ? [Math.min(box[0], lon), Math.min(box[1], lat), Math.max(box[2], lon), Math.max(box[3], lat)] : [lon, lat, lon, lat];
+  return box;
+}
+
+/** A region asked for in the address (?region=ID), else the saved view, else all regions, else the world. */
+function chooseInitialView(regions: readonly RegionDto[], regionId: string | null): InitialView {
+  const asked = regionId ? boundsOf(regions.filter((r) => r.id === regionId)) : null;
+  if (asked) return { bounds: asked };
   const saved = readSavedView();
   if (saved) return saved;
-  try {
-    const { items } = await regionsApi.list();
-    let box: [number, number, number, number] | null = null;
-    for (const r of items)
-      for (const poly of r.geometry.coordinates)
-        for (const ring of poly)
-          for (const [lon, lat] of ring) {
-            box = box ? [Math.min(box[0], lon), Math.min(box[1], lat), Math.max(box[2], lon), Math.max(box[3], lat)] : [lon, lat, lon, lat];
-          }
-    if (box) return { bounds: box };
-  } catch {
-    // Without regions the map opens on the world.
-  }
-  return WORLD_VIEW;
+  const all = boundsOf(regions);
+  return all ? { bounds: all } : WORLD_VIEW;
+}
+
+function regionFeatures(regions: readonly RegionDto[]): FeatureCollection {
+  return {
+    type: 'FeatureCollection',
+    features: regions.map((r) => ({ type: 'Feature', id: Number(r.id), geometry: r.geometry, properties: { id: r.id, name: r.name } })),
+  };
 }
 
 /** Supplies mast marks to MapLibre as their image ids are first needed. */
@@ -140,6 +151,7 @@ export default function MapView({ canEditMasts }: Props) {
   const [style, setStyle] = useState<StyleSpecification | null>(null);
   const [operators, setOperators] = useState<OperatorMark[] | null>(null);
   const [initialView, setInitialView] = useState<InitialView | null>(null);
+  const [regions, setRegions] = useState<RegionDto[]>([]);
   const [loadError, setLoadError] = useState<string | null>(null);
   const [filters, setFilters] = useState<MastFilterState>(NO_MAST_FILTER);
   const [bands, setBands] = useState<string[]>([]);
@@ -158,11 +170,13 @@ export default function MapView({ canEditMasts }: Props) {
   }, []);
 
   useEffect(() => {
-    Promise.all([loadLabelFonts(), mapApi.style<StyleSpecification>(), operatorsApi.list(), chooseInitialView()]).then(
-      ([, s, ops, view]) => {
+    const regionList = regionsApi.list().then((r) => r.items, () => [] as RegionDto[]);
+    Promise.all([loadLabelFonts(), mapApi.style<StyleSpecification>(), operatorsApi.list(), regionList]).then(
+      ([, s, ops, regionItems]) => {
         setStyle(rebaseStyle(s, window.location.origin));
         setOperators(ops.items.map((o) => ({ id: String(o.id), name: o.name, colour: o.colour })));
-        setInitialView(view);
+        setRegions(regionItems);
+        setInitialView(chooseInitialView(regionItems, new URLSearchParams(window.location.search).get('region')));
       },
       (e: unknown) => setLoadError(e instanceof ApiError ? e.message : 'The map could not be loaded'),
     );
@@ -177,6 +191,7 @@ export default function MapView({ canEditMasts }: Props) {
   const source = useMemo(() => mastSource(origin), [origin]);
   const mastFilter = useMemo(() => buildMastFilter(filters), [filters]);
   const selectedLayer = useMemo(() => selectedMastLayer(selectedId), [selectedId]);
+  const regionData = useMemo(() => regionFeatures(regions), [regions]);
 
   const collectBands = useCallback(() => {
     const map = mapRef.current?.getMap();
@@ -255,6 +270,10 @@ export default function MapView({ canEditMasts }: Props) {
           <NavigationControl position="top-right" showCompass={false} />
           <ScaleControl position="bottom-right" unit="metric" />
           <MastImages operators={operators} />
+          <Source id={REGION_SOURCE_ID} type="geojson" data={regionData}>
+            <Layer {...REGION_LINE_LAYER} />
+            <Layer {...REGION_LABEL_LAYER} />
+          </Source>
           <Source id={MAST_SOURCE_ID} {...source}>
             <Layer {...selectedLayer} />
             <Layer {...MAST_SYMBOL_LAYER} filter={mastFilter} />

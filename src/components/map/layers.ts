@@ -1,6 +1,7 @@
 // Layer and source specs for the mast map, with stable ids.
 import type {
   CircleLayerSpecification,
+  LineLayerSpecification,
   ExpressionSpecification,
   FilterSpecification,
   SymbolLayerSpecification,
@@ -108,3 +109,36 @@ export function buildMastFilter(f: MastFilterState): FilterSpecification {
 export function isFiltering(f: MastFilterState): boolean {
   return f.operators.length + f.techs.length + f.bands.length > 0 || f.statuses.length < MAST_STATUSES.length;
 }
+
+export const REGION_SOURCE_ID = 'regions';
+export const REGION_LINE_LAYER_ID = 'regions-outline';
+export const REGION_LABEL_LAYER_ID = 'regions-label';
+
+/** The team's regions as a quiet dashed outline under the masts. */
+export const REGION_LINE_LAYER: Omit<LineLayerSpecification, 'source'> = {
+  id: REGION_LINE_LAYER_ID,
+  type: 'line',
+  layout: { 'line-join': 'round' },
+  paint: {
+    'line-color': '#6785a3',
+    'line-width': ['interpolate', ['linear'], ['zoom'], 8, 1, 13, 2],
+    'line-dasharray': [4, 2],
+    'line-opacity': 0.8,
+  },
+};
+
+export const REGION_LABEL_LAYER: Omit<SymbolLayerSpecification, 'source'> = {
+  id: REGION_LABEL_LAYER_ID,
+  type: 'symbol',
+  minzoom: 9,
+  layout: {
+    'symbol-placement': 'line',
+    'symbol-spacing': 400,
+    'text-field': ['get', 'name'],
+    'text-font': [...LABEL_FONTS.semibold],
+    'text-size': 11,
+    'text-letter-spacing': 0.08,
+    'text-offset': [0, -0.8],
+  },
+  paint: { 'text-color': '#476785', 'text-halo-color': 'rgba(255,255,255,0.9)', 'text-halo-width': 1.4 },
+};

@@ -186,6 +186,7 @@ export const mapApi = {
 
 export const operatorsApi = {
   list: () => get<List<OperatorDto>>('/api/operators'),
+  create: (input: { name: string; mcc: string; mnc: string; colour?: string }) => request<OperatorDto>('POST', '/api/operators', input),
   update: (id: string, change: { name?: string; mcc?: string; mnc?: string; colour?: string }) => request<OperatorDto>('PATCH', `/api/operators/${id}`, change),
 };
 
