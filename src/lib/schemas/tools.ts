@@ -1,12 +1,6 @@
 import { z } from 'zod';
+import { modelDateParam, numberParam } from './params';
 
-const number = (label: string) =>
-  z
-    .string({ required_error: `${label} is required` })
-    .trim()
-    .min(1, `${label} is required`)
-    .refine((s) => s !== '' && Number.isFinite(Number(s)), `${label} must be a number`)
-    .transform(Number);
 
 export const TechSchema = z.enum(['lte', 'nr', 'umts', 'gsm'], {
   errorMap: () => ({ message: 'Choose lte, nr, umts or gsm' }),
@@ -15,10 +9,10 @@ export const TechSchema = z.enum(['lte', 'nr', 'umts', 'gsm'], {
 export const ChannelQuerySchema = z
   .object({
     tech: TechSchema,
-    channel: number('Channel')
+    channel: numberParam('Channel')
       .refine((n) => Number.isInteger(n) && n >= 0, 'Channel must be a whole number ≥ 0')
       .optional(),
-    freq_mhz: number('Frequency').refine((n) => n > 0, 'Frequency must be above 0 MHz').optional(),
+    freq_mhz: numberParam('Frequency').refine((n) => n > 0, 'Frequency must be above 0 MHz').optional(),
     band: z.string().trim().min(1).max(10).optional(),
   })
   .superRefine((v, ctx) => {
@@ -55,7 +49,7 @@ export const LatLonParam = (label: string) =>
     });
 
 const height = (label: string) =>
-  number(label)
+  numberParam(label)
     .refine((n) => n >= 0, `${label} cannot be negative`)
     .refine((n) => n <= 1000, `${label} above 1000 m is not an antenna height`)
     .optional()
@@ -64,20 +58,14 @@ const height = (label: string) =>
 export const PathQuerySchema = z.object({
   from: LatLonParam('from'),
   to: LatLonParam('to'),
-  freq_mhz: number('Frequency')
+  freq_mhz: numberParam('Frequency')
     .refine((n) => n >= 30 && n <= 100_000, 'Frequency must be between 30 and 100000 MHz')
     .optional(),
   h1_m: height('h1_m'),
   h2_m: height('h2_m'),
-  k: number('k')
+  k: numberParam('k')
     .refine((n) => n > 0 && n <= 10, 'k must be between 0 and 10')
     .optional(),
-  date: z
-    .string()
-    .regex(/^\d{4}-\d{2}-\d{2}$/, 'Date must be YYYY-MM-DD')
-    .refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)), 'Not a real date')
-    .transform((s) => new Date(`${s}T00:00:00Z`))
-    .refine((d) => d.getUTCFullYear() >= 2025 && d.getUTCFullYear() <= 2029, 'The magnetic model covers 2025–2029')
-    .optional(),
+  date: modelDateParam.optional(),
 });
 export type PathQuery = z.infer<typeof PathQuerySchema>;
