@@ -51,6 +51,8 @@ async function main() {
     const e2eUrl = databaseUrl({ dir: clusterDir, port: PG_PORT, dbName: 'bearline_e2e' });
     await startCluster({ dir: clusterDir, port: PG_PORT, fast: true, dbName: 'bearline_e2e' });
     await migrateLatest(e2eUrl);
+    // Seeds that write files (elevation samples) put them where the app will read them.
+    process.env.DATA_DIR = join(work, 'data');
     await runSeeds(e2eUrl);
     buildIfChanged();
     const mailDir = join(work, 'mail');

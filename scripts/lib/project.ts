@@ -3,6 +3,8 @@ import { resolve } from 'node:path';
 
 export const ROOT = resolve(import.meta.dirname, '../..');
 export const DATA_DIR = process.env.DATA_DIR ? resolve(process.env.DATA_DIR) : resolve(ROOT, '.data');
+// Seeds and the app read DATA_DIR too: make the resolved folder theirs.
+process.env.DATA_DIR = DATA_DIR;
 export const PG_DIR = resolve(DATA_DIR, 'pg');
 export const PG_PORT = Number(process.env.PG_PORT || 54329);
 export const HOST = process.env.HOST || '127.0.0.1';
