@@ -6,6 +6,7 @@ import {
   canWritePlans,
   checkTransition,
   getAllowedTransitions,
+  getCheckPhaseProblem,
   getMeasuredGains,
   getMissingFacts,
   isKitLocked,
@@ -96,6 +97,21 @@ describe('plan state transitions', () => {
     ['verified', true],
   ])('kit locked in %s: %s', (s, locked) => {
     expect(isKitLocked(s)).toBe(locked);
+  });
+});
+
+describe('install check phases', () => {
+  it.each<[PlanState, boolean]>([
+    ['enquiry', false],
+    ['scheduled', false],
+    ['installed', true],
+    ['verified', true],
+  ])('after-install check in %s allowed: %s', (s, ok) => {
+    expect(getCheckPhaseProblem(s, 'after') === null).toBe(ok);
+  });
+
+  it('takes before checks in any state', () => {
+    for (const s of PLAN_STATES) expect(getCheckPhaseProblem(s, 'before')).toBeNull();
   });
 });
 

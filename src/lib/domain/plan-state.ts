@@ -109,6 +109,12 @@ export function isKitLocked(state: PlanState): boolean {
   return state === 'installed' || state === 'verified';
 }
 
+/** After-install readings only make sense once the antenna is up. */
+export function getCheckPhaseProblem(state: PlanState, phase: 'before' | 'after'): string | null {
+  if (phase === 'after' && !isKitLocked(state)) return `Mark the plan installed before recording an after-install check (it is ${state})`;
+  return null;
+}
+
 // Customer records hold personal contact details: planners and admins work with them;
 // surveyors see them to carry out installs and record checks; reviewers and contributors
 // have no need to.

@@ -1,0 +1,169 @@
+// Customers: input schemas shared by the endpoints and the customer forms, and the JSON the
+// API returns.
+import { z } from 'zod';
+import type { PlanState } from '../domain/plan-state';
+
+/** A database id given as a string ("12") or a number (12). */
+export const IdRefSchema = z
+  .union([z.string().trim().regex(/^\d{1,18}$/, 'Not a valid id'), z.number().int().positive().max(Number.MAX_SAFE_INTEGER)], {
+    errorMap: () => ({ message: 'Not a valid id' }),
+  })
+  .transform(String);
+
+export const num = (label: string) =>
+  z.number({ required_error: `${label} is required`, invalid_type_error: `${label} must be a number` }).finite();
+
+/** Optional free text: blank becomes null. */
+export const optionalText = (max: number) =>
+  z
+    .string({ invalid_type_error: 'Must be text' })
+    .trim()
+    .max(max, `At most ${max} characters`)
+    .nullish()
+    .transform((s) => (s ? s : null));
+
+const name = z.string({ required_error: 'Required', invalid_type_error: 'Required' }).trim().min(1, 'Required').max(120, 'At most 120 characters');
+const phone = z
+  .string()
+  .trim()
+  .refine((s) => s === '' || /^\+?[0-9 ()-]{5,30}$/.test(s), 'Digits, spaces, + ( ) - only, 5–30 characters')
+  .nullish()
+  .transform((s) => (s ? s : null));
+const email = z
+  .string()
+  .trim()
+  .refine((s) => s === '' || z.string().email().max(254).safeParse(s).success, 'Enter a valid e-mail address')
+  .nullish()
+  .transform((s) => (s ? s.toLowerCase() : null));
+const addressLabel = z.string({ required_error: 'Required', invalid_type_error: 'Required' }).trim().min(1, 'Required').max(300, 'At most 300 characters');
+const postcode = z
+  .string()
+  .trim()
+  .max(12, 'At most 12 characters')
+  .nullish()
+  .transform((s) => (s ? s.toUpperCase().replace(/\s+/g, ' ') : null));
+const lat = num('Latitude').min(-90, 'Latitude must be between -90 and 90').max(90, 'Latitude must be between -90 and 90');
+const lon = num('Longitude').min(-180, 'Longitude must be between -180 and 180').max(180, 'Longitude must be between -180 and 180');
+const ref = IdRefSchema.nullish().transform((v) => v ?? null);
+export const RowVersionSchema = num('row_version').int('row_version must be a whole number').min(1, 'row_version starts at 1');
+
+export const CustomerInputSchema = z
+  .object({
+    name,
+    phone,
+    email,
+    address_label: addressLabel,
+    postcode,
+    lat,
+    lon,
+    current_operator_id: ref,
+    current_antenna_id: ref,
+    notes: optionalText(4000),
+  })
+  .transform((v) => ({
+    name: v.name,
+    phone: v.phone,
+    email: v.email,
+    addressLabel: v.address_label,
+    postcode: v.postcode,
+    lat: v.lat,
+    lon: v.lon,
+    currentOperatorId: v.current_operator_id,
+    currentAntennaId: v.current_antenna_id,
+    notes: v.notes,
+  }));
+export type CustomerInput = z.output<typeof CustomerInputSchema>;
+
+export const CustomerChangeSchema = z
+  .object({
+    name: name.optional(),
+    phone: phone.optional(),
+    email: email.optional(),
+    address_label: addressLabel.optional(),
+    postcode: postcode.optional(),
+    lat: lat.optional(),
+    lon: lon.optional(),
+    current_operator_id: IdRefSchema.nullable().optional(),
+    current_antenna_id: IdRefSchema.nullable().optional(),
+    notes: optionalText(4000).optional(),
+    row_version: RowVersionSchema.optional(),
+  })
+  .superRefine((v, ctx) => {
+    if ((v.lat === undefined) !== (v.lon === undefined)) {
+      ctx.addIssue({ code: 'custom', path: [v.lat === undefined ? 'lat' : 'lon'], message: 'Give latitude and longitude together' });
+    }
+    const { row_version: _, ...rest } = v;
+    if (!Object.values(rest).some((x) => x !== undefined)) ctx.addIssue({ code: 'custom', path: [], message: 'Nothing to change' });
+  })
+  .transform((v) => ({
+    name: v.name,
+    phone: v.phone,
+    email: v.email,
+    addressLabel: v.address_label,
+    postcode: v.postcode,
+    lat: v.lat,
+    lon: v.lon,
+    currentOperatorId: v.current_operator_id,
+    currentAntennaId: v.current_antenna_id,
+    notes: v.notes,
+    rowVersion: v.row_version,
+  }));
+export type CustomerChange = z.output<typeof CustomerChangeSchema>;
+
+export const CUSTOMER_SORTS = ['name', 'address', 'postcode', 'state', 'created_at', 'updated_at'] as const;
+export type CustomerSort = (typeof CUSTOMER_SORTS)[number];
+
+const intParam = (label: string, min: number, max: number, fallback: number) =>
+  z
+    .string()
+    .trim()
+    .regex(/^\d+$/, `${label} must be a whole number`)
+    .transform(Number)
+    .refine((n) => n >= min && n <= max, `${label} must be between ${min} and ${max}`)
+    .optional()
+    .transform((n) => n ?? fallback);
+
+export const CustomerListQuerySchema = z.object({
+  q: z.string().trim().max(200, 'At most 200 characters').optional().transform((s) => s || undefined),
+  sort: z.enum(CUSTOMER_SORTS, { errorMap: () => ({ message: `Sort by one of: ${CUSTOMER_SORTS.join(', ')}` }) }).default('updated_at'),
+  dir: z.enum(['asc', 'desc'], { errorMap: () => ({ message: 'Choose asc or desc' }) }).optional(),
+  limit: intParam('limit', 1, 200, 50),
+  offset: intParam('offset', 0, 10_000_000, 0),
+});
+export type CustomerListQuery = z.output<typeof CustomerListQuerySchema>;
+
+// --- JSON the API returns ---------------------------------------------------------------
+
+export interface CustomerJson {
+  id: string;
+  name: string;
+  phone: string | null;
+  email: string | null;
+  address_label: string;
+  postcode: string | null;
+  lat: number;
+  lon: number;
+  current_operator_id: string | null;
+  current_operator_name: string | null;
+  current_antenna_id: string | null;
+  current_antenna_name: string | null;
+  notes: string | null;
+  plan_count: number;
+  /** State of the most recently changed plan, if any. */
+  latest_plan_state: PlanState | null;
+  created_at: string;
+  updated_at: string;
+  row_version: number;
+}
+
+export interface HistoryEntryJson {
+  id: string;
+  at: string;
+  user_id: string | null;
+  user_name: string | null;
+  action: string;
+  entity: 'customer' | 'plan';
+  entity_id: string;
+  changes: { field: string; before: unknown; after: unknown }[];
+  details: Record<string, unknown> | null;
+}

@@ -1,0 +1,21 @@
+import { getDb } from '../../../lib/server/db';
+import { handler, json, parseBody, parseWith, requirePermission, requireUser } from '../../../lib/server/http';
+import { ForbiddenError } from '../../../lib/server/errors';
+import { canViewPlans } from '../../../lib/domain/plan-state';
+import { customerJson, findCustomer, updateCustomer } from '../../../lib/server/repos/customers';
+import { CustomerChangeSchema } from '../../../lib/schemas/customers';
+import { IdParamSchema } from '../../../lib/schemas/users';
+
+export const GET = handler(async ({ locals, params }) => {
+  if (!canViewPlans(requireUser(locals).role)) throw new ForbiddenError();
+  const { id } = parseWith(IdParamSchema, params);
+  return json(customerJson(await findCustomer(getDb(), id)));
+});
+
+export const PATCH = handler(async ({ locals, params, request }) => {
+  const actor = requirePermission(locals, 'plans:write');
+  const { id } = parseWith(IdParamSchema, params);
+  const change = await parseBody(CustomerChangeSchema, request);
+  const customer = await getDb().transaction((trx) => updateCustomer(trx, id, change, actor.id));
+  return json(customerJson(customer));
+});

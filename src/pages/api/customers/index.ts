@@ -1,0 +1,20 @@
+import { getDb } from '../../../lib/server/db';
+import { handler, json, parseBody, parseQuery, requirePermission, requireUser } from '../../../lib/server/http';
+import { ForbiddenError } from '../../../lib/server/errors';
+import { canViewPlans } from '../../../lib/domain/plan-state';
+import { createCustomer, customerJson, listCustomers } from '../../../lib/server/repos/customers';
+import { CustomerInputSchema, CustomerListQuerySchema } from '../../../lib/schemas/customers';
+
+export const GET = handler(async ({ locals, url }) => {
+  if (!canViewPlans(requireUser(locals).role)) throw new ForbiddenError();
+  const query = parseQuery(CustomerListQuerySchema, url);
+  const { items, total } = await listCustomers(getDb(), query);
+  return json({ items: items.map(customerJson), total });
+});
+
+export const POST = handler(async ({ locals, request }) => {
+  const actor = requirePermission(locals, 'plans:write');
+  const input = await parseBody(CustomerInputSchema, request);
+  const customer = await getDb().transaction((trx) => createCustomer(trx, input, actor.id));
+  return json(customerJson(customer), 201);
+});
