@@ -1,0 +1,237 @@
+// Plans and install checks: input schemas shared by the endpoints and the planner forms, and
+// the JSON the API returns.
+import { z } from 'zod';
+import { PLAN_STATES, type PlanState } from '../domain/plan-state';
+import { IdRefSchema, RowVersionSchema, num, optionalText } from './customers';
+
+const stateEnum = z.enum(PLAN_STATES, { errorMap: () => ({ message: `Choose one of: ${PLAN_STATES.join(', ')}` }) });
+const ref = IdRefSchema.nullable();
+const cableM = num('Cable length').min(0, 'Cable length cannot be negative').max(200, 'Cable length must be at most 200 m');
+const mountHeightM = num('Mount height').min(0, 'Mount height cannot be negative').max(100, 'Mount height must be at most 100 m');
+const date = z
+  .string()
+  .regex(/^\d{4}-\d{2}-\d{2}$/, 'Use the form YYYY-MM-DD')
+  .refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)) && new Date(`${s}T00:00:00Z`).toISOString().startsWith(s), 'Not a real date')
+  .nullable();
+
+/** The figures the planner saw when choosing (shortlist row, budget terms): kept as given. */
+export const FIGURES_MAX_CHARS = 20_000;
+const figures = z
+  .record(z.unknown(), { invalid_type_error: 'Figures must be an object' })
+  .refine((f) => JSON.stringify(f).length <= FIGURES_MAX_CHARS, `Figures must be under ${FIGURES_MAX_CHARS} characters of JSON`);
+
+export const PlanInputSchema = z
+  .object({
+    customer_id: IdRefSchema,
+    cell_id: ref.optional(),
+    antenna_id: ref.optional(),
+    cable_id: ref.optional(),
+    cable_m: cableM.nullable().optional(),
+    mount_height_m: mountHeightM.nullable().optional(),
+    figures: figures.optional(),
+    scheduled_for: date.optional(),
+    notes: optionalText(4000),
+    // A plan starts as an enquiry, or as planned when the planner saves a chosen cell and kit.
+    state: z.enum(['enquiry', 'planned'], { errorMap: () => ({ message: 'A new plan starts as enquiry or planned' }) }).default('enquiry'),
+  })
+  .transform((v) => ({
+    customerId: v.customer_id,
+    cellId: v.cell_id ?? null,
+    antennaId: v.antenna_id ?? null,
+    cableId: v.cable_id ?? null,
+    cableM: v.cable_m ?? null,
+    mountHeightM: v.mount_height_m ?? null,
+    figures: v.figures ?? {},
+    scheduledFor: v.scheduled_for ?? null,
+    notes: v.notes,
+    state: v.state as PlanState,
+  }));
+export type PlanInput = z.output<typeof PlanInputSchema>;
+
+export const PlanChangeSchema = z
+  .object({
+    cell_id: ref.optional(),
+    antenna_id: ref.optional(),
+    cable_id: ref.optional(),
+    cable_m: cableM.nullable().optional(),
+    mount_height_m: mountHeightM.nullable().optional(),
+    figures: figures.optional(),
+    scheduled_for: date.optional(),
+    notes: optionalText(4000).optional(),
+    state: stateEnum.optional(),
+    row_version: RowVersionSchema.optional(),
+  })
+  .superRefine((v, ctx) => {
+    const { row_version: _, ...rest } = v;
+    if (!Object.values(rest).some((x) => x !== undefined)) ctx.addIssue({ code: 'custom', path: [], message: 'Nothing to change' });
+  })
+  .transform((v) => ({
+    cellId: v.cell_id,
+    antennaId: v.antenna_id,
+    cableId: v.cable_id,
+    cableM: v.cable_m,
+    mountHeightM: v.mount_height_m,
+    figures: v.figures,
+    scheduledFor: v.scheduled_for,
+    notes: v.notes,
+    state: v.state,
+    rowVersion: v.row_version,
+  }));
+export type PlanChange = z.output<typeof PlanChangeSchema>;
+
+const intParam = (label: string, min: number, max: number, fallback: number) =>
+  z
+    .string()
+    .trim()
+    .regex(/^\d+$/, `${label} must be a whole number`)
+    .transform(Number)
+    .refine((n) => n >= min && n <= max, `${label} must be between ${min} and ${max}`)
+    .optional()
+    .transform((n) => n ?? fallback);
+
+export const PlanListQuerySchema = z.object({
+  customer_id: z.string().trim().regex(/^\d{1,18}$/, 'Not a valid id').optional(),
+  state: stateEnum.optional(),
+  limit: intParam('limit', 1, 200, 50),
+  offset: intParam('offset', 0, 10_000_000, 0),
+});
+export type PlanListQuery = z.output<typeof PlanListQuerySchema>;
+
+// --- install checks -------------------------------------------------------------------------
+
+export const CHECK_PHASES = ['before', 'after'] as const;
+export type CheckPhase = (typeof CHECK_PHASES)[number];
+
+// Plausibility limits: the widest reporting ranges of 3GPP TS 36.133 / 38.133 (LTE RSRP
+// −156…−44 dBm extended, NR SS-RSRP to −31 dBm; RSRQ −43…20 dB; SINR −23…40 dB), see
+// DOMAIN.md §4.
+const CheckReadingSchema = z.object({
+  pci: num('PCI').int('PCI must be a whole number').min(0, 'PCI must be 0–1007').max(1007, 'PCI must be 0–1007'),
+  channel: num('Channel').int('Channel must be a whole number').min(0, 'Channel cannot be negative').nullish().transform((v) => v ?? null),
+  rsrp_dbm: num('RSRP').min(-156, 'RSRP must be between −156 and −31 dBm').max(-31, 'RSRP must be between −156 and −31 dBm'),
+  rsrq_db: num('RSRQ').min(-43, 'RSRQ must be between −43 and 20 dB').max(20, 'RSRQ must be between −43 and 20 dB').nullish().transform((v) => v ?? null),
+  sinr_db: num('SINR').min(-23, 'SINR must be between −23 and 40 dB').max(40, 'SINR must be between −23 and 40 dB').nullish().transform((v) => v ?? null),
+});
+
+const SpeedTestSchema = z.object({
+  down_mbps: num('Download').min(0, 'Cannot be negative').max(10_000, 'At most 10000 Mbit/s'),
+  up_mbps: num('Upload').min(0, 'Cannot be negative').max(10_000, 'At most 10000 Mbit/s'),
+  latency_ms: num('Latency').min(0, 'Cannot be negative').max(10_000, 'At most 10000 ms').nullish().transform((v) => v ?? null),
+});
+
+export const InstallCheckInputSchema = z
+  .object({
+    phase: z.enum(CHECK_PHASES, { errorMap: () => ({ message: 'Choose before or after' }) }),
+    taken_at: z.string().datetime({ offset: true, message: 'Use an ISO date and time, e.g. 2027-03-01T10:30:00Z' }).optional(),
+    notes: optionalText(2000),
+    readings: z.array(CheckReadingSchema).max(64, 'At most 64 readings').default([]),
+    speed_tests: z.array(SpeedTestSchema).max(20, 'At most 20 speed tests').default([]),
+  })
+  .superRefine((v, ctx) => {
+    if (v.readings.length === 0 && v.speed_tests.length === 0) {
+      ctx.addIssue({ code: 'custom', path: ['readings'], message: 'Add at least one reading or speed test' });
+    }
+  })
+  .transform((v) => ({
+    phase: v.phase,
+    takenAt: v.taken_at ? new Date(v.taken_at) : null,
+    notes: v.notes,
+    readings: v.readings.map((r) => ({ pci: r.pci, channel: r.channel, rsrpDbm: r.rsrp_dbm, rsrqDb: r.rsrq_db, sinrDb: r.sinr_db })),
+    speedTests: v.speed_tests.map((t) => ({ downMbps: t.down_mbps, upMbps: t.up_mbps, latencyMs: t.latency_ms })),
+  }));
+export type InstallCheckInput = z.output<typeof InstallCheckInputSchema>;
+
+// --- JSON the API returns ---------------------------------------------------------------
+
+export interface PlanCellJson {
+  id: string;
+  mast_id: string;
+  mast_name: string;
+  operator_id: string;
+  operator_name: string;
+  tech: string;
+  band: string;
+  channel: number;
+  dl_mhz: number | null;
+  pci: number | null;
+  sector_azimuth_deg: number | null;
+  lat: number;
+  lon: number;
+}
+
+export interface PlanJson {
+  id: string;
+  customer_id: string;
+  customer_name: string;
+  state: PlanState;
+  /** States this plan may move to next (forward first, then back). */
+  next_states: PlanState[];
+  cell_id: string | null;
+  cell: PlanCellJson | null;
+  antenna_id: string | null;
+  antenna_name: string | null;
+  cable_id: string | null;
+  cable_name: string | null;
+  cable_m: number | null;
+  mount_height_m: number | null;
+  figures: Record<string, unknown>;
+  scheduled_for: string | null;
+  notes: string | null;
+  created_by: string | null;
+  created_by_name: string | null;
+  created_at: string;
+  updated_at: string;
+  state_changed_at: string;
+  row_version: number;
+}
+
+export interface InstallCheckJson {
+  id: string;
+  plan_id: string;
+  phase: CheckPhase;
+  taken_at: string;
+  notes: string | null;
+  created_by: string | null;
+  created_by_name: string | null;
+  created_at: string;
+  readings: { pci: number; channel: number | null; rsrp_dbm: number; rsrq_db: number | null; sinr_db: number | null }[];
+  speed_tests: { down_mbps: number; up_mbps: number; latency_ms: number | null }[];
+}
+
+export interface MeasuredGainJson {
+  pci: number;
+  channel: number | null;
+  samples_before: number;
+  samples_after: number;
+  before_rsrp_dbm: number | null;
+  after_rsrp_dbm: number | null;
+  measured_gain_db: number | null;
+  predicted_gain_db: number | null;
+  difference_db: number | null;
+  before_sinr_db: number | null;
+  after_sinr_db: number | null;
+  sinr_change_db: number | null;
+}
+
+export interface SpeedSummaryJson {
+  tests: number;
+  down_mbps: number | null;
+  up_mbps: number | null;
+  latency_ms: number | null;
+}
+
+export interface PlanResultJson {
+  /** Latest check of each phase that the comparison uses. */
+  before_check_id: string | null;
+  after_check_id: string | null;
+  /** RSRP the planner predicted with the chosen kit (figures.predicted_rsrp_dbm). */
+  predicted_rsrp_dbm: number | null;
+  gains: MeasuredGainJson[];
+  speed_before: SpeedSummaryJson;
+  speed_after: SpeedSummaryJson;
+}
+
+export interface PlanDetailJson extends PlanJson {
+  checks: InstallCheckJson[];
+  result: PlanResultJson;
+}

@@ -1,0 +1,22 @@
+import { getDb } from '../../../lib/server/db';
+import { handler, json, parseBody, parseWith, requirePermission, requireUser } from '../../../lib/server/http';
+import { ForbiddenError } from '../../../lib/server/errors';
+import { canViewPlans } from '../../../lib/domain/plan-state';
+import { findPlanDetail, planDetailJson, updatePlan } from '../../../lib/server/repos/plans';
+import { PlanChangeSchema } from '../../../lib/schemas/plans';
+import { IdParamSchema } from '../../../lib/schemas/users';
+
+// The plan with its install checks and the measured result against the prediction.
+export const GET = handler(async ({ locals, params }) => {
+  if (!canViewPlans(requireUser(locals).role)) throw new ForbiddenError();
+  const { id } = parseWith(IdParamSchema, params);
+  return json(planDetailJson(await findPlanDetail(getDb(), id)));
+});
+
+export const PATCH = handler(async ({ locals, params, request }) => {
+  const actor = requirePermission(locals, 'plans:write');
+  const { id } = parseWith(IdParamSchema, params);
+  const change = await parseBody(PlanChangeSchema, request);
+  await getDb().transaction((trx) => updatePlan(trx, id, change, actor.id));
+  return json(planDetailJson(await findPlanDetail(getDb(), id)));
+});

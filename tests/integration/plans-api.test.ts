@@ -1,0 +1,295 @@
+import { beforeEach, describe, expect, it } from 'vitest';
+import { GET as listPlans, POST as createPlan } from '../../src/pages/api/plans/index';
+import { GET as getPlan, PATCH as patchPlan } from '../../src/pages/api/plans/[id]';
+import { GET as listChecks, POST as addCheck } from '../../src/pages/api/plans/[id]/checks';
+import { call } from '../helpers/endpoint';
+import { testDb, truncateAll } from '../helpers/db';
+import { asSessionUser, makeUser } from '../helpers/factories';
+import type { SessionUser } from '../../src/lib/server/session-user';
+
+interface Fixture {
+  customerId: string;
+  cellId: string;
+  antennaId: string;
+  cableId: string;
+}
+
+async function fixture(): Promise<Fixture> {
+  const db = testDb();
+  const [op] = await db('operators').insert({ name: 'Test Mobile', mcc: '001', mnc: '01', colour: '#336699' }).returning('id');
+  const [mast] = await db('masts').insert({ name: 'Test Hill', geom: db.raw('ST_SetSRID(ST_MakePoint(-128.5, -47.1), 4326)') }).returning('id');
+  const [cell] = await db('cells')
+    .insert({ mast_id: mast.id, operator_id: op.id, tech: 'lte', band: 'B20', channel: 6300, dl_mhz: 806, pci: 101, sector_azimuth_deg: 180 })
+    .returning('id');
+  const [ant] = await db('antennas')
+    .insert({ name: 'Panel', kind: 'directional', ports: 2, horizontal_beamwidth_deg: 40, gain_table: JSON.stringify([{ freq_mhz: 800, gain_dbi: 7.5 }]) })
+    .returning('id');
+  const [cable] = await db('cables').insert({ name: 'Feeder', loss_table: JSON.stringify([{ freq_mhz: 800, loss_db_per_m: 0.12 }]) }).returning('id');
+  const [cust] = await db('customers')
+    .insert({ name: 'Hester Quillan', address_label: 'Alder Farm', geom: db.raw('ST_SetSRID(ST_MakePoint(-128.52, -47.21), 4326)') })
+    .returning('id');
+  return { customerId: String(cust.id), cellId: String(cell.id), antennaId: String(ant.id), cableId: String(cable.id) };
+}
+
+const FIGURES = { predicted_rsrp_dbm: -95.4, expected_gain_db: 9.5, distance_m: 12_240, bearing_true_deg: 357.2, elevation_deg: 0.4 };
+
+describe('plans API', () => {
+  let planner: SessionUser;
+  let f: Fixture;
+  const kit = () => ({ cell_id: f.cellId, antenna_id: f.antennaId, cable_id: f.cableId, cable_m: 12, mount_height_m: 7 });
+  const patch = (id: string, json: unknown, user = planner) => call(patchPlan, { method: 'PATCH', user, params: { id }, json });
+
+  beforeEach(async () => {
+    await truncateAll();
+    planner = asSessionUser(await makeUser('planner'));
+    f = await fixture();
+  });
+
+  it('answers 401 when signed out', async () => {
+    expect((await call(listPlans)).status).toBe(401);
+    expect((await call(createPlan, { json: { customer_id: f.customerId } })).status).toBe(401);
+    expect((await call(getPlan, { params: { id: '1' } })).status).toBe(401);
+    expect((await call(addCheck, { params: { id: '1' }, json: {} })).status).toBe(401);
+  });
+
+  it.each(['reviewer', 'contributor'] as const)('keeps plans from a %s (403)', async (role) => {
+    const user = asSessionUser(await makeUser(role));
+    const plan = await call(createPlan, { user: planner, json: { customer_id: f.customerId } });
+    expect((await call(listPlans, { user })).status).toBe(403);
+    expect((await call(getPlan, { user, params: { id: plan.body.id } })).status).toBe(403);
+    expect((await call(listChecks, { user, params: { id: plan.body.id } })).status).toBe(403);
+    expect((await call(createPlan, { user, json: { customer_id: f.customerId } })).status).toBe(403);
+    expect((await patch(plan.body.id, { notes: 'x' }, user)).status).toBe(403);
+  });
+
+  it('lets a surveyor read plans and record checks, but not change them', async () => {
+    const surveyor = asSessionUser(await makeUser('surveyor'));
+    const plan = await call(createPlan, { user: planner, json: { customer_id: f.customerId } });
+    expect((await call(getPlan, { user: surveyor, params: { id: plan.body.id } })).status).toBe(200);
+    expect((await call(createPlan, { user: surveyor, json: { customer_id: f.customerId } })).status).toBe(403);
+    expect((await patch(plan.body.id, { notes: 'x' }, surveyor)).status).toBe(403);
+    const check = await call(addCheck, { user: surveyor, params: { id: plan.body.id }, json: { phase: 'before', readings: [{ pci: 101, rsrp_dbm: -110 }] } });
+    expect(check.status).toBe(201);
+    expect(check.body.created_by).toBe(surveyor.id);
+  });
+
+  it('creates an enquiry, and a planned plan with the cell, kit and figures the planner page sends', async () => {
+    const enquiry = await call(createPlan, { user: planner, json: { customer_id: Number(f.customerId), notes: 'Phoned in' } });
+    expect(enquiry.status).toBe(201);
+    expect(enquiry.body).toMatchObject({ state: 'enquiry', next_states: ['planned'], cell: null, figures: {}, row_version: 1, created_by_name: planner.name });
+    const planned = await call(createPlan, { user: planner, json: { customer_id: f.customerId, ...kit(), figures: FIGURES, state: 'planned' } });
+    expect(planned.status).toBe(201);
+    expect(planned.body).toMatchObject({
+      customer_id: f.customerId,
+      customer_name: 'Hester Quillan',
+      state: 'planned',
+      next_states: ['scheduled', 'enquiry'],
+      cell_id: f.cellId,
+      cell: { id: f.cellId, mast_name: 'Test Hill', operator_name: 'Test Mobile', tech: 'lte', band: 'B20', channel: 6300, dl_mhz: 806, pci: 101, sector_azimuth_deg: 180, lat: -47.1, lon: -128.5 },
+      antenna_name: 'Panel',
+      cable_name: 'Feeder',
+      cable_m: 12,
+      mount_height_m: 7,
+      figures: FIGURES,
+      scheduled_for: null,
+    });
+    const audit = await testDb()('audit_log').where({ entity: 'plan', entity_id: planned.body.id }).first();
+    expect(audit).toMatchObject({ action: 'create', user_id: planner.id });
+  });
+
+  it('refuses a planned plan without its cell and kit (422 with fields)', async () => {
+    const res = await call(createPlan, { user: planner, json: { customer_id: f.customerId, state: 'planned', cell_id: f.cellId } });
+    expect(res.status).toBe(422);
+    expect(Object.keys(res.body.error.fields).sort()).toEqual(['antenna_id', 'cable_id', 'cable_m', 'mount_height_m']);
+  });
+
+  it('rejects bad input with 400 and fields, including unknown references', async () => {
+    const res = await call(createPlan, {
+      user: planner,
+      json: { customer_id: 'x', cable_m: -1, mount_height_m: 500, figures: [1], scheduled_for: '2027-02-30', state: 'verified' },
+    });
+    expect(res.status).toBe(400);
+    expect(Object.keys(res.body.error.fields).sort()).toEqual(['cable_m', 'customer_id', 'figures', 'mount_height_m', 'scheduled_for', 'state']);
+    const refs = await call(createPlan, { user: planner, json: { customer_id: '9999', cell_id: '9999', antenna_id: '9999', cable_id: '9999' } });
+    expect(refs.status).toBe(400);
+    expect(Object.keys(refs.body.error.fields).sort()).toEqual(['antenna_id', 'cable_id', 'cell_id', 'customer_id']);
+    const huge = await call(createPlan, { user: planner, json: { customer_id: f.customerId, figures: { blob: 'x'.repeat(30_000) } } });
+    expect(huge.status).toBe(400);
+    expect(await testDb()('plans').count('* as n').first()).toEqual({ n: '0' });
+  });
+
+  it('lists plans by customer and state', async () => {
+    await call(createPlan, { user: planner, json: { customer_id: f.customerId } });
+    await call(createPlan, { user: planner, json: { customer_id: f.customerId, ...kit(), state: 'planned' } });
+    const [other] = await testDb()('customers')
+      .insert({ name: 'Other', address_label: 'Elsewhere', geom: testDb().raw('ST_SetSRID(ST_MakePoint(-128.6, -47.3), 4326)') })
+      .returning('id');
+    await call(createPlan, { user: planner, json: { customer_id: other.id } });
+    const mine = await call(listPlans, { user: planner, url: `/api/plans?customer_id=${f.customerId}` });
+    expect(mine.body.total).toBe(2);
+    const planned = await call(listPlans, { user: planner, url: '/api/plans?state=planned' });
+    expect(planned.body.items.map((p: { state: string }) => p.state)).toEqual(['planned']);
+    const bad = await call(listPlans, { user: planner, url: '/api/plans?state=done&customer_id=me' });
+    expect(Object.keys(bad.body.error.fields).sort()).toEqual(['customer_id', 'state']);
+  });
+
+  it('walks a plan from enquiry to verified, refusing skipped steps (409) and unready ones (422)', async () => {
+    const made = await call(createPlan, { user: planner, json: { customer_id: f.customerId } });
+    const id = made.body.id;
+
+    const skip = await patch(id, { state: 'installed' });
+    expect(skip.status).toBe(409);
+    expect(skip.body.error).toEqual({ code: 'CONFLICT', message: 'A plan cannot go from enquiry to installed; from enquiry it can go to planned' });
+
+    const unready = await patch(id, { state: 'planned' });
+    expect(unready.status).toBe(422);
+    expect(unready.body.error.code).toBe('UNPROCESSABLE_CONTENT');
+    expect(unready.body.error.fields.cell_id).toEqual(['Choose the cell to aim at']);
+
+    const planned = await patch(id, { ...kit(), figures: FIGURES, state: 'planned' });
+    expect(planned.status).toBe(200);
+    expect(planned.body).toMatchObject({ state: 'planned', row_version: 2 });
+
+    expect((await patch(id, { state: 'scheduled' })).body.error.fields).toEqual({ scheduled_for: ['Set the install date'] });
+    const scheduled = await patch(id, { state: 'scheduled', scheduled_for: '2027-03-04' });
+    expect(scheduled.body).toMatchObject({ state: 'scheduled', scheduled_for: '2027-03-04' });
+
+    expect((await patch(id, { state: 'installed' })).body.state).toBe('installed');
+    const early = await patch(id, { state: 'verified' });
+    expect(early.status).toBe(422);
+    expect(early.body.error.fields.checks).toEqual(['Record an after-install check first']);
+
+    await call(addCheck, { user: planner, params: { id }, json: { phase: 'after', readings: [{ pci: 101, channel: 6300, rsrp_dbm: -98 }] } });
+    const verified = await patch(id, { state: 'verified' });
+    expect(verified.status).toBe(200);
+    expect(verified.body).toMatchObject({ state: 'verified', next_states: ['installed'] });
+
+    const trail = await testDb()('audit_log').where({ entity: 'plan', entity_id: id }).orderBy('id').pluck('action');
+    expect(trail).toEqual(['create', 'state', 'state', 'state', 'check', 'state']);
+  });
+
+  it('steps back, and keeps the kit fixed once installed', async () => {
+    const made = await call(createPlan, { user: planner, json: { customer_id: f.customerId, ...kit(), state: 'planned', scheduled_for: '2027-03-04' } });
+    const id = made.body.id;
+    await patch(id, { state: 'scheduled' });
+    await patch(id, { state: 'installed' });
+    const locked = await patch(id, { cable_m: 15 });
+    expect(locked.status).toBe(422);
+    expect(locked.body.error.fields).toEqual({ cable_m: ['Fixed once installed; move the plan back to scheduled to change it'] });
+    expect((await patch(id, { notes: 'Cable run through the barn' })).status).toBe(200);
+    const back = await patch(id, { state: 'scheduled', cable_m: 15 });
+    expect(back.status).toBe(200);
+    expect(back.body).toMatchObject({ state: 'scheduled', cable_m: 15 });
+    const cleared = await patch(id, { cell_id: null });
+    expect(cleared.status).toBe(422);
+    expect(cleared.body.error.fields.cell_id).toBeDefined();
+    expect((await patch(id, { state: 'planned', scheduled_for: null })).body).toMatchObject({ state: 'planned', scheduled_for: null });
+    expect((await patch(id, { state: 'enquiry' })).body.state).toBe('enquiry');
+  });
+
+  it('refuses a stale edit (409) and answers 404 / 400 for bad ids', async () => {
+    const made = await call(createPlan, { user: planner, json: { customer_id: f.customerId } });
+    await patch(made.body.id, { notes: 'first', row_version: 1 });
+    const stale = await patch(made.body.id, { notes: 'second', row_version: 1 });
+    expect(stale.status).toBe(409);
+    expect((await call(getPlan, { user: planner, params: { id: '9999' } })).status).toBe(404);
+    expect((await patch('9999', { notes: 'x' })).status).toBe(404);
+    expect((await call(addCheck, { user: planner, params: { id: '9999' }, json: { phase: 'before', readings: [{ pci: 1, rsrp_dbm: -100 }] } })).status).toBe(404);
+    expect((await call(listChecks, { user: planner, params: { id: '9999' } })).status).toBe(404);
+    expect((await call(getPlan, { user: planner, params: { id: 'abc' } })).status).toBe(400);
+    expect((await patch(made.body.id, {})).status).toBe(400);
+  });
+
+  it('records before and after checks and reports measured gain per PCI against the prediction', async () => {
+    const made = await call(createPlan, { user: planner, json: { customer_id: f.customerId, ...kit(), figures: FIGURES, state: 'planned', scheduled_for: '2027-03-04' } });
+    const id = made.body.id;
+    const before = await call(addCheck, {
+      user: planner,
+      params: { id },
+      json: {
+        phase: 'before',
+        taken_at: '2027-03-04T09:10:00Z',
+        readings: [
+          { pci: 101, channel: 6300, rsrp_dbm: -111, rsrq_db: -14, sinr_db: 1 },
+          { pci: 101, channel: 6300, rsrp_dbm: -109, sinr_db: 3 },
+          { pci: 240, channel: 1300, rsrp_dbm: -118 },
+        ],
+        speed_tests: [{ down_mbps: 3.2, up_mbps: 0.4, latency_ms: 80 }],
+      },
+    });
+    expect(before.status).toBe(201);
+    expect(before.body).toMatchObject({ phase: 'before', taken_at: '2027-03-04T09:10:00.000Z', readings: [{ pci: 101, channel: 6300, rsrp_dbm: -111, rsrq_db: -14, sinr_db: 1 }, {}, {}] });
+
+    const tooEarly = await call(addCheck, { user: planner, params: { id }, json: { phase: 'after', readings: [{ pci: 101, rsrp_dbm: -99 }] } });
+    expect(tooEarly.status).toBe(422);
+    expect(tooEarly.body.error.fields.phase).toBeDefined();
+
+    await patch(id, { state: 'scheduled' });
+    await patch(id, { state: 'installed' });
+    await call(addCheck, {
+      user: planner,
+      params: { id },
+      json: {
+        phase: 'after',
+        taken_at: '2027-03-04T11:40:00Z',
+        readings: [
+          { pci: 101, channel: 6300, rsrp_dbm: -99, sinr_db: 12 },
+          { pci: 240, channel: 1300, rsrp_dbm: -112 },
+        ],
+        speed_tests: [
+          { down_mbps: 38, up_mbps: 9, latency_ms: 35 },
+          { down_mbps: 42, up_mbps: 11, latency_ms: 31 },
+        ],
+      },
+    });
+    const detail = await call(getPlan, { user: planner, params: { id } });
+    expect(detail.body.checks.map((c: { phase: string }) => c.phase)).toEqual(['before', 'after']);
+    expect(detail.body.result).toEqual({
+      before_check_id: before.body.id,
+      after_check_id: expect.any(String),
+      predicted_rsrp_dbm: -95.4,
+      gains: [
+        {
+          pci: 101,
+          channel: 6300,
+          samples_before: 2,
+          samples_after: 1,
+          before_rsrp_dbm: -110,
+          after_rsrp_dbm: -99,
+          measured_gain_db: 11,
+          predicted_gain_db: 9.5,
+          difference_db: 1.5,
+          before_sinr_db: 2,
+          after_sinr_db: 12,
+          sinr_change_db: 10,
+        },
+        expect.objectContaining({ pci: 240, measured_gain_db: 6, predicted_gain_db: null }),
+      ],
+      speed_before: { tests: 1, down_mbps: 3.2, up_mbps: 0.4, latency_ms: 80 },
+      speed_after: { tests: 2, down_mbps: 40, up_mbps: 10, latency_ms: 33 },
+    });
+    const list = await call(listChecks, { user: planner, params: { id } });
+    expect(list.body.total).toBe(2);
+  });
+
+  it('rejects bad check input with 400 and fields', async () => {
+    const made = await call(createPlan, { user: planner, json: { customer_id: f.customerId } });
+    const res = await call(addCheck, {
+      user: planner,
+      params: { id: made.body.id },
+      json: { phase: 'during', taken_at: 'yesterday', readings: [{ pci: 2000, rsrp_dbm: -20, sinr_db: 99 }], speed_tests: [{ down_mbps: -1 }] },
+    });
+    expect(res.status).toBe(400);
+    expect(Object.keys(res.body.error.fields).sort()).toEqual([
+      'phase',
+      'readings.0.pci',
+      'readings.0.rsrp_dbm',
+      'readings.0.sinr_db',
+      'speed_tests.0.down_mbps',
+      'speed_tests.0.up_mbps',
+      'taken_at',
+    ]);
+    const empty = await call(addCheck, { user: planner, params: { id: made.body.id }, json: { phase: 'before' } });
+    expect(empty.body.error.fields.readings).toEqual(['Add at least one reading or speed test']);
+  });
+});
