@@ -35,6 +35,9 @@ export interface ElevationGrid {
   values: ElevationSamples;
 }
 
+/** Where a grid lies and how its samples are laid out, without the samples. */
+export type GridFrame = Pick<ElevationGrid, 'west' | 'south' | 'east' | 'north' | 'width' | 'height' | 'registration'>;
+
 /** A file or grid that cannot be used as elevation data; the message says why. */
 export class ElevationDataError extends Error {
   constructor(message: string) {
@@ -55,7 +58,7 @@ export const DEFAULT_MAX_PROFILE_SAMPLES = 5000;
 // (degrees, ~1 mm) to the edge still counts as inside.
 const EDGE_TOLERANCE_DEG = 1e-8;
 
-export function getGridSpacingDeg(grid: ElevationGrid): { lonDeg: number; latDeg: number } {
+export function getGridSpacingDeg(grid: GridFrame): { lonDeg: number; latDeg: number } {
   const cols = grid.registration === 'point' ? grid.width - 1 : grid.width;
   const rows = grid.registration === 'point' ? grid.height - 1 : grid.height;
   return { lonDeg: (grid.east - grid.west) / cols, latDeg: (grid.north - grid.south) / rows };
@@ -65,7 +68,7 @@ export function getGridSpacingDeg(grid: ElevationGrid): { lonDeg: number; latDeg
  * The grid's spacing in metres: the smaller of the north–south and east–west spacing, the latter
  * taken at the grid's latitude nearest the equator (where it is widest).
  */
-export function getGridSpacingM(grid: ElevationGrid): number {
+export function getGridSpacingM(grid: GridFrame): number {
   const { lonDeg, latDeg } = getGridSpacingDeg(grid);
   const widestLat = grid.south <= 0 && grid.north >= 0 ? 0 : Math.min(Math.abs(grid.south), Math.abs(grid.north));
   const lonM = lonDeg * METRES_PER_DEGREE * Math.cos((widestLat * Math.PI) / 180);
@@ -73,13 +76,13 @@ export function getGridSpacingM(grid: ElevationGrid): number {
 }
 
 /** Position of the sample at (row, col): the lattice node, or the cell centre for `area` grids. */
-export function getSamplePosition(grid: ElevationGrid, row: number, col: number): LatLon {
+export function getSamplePosition(grid: GridFrame, row: number, col: number): LatLon {
   const { lonDeg, latDeg } = getGridSpacingDeg(grid);
   const half = grid.registration === 'area' ? 0.5 : 0;
   return { lat: grid.north - (row + half) * latDeg, lon: grid.west + (col + half) * lonDeg };
 }
 
-export function isGridCovering(grid: ElevationGrid, lat: number, lon: number): boolean {
+export function isGridCovering(grid: GridFrame, lat: number, lon: number): boolean {
   return (
     lat >= grid.south - EDGE_TOLERANCE_DEG &&
     lat <= grid.north + EDGE_TOLERANCE_DEG &&

@@ -1,0 +1,56 @@
+// Elevation data: request schemas (shared by endpoints and the admin page) and the JSON the API returns.
+import { z } from 'zod';
+
+export const ElevationIdParamSchema = z.object({ id: z.string().regex(/^\d{1,18}$/, 'Not a valid id') });
+
+const coordinate = (label: string, limit: number) =>
+  z.coerce
+    .number({ required_error: `${label} is required`, invalid_type_error: `${label} must be a number` })
+    .finite(`${label} must be a number`)
+    .min(-limit, `${label} must be between −${limit} and ${limit}`)
+    .max(limit, `${label} must be between −${limit} and ${limit}`);
+
+export const ElevationSampleQuerySchema = z.object({
+  lat: coordinate('Latitude', 90),
+  lon: coordinate('Longitude', 180),
+});
+export type ElevationSampleQuery = z.infer<typeof ElevationSampleQuerySchema>;
+
+export const ELEVATION_FORMATS = ['geotiff', 'hgt'] as const;
+export type ElevationFormat = (typeof ELEVATION_FORMATS)[number];
+export const ELEVATION_FORMAT_LABELS: Record<ElevationFormat, string> = { geotiff: 'GeoTIFF', hgt: 'SRTM .hgt' };
+
+/** Largest upload accepted, bytes. */
+export const MAX_ELEVATION_UPLOAD_BYTES = 100 * 1024 * 1024;
+/** File endings the upload form offers (the server also recognises TIFF files by content). */
+export const ELEVATION_FILE_ACCEPT = '.tif,.tiff,.hgt';
+
+export interface ElevationGridJson {
+  id: string;
+  name: string;
+  format: ElevationFormat;
+  /** [west, south, east, north] in WGS84 degrees (GeoJSON bbox order). */
+  bbox: [number, number, number, number];
+  width: number;
+  height: number;
+  registration: 'point' | 'area';
+  resolution_arcsec: { lon: number; lat: number };
+  /** Finer of the two spacings on the ground, metres. */
+  resolution_m: number;
+  sample_type: 'int16' | 'float32';
+  nodata: number | null;
+  nodata_count: number;
+  min_m: number | null;
+  max_m: number | null;
+  byte_size: number;
+  sha256: string;
+  uploaded_by: { id: string; name: string } | null;
+  created_at: string;
+}
+
+export interface ElevationSampleJson {
+  lat: number;
+  lon: number;
+  height_m: number | null;
+  grid_id: string | null;
+}

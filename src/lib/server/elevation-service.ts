@@ -1,0 +1,64 @@
+// Elevation for the app: terrain profiles and spot heights from the imported grids, plus the
+// upload and delete flows. Grids whose samples cannot be read are left out (and logged), so a
+// damaged file shows up as missing data rather than as a failed shortlist.
+import {
+  sampleElevationProfile,
+  type ElevationGrid,
+  type ElevationProfile,
+  type ProfileOptions,
+} from '../domain/elevation-grid';
+import type { LatLon } from '../domain/geodesy';
+import { config } from './config';
+import { getDb } from './db';
+import { importElevationFile, type ElevationUpload } from './elevation-import';
+import {
+  deleteElevationGrid,
+  findGridsCovering,
+  loadElevationGrid,
+  removeSamplesFileIfUnused,
+  type ElevationGridRecord,
+} from './repos/elevation';
+
+export type { ElevationProfile, ElevationProfilePoint, ProfileCoverage } from '../domain/elevation-grid';
+
+async function loadGrids(records: ElevationGridRecord[]): Promise<ElevationGrid[]> {
+  const loaded = await Promise.all(
+    records.map((r) =>
+      loadElevationGrid(r, config.dataDir).catch((err: unknown) => {
+        console.error(`[bearline] elevation grid ${r.id} (${r.name}) could not be loaded`, err);
+        return null;
+      }),
+    ),
+  );
+  return loaded.filter((g): g is ElevationGrid => g !== null);
+}
+
+/**
+ * Ground heights along the great circle from `from` to `to` at the finest available grid spacing
+ * (at most `maxSamples` samples), with the coverage report: `groundM` is null where no grid has data.
+ */
+export async function getElevationProfile(
+  from: LatLon,
+  to: LatLon,
+  options: Pick<ProfileOptions, 'maxSamples'> = {},
+): Promise<ElevationProfile> {
+  const grids = await loadGrids(await findGridsCovering(getDb(), from, to));
+  return sampleElevationProfile(grids, from, to, { maxSamples: options.maxSamples });
+}
+
+/** Ground height at one point from the finest grid with data there, or null. */
+export async function getElevationAt(point: LatLon): Promise<{ heightM: number | null; gridId: string | null }> {
+  const profile = await getElevationProfile(point, point, { maxSamples: 2 });
+  const heightM = profile.points[0]?.groundM ?? null;
+  return { heightM, gridId: heightM === null ? null : (profile.gridIds[0] ?? null) };
+}
+
+export async function importUploadedElevation(upload: ElevationUpload, actorId: string): Promise<ElevationGridRecord> {
+  return importElevationFile(getDb(), upload, { dataDir: config.dataDir, actorId });
+}
+
+export async function removeElevationGrid(id: string, actorId: string): Promise<void> {
+  const db = getDb();
+  const removed = await db.transaction((trx) => deleteElevationGrid(trx, id, actorId));
+  await removeSamplesFileIfUnused(db, config.dataDir, removed.samplesFile);
+}
