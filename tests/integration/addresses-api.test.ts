@@ -14,7 +14,7 @@ const GOOD = [
   '3 Quay Row,,-47.25,-128.6',
 ].join('\n');
 
-function multipart(content: string | Uint8Array, name = 'gazetteer.csv', type = 'text/csv'): { body: FormData } {
+function multipart(content: string | Uint8Array<ArrayBuffer>, name = 'gazetteer.csv', type = 'text/csv'): { body: FormData } {
   const form = new FormData();
   form.append('file', new File([content], name, { type }));
   return { body: form };
@@ -143,7 +143,7 @@ describe('addresses API', () => {
     expect((await call(importAddresses, { user: admin, ...multipart('x', 'photo.png', 'image/png') })).status).toBe(415);
     expect((await call(importAddresses, { user: admin, ...multipart('x', 'book.xlsx', 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet') })).status).toBe(415);
     expect((await call(importAddresses, { user: admin, json: { label: 'x' } })).status).toBe(415);
-    expect((await call(importAddresses, { user: admin, ...multipart(new Uint8Array([0x50, 0x4b, 0, 0]), 'sheet.csv') })).status).toBe(415);
+    expect((await call(importAddresses, { user: admin, ...multipart(new Uint8Array([0x50, 0x4b, 0, 0]) as Uint8Array<ArrayBuffer>, 'sheet.csv') })).status).toBe(415);
     const big = 'label,postcode,lat,lon\n' + 'Long Lane Farm,KV1 1AA,-47.2,-128.5\n'.repeat(Math.ceil(ADDRESS_IMPORT_MAX_BYTES / 36) + 10);
     const multi = await call(importAddresses, { user: admin, ...multipart(big) });
     expect(multi.status).toBe(413);

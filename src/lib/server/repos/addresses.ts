@@ -88,7 +88,8 @@ export async function importAddresses(
       [
         meta.source ?? 'import',
         batch.map((r) => r.label),
-        batch.map((r) => r.postcode),
+        // node-postgres sends JS arrays as PostgreSQL arrays; nulls stay nulls.
+        batch.map((r) => r.postcode) as string[],
         batch.map((r) => r.lon),
         batch.map((r) => r.lat),
       ],
