@@ -13,6 +13,7 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { href: '/admin/operators', label: 'Operators', permission: 'reference:manage' },
   { href: '/admin/regions', label: 'Regions', permission: 'reference:manage' },
   { href: '/admin/users', label: 'Users', permission: 'users:manage' },
+  { href: '/admin/elevation', label: 'Elevation', permission: 'reference:manage' },
 ];
 
 export function navigationFor(role: Role): NavItem[] {
