@@ -1,0 +1,89 @@
+// Cells that could serve a customer position, and the readings that calibrate them.
+import type { Tx } from '../db';
+import type { CandidateCell } from '../../domain/shortlist';
+import type { LatLon } from '../../domain/geodesy';
+
+const METRES_PER_DEGREE_LAT = 111_320;
+
+/** A degree box around a point that holds the whole radius (lets the GiST index on geom prefilter). */
+function boxAround(p: LatLon, radiusM: number) {
+  const dLat = radiusM / METRES_PER_DEGREE_LAT;
+  const dLon = radiusM / (METRES_PER_DEGREE_LAT * Math.max(0.01, Math.cos((p.lat * Math.PI) / 180)));
+  return [p.lon - dLon, p.lat - dLat, p.lon + dLon, p.lat + dLat];
+}
+
+export interface CandidateQuery {
+  at: LatLon;
+  radiusM: number;
+  operatorId?: string;
+  limit: number;
+}
+
+/** Active masts' LTE/NR cells within the radius, nearest first (metric order via geography). */
+export async function listCandidateCells(db: Tx, q: CandidateQuery): Promise<(CandidateCell & { operatorColour: string | null })[]> {
+  const point = db.raw('ST_SetSRID(ST_MakePoint(?, ?), 4326)', [q.at.lon, q.at.lat]);
+  const rows = await db('cells as c')
+    .join('masts as m', 'm.id', 'c.mast_id')
+    .join('operators as o', 'o.id', 'c.operator_id')
+    .where('m.status', 'active')
+    .whereIn('c.tech', ['lte', 'nr'])
+    .whereNotNull('c.dl_mhz')
+    .whereRaw('m.geom && ST_MakeEnvelope(?, ?, ?, ?, 4326)', boxAround(q.at, q.radiusM))
+    .whereRaw('ST_DWithin(m.geom::geography, ?::geography, ?)', [point, q.radiusM])
+    .modify((b) => {
+      if (q.operatorId) b.where('c.operator_id', q.operatorId);
+    })
+    .orderByRaw('m.geom::geography <-> ?::geography', [point])
+    .limit(q.limit)
+    .select(
+      'c.id', 'c.mast_id', 'c.operator_id', 'c.tech', 'c.band', 'c.channel', 'c.dl_mhz', 'c.pci', 'c.sector_azimuth_deg',
+      'c.antenna_height_m', 'c.rs_power_dbm', 'm.name as mast_name', 'm.ground_elevation_m', 'm.structure_height_m',
+      'o.name as operator_name', 'o.colour as operator_colour',
+      db.raw('ST_Y(m.geom) as lat'), db.raw('ST_X(m.geom) as lon'),
+    );
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any
+  return rows.map((r: any) => ({
+    cellId: String(r.id),
+    mastId: String(r.mast_id),
+    mastName: r.mast_name,
+    mastPosition: { lat: Number(r.lat), lon: Number(r.lon) },
+    mastGroundM: r.ground_elevation_m,
+    operatorId: String(r.operator_id),
+    operatorName: r.operator_name,
+    operatorColour: r.operator_colour ?? null,
+    tech: r.tech,
+    band: r.band,
+    channel: r.channel,
+    dlMhz: Number(r.dl_mhz),
+    pci: r.pci,
+    sectorAzimuthDeg: r.sector_azimuth_deg,
+    // Without a recorded antenna height, the structure's height is the best guess.
+    antennaHeightM: r.antenna_height_m ?? r.structure_height_m ?? null,
+    rsPowerDbm: r.rs_power_dbm,
+  }));
+}
+
+export interface CellReading {
+  cellId: string;
+  position: LatLon;
+  rsrpDbm: number;
+}
+
+/** Up to `perCell` readings of each cell nearest to a point, within a radius. */
+export async function listNearbyReadings(db: Tx, cellIds: string[], at: LatLon, radiusM: number, perCell: number): Promise<CellReading[]> {
+  if (cellIds.length === 0) return [];
+  const { rows } = await db.raw<{ rows: { cell_id: string; lat: number; lon: number; rsrp_dbm: number }[] }>(
+    `SELECT c.id AS cell_id, r.lat, r.lon, r.rsrp_dbm
+       FROM unnest(?::bigint[]) AS c(id)
+       CROSS JOIN LATERAL (
+         SELECT ST_Y(geom) AS lat, ST_X(geom) AS lon, rsrp_dbm
+           FROM readings
+          WHERE cell_id = c.id AND rsrp_dbm IS NOT NULL
+            AND geom && ST_MakeEnvelope(?, ?, ?, ?, 4326)
+          ORDER BY geom <-> ST_SetSRID(ST_MakePoint(?, ?), 4326)
+          LIMIT ?
+       ) r`,
+    [cellIds, ...boxAround(at, radiusM), at.lon, at.lat, perCell],
+  );
+  return rows.map((r) => ({ cellId: String(r.cell_id), position: { lat: Number(r.lat), lon: Number(r.lon) }, rsrpDbm: Number(r.rsrp_dbm) }));
+}

@@ -1,0 +1,115 @@
+// Builds the shortlist for one position: candidate cells from the database, terrain from the
+// elevation data, calibration from nearby readings, kit from the catalogue; ranking is domain code.
+import type { Tx } from './db';
+import type { LatLon } from '../domain/geodesy';
+import type { ElevationProfile } from '../domain/elevation-grid';
+import type { ProfileSample } from '../domain/terrain';
+import { analysePathProfile } from '../domain/terrain';
+import {
+  DEFAULT_SEARCH_RADIUS_M,
+  DEFAULT_MAST_ANTENNA_HEIGHT_M,
+  evaluateCandidate,
+  getCalibration,
+  modelCellAt,
+  rankShortlist,
+  type CandidateCell,
+  type Kit,
+  type ShortlistEntry,
+} from '../domain/shortlist';
+import { listCandidateCells, listNearbyReadings } from './repos/candidates';
+import { findAntenna, findCable, listAntennas, type Antenna, type Cable } from './repos/catalogue';
+
+export type ProfileProvider = (from: LatLon, to: LatLon, options: { maxSamples: number }) => Promise<ElevationProfile | null>;
+
+/** Readings are usually taken by hand or from a vehicle — common practice, no source. */
+export const READING_HEIGHT_M = 1.5;
+/** The reading device's antenna gain (a phone or router's own) — common practice, no source. */
+export const READING_ANTENNA_GAIN_DBI = 0;
+export const CALIBRATION_RADIUS_M = 8000;
+export const CALIBRATION_READINGS_PER_CELL = 20;
+export const MAX_CANDIDATES = 60;
+
+export interface ShortlistRequest {
+  at: LatLon;
+  heightM: number;
+  antennaId?: string;
+  cableId?: string;
+  cableM: number;
+  currentAntennaId?: string;
+  preferredOperatorId?: string;
+  radiusM?: number;
+  date: Date;
+}
+
+export interface ShortlistResult {
+  entries: (ShortlistEntry & { operatorColour: string | null })[];
+  kit: Kit;
+  currentKit: Kit | null;
+  customerGroundM: number | null;
+  radiusM: number;
+  candidatesConsidered: number;
+}
+
+function toKit(antenna: Antenna, cable: Cable | null, cableM: number, mountHeightM: number): Kit {
+  return {
+    antenna: { id: antenna.id, name: antenna.name, gainTable: antenna.gainTable, horizontalBeamwidthDeg: antenna.horizontalBeamwidthDeg },
+    cable: cable && { id: cable.id, name: cable.name, lossTable: cable.lossTable, connectorLossDb: cable.connectorLossDb, connectors: cable.connectors },
+    cableM: cable ? cableM : 0,
+    mountHeightM,
+  };
+}
+
+/** Samples for the terrain analysis, or null unless elevation data covers the whole path. */
+function toSamples(profile: ElevationProfile | null): ProfileSample[] | null {
+  if (!profile || !profile.coverage.complete) return null;
+  return profile.points.map((p) => ({ distanceM: p.distanceM, groundM: p.groundM as number }));
+}
+
+async function calibrate(
+  db: Tx,
+  cells: CandidateCell[],
+  at: LatLon,
+  profileFor: ProfileProvider,
+): Promise<Map<string, ReturnType<typeof getCalibration>>> {
+  const readings = await listNearbyReadings(db, cells.map((c) => c.cellId), at, CALIBRATION_RADIUS_M, CALIBRATION_READINGS_PER_CELL);
+  const byCell = new Map(cells.map((c) => [c.cellId, c]));
+  const residuals = new Map<string, number[]>();
+  for (const r of readings) {
+    const cell = byCell.get(r.cellId)!;
+    const samples = toSamples(await profileFor(r.position, cell.mastPosition, { maxSamples: 64 }));
+    const diffraction = samples
+      ? analysePathProfile({ samples, txHeightM: READING_HEIGHT_M, rxHeightM: cell.antennaHeightM ?? DEFAULT_MAST_ANTENNA_HEIGHT_M, freqMhz: cell.dlMhz }).diffractionLossDb
+      : 0;
+    const modelled = modelCellAt(cell, r.position, { receiveGainDbi: READING_ANTENNA_GAIN_DBI, diffractionLossDb: diffraction });
+    const list = residuals.get(r.cellId) ?? [];
+    list.push(r.rsrpDbm - modelled.rsrpDbm);
+    residuals.set(r.cellId, list);
+  }
+  return new Map(cells.map((c) => [c.cellId, getCalibration(residuals.get(c.cellId) ?? [])]));
+}
+
+export async function buildShortlist(db: Tx, req: ShortlistRequest, profileFor: ProfileProvider): Promise<ShortlistResult> {
+  const antennas = await listAntennas(db);
+  const antenna = req.antennaId ? await findAntenna(db, req.antennaId) : antennas.find((a) => a.kind === 'directional') ?? antennas[0];
+  if (!antenna) throw new Error('The antenna catalogue is empty');
+  const cable = req.cableId ? await findCable(db, req.cableId) : null;
+  const current = req.currentAntennaId ? await findAntenna(db, req.currentAntennaId) : antennas.find((a) => a.kind === 'stub') ?? null;
+  const kit = toKit(antenna, cable, req.cableM, req.heightM);
+  // The current antenna is taken as mounted indoors at the router, without a feeder.
+  const currentKit = current ? toKit(current, null, 0, 2) : null;
+
+  const radiusM = req.radiusM ?? DEFAULT_SEARCH_RADIUS_M;
+  const cells = await listCandidateCells(db, { at: req.at, radiusM, limit: MAX_CANDIDATES });
+  const calibration = await calibrate(db, cells, req.at, profileFor);
+  const profiles = new Map<string, ProfileSample[] | null>();
+  for (const cell of cells) {
+    if (!profiles.has(cell.mastId)) profiles.set(cell.mastId, toSamples(await profileFor(req.at, cell.mastPosition, { maxSamples: 400 })));
+  }
+  const customerGroundM = [...profiles.values()].find((p) => p)?.[0]?.groundM ?? null;
+  const settings = { customer: req.at, customerGroundM, date: req.date, kit, currentKit, preferredOperatorId: req.preferredOperatorId ?? null };
+  const entries = cells.map((cell) => ({
+    ...evaluateCandidate(cell, { profile: profiles.get(cell.mastId) ?? null, calibration: calibration.get(cell.cellId) ?? null }, settings),
+    operatorColour: cell.operatorColour,
+  }));
+  return { entries: rankShortlist(entries) as ShortlistResult['entries'], kit, currentKit, customerGroundM, radiusM, candidatesConsidered: cells.length };
+}

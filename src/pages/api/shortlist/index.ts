@@ -1,0 +1,29 @@
+import { getDb } from '../../../lib/server/db';
+import { handler, json, parseQuery, requirePermission } from '../../../lib/server/http';
+import { ShortlistQuerySchema } from '../../../lib/schemas/shortlist';
+import { buildShortlist } from '../../../lib/server/shortlist-service';
+import { shortlistJson } from '../../../lib/server/shortlist-json';
+import { getElevationProfile } from '../../../lib/server/elevation-service';
+
+// Ranked candidate cells for a customer position with the chosen kit.
+export const GET = handler(async ({ locals, url }) => {
+  requirePermission(locals, 'map:view');
+  const q = parseQuery(ShortlistQuerySchema, url);
+  const at = { lat: q.lat, lon: q.lon };
+  const result = await buildShortlist(
+    getDb(),
+    {
+      at,
+      heightM: q.height_m,
+      antennaId: q.antenna_id,
+      cableId: q.cable_id,
+      cableM: q.cable_m,
+      currentAntennaId: q.current_antenna_id,
+      preferredOperatorId: q.operator,
+      radiusM: q.radius_m,
+      date: q.date ?? new Date(),
+    },
+    getElevationProfile,
+  );
+  return json(shortlistJson(result, at));
+});
