@@ -50,14 +50,14 @@ const ROAD_PLAN: Array<{ name: string; ref: string | null; kind: RoadKind; via: 
 ];
 
 function isClear(model: IslandModel, line: LocalPoint[]): boolean {
-  return samplePolyline(line, 0.08).every((p) => isOnLand(model, p));
+  return line.every((p) => isOnLand(model, p)) && samplePolyline(line, 0.05).every((p) => isOnLand(model, p));
 }
 
 /**
  * A road from a to b that stays on dry land: a gently winding line, or failing that a detour
  * pushed sideways round the lake or bay in the way.
  */
-export function routeRoad(model: IslandModel, random: Random, a: LocalPoint, b: LocalPoint, amplitudeKm: number): LocalPoint[] {
+export function routeRoad(model: IslandModel, random: Random, a: LocalPoint, b: LocalPoint, amplitudeKm: number): LocalPoint[] | null {
   for (let attempt = 0; attempt < 6; attempt++) {
     const line = meander(random, [a, b], 0.2, amplitudeKm * (1 - attempt / 6));
     if (isClear(model, line)) return line;
@@ -74,7 +74,7 @@ export function routeRoad(model: IslandModel, random: Random, a: LocalPoint, b: 
       }
     }
   }
-  return [a, b];
+  return null;
 }
 
 function placeByName(model: IslandModel, name: string): Place {
@@ -88,17 +88,18 @@ export function createRoads(model: IslandModel, random: Random): Road[] {
     const amplitude = plan.kind === 'primary' ? 0.25 : plan.kind === 'secondary' ? 0.4 : 0.5;
     const line: LocalPoint[] = [];
     for (let i = 1; i < plan.via.length; i++) {
-      const leg = routeRoad(model, random, placeByName(model, plan.via[i - 1]!).at, placeByName(model, plan.via[i]!).at, amplitude);
+      const from = placeByName(model, plan.via[i - 1]!).at;
+      const to = placeByName(model, plan.via[i]!).at;
+      const leg = routeRoad(model, random, from, to, amplitude) ?? [from, to];
       line.push(...(i === 1 ? leg : leg.slice(1)));
     }
     return { name: plan.name, ref: plan.ref, kind: plan.kind, line };
   });
 }
 
-/** The nearest point on any road to p. */
-export function findNearestRoadPoint(roads: Road[], p: LocalPoint): LocalPoint {
-  let best: LocalPoint = roads[0]!.line[0]!;
-  let bestD = Infinity;
+/** The nearest point of each road segment to p, nearest first. */
+export function listNearestRoadPoints(roads: Road[], p: LocalPoint): LocalPoint[] {
+  const found: Array<{ q: LocalPoint; d: number }> = [];
   for (const road of roads) {
     for (let i = 1; i < road.line.length; i++) {
       const a = road.line[i - 1]!;
@@ -108,14 +109,10 @@ export function findNearestRoadPoint(roads: Road[], p: LocalPoint): LocalPoint {
       const len2 = dx * dx + dy * dy || 1;
       const t = Math.max(0, Math.min(1, ((p.x - a.x) * dx + (p.y - a.y) * dy) / len2));
       const q = { x: a.x + t * dx, y: a.y + t * dy };
-      const d = distanceKm(p, q);
-      if (d < bestD) {
-        bestD = d;
-        best = q;
-      }
+      found.push({ q, d: distanceKm(p, q) });
     }
   }
-  return best;
+  return found.sort((a, b) => a.d - b.d).map((f) => f.q);
 }
 
 export function createLanduse(model: IslandModel, elevation: ElevationFn, random: Random): LanduseArea[] {

@@ -4,7 +4,7 @@
 import type { LineString, MultiPolygon, Point, Polygon } from 'geojson';
 import { createIslandModel, DEMO_SEED, type IslandModel } from './geography';
 import { createElevationFn, getIslandBounds, type ElevationFn, type GeoBounds } from './elevation';
-import { createLanduse, createPlaceLabels, createRoads, findNearestRoadPoint, routeRoad, type LanduseKind, type PlaceLabelKind, type Road, type RoadKind } from './basemap';
+import { createLanduse, createPlaceLabels, createRoads, listNearestRoadPoints, routeRoad, type LanduseKind, type PlaceLabelKind, type Road, type RoadKind } from './basemap';
 import { createNetwork, DEMO_OPERATORS, type DemoOperatorSpec, type MastStatus, type SiteKind, type StructureType } from './network';
 import { createReadings } from './readings';
 import { createRegions } from './regions';
@@ -120,10 +120,20 @@ function createGroundLookup(elevation: ElevationFn, model: IslandModel): (p: Loc
   };
 }
 
-/** Access tracks from the road network up to each hilltop mast. */
+/** Access tracks from the nearest road that can reach each hilltop mast over dry land. */
 function createMastTracks(model: IslandModel, roads: Road[], hilltops: LocalPoint[], seed: number): Road[] {
   const random = createRandom(seed).fork('tracks');
-  return hilltops.map((at) => ({ name: null, ref: null, kind: 'track' as const, line: routeRoad(model, random, findNearestRoadPoint(roads, at), at, 0.15) }));
+  const tracks: Road[] = [];
+  for (const at of hilltops) {
+    for (const from of listNearestRoadPoints(roads, at).slice(0, 40)) {
+      const line = routeRoad(model, random, from, at, 0.15);
+      if (line) {
+        tracks.push({ name: null, ref: null, kind: 'track', line });
+        break;
+      }
+    }
+  }
+  return tracks;
 }
 
 export function generateDemoScenario(seed = DEMO_SEED): DemoScenario {
