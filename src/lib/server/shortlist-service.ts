@@ -16,7 +16,8 @@ import {
   type Kit,
   type ShortlistEntry,
 } from '../domain/shortlist';
-import { listCandidateCells, listNearbyReadings } from './repos/candidates';
+import { findCandidateCell, listCandidateCells, listNearbyReadings } from './repos/candidates';
+import { ValidationError } from './errors';
 import { findAntenna, findCable, listAntennas, type Antenna, type Cable } from './repos/catalogue';
 
 export type ProfileProvider = (from: LatLon, to: LatLon, options: { maxSamples: number }) => Promise<ElevationProfile | null>;
@@ -88,18 +89,46 @@ async function calibrate(
   return new Map(cells.map((c) => [c.cellId, getCalibration(residuals.get(c.cellId) ?? [])]));
 }
 
-export async function buildShortlist(db: Tx, req: ShortlistRequest, profileFor: ProfileProvider): Promise<ShortlistResult> {
+async function resolveKits(db: Tx, req: Pick<ShortlistRequest, 'antennaId' | 'cableId' | 'cableM' | 'heightM' | 'currentAntennaId'>) {
   const antennas = await listAntennas(db);
   const antenna = req.antennaId ? await findAntenna(db, req.antennaId) : antennas.find((a) => a.kind === 'directional') ?? antennas[0];
-  if (!antenna) throw new Error('The antenna catalogue is empty');
+  if (!antenna) throw new ValidationError('The antenna catalogue is empty: add an antenna first', { antenna_id: ['No antenna in the catalogue'] });
   const cable = req.cableId ? await findCable(db, req.cableId) : null;
   const current = req.currentAntennaId ? await findAntenna(db, req.currentAntennaId) : antennas.find((a) => a.kind === 'stub') ?? null;
-  const kit = toKit(antenna, cable, req.cableM, req.heightM);
   // The current antenna is taken as mounted indoors at the router, without a feeder.
-  const currentKit = current ? toKit(current, null, 0, 2) : null;
+  return { kit: toKit(antenna, cable, req.cableM, req.heightM), currentKit: current ? toKit(current, null, 0, 2) : null };
+}
 
+export async function buildShortlist(db: Tx, req: ShortlistRequest, profileFor: ProfileProvider): Promise<ShortlistResult> {
+  const { kit, currentKit } = await resolveKits(db, req);
   const radiusM = req.radiusM ?? DEFAULT_SEARCH_RADIUS_M;
   const cells = await listCandidateCells(db, { at: req.at, radiusM, limit: MAX_CANDIDATES });
+  return evaluateCells(db, cells, req, kit, currentKit, radiusM, profileFor);
+}
+
+/** The figures of one chosen cell for a customer and kit (aim sheet, plan checks); null without a frequency. */
+export async function evaluatePlannedCell(
+  db: Tx,
+  cellId: string,
+  req: Omit<ShortlistRequest, 'radiusM' | 'preferredOperatorId'>,
+  profileFor: ProfileProvider,
+): Promise<ShortlistResult['entries'][number] | null> {
+  const cell = await findCandidateCell(db, cellId);
+  if (!cell) return null;
+  const { kit, currentKit } = await resolveKits(db, req);
+  const result = await evaluateCells(db, [cell], req, kit, currentKit, 0, profileFor);
+  return result.entries[0] ?? null;
+}
+
+async function evaluateCells(
+  db: Tx,
+  cells: (CandidateCell & { operatorColour: string | null })[],
+  req: ShortlistRequest,
+  kit: Kit,
+  currentKit: Kit | null,
+  radiusM: number,
+  profileFor: ProfileProvider,
+): Promise<ShortlistResult> {
   const calibration = await calibrate(db, cells, req.at, profileFor);
   const profiles = new Map<string, ProfileSample[] | null>();
   for (const cell of cells) {

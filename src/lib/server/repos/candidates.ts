@@ -19,30 +19,23 @@ export interface CandidateQuery {
   limit: number;
 }
 
-/** Active masts' LTE/NR cells within the radius, nearest first (metric order via geography). */
-export async function listCandidateCells(db: Tx, q: CandidateQuery): Promise<(CandidateCell & { operatorColour: string | null })[]> {
-  const point = db.raw('ST_SetSRID(ST_MakePoint(?, ?), 4326)', [q.at.lon, q.at.lat]);
-  const rows = await db('cells as c')
+type CandidateRow = CandidateCell & { operatorColour: string | null };
+
+function selectCandidates(db: Tx) {
+  return db('cells as c')
     .join('masts as m', 'm.id', 'c.mast_id')
     .join('operators as o', 'o.id', 'c.operator_id')
-    .where('m.status', 'active')
-    .whereIn('c.tech', ['lte', 'nr'])
-    .whereNotNull('c.dl_mhz')
-    .whereRaw('m.geom && ST_MakeEnvelope(?, ?, ?, ?, 4326)', boxAround(q.at, q.radiusM))
-    .whereRaw('ST_DWithin(m.geom::geography, ?::geography, ?)', [point, q.radiusM])
-    .modify((b) => {
-      if (q.operatorId) b.where('c.operator_id', q.operatorId);
-    })
-    .orderByRaw('m.geom::geography <-> ?::geography', [point])
-    .limit(q.limit)
     .select(
       'c.id', 'c.mast_id', 'c.operator_id', 'c.tech', 'c.band', 'c.channel', 'c.dl_mhz', 'c.pci', 'c.sector_azimuth_deg',
       'c.antenna_height_m', 'c.rs_power_dbm', 'm.name as mast_name', 'm.ground_elevation_m', 'm.structure_height_m',
       'o.name as operator_name', 'o.colour as operator_colour',
       db.raw('ST_Y(m.geom) as lat'), db.raw('ST_X(m.geom) as lon'),
     );
-  // eslint-disable-next-line @typescript-eslint/no-explicit-any
-  return rows.map((r: any) => ({
+}
+
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+function toCandidate(r: any): CandidateRow {
+  return {
     cellId: String(r.id),
     mastId: String(r.mast_id),
     mastName: r.mast_name,
@@ -60,7 +53,30 @@ export async function listCandidateCells(db: Tx, q: CandidateQuery): Promise<(Ca
     // Without a recorded antenna height, the structure's height is the best guess.
     antennaHeightM: r.antenna_height_m ?? r.structure_height_m ?? null,
     rsPowerDbm: r.rs_power_dbm,
-  }));
+  };
+}
+
+/** Active masts' LTE/NR cells within the radius, nearest first (metric order via geography). */
+export async function listCandidateCells(db: Tx, q: CandidateQuery): Promise<CandidateRow[]> {
+  const point = db.raw('ST_SetSRID(ST_MakePoint(?, ?), 4326)', [q.at.lon, q.at.lat]);
+  const rows = await selectCandidates(db)
+    .where('m.status', 'active')
+    .whereIn('c.tech', ['lte', 'nr'])
+    .whereNotNull('c.dl_mhz')
+    .whereRaw('m.geom && ST_MakeEnvelope(?, ?, ?, ?, 4326)', boxAround(q.at, q.radiusM))
+    .whereRaw('ST_DWithin(m.geom::geography, ?::geography, ?)', [point, q.radiusM])
+    .modify((b) => {
+      if (q.operatorId) b.where('c.operator_id', q.operatorId);
+    })
+    .orderByRaw('m.geom::geography <-> ?::geography', [point])
+    .limit(q.limit);
+  return rows.map(toCandidate);
+}
+
+/** One cell as a candidate (whatever its mast's status), or null when it has no frequency. */
+export async function findCandidateCell(db: Tx, cellId: string): Promise<CandidateRow | null> {
+  const row = await selectCandidates(db).where('c.id', cellId).whereNotNull('c.dl_mhz').first();
+  return row ? toCandidate(row) : null;
 }
 
 export interface CellReading {
