@@ -14,7 +14,7 @@ const ADDRESSES = [
   { label: 'Low Mill, Quarren Lane, Quarrendale', postcode: 'QD2 7XB', lat: -47.3, lon: -128.45 },
   { label: '4 Harbour Row, Port Tessary', postcode: 'PT1 1AB', lat: -47.35, lon: -128.7 },
   { label: 'Thornfield Farm, Drum Lane, Drumhallow', postcode: 'DH4 9RW', lat: -47.4, lon: -128.6 },
-  { label: 'Greythorn House, Tessary Road, Greythorn Cross', postcode: 'GC2 3LN', lat: -47.25, lon: -128.55 },
+  { label: 'Greythorn House, Tessary Road, Greythorn Cross', postcode: 'GRY-9004', lat: -47.25, lon: -128.55 },
 ];
 
 let planner: SessionUser;
@@ -69,6 +69,13 @@ describe('geocode API', () => {
     for (const q of ['qd2 7xb', 'QD27XB']) {
       const res = await search(q);
       expect(res.body.items[0]).toMatchObject({ label: 'Low Mill, Quarren Lane, Quarrendale', score: 1 });
+    }
+  });
+
+  it('matches a postcode of the demo format typed with a space or none', async () => {
+    for (const q of ['GRY-9004', 'gry 9004', 'gry9004']) {
+      const res = await search(q);
+      expect(res.body.items[0]).toMatchObject({ label: 'Greythorn House, Tessary Road, Greythorn Cross', score: 1 });
     }
   });
 

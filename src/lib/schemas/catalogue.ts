@@ -123,7 +123,7 @@ export const AntennaChangeSchema = z
     gainTable: v.gain_table?.map((r) => ({ freqMhz: r.freq_mhz, gainDbi: r.gain_dbi })),
     notes: v.notes,
   }));
-export type AntennaChange = z.output<typeof AntennaChangeSchema>;
+export type AntennaChange = Partial<z.output<typeof AntennaChangeSchema>>;
 
 const connectorLoss = num('Connector loss').min(0, 'Cannot be negative').max(3, 'At most 3 dB per connector');
 const connectors = num('Connectors').int('Connectors must be a whole number').min(0, 'Cannot be negative').max(10, 'At most 10 connectors');
@@ -162,7 +162,7 @@ export const CableChangeSchema = z
     connectors: v.connectors,
     notes: v.notes,
   }));
-export type CableChange = z.output<typeof CableChangeSchema>;
+export type CableChange = Partial<z.output<typeof CableChangeSchema>>;
 
 // --- JSON the API returns ---------------------------------------------------------------
 

@@ -108,7 +108,7 @@ export const CustomerChangeSchema = z
     notes: v.notes,
     rowVersion: v.row_version,
   }));
-export type CustomerChange = z.output<typeof CustomerChangeSchema>;
+export type CustomerChange = Partial<z.output<typeof CustomerChangeSchema>>;
 
 export const CUSTOMER_SORTS = ['name', 'address', 'postcode', 'state', 'created_at', 'updated_at'] as const;
 export type CustomerSort = (typeof CUSTOMER_SORTS)[number];

@@ -77,7 +77,7 @@ export const PlanChangeSchema = z
     state: v.state,
     rowVersion: v.row_version,
   }));
-export type PlanChange = z.output<typeof PlanChangeSchema>;
+export type PlanChange = Partial<z.output<typeof PlanChangeSchema>>;
 
 const intParam = (label: string, min: number, max: number, fallback: number) =>
   z

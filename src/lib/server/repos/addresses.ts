@@ -115,7 +115,7 @@ export async function countAddresses(db: Tx): Promise<number> {
 // Word similarity finds the query inside a longer label ("mill farm" in "Mill Farm,
 // Crake Lane, Kelvarrow KV3 2PL"); 0.45 lets one typo through in a short word while
 // keeping unrelated streets out. Whole similarity breaks ties towards the shorter,
-// closer label. A postcode typed in full wins outright.
+// closer label. A postcode typed in full (spaces and dashes aside) wins outright.
 const WORD_SIMILARITY_THRESHOLD = 0.45;
 
 export async function searchGazetteer(db: Tx, q: string, limit: number): Promise<GazetteerHit[]> {
@@ -123,10 +123,11 @@ export async function searchGazetteer(db: Tx, q: string, limit: number): Promise
     await trx.raw("SELECT set_config('pg_trgm.word_similarity_threshold', ?, true)", [String(WORD_SIMILARITY_THRESHOLD)]);
     const { rows } = await trx.raw<{ rows: (GazetteerHit & { score: string | number })[] }>(
       `SELECT label, postcode, ST_Y(geom) AS lat, ST_X(geom) AS lon,
-              LEAST(1, CASE WHEN replace(upper(coalesce(postcode, '')), ' ', '') = replace(upper(:q), ' ', '') THEN 1
+              LEAST(1, CASE WHEN regexp_replace(upper(coalesce(postcode, '')), '[^A-Z0-9]', '', 'g') = regexp_replace(upper(:q), '[^A-Z0-9]', '', 'g') THEN 1
                             ELSE 0.8 * word_similarity(:q, search_text) + 0.2 * similarity(:q, search_text) END) AS score
          FROM addresses
         WHERE :q <% search_text
+           OR regexp_replace(upper(coalesce(postcode, '')), '[^A-Z0-9]', '', 'g') = regexp_replace(upper(:q), '[^A-Z0-9]', '', 'g')
         ORDER BY score DESC, label, id
         LIMIT :limit`,
       { q, limit },
