@@ -250,7 +250,7 @@ export default function ElevationAdmin() {
   const err = (k: string) => fieldErrors[k]?.map((m) => <p key={m} className="field-error" id={`elevation-${k}-error`}>{m}</p>);
 
   return (
-    <div className="mt-6 grid gap-6 lg:grid-cols-[1fr_22rem]">
+    <div className="mt-6 space-y-6">
       <section className="card min-w-0" aria-labelledby="elevation-heading">
         <h2 id="elevation-heading" className="mb-3">Elevation grids</h2>
         <p aria-live="polite" className="mb-2 min-h-5 text-sm text-ink-600" data-testid="elevation-notice">{notice}</p>
@@ -274,7 +274,7 @@ export default function ElevationAdmin() {
           />
         )}
       </section>
-      <div className="space-y-6">
+      <div className="grid gap-6 md:grid-cols-2">
         <section className="card" aria-labelledby="upload-elevation-heading">
           <h2 id="upload-elevation-heading">Import a grid</h2>
           <p className="mt-1 text-sm text-ink-600">
