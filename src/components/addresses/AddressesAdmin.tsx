@@ -1,0 +1,196 @@
+import { useEffect, useRef, useState, type FormEvent } from 'react';
+import { ApiError } from '../../lib/client/api';
+import { addressesApi, type AddressImportJson, type AddressJson } from '../../lib/client/planning-api';
+import { ADDRESS_IMPORT_MAX_BYTES, MAX_REPORTED_ROW_ERRORS, parseAddressCsv } from '../../lib/schemas/addresses';
+
+const PAGE = 25;
+
+interface Outcome {
+  kind: 'done' | 'rejected' | 'error';
+  message: string;
+  summary?: AddressImportJson;
+  lines?: { key: string; messages: string[] }[];
+}
+
+/** "line 12" → 12, so problems list in file order. */
+const lineOf = (key: string) => Number(key.replace(/\D/g, '')) || 0;
+
+export default function AddressesAdmin() {
+  const [file, setFile] = useState<File | null>(null);
+  const [busy, setBusy] = useState(false);
+  const [outcome, setOutcome] = useState<Outcome | null>(null);
+  const [query, setQuery] = useState('');
+  const [page, setPage] = useState(0);
+  const [list, setList] = useState<{ items: AddressJson[]; total: number } | null>(null);
+  const [listError, setListError] = useState<string | null>(null);
+  const [reload, setReload] = useState(0);
+  const input = useRef<HTMLInputElement>(null);
+
+  useEffect(() => {
+    const t = setTimeout(() => {
+      addressesApi.list({ q: query.trim() || undefined, limit: PAGE, offset: page * PAGE }).then(
+        (r) => {
+          setList(r);
+          setListError(null);
+        },
+        (e: ApiError) => setListError(e.message),
+      );
+    }, 200);
+    return () => clearTimeout(t);
+  }, [query, page, reload]);
+
+  async function upload(e: FormEvent) {
+    e.preventDefault();
+    if (!file) {
+      setOutcome({ kind: 'error', message: 'Choose a CSV file first' });
+      return;
+    }
+    setOutcome(null);
+    if (file.size > ADDRESS_IMPORT_MAX_BYTES) {
+      setOutcome({ kind: 'error', message: `The file is larger than ${ADDRESS_IMPORT_MAX_BYTES / 1024 / 1024} MB; split it and import the parts` });
+      return;
+    }
+    setBusy(true);
+    try {
+      // The same checks as the server, so problems show before anything is sent.
+      const checked = parseAddressCsv(await file.text());
+      if (checked.fileErrors.length) {
+        setOutcome({ kind: 'rejected', message: checked.fileErrors.join(' ') });
+        return;
+      }
+      if (checked.errors.length) {
+        const n = checked.errors.length;
+        setOutcome({
+          kind: 'rejected',
+          message: `${n} row${n === 1 ? ' has' : 's have'} problems; nothing was imported. Fix ${n === 1 ? 'it' : 'them'} and import the file again.`,
+          lines: checked.errors.slice(0, MAX_REPORTED_ROW_ERRORS).map((x) => ({ key: `line ${x.line}`, messages: x.messages })),
+        });
+        return;
+      }
+      const summary = await addressesApi.importFile(file);
+      setOutcome({ kind: 'done', message: `Imported ${file.name}`, summary });
+      setFile(null);
+      if (input.current) input.current.value = '';
+      setReload((n) => n + 1);
+    } catch (err) {
+      if (err instanceof ApiError) {
+        const lines = Object.entries(err.fields)
+          .filter(([k]) => k.startsWith('line '))
+          .sort(([a], [b]) => lineOf(a) - lineOf(b))
+          .map(([key, messages]) => ({ key, messages }));
+        setOutcome({ kind: lines.length ? 'rejected' : 'error', message: err.message, lines });
+      } else setOutcome({ kind: 'error', message: 'Could not import the file' });
+    } finally {
+      setBusy(false);
+    }
+  }
+
+  const pages = list ? Math.max(1, Math.ceil(list.total / PAGE)) : 1;
+
+  return (
+    <div className="mt-6 grid gap-6 lg:grid-cols-[22rem_1fr]">
+      <section className="card min-w-0 self-start" aria-labelledby="import-heading">
+        <h2 id="import-heading">Import a CSV</h2>
+        <form className="mt-3 space-y-3" onSubmit={upload} noValidate>
+          <div>
+            <label htmlFor="addr-file" className="field-label">File</label>
+            <input
+              ref={input}
+              id="addr-file"
+              type="file"
+              accept=".csv,text/csv"
+              className="block w-full text-sm file:mr-3 file:rounded-md file:border file:border-ink-300 file:bg-white file:px-3 file:py-1.5 file:text-sm file:font-semibold"
+              onChange={(e) => setFile(e.target.files?.[0] ?? null)}
+            />
+            <p className="mt-1 text-xs text-ink-600">Up to 5 MB. First line: label,postcode,lat,lon</p>
+          </div>
+          <pre className="overflow-x-auto rounded bg-ink-50 p-2 text-xs text-ink-700" aria-label="Example">{`label,postcode,lat,lon
+"Alder Farm, Crake Lane",KLV-9001,-47.2101,-128.5203`}</pre>
+          <button type="submit" className="btn-primary w-full" disabled={busy}>{busy ? 'Importing…' : 'Import addresses'}</button>
+        </form>
+        <div aria-live="polite" className="mt-4" data-testid="import-outcome">
+          {outcome && (
+            <div className={['rounded-md border p-3 text-sm', outcome.kind === 'done' ? 'border-moss-500 bg-moss-50 text-moss-700' : 'border-alarm-500 bg-alarm-50 text-alarm-700'].join(' ')}>
+              <p className="font-semibold" role={outcome.kind === 'done' ? undefined : 'alert'}>{outcome.message}</p>
+              {outcome.summary && (
+                <p className="mt-1">
+                  {outcome.summary.rows} rows: {outcome.summary.inserted} new, {outcome.summary.updated} moved to a new position.
+                </p>
+              )}
+              {outcome.lines && outcome.lines.length > 0 && (
+                <ul className="mt-2 max-h-72 space-y-1 overflow-y-auto text-ink-800">
+                  {outcome.lines.map((l) => (
+                    <li key={l.key}>
+                      <span className="font-semibold">{l.key[0]!.toUpperCase() + l.key.slice(1)}:</span> {l.messages.join('; ')}
+                    </li>
+                  ))}
+                </ul>
+              )}
+            </div>
+          )}
+        </div>
+      </section>
+
+      <section className="card min-w-0" aria-labelledby="addresses-heading">
+        <div className="mb-3 flex flex-wrap items-center gap-3">
+          <h2 id="addresses-heading">Addresses {list && <span className="font-normal text-ink-600">({list.total})</span>}</h2>
+          <label className="w-full sm:ml-auto sm:w-auto">
+            <span className="sr-only">Search addresses</span>
+            <input
+              type="search"
+              placeholder="Search label or postcode"
+              className="field-input w-full sm:w-72"
+              value={query}
+              onChange={(e) => {
+                setQuery(e.target.value);
+                setPage(0);
+              }}
+            />
+          </label>
+        </div>
+        {listError ? (
+          <p role="alert" className="text-alarm-700">{listError}</p>
+        ) : !list ? (
+          <p className="text-ink-500">Loading addresses…</p>
+        ) : (
+          <>
+            <div className="overflow-x-auto">
+              <table className="data-table">
+                <caption className="sr-only">Addresses</caption>
+                <thead>
+                  <tr>
+                    <th scope="col">Label</th>
+                    <th scope="col">Postcode</th>
+                    <th scope="col" className="text-right">Lat</th>
+                    <th scope="col" className="text-right">Lon</th>
+                    <th scope="col">Source</th>
+                  </tr>
+                </thead>
+                <tbody>
+                  {list.items.length === 0 ? (
+                    <tr><td colSpan={5} className="py-6 text-center text-ink-500">{query ? 'No address matches your search' : 'No addresses yet'}</td></tr>
+                  ) : (
+                    list.items.map((a) => (
+                      <tr key={a.id}>
+                        <td>{a.label}</td>
+                        <td className="whitespace-nowrap">{a.postcode ?? '—'}</td>
+                        <td className="text-right tabular-nums">{a.lat.toFixed(5)}</td>
+                        <td className="text-right tabular-nums">{a.lon.toFixed(5)}</td>
+                        <td>{a.source}</td>
+                      </tr>
+                    ))
+                  )}
+                </tbody>
+              </table>
+            </div>
+            <nav className="mt-3 flex items-center justify-between text-sm" aria-label="Pages">
+              <button type="button" className="btn-secondary py-1" disabled={page === 0} onClick={() => setPage((p) => p - 1)}>Previous</button>
+              <span className="text-ink-600">Page {page + 1} of {pages}</span>
+              <button type="button" className="btn-secondary py-1" disabled={page + 1 >= pages} onClick={() => setPage((p) => p + 1)}>Next</button>
+            </nav>
+          </>
+        )}
+      </section>
+    </div>
+  );
+}

@@ -1,0 +1,157 @@
+// Typed client calls for the catalogue, gazetteer, customers and plans. Response shapes are the
+// API's own (snake_case, units in the names), declared beside the schemas.
+import { ApiError, get, request, type FieldErrors, type List } from './api';
+import type { AntennaJson, AntennaKind, CableJson } from '../schemas/catalogue';
+import type { AddressImportJson, AddressJson, GeocodeMatchJson } from '../schemas/addresses';
+import type { CustomerJson, CustomerSort, HistoryEntryJson } from '../schemas/customers';
+import type { CheckPhase, InstallCheckJson, PlanDetailJson, PlanJson } from '../schemas/plans';
+import type { PlanState } from '../domain/plan-state';
+
+export type { AntennaJson, CableJson, AddressJson, AddressImportJson, GeocodeMatchJson, CustomerJson, HistoryEntryJson, PlanJson, PlanDetailJson, InstallCheckJson };
+
+const qs = (params: Record<string, string | number | undefined | null>) =>
+  new URLSearchParams(
+    Object.entries(params)
+      .filter(([, v]) => v !== undefined && v !== null && v !== '')
+      .map(([k, v]) => [k, String(v)]),
+  ).toString();
+
+// --- catalogue ----------------------------------------------------------------------------
+
+export interface AntennaBody {
+  name: string;
+  kind: AntennaKind;
+  ports: number;
+  horizontal_beamwidth_deg?: number;
+  gain_table: { freq_mhz: number; gain_dbi: number }[];
+  notes?: string | null;
+}
+
+export interface CableBody {
+  name: string;
+  loss_table: { freq_mhz: number; loss_db_per_m: number }[];
+  connector_loss_db: number;
+  connectors: number;
+  notes?: string | null;
+}
+
+export const catalogueApi = {
+  antennas: () => get<List<AntennaJson>>('/api/catalogue/antennas'),
+  createAntenna: (body: AntennaBody) => request<AntennaJson>('POST', '/api/catalogue/antennas', body),
+  updateAntenna: (id: string, body: Partial<AntennaBody>) => request<AntennaJson>('PATCH', `/api/catalogue/antennas/${id}`, body),
+  deleteAntenna: (id: string) => request<void>('DELETE', `/api/catalogue/antennas/${id}`),
+  cables: () => get<List<CableJson>>('/api/catalogue/cables'),
+  createCable: (body: CableBody) => request<CableJson>('POST', '/api/catalogue/cables', body),
+  updateCable: (id: string, body: Partial<CableBody>) => request<CableJson>('PATCH', `/api/catalogue/cables/${id}`, body),
+  deleteCable: (id: string) => request<void>('DELETE', `/api/catalogue/cables/${id}`),
+};
+
+// --- gazetteer ----------------------------------------------------------------------------
+
+/** Uploads a CSV file as multipart (field `file`); the error body lists bad rows by line. */
+async function importAddressFile(file: File): Promise<AddressImportJson> {
+  const form = new FormData();
+  form.append('file', file);
+  let res: Response;
+  try {
+    res = await fetch('/api/addresses/import', { method: 'POST', body: form, credentials: 'same-origin', headers: { Accept: 'application/json' } });
+  } catch {
+    throw new ApiError(0, 'NETWORK', 'The server could not be reached. Check your connection and try again.');
+  }
+  const data = await res.json().catch(() => null);
+  if (!res.ok) {
+    const err = data?.error;
+    throw new ApiError(res.status, err?.code ?? 'UNKNOWN', err?.message ?? `Upload failed (${res.status})`, err?.fields ?? {});
+  }
+  return data as AddressImportJson;
+}
+
+export const addressesApi = {
+  list: (p: { q?: string; limit?: number; offset?: number } = {}) => get<List<AddressJson>>(`/api/addresses?${qs(p)}`),
+  importFile: importAddressFile,
+  geocode: (q: string, limit = 8) => get<List<GeocodeMatchJson>>(`/api/geocode?${qs({ q, limit })}`),
+};
+
+// --- reference ----------------------------------------------------------------------------
+
+export interface OperatorChoice {
+  id: string;
+  name: string;
+  colour: string;
+}
+
+export const referenceApi = {
+  operators: () => get<List<OperatorChoice>>('/api/operators'),
+};
+
+// --- customers ----------------------------------------------------------------------------
+
+export interface CustomerBody {
+  name: string;
+  phone?: string | null;
+  email?: string | null;
+  address_label: string;
+  postcode?: string | null;
+  lat: number;
+  lon: number;
+  current_operator_id?: string | null;
+  current_antenna_id?: string | null;
+  notes?: string | null;
+}
+
+export const customersApi = {
+  list: (p: { q?: string; sort?: CustomerSort; dir?: 'asc' | 'desc'; limit?: number; offset?: number } = {}) =>
+    get<List<CustomerJson>>(`/api/customers?${qs(p)}`),
+  get: (id: string) => get<CustomerJson>(`/api/customers/${id}`),
+  create: (body: CustomerBody) => request<CustomerJson>('POST', '/api/customers', body),
+  update: (id: string, body: Partial<CustomerBody> & { row_version?: number }) => request<CustomerJson>('PATCH', `/api/customers/${id}`, body),
+  history: (id: string) => get<List<HistoryEntryJson>>(`/api/customers/${id}/history`),
+};
+
+// --- plans --------------------------------------------------------------------------------
+
+export interface PlanBody {
+  customer_id: string;
+  cell_id?: string | null;
+  antenna_id?: string | null;
+  cable_id?: string | null;
+  cable_m?: number | null;
+  mount_height_m?: number | null;
+  figures?: Record<string, unknown>;
+  scheduled_for?: string | null;
+  notes?: string | null;
+  state?: 'enquiry' | 'planned';
+}
+
+export type PlanChangeBody = Partial<Omit<PlanBody, 'customer_id' | 'state'>> & { state?: PlanState; row_version?: number };
+
+export interface InstallCheckBody {
+  phase: CheckPhase;
+  taken_at?: string;
+  notes?: string | null;
+  readings?: { pci: number; channel?: number | null; rsrp_dbm: number; rsrq_db?: number | null; sinr_db?: number | null }[];
+  speed_tests?: { down_mbps: number; up_mbps: number; latency_ms?: number | null }[];
+}
+
+export const plansApi = {
+  list: (p: { customer_id?: string; state?: PlanState; limit?: number; offset?: number } = {}) => get<List<PlanJson>>(`/api/plans?${qs(p)}`),
+  get: (id: string) => get<PlanDetailJson>(`/api/plans/${id}`),
+  create: (body: PlanBody) => request<PlanJson>('POST', '/api/plans', body),
+  update: (id: string, body: PlanChangeBody) => request<PlanDetailJson>('PATCH', `/api/plans/${id}`, body),
+  checks: (id: string) => get<List<InstallCheckJson>>(`/api/plans/${id}/checks`),
+  addCheck: (id: string, body: InstallCheckBody) => request<InstallCheckJson>('POST', `/api/plans/${id}/checks`, body),
+};
+
+// --- form checks ----------------------------------------------------------------------------
+
+/** Runs the endpoint's schema in the browser; returns field messages keyed like the server's. */
+export function checkWith(schema: { safeParse: (v: unknown) => { success: true } | { success: false; error: { issues: { path: (string | number)[]; message: string }[] } } }, body: unknown): FieldErrors | null {
+  const result = schema.safeParse(body);
+  if (result.success) return null;
+  const fields: FieldErrors = {};
+  for (const issue of result.error.issues) {
+    const key = issue.path.length ? issue.path.join('.') : '_';
+    (fields[key] ??= []).push(issue.message);
+  }
+  return fields;
+}
