@@ -21,9 +21,9 @@ export default defineConfig({
     schema: {
       DATABASE_URL: envField.string({ context: 'server', access: 'secret', optional: true }),
       SMTP_URL: envField.string({ context: 'server', access: 'secret', optional: true }),
-      MAIL_FROM: envField.string({ context: 'server', access: 'public', optional: true, default: 'Bearline <noreply@bearline.invalid>' }),
-      DATA_DIR: envField.string({ context: 'server', access: 'public', optional: true }),
-      PUBLIC_ORIGIN: envField.string({ context: 'server', access: 'public', optional: true }),
+      MAIL_FROM: envField.string({ context: 'server', access: 'secret', optional: true, default: 'Bearline <noreply@bearline.invalid>' }),
+      DATA_DIR: envField.string({ context: 'server', access: 'secret', optional: true }),
+      PUBLIC_ORIGIN: envField.string({ context: 'server', access: 'secret', optional: true }),
     },
   },
   vite: {

@@ -1,6 +1,12 @@
 // The path calculator: domain figures plus the terrain profile where elevation data covers the path.
 import { summarisePath, type PathSummary } from '../domain/path-summary';
 import type { PathQuery } from '../schemas/tools';
+import type { ElevationProfile } from '../domain/elevation-grid';
+import type { ProfileSample } from '../domain/terrain';
+import { getElevationProfile } from './elevation-service';
+
+/** Samples along the path for the terrain profile and chart. */
+export const PATH_PROFILE_SAMPLES = 400;
 
 export interface PathToolResult {
   summary: PathSummary;
@@ -8,8 +14,18 @@ export interface PathToolResult {
   terrainNote: string | null;
 }
 
+function describeCoverage(profile: ElevationProfile): string | null {
+  const c = profile.coverage;
+  if (c.complete) return null;
+  if (c.coveredCount === 0) return 'No elevation data covers this path: terrain not checked.';
+  return `Elevation data covers ${Math.round(c.fraction * 100)} % of the path (missing from ${((c.firstMissingDistanceM ?? 0) / 1000).toFixed(2)} km): terrain not checked.`;
+}
+
 export async function calculatePath(q: PathQuery, now: Date): Promise<PathToolResult> {
   const date = q.date ?? now;
+  const elevation = await getElevationProfile(q.from, q.to, { maxSamples: PATH_PROFILE_SAMPLES });
+  const complete = elevation.coverage.complete;
+  const profile: ProfileSample[] | undefined = complete ? elevation.points.map((p) => ({ distanceM: p.distanceM, groundM: p.groundM as number })) : undefined;
   const summary = summarisePath({
     from: q.from,
     to: q.to,
@@ -18,8 +34,10 @@ export async function calculatePath(q: PathQuery, now: Date): Promise<PathToolRe
     toHeightM: q.h2_m,
     k: q.k,
     date,
+    profile,
   });
-  return { summary, date, terrainNote: 'No elevation data is loaded: terrain not checked.' };
+  const terrainNote = !complete ? describeCoverage(elevation) : q.freq_mhz ? null : 'Give a frequency to check the Fresnel zone and terrain.';
+  return { summary, date, terrainNote };
 }
 
 const r = (n: number, d: number) => Math.round(n * 10 ** d) / 10 ** d;
