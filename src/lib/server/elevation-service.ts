@@ -14,6 +14,7 @@ import { importElevationFile, type ElevationUpload } from './elevation-import';
 import {
   deleteElevationGrid,
   findGridsCovering,
+  findGridsInBox,
   loadElevationGrid,
   removeSamplesFileIfUnused,
   type ElevationGridRecord,
@@ -44,6 +45,17 @@ export async function getElevationProfile(
 ): Promise<ElevationProfile> {
   const grids = await loadGrids(await findGridsCovering(getDb(), from, to));
   return sampleElevationProfile(grids, from, to, { maxSamples: options.maxSamples });
+}
+
+/**
+ * A profile sampler over one area: the grids meeting the box are loaded once, so many profiles
+ * inside it (a shortlist and its calibration readings) cost no further queries.
+ */
+export async function getAreaProfileSampler(
+  box: readonly [number, number, number, number],
+): Promise<(from: LatLon, to: LatLon, options?: Pick<ProfileOptions, 'maxSamples'>) => Promise<ElevationProfile>> {
+  const grids = await loadGrids(await findGridsInBox(getDb(), box));
+  return async (from, to, options = {}) => sampleElevationProfile(grids, from, to, { maxSamples: options.maxSamples });
 }
 
 /** Ground height at one point from the finest grid with data there, or null. */

@@ -5,8 +5,8 @@ import type { LatLon } from '../../domain/geodesy';
 
 const METRES_PER_DEGREE_LAT = 111_320;
 
-/** A degree box around a point that holds the whole radius (lets the GiST index on geom prefilter). */
-function boxAround(p: LatLon, radiusM: number) {
+/** A degree box (west, south, east, north) around a point that holds the whole radius. */
+export function getSearchBox(p: LatLon, radiusM: number): [number, number, number, number] {
   const dLat = radiusM / METRES_PER_DEGREE_LAT;
   const dLon = radiusM / (METRES_PER_DEGREE_LAT * Math.max(0.01, Math.cos((p.lat * Math.PI) / 180)));
   return [p.lon - dLon, p.lat - dLat, p.lon + dLon, p.lat + dLat];
@@ -63,7 +63,7 @@ export async function listCandidateCells(db: Tx, q: CandidateQuery): Promise<Can
     .where('m.status', 'active')
     .whereIn('c.tech', ['lte', 'nr'])
     .whereNotNull('c.dl_mhz')
-    .whereRaw('m.geom && ST_MakeEnvelope(?, ?, ?, ?, 4326)', boxAround(q.at, q.radiusM))
+    .whereRaw('m.geom && ST_MakeEnvelope(?, ?, ?, ?, 4326)', getSearchBox(q.at, q.radiusM))
     .whereRaw('ST_DWithin(m.geom::geography, ?::geography, ?)', [point, q.radiusM])
     .modify((b) => {
       if (q.operatorId) b.where('c.operator_id', q.operatorId);
@@ -99,7 +99,7 @@ export async function listNearbyReadings(db: Tx, cellIds: string[], at: LatLon, 
           ORDER BY geom <-> ST_SetSRID(ST_MakePoint(?, ?), 4326)
           LIMIT ?
        ) r`,
-    [cellIds, ...boxAround(at, radiusM), at.lon, at.lat, perCell],
+    [cellIds, ...getSearchBox(at, radiusM), at.lon, at.lat, perCell],
   );
   return rows.map((r) => ({ cellId: String(r.cell_id), position: { lat: Number(r.lat), lon: Number(r.lon) }, rsrpDbm: Number(r.rsrp_dbm) }));
 }

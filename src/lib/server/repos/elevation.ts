@@ -159,6 +159,14 @@ export async function findGridsCovering(db: Tx, from: LatLon, to: LatLon): Promi
   return rows.map(toRecord);
 }
 
+/** Grids meeting a longitude/latitude box (west, south, east, north). */
+export async function findGridsInBox(db: Tx, box: readonly [number, number, number, number]): Promise<ElevationGridRecord[]> {
+  const rows: ElevationGridRow[] = await selectGrids(db)
+    .whereRaw('ST_Intersects(g.bounds, ST_MakeEnvelope(?, ?, ?, ?, 4326))', [...box])
+    .orderBy('g.id');
+  return rows.map(toRecord);
+}
+
 export async function findGridsAt(db: Tx, point: LatLon): Promise<ElevationGridRecord[]> {
   return findGridsCovering(db, point, point);
 }

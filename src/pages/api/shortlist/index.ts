@@ -3,13 +3,17 @@ import { handler, json, parseQuery, requirePermission } from '../../../lib/serve
 import { ShortlistQuerySchema } from '../../../lib/schemas/shortlist';
 import { buildShortlist } from '../../../lib/server/shortlist-service';
 import { shortlistJson } from '../../../lib/server/shortlist-json';
-import { getElevationProfile } from '../../../lib/server/elevation-service';
+import { getAreaProfileSampler } from '../../../lib/server/elevation-service';
+import { getSearchBox } from '../../../lib/server/repos/candidates';
+import { DEFAULT_SEARCH_RADIUS_M } from '../../../lib/domain/shortlist';
 
 // Ranked candidate cells for a customer position with the chosen kit.
 export const GET = handler(async ({ locals, url }) => {
   requirePermission(locals, 'map:view');
   const q = parseQuery(ShortlistQuerySchema, url);
   const at = { lat: q.lat, lon: q.lon };
+  // Calibration readings lie within the radius too, so one box serves every profile.
+  const profileFor = await getAreaProfileSampler(getSearchBox(at, q.radius_m ?? DEFAULT_SEARCH_RADIUS_M));
   const result = await buildShortlist(
     getDb(),
     {
@@ -23,7 +27,7 @@ export const GET = handler(async ({ locals, url }) => {
       radiusM: q.radius_m,
       date: q.date ?? new Date(),
     },
-    getElevationProfile,
+    profileFor,
   );
   return json(shortlistJson(result, at));
 });
