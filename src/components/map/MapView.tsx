@@ -15,6 +15,7 @@ import type { FeatureCollection } from 'geojson';
 import { ApiError, mapApi, mastsApi, operatorsApi, regionsApi, type RegionDto, type SearchHitDto } from '../../lib/client/api';
 import { loadLabelFonts } from './label-fonts';
 import {
+  MAST_LABEL_LAYER,
   MAST_SOURCE_ID,
   MAST_SOURCE_LAYER,
   MAST_SYMBOL_LAYER,
@@ -145,7 +146,11 @@ function useIsPhone(): boolean {
 }
 
 export default function MapView({ canEditMasts }: Props) {
-  const mapRef = useRef<MapRef>(null);
+  const mapRef = useRef<MapRef | null>(null);
+  const setMapRef = useCallback((ref: MapRef | null) => {
+    mapRef.current = ref;
+    if (ref) window.bearlineMap = ref.getMap();
+  }, []);
   const frameRef = useRef<HTMLDivElement>(null);
   const [top, setTop] = useState(64);
   const [style, setStyle] = useState<StyleSpecification | null>(null);
@@ -206,14 +211,23 @@ export default function MapView({ canEditMasts }: Props) {
     });
   }, []);
 
+  /** Where a point must sit so that the mast panel (side panel or bottom sheet) does not cover it. */
+  const panelOffset = useCallback((): [number, number] => {
+    const rect = frameRef.current?.getBoundingClientRect();
+    if (!rect) return [0, 0];
+    if (isPhone) return [0, -Math.round(rect.height * 0.29)];
+    return [-Math.round((window.innerWidth >= 1024 ? 512 : 448) / 2), 0];
+  }, [isPhone]);
+
   const onLoad = useCallback(() => {
-    const map = mapRef.current?.getMap();
-    if (map) window.bearlineMap = map;
     const id = new URLSearchParams(window.location.search).get('mast');
     if (id && /^\d+$/.test(id)) {
-      mastsApi.get(id).then((m) => mapRef.current?.jumpTo({ center: [m.lon, m.lat], zoom: Math.max(mapRef.current.getZoom(), 13) }), () => undefined);
+      mastsApi.get(id).then(
+        (m) => mapRef.current?.easeTo({ center: [m.lon, m.lat], zoom: Math.max(mapRef.current.getZoom(), 13), offset: panelOffset(), duration: 0 }),
+        () => undefined,
+      );
     }
-  }, []);
+  }, [panelOffset]);
 
   const onMoveEnd = useCallback(() => {
     const map = mapRef.current;
@@ -226,22 +240,42 @@ export default function MapView({ canEditMasts }: Props) {
     }
   }, []);
 
-  const onClick = useCallback((e: MapLayerMouseEvent) => {
-    const f = e.features?.find((x) => x.layer.id === MAST_SYMBOL_LAYER_ID);
-    if (f?.properties?.id !== undefined) setSelectedId(String(f.properties.id));
-  }, []);
+  const onClick = useCallback(
+    (e: MapLayerMouseEvent) => {
+      const f = e.features?.find((x) => x.layer.id === MAST_SYMBOL_LAYER_ID);
+      if (f?.properties?.id === undefined) return;
+      setSelectedId(String(f.properties.id));
+      const map = mapRef.current;
+      const rect = frameRef.current?.getBoundingClientRect();
+      if (!map || !rect || f.geometry.type !== 'Point') return;
+      const [dx, dy] = panelOffset();
+      const covered = isPhone ? e.point.y > rect.height * 0.4 : e.point.x > rect.width + 2 * dx - 24;
+      if (covered) map.easeTo({ center: f.geometry.coordinates as [number, number], offset: [dx, dy], duration: 400, essential: false });
+    },
+    [isPhone, panelOffset],
+  );
 
-  const onPick = useCallback((hit: SearchHitDto) => {
-    mapRef.current?.flyTo({ center: [hit.lon, hit.lat], zoom: hit.kind === 'mast' ? 14 : 13, essential: false });
-    if (hit.kind === 'mast') setSelectedId(hit.id);
-  }, []);
+  const onPick = useCallback(
+    (hit: SearchHitDto) => {
+      const mast = hit.kind === 'mast';
+      mapRef.current?.flyTo({ center: [hit.lon, hit.lat], zoom: mast ? 14 : 13, offset: mast ? panelOffset() : [0, 0], essential: false });
+      if (mast) setSelectedId(hit.id);
+    },
+    [panelOffset],
+  );
 
   const closePanel = useCallback(() => setSelectedId(null), []);
 
   const filterCount = filters.operators.length + filters.techs.length + filters.bands.length + (filters.statuses.length < 3 ? 1 : 0);
 
   return (
-    <div ref={frameRef} className="relative w-full overflow-hidden bg-[#c9d9e3]" style={{ height: `calc(100dvh - ${top}px)`, minHeight: 360 }} data-testid="map-frame">
+    <div
+      ref={frameRef}
+      className={[
+        'relative w-full overflow-hidden bg-[#c9d9e3]',
+        // Keep the zoom buttons clear of the side panel.
+        selectedId ? 'sm:[&_.maplibregl-ctrl-top-right]:right-[29rem] lg:[&_.maplibregl-ctrl-top-right]:right-[33rem]' : '',
+      ].join(' ')} style={{ height: `calc(100dvh - ${top}px)`, minHeight: 360 }} data-testid="map-frame">
       {loadError && (
         <div role="alert" className="absolute inset-x-4 top-4 z-40 rounded-md border border-alarm-100 bg-alarm-50 p-3 text-sm text-alarm-700">
           {loadError}
@@ -250,8 +284,8 @@ export default function MapView({ canEditMasts }: Props) {
       {!style && !loadError && <p className="absolute inset-0 flex items-center justify-center text-ink-600">Loading the map…</p>}
       {style && operators && initialView && (
         <Map
-          ref={mapRef}
-          initialViewState={{ ...initialView, fitBoundsOptions: { padding: 40 } }}
+          ref={setMapRef}
+          initialViewState={{ ...initialView, fitBoundsOptions: { padding: isPhone ? 24 : { top: 70, bottom: 30, left: 270, right: 60 } } }}
           mapStyle={style}
           interactiveLayerIds={[MAST_SYMBOL_LAYER_ID]}
           cursor={hovering ? 'pointer' : 'grab'}
@@ -276,6 +310,7 @@ export default function MapView({ canEditMasts }: Props) {
           </Source>
           <Source id={MAST_SOURCE_ID} {...source}>
             <Layer {...selectedLayer} />
+            <Layer {...MAST_LABEL_LAYER} filter={mastFilter} />
             <Layer {...MAST_SYMBOL_LAYER} filter={mastFilter} />
           </Source>
         </Map>

@@ -19,7 +19,7 @@ const STATUS_BADGE: Record<MastDetailDto['status'], string> = {
 };
 
 const fmt = (v: number | null | undefined, digits = 0, unit = '') => (v === null || v === undefined ? '—' : `${v.toFixed(digits)}${unit}`);
-const fmtDate = (iso: string | null) => (iso ? new Date(iso).toLocaleDateString(undefined, { year: 'numeric', month: 'short', day: 'numeric' }) : '—');
+const fmtDate = (iso: string | null) => (iso ? iso.slice(0, 10) : '—');
 const fmtTime = (iso: string) => new Date(iso).toLocaleString(undefined, { month: 'short', day: 'numeric', hour: '2-digit', minute: '2-digit' });
 
 const bandOrder = (b: string) => {
@@ -96,13 +96,14 @@ export default function MastPanel({ mastId, operators, canEdit, onClose }: Props
       label: 'Operator',
       sortValue: (c) => c.operator.name,
       render: (c) => (
-        <span className="inline-flex items-center gap-1.5 whitespace-nowrap">
+        <span className="inline-flex items-center gap-1.5 whitespace-nowrap" title={c.operator.name}>
           <span aria-hidden="true" className="inline-block h-2.5 w-2.5 rounded-full" style={{ background: c.operator.colour }} />
-          {c.operator.name}
+          <span aria-hidden="true">{c.operator.name.split(/\s+/)[0]}</span>
+          <span className="sr-only">{c.operator.name}</span>
         </span>
       ),
     },
-    { key: 'tech', label: 'Tech', sortValue: (c) => ['gsm', 'umts', 'lte', 'nr'].indexOf(c.tech), render: (c) => <span className="whitespace-nowrap">{TECH_LABELS[c.tech] ?? c.tech}</span> },
+    { key: 'tech', label: 'Tech', sortValue: (c) => ['gsm', 'umts', 'lte', 'nr'].indexOf(c.tech), render: (c) => <abbr title={TECH_LABELS[c.tech]} className="no-underline">{c.tech.toUpperCase()}</abbr> },
     { key: 'band', label: 'Band', sortValue: (c) => bandOrder(c.band), render: (c) => c.band },
     { key: 'channel', label: 'Channel', sortValue: (c) => c.channel, render: (c) => c.channel, className: 'text-right' },
     { key: 'mhz', label: 'MHz', sortValue: (c) => c.dl_mhz, render: (c) => fmt(c.dl_mhz, 1), className: 'text-right' },
@@ -124,13 +125,13 @@ export default function MastPanel({ mastId, operators, canEdit, onClose }: Props
     <aside
       aria-labelledby="mast-panel-heading"
       data-testid="mast-panel"
-      className="pointer-events-auto absolute inset-x-0 bottom-0 z-30 flex max-h-[58%] flex-col rounded-t-2xl border border-ink-200 bg-white shadow-2xl sm:inset-x-auto sm:bottom-3 sm:right-3 sm:top-3 sm:max-h-none sm:w-[28rem] sm:rounded-xl"
+      className="pointer-events-auto absolute inset-x-0 bottom-0 z-30 flex max-h-[58%] flex-col rounded-t-2xl border border-ink-200 bg-white shadow-2xl sm:inset-x-auto sm:bottom-3 sm:right-3 sm:top-3 sm:max-h-none sm:w-[28rem] sm:rounded-xl lg:w-[32rem]"
     >
       <div className="mx-auto mt-2 h-1.5 w-10 shrink-0 rounded-full bg-ink-200 sm:hidden" aria-hidden="true" />
       <header className="flex items-start gap-3 border-b border-ink-100 px-4 py-3">
         {icon && <img src={icon} alt="" width={34} height={34} className="mt-0.5 shrink-0" />}
         <div className="min-w-0 flex-1">
-          <h2 id="mast-panel-heading" ref={headingRef} tabIndex={-1} className="truncate text-lg outline-none">
+          <h2 id="mast-panel-heading" ref={headingRef} tabIndex={-1} className="truncate text-lg focus:outline-none focus-visible:ring-0 focus-visible:ring-offset-0">
             {mast?.name ?? (error ? 'Mast' : 'Loading mast…')}
           </h2>
           {mast && (
@@ -182,12 +183,12 @@ export default function MastPanel({ mastId, operators, canEdit, onClose }: Props
               )}
             </section>
 
-            <section aria-labelledby="mast-cells-heading" data-testid="mast-cells">
+            <section aria-labelledby="mast-cells-heading" data-testid="mast-cells" className="[&_table]:text-xs [&_td]:px-2 [&_td]:py-1.5 [&_th]:px-2 [&_th]:py-1.5">
               <h3 id="mast-cells-heading" className="mb-1.5 font-semibold text-ink-800">Cells ({mast.cells.length})</h3>
               <SortableTable rows={mast.cells} columns={cellColumns} rowKey={(c) => c.id} initialSort={{ key: 'mhz', dir: 'asc' }} empty="No cells recorded" caption={`Cells on ${mast.name}`} />
             </section>
 
-            <section aria-labelledby="mast-readings-heading">
+            <section aria-labelledby="mast-readings-heading" className="[&_table]:text-xs [&_td]:px-2 [&_td]:py-1.5 [&_th]:px-2 [&_th]:py-1.5">
               <h3 id="mast-readings-heading" className="mb-1.5 font-semibold text-ink-800">Recent readings</h3>
               {mast.recent_readings.length === 0 ? (
                 <p className="text-ink-500">No readings matched to this mast yet.</p>

@@ -14,10 +14,11 @@ export const MAST_SOURCE_ID = 'masts';
 export const MAST_SOURCE_LAYER = 'masts';
 export const MAST_SYMBOL_LAYER_ID = 'masts-symbol';
 export const MAST_SELECTED_LAYER_ID = 'masts-selected';
+export const MAST_LABEL_LAYER_ID = 'masts-label';
 export const MAST_TILE_MAX_ZOOM = 14;
 
 /** Zoom at which mast names appear. */
-export const MAST_LABEL_MIN_ZOOM = 11.5;
+export const MAST_LABEL_MIN_ZOOM = 12;
 
 export function mastSource(origin: string): VectorSourceSpecification {
   return {
@@ -41,7 +42,7 @@ export const MAST_SYMBOL_LAYER: Omit<SymbolLayerSpecification, 'source'> = {
   'source-layer': MAST_SOURCE_LAYER,
   layout: {
     'icon-image': MAST_ICON_EXPRESSION as unknown as ExpressionSpecification,
-    'icon-size': ['interpolate', ['linear'], ['zoom'], 7, 0.55, 10, 0.78, 13, 1],
+    'icon-size': ['interpolate', ['linear'], ['zoom'], 7, 0.5, 10, 0.78, 12, 0.9, 14, 1],
     'icon-overlap': 'never',
     'icon-padding': 0,
     'symbol-sort-key': [
@@ -49,14 +50,25 @@ export const MAST_SYMBOL_LAYER: Omit<SymbolLayerSpecification, 'source'> = {
       ['match', status, 'active', 0, 'planned', 20, 40],
       ['to-number', ['get', 'op_count'], 0],
     ],
-    'text-field': ['step', ['zoom'], '', MAST_LABEL_MIN_ZOOM, ['to-string', ['get', 'name']]],
+  },
+};
+
+/** Mast names, zoomed in; placed after the marks so they step aside for them. */
+export const MAST_LABEL_LAYER: Omit<SymbolLayerSpecification, 'source'> = {
+  id: MAST_LABEL_LAYER_ID,
+  type: 'symbol',
+  'source-layer': MAST_SOURCE_LAYER,
+  minzoom: MAST_LABEL_MIN_ZOOM,
+  layout: {
+    'text-field': ['to-string', ['get', 'name']],
     'text-font': [...LABEL_FONTS.semibold],
     'text-size': 11.5,
     'text-variable-anchor': ['top', 'right', 'left', 'bottom'],
-    'text-radial-offset': 1.35,
+    // Clear of the mark's collision box (half its size at this zoom, in ems of the text).
+    'text-radial-offset': ['interpolate', ['linear'], ['zoom'], 12, 1.75, 14, 1.95],
     'text-justify': 'auto',
-    'text-optional': true,
     'text-max-width': 9,
+    'symbol-sort-key': ['match', status, 'active', 0, 'planned', 1, 2],
   },
   paint: {
     'text-color': ['match', status, 'decommissioned', '#6b7784', '#1f3043'],
@@ -121,24 +133,30 @@ export const REGION_LINE_LAYER: Omit<LineLayerSpecification, 'source'> = {
   layout: { 'line-join': 'round' },
   paint: {
     'line-color': '#6785a3',
-    'line-width': ['interpolate', ['linear'], ['zoom'], 8, 1, 13, 2],
-    'line-dasharray': [4, 2],
-    'line-opacity': 0.8,
+    'line-width': ['interpolate', ['linear'], ['zoom'], 8, 0.8, 13, 1.6],
+    'line-dasharray': [5, 3],
+    'line-opacity': 0.55,
   },
 };
 
+/** Region names, large and quiet, at the middle of each region. */
 export const REGION_LABEL_LAYER: Omit<SymbolLayerSpecification, 'source'> = {
   id: REGION_LABEL_LAYER_ID,
   type: 'symbol',
-  minzoom: 9,
+  minzoom: 8,
+  maxzoom: 12,
   layout: {
-    'symbol-placement': 'line',
-    'symbol-spacing': 400,
     'text-field': ['get', 'name'],
     'text-font': [...LABEL_FONTS.semibold],
-    'text-size': 11,
-    'text-letter-spacing': 0.08,
-    'text-offset': [0, -0.8],
+    'text-size': ['interpolate', ['linear'], ['zoom'], 8, 11, 11, 15],
+    'text-letter-spacing': 0.18,
+    'text-transform': 'uppercase',
+    'text-max-width': 8,
   },
-  paint: { 'text-color': '#476785', 'text-halo-color': 'rgba(255,255,255,0.9)', 'text-halo-width': 1.4 },
+  paint: {
+    'text-color': '#6785a3',
+    'text-opacity': ['interpolate', ['linear'], ['zoom'], 8, 0.75, 11, 0.75, 12, 0],
+    'text-halo-color': 'rgba(255,255,255,0.7)',
+    'text-halo-width': 1.2,
+  },
 };

@@ -18,7 +18,7 @@ export interface OperatorMark {
 }
 
 /** Icon size in CSS pixels (square) and the resolution it is drawn at. */
-export const MAST_ICON_SIZE = 34;
+export const MAST_ICON_SIZE = 40;
 export const MAST_ICON_PIXEL_RATIO = 2;
 
 const INK = '#1f3043';
@@ -97,9 +97,9 @@ export function paintMastMark(
   size = MAST_ICON_SIZE,
 ) {
   const c = size / 2;
-  const orbit = 9.5;
-  const hubR = 4.6;
-  const dotR = opIds.length > 4 ? 3 : 3.8;
+  const orbit = 11.5;
+  const hubR = 5.8;
+  const dotR = opIds.length > 4 ? 4 : 5.2;
   const dots = operatorDots(opIds, operators);
   const gone = status === 'decommissioned';
   const planned = status === 'planned';
@@ -108,14 +108,19 @@ export function paintMastMark(
   ctx.globalAlpha = gone ? 0.78 : 1;
 
   // A soft paper disc keeps the mark legible over roads and woods.
-  circle(ctx, c, c, orbit + dotR + 1.6);
-  ctx.fillStyle = gone ? 'rgba(255,255,255,0.45)' : 'rgba(255,255,255,0.72)';
+  circle(ctx, c, c, orbit + dotR + 1.4);
+  ctx.fillStyle = gone ? 'rgba(255,255,255,0.5)' : 'rgba(255,255,255,0.8)';
   ctx.fill();
+  if (!planned) {
+    ctx.lineWidth = 0.8;
+    ctx.strokeStyle = 'rgba(31,48,67,0.25)';
+    ctx.stroke();
+  }
 
   if (planned) {
     circle(ctx, c, c, orbit + dotR + 1.2);
-    ctx.setLineDash([2.4, 2]);
-    ctx.lineWidth = 1.2;
+    ctx.setLineDash([3, 2.2]);
+    ctx.lineWidth = 1.4;
     ctx.strokeStyle = INK_SOFT;
     ctx.stroke();
     ctx.setLineDash([]);
@@ -127,7 +132,7 @@ export function paintMastMark(
     ctx.beginPath();
     ctx.moveTo(c, c);
     ctx.lineTo(c + Math.cos(d.angle) * orbit, c + Math.sin(d.angle) * orbit);
-    ctx.lineWidth = 1.4;
+    ctx.lineWidth = 1.8;
     ctx.strokeStyle = gone ? GREY : INK;
     if (planned) ctx.setLineDash([1.6, 1.6]);
     ctx.stroke();
@@ -186,7 +191,7 @@ export function paintMastMark(
 /** Draws the mark reserved for pending sightings: a dashed amber diamond. */
 export function paintSightingMark(ctx: CanvasRenderingContext2D, size = MAST_ICON_SIZE) {
   const c = size / 2;
-  const r = 9;
+  const r = 11;
   ctx.save();
   ctx.beginPath();
   ctx.moveTo(c, c - r);

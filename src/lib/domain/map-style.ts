@@ -9,7 +9,7 @@ export const BASEMAP_PALETTE = {
   coast: '#aabccb',
   wood: '#d3e2c8',
   farm: '#eeecd9',
-  grass: '#e4ecd4',
+  moor: '#e8e6d2',
   settled: '#ebe4dc',
   water: '#a7c3d6',
   river: '#86aac2',
@@ -21,6 +21,7 @@ export const BASEMAP_PALETTE = {
   label: '#1f3043',
   labelSoft: '#476785',
   waterLabel: '#36607e',
+  peakLabel: '#6b5a3e',
   halo: 'rgba(255,255,255,0.92)',
 } as const;
 
@@ -52,8 +53,8 @@ const isLine = ['==', ['geometry-type'], 'LineString'] as const;
 const kindOf = ['coalesce', ['get', 'kind'], ['get', 'class'], ''] as const;
 const kindIn = (...kinds: string[]) => ['match', kindOf, kinds, true, false];
 
-const MAJOR_ROADS = ['motorway', 'trunk', 'primary', 'main', 'major'];
-const SECONDARY_ROADS = ['secondary', 'tertiary', 'road'];
+const MAJOR_ROADS = ['motorway', 'trunk', 'primary'];
+const SECONDARY_ROADS = ['secondary', 'tertiary'];
 const TRACKS = ['track', 'path', 'service', 'unpaved'];
 
 function roadWidth(major: number, secondary: number, minor: number, track: number) {
@@ -98,7 +99,7 @@ export const BASEMAP_LAYERS: LayerSpecification[] = [
     ...src,
     'source-layer': 'landuse',
     filter: kindIn('grass', 'grassland', 'meadow', 'heath', 'moor', 'park') as never,
-    paint: { 'fill-color': P.grass },
+    paint: { 'fill-color': P.moor },
   },
   {
     id: 'landuse-settled',
@@ -164,18 +165,34 @@ export const BASEMAP_LAYERS: LayerSpecification[] = [
     },
   },
   {
-    id: 'label-water',
+    id: 'label-water-line',
+    type: 'symbol',
+    ...src,
+    'source-layer': 'water',
+    minzoom: 11,
+    filter: ['all', isLine, ['has', 'name']] as never,
+    layout: {
+      'text-field': ['get', 'name'],
+      'text-font': [...LABEL_FONTS.italic],
+      'text-size': 11.5,
+      'symbol-placement': 'line',
+      'text-letter-spacing': 0.05,
+    },
+    paint: { 'text-color': P.waterLabel, 'text-halo-color': P.halo, 'text-halo-width': 1.2 },
+  },
+  {
+    id: 'label-water-area',
     type: 'symbol',
     ...src,
     'source-layer': 'water',
     minzoom: 10,
-    filter: ['has', 'name'],
+    filter: ['all', isPolygon, ['has', 'name']] as never,
     layout: {
       'text-field': ['get', 'name'],
       'text-font': [...LABEL_FONTS.italic],
       'text-size': 12,
-      'symbol-placement': ['match', ['geometry-type'], 'LineString', 'line', 'point'] as never,
       'text-letter-spacing': 0.05,
+      'text-max-width': 7,
     },
     paint: { 'text-color': P.waterLabel, 'text-halo-color': P.halo, 'text-halo-width': 1.2 },
   },
@@ -195,18 +212,41 @@ export const BASEMAP_LAYERS: LayerSpecification[] = [
     paint: { 'text-color': P.labelSoft, 'text-halo-color': P.halo, 'text-halo-width': 1.4 },
   },
   {
+    id: 'label-peak',
+    type: 'symbol',
+    ...src,
+    'source-layer': 'places',
+    minzoom: 10.5,
+    filter: kindIn('peak', 'hill') as never,
+    layout: {
+      'text-field': [
+        'format',
+        ['get', 'name'], {},
+        ['case', ['has', 'ele_m'], ['concat', '\n', ['to-string', ['round', ['to-number', ['get', 'ele_m']]]], ' m'], ''], { 'font-scale': 0.85 },
+      ],
+      'text-font': [...LABEL_FONTS.italic],
+      'text-size': 11,
+      'text-max-width': 8,
+    },
+    paint: { 'text-color': P.peakLabel, 'text-halo-color': P.halo, 'text-halo-width': 1.3 },
+  },
+  {
     id: 'label-place-minor',
     type: 'symbol',
     ...src,
     'source-layer': 'places',
-    minzoom: 11,
-    filter: ['!', kindIn('city', 'town')] as never,
+    minzoom: 9.5,
+    filter: kindIn('village', 'hamlet', 'locality') as never,
     layout: {
       'text-field': ['get', 'name'],
-      'text-font': [...LABEL_FONTS.regular],
-      'text-size': ['interpolate', ['linear'], ['zoom'], 11, 11, 15, 14],
+      'text-font': ['match', kindOf, 'village', ['literal', [...LABEL_FONTS.semibold]], ['literal', [...LABEL_FONTS.regular]]] as never,
+      'text-size': ['interpolate', ['linear'], ['zoom'], 10, ['match', kindOf, 'village', 12, 10.5], 15, ['match', kindOf, 'village', 16, 13]] as never,
+      'symbol-sort-key': ['coalesce', ['get', 'rank'], 5] as never,
+      'text-max-width': 8,
+      'text-variable-anchor': ['center', 'top', 'bottom', 'left', 'right'],
+      'text-radial-offset': 0.9,
     },
-    paint: { 'text-color': P.labelSoft, 'text-halo-color': P.halo, 'text-halo-width': 1.4 },
+    paint: { 'text-color': P.label, 'text-halo-color': P.halo, 'text-halo-width': 1.5 },
   },
   {
     id: 'label-place-major',
@@ -217,10 +257,35 @@ export const BASEMAP_LAYERS: LayerSpecification[] = [
     layout: {
       'text-field': ['get', 'name'],
       'text-font': [...LABEL_FONTS.bold],
-      'text-size': ['interpolate', ['linear'], ['zoom'], 8, 12, 12, 15, 15, 18],
-      'text-transform': 'none',
+      'text-size': ['interpolate', ['linear'], ['zoom'], 8, 12, 12, 16, 15, 19],
+      'symbol-sort-key': ['coalesce', ['get', 'rank'], 1] as never,
+      'text-max-width': 8,
+      'text-variable-anchor': ['center', 'top', 'bottom', 'left', 'right'],
+      'text-radial-offset': 1,
     },
-    paint: { 'text-color': P.label, 'text-halo-color': P.halo, 'text-halo-width': 1.6 },
+    paint: { 'text-color': P.label, 'text-halo-color': P.halo, 'text-halo-width': 1.8 },
+  },
+  {
+    id: 'label-island',
+    type: 'symbol',
+    ...src,
+    'source-layer': 'places',
+    maxzoom: 10.5,
+    filter: kindIn('island', 'archipelago') as never,
+    layout: {
+      'text-field': ['get', 'name'],
+      'text-font': [...LABEL_FONTS.italic],
+      'text-size': ['interpolate', ['linear'], ['zoom'], 5, 12, 10, 20],
+      'text-letter-spacing': 0.25,
+      'text-transform': 'uppercase',
+      'text-allow-overlap': false,
+    },
+    paint: {
+      'text-color': P.labelSoft,
+      'text-opacity': ['interpolate', ['linear'], ['zoom'], 9.5, 0.9, 10.5, 0],
+      'text-halo-color': P.halo,
+      'text-halo-width': 1.2,
+    },
   },
 ];
 

@@ -1,0 +1,244 @@
+// The mast map in headless Chromium with WebGL: basemap and labels from the app's own tiles and
+// font, mast marks, filters, search, the mast panel (side panel and phone bottom sheet), and no
+// request leaving the machine.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+import type { Map as MaplibreMap } from 'maplibre-gl';
+import { APP_URL, demoEmail, launchBrowser, signIn, watchOutsideRequests } from '../helpers/browser';
+
+declare global {
+  interface Window {
+    bearlineMap?: MaplibreMap;
+  }
+}
+
+const MAST_LAYER = 'masts-symbol';
+const PLACE_LAYERS = ['label-place-major', 'label-place-minor'];
+
+interface RenderedMast {
+  id: string;
+  name: string;
+  status: string;
+  opIds: string[];
+  x: number;
+  y: number;
+}
+
+let browser: Browser;
+
+beforeAll(async () => {
+  browser = await launchBrowser();
+});
+
+afterAll(async () => {
+  await browser?.close();
+});
+
+async function openMap(role: string, viewport = { width: 1280, height: 860 }): Promise<{ context: BrowserContext; page: Page; outside: string[] }> {
+  const context = await browser.newContext({ viewport });
+  const page = await context.newPage();
+  const outside = watchOutsideRequests(page);
+  await signIn(page, demoEmail(role));
+  await page.goto(`${APP_URL}/map`);
+  await waitForMasts(page);
+  return { context, page, outside };
+}
+
+/** Waits until the map is idle with at least one mast mark drawn. */
+async function waitForMasts(page: Page): Promise<void> {
+  await page.waitForFunction(
+    (layer) => {
+      const map = window.bearlineMap;
+      return !!map && map.loaded() && map.areTilesLoaded() && map.queryRenderedFeatures({ layers: [layer] }).length > 0;
+    },
+    MAST_LAYER,
+    { timeout: 30_000 },
+  );
+}
+
+/** Waits for the map to finish rendering after a change. */
+async function settle(page: Page): Promise<void> {
+  await page.evaluate(
+    () =>
+      new Promise<void>((resolve) => {
+        const map = window.bearlineMap!;
+        map.triggerRepaint();
+        map.once('idle', () => resolve());
+      }),
+  );
+}
+
+async function renderedMasts(page: Page): Promise<RenderedMast[]> {
+  return page.evaluate((layer) => {
+    const map = window.bearlineMap!;
+    const rect = map.getCanvas().getBoundingClientRect();
+    const seen = new Map<string, RenderedMast>();
+    for (const f of map.queryRenderedFeatures({ layers: [layer] })) {
+      const p = f.properties ?? {};
+      const id = String(p.id);
+      if (seen.has(id) || f.geometry.type !== 'Point') continue;
+      const pt = map.project(f.geometry.coordinates as [number, number]);
+      seen.set(id, {
+        id,
+        name: String(p.name),
+        status: String(p.status),
+        opIds: String(p.op_ids ?? '').split(',').filter(Boolean),
+        x: rect.left + pt.x,
+        y: rect.top + pt.y,
+      });
+    }
+    return [...seen.values()];
+  }, MAST_LAYER);
+}
+
+describe('mast map', () => {
+  it('draws the basemap, place labels and mast marks with WebGL, fetching nothing from elsewhere', async () => {
+    const { context, page, outside } = await openMap('planner');
+    try {
+      const info = await page.evaluate((placeLayers) => {
+        const map = window.bearlineMap!;
+        const gl = map.getCanvas().getContext('webgl2') ?? map.getCanvas().getContext('webgl');
+        return {
+          webgl: !!gl,
+          labels: map.queryRenderedFeatures({ layers: placeLayers }).map((f) => String(f.properties?.name)),
+          land: map.queryRenderedFeatures({ layers: ['land'] }).length,
+          roads: map.queryRenderedFeatures({ layers: ['road-fill'] }).length,
+          glyphs: map.getStyle().glyphs ?? null,
+          sprite: map.getStyle().sprite ?? null,
+        };
+      }, PLACE_LAYERS);
+      expect(info.webgl).toBe(true);
+      expect(info.land).toBeGreaterThan(0);
+      expect(info.roads).toBeGreaterThan(0);
+      expect(info.labels.length).toBeGreaterThan(0);
+      expect(info.glyphs).toBeNull();
+      expect(info.sprite).toBeNull();
+
+      const masts = await renderedMasts(page);
+      expect(masts.length).toBeGreaterThan(3);
+      await expect(page.getByTestId('map-legend').textContent()).resolves.toContain('Pending sighting');
+      expect(outside).toEqual([]);
+    } finally {
+      await context.close();
+    }
+  });
+
+  it('filters masts by operator and by status without reloading the page', async () => {
+    const { context, page, outside } = await openMap('planner');
+    try {
+      await page.evaluate(() => window.bearlineMap!.setZoom(window.bearlineMap!.getZoom() + 0.5));
+      await settle(page);
+      const all = await renderedMasts(page);
+      const opId = all.flatMap((m) => m.opIds)[0];
+      expect(opId).toBeTruthy();
+      await page.evaluate(() => ((window as unknown as { marker: number }).marker = 42));
+
+      await page.getByTestId('filters-toggle').click();
+      await page.getByTestId(`filter-operator-${opId}`).check({ force: true });
+      await settle(page);
+      const byOperator = await renderedMasts(page);
+      expect(byOperator.length).toBeGreaterThan(0);
+      expect(byOperator.every((m) => m.opIds.includes(opId))).toBe(true);
+
+      await page.getByRole('button', { name: 'Clear' }).click();
+      await page.getByTestId('filter-status-active').uncheck({ force: true });
+      await settle(page);
+      const notActive = await renderedMasts(page);
+      expect(notActive.every((m) => m.status !== 'active')).toBe(true);
+      expect(notActive.length).toBeLessThan(all.length);
+
+      // Still the same document: the filters changed the map in place.
+      await expect(page.evaluate(() => (window as unknown as { marker?: number }).marker)).resolves.toBe(42);
+      expect(outside).toEqual([]);
+    } finally {
+      await context.close();
+    }
+  });
+
+  it('opens a mast panel with a sortable cells table when a mast is clicked', async () => {
+    const { context, page, outside } = await openMap('planner');
+    try {
+      await page.evaluate(() => window.bearlineMap!.setZoom(window.bearlineMap!.getZoom() + 1));
+      await settle(page);
+      const [mast] = (await renderedMasts(page)).filter((m) => m.status === 'active');
+      await page.mouse.click(mast.x, mast.y);
+
+      const panel = page.getByTestId('mast-panel');
+      await panel.getByRole('heading', { level: 2, name: mast.name }).waitFor();
+      await expect(panel.getByTestId('mast-position').textContent()).resolves.toMatch(/^-?\d+\.\d{6}, -?\d+\.\d{6}$/);
+
+      const table = panel.getByTestId('mast-cells').locator('table');
+      const rows = table.locator('tbody tr');
+      expect(await rows.count()).toBeGreaterThan(0);
+      const headers = await table.locator('thead th').allTextContents();
+      for (const h of ['Tech', 'Band', 'Channel', 'MHz', 'PCI', 'Azimuth', 'Last observed']) expect(headers.join('|')).toContain(h);
+
+      await table.getByRole('button', { name: /PCI/ }).click();
+      await expect(table.locator('th[aria-sort]').textContent()).resolves.toContain('PCI');
+      // A planner may not edit masts.
+      expect(await panel.getByRole('link', { name: 'Edit mast' }).count()).toBe(0);
+
+      await panel.getByRole('button', { name: 'Close mast details' }).click();
+      expect(await page.getByTestId('mast-panel').count()).toBe(0);
+      expect(outside).toEqual([]);
+    } finally {
+      await context.close();
+    }
+  });
+
+  it('finds a place by name with the keyboard and flies to it', async () => {
+    const { context, page, outside } = await openMap('reviewer');
+    try {
+      const label = await page.evaluate((layers) => {
+        const f = window.bearlineMap!.queryRenderedFeatures({ layers })[0];
+        return String(f.properties?.name);
+      }, PLACE_LAYERS);
+      const before = await page.evaluate(() => window.bearlineMap!.getZoom());
+      await page.keyboard.press('/');
+      await page.keyboard.type(label.slice(0, 5));
+      await page.getByRole('option', { name: new RegExp(label) }).first().waitFor();
+      await page.keyboard.press('ArrowDown');
+      await page.keyboard.press('ArrowUp');
+      await page.keyboard.press('Enter');
+      await page.waitForFunction((z) => window.bearlineMap!.getZoom() > z + 0.5 && !window.bearlineMap!.isMoving(), before);
+      expect(outside).toEqual([]);
+    } finally {
+      await context.close();
+    }
+  });
+
+  it('offers edit links to those who may edit masts', async () => {
+    const { context, page } = await openMap('reviewer');
+    try {
+      await page.evaluate(() => window.bearlineMap!.setZoom(window.bearlineMap!.getZoom() + 1));
+      await settle(page);
+      const [mast] = await renderedMasts(page);
+      await page.mouse.click(mast.x, mast.y);
+      await page.getByTestId('mast-panel').getByRole('link', { name: 'Edit mast' }).waitFor();
+    } finally {
+      await context.close();
+    }
+  });
+
+  it('shows the mast panel as a bottom sheet on a phone, leaving the map usable', async () => {
+    const { context, page, outside } = await openMap('surveyor', { width: 390, height: 844 });
+    try {
+      const [mast] = (await renderedMasts(page)).filter((m) => m.y > 120 && m.y < 400);
+      expect(mast).toBeTruthy();
+      await page.mouse.click(mast.x, mast.y);
+      const panel = page.getByTestId('mast-panel');
+      await panel.getByRole('heading', { level: 2, name: mast.name }).waitFor();
+      const box = (await panel.boundingBox())!;
+      expect(box.width).toBeGreaterThan(380);
+      expect(Math.round(box.y + box.height)).toBeGreaterThanOrEqual(843);
+      expect(box.height).toBeLessThan(844 * 0.65);
+      // The map above the sheet still takes gestures.
+      const zoom = await page.evaluate(() => window.bearlineMap!.getZoom());
+      await page.getByRole('button', { name: 'Zoom in' }).click();
+      await page.waitForFunction((z) => window.bearlineMap!.getZoom() > z + 0.5, zoom);
+      expect(outside).toEqual([]);
+    } finally {
+      await context.close();
+    }
+  });
+});
