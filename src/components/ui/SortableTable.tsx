@@ -16,10 +16,11 @@ interface Props<T> {
   initialSort?: { key: string; dir: 'asc' | 'desc' };
   empty?: ReactNode;
   caption?: string;
+  rowClassName?: (row: T) => string | undefined;
 }
 
 /** A table whose headers sort by click or keyboard. */
-export function SortableTable<T>({ rows, columns, rowKey, initialSort, empty, caption }: Props<T>) {
+export function SortableTable<T>({ rows, columns, rowKey, initialSort, empty, caption, rowClassName }: Props<T>) {
   const [sort, setSort] = useState(initialSort ?? null);
   const sorted = useMemo(() => {
     const col = columns.find((c) => c.key === sort?.key);
@@ -65,7 +66,7 @@ export function SortableTable<T>({ rows, columns, rowKey, initialSort, empty, ca
             </tr>
           ) : (
             sorted.map((row) => (
-              <tr key={rowKey(row)}>
+              <tr key={rowKey(row)} className={rowClassName?.(row)}>
                 {columns.map((c) => (
                   <td key={c.key} className={c.className}>{c.render(row)}</td>
                 ))}

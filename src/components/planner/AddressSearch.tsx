@@ -1,0 +1,98 @@
+import { useEffect, useId, useState } from 'react';
+import { ApiError } from '../../lib/client/api';
+import { plannerApi, type GeocodeMatch } from '../../lib/client/planner-api';
+import { useDebounced } from '../tools/useDebounced';
+
+interface Props {
+  onPick: (m: GeocodeMatch) => void;
+}
+
+/** Address or coordinates (decimal or DMS) → a position. Arrow keys and Enter work in the list. */
+export default function AddressSearch({ onPick }: Props) {
+  const [q, setQ] = useState('');
+  const [items, setItems] = useState<GeocodeMatch[]>([]);
+  const [error, setError] = useState<string | null>(null);
+  const [active, setActive] = useState(0);
+  const [open, setOpen] = useState(false);
+  const settled = useDebounced(q.trim(), 200);
+  const listId = useId();
+
+  useEffect(() => {
+    if (settled.length < 2) {
+      setItems([]);
+      setError(null);
+      return;
+    }
+    let live = true;
+    plannerApi.geocode(settled).then(
+      (r) => {
+        if (!live) return;
+        setItems(r.items);
+        setActive(0);
+        setError(r.items.length ? null : 'No address matches. Try a postcode, or type coordinates like -47.21, -128.52.');
+      },
+      (e: unknown) => live && (setItems([]), setError(e instanceof ApiError ? e.message : 'Search failed')),
+    );
+    return () => {
+      live = false;
+    };
+  }, [settled]);
+
+  const pick = (m: GeocodeMatch) => {
+    onPick(m);
+    setQ(m.label);
+    setOpen(false);
+  };
+
+  return (
+    <div className="relative">
+      <label htmlFor="plan-address" className="field-label">Customer address or coordinates</label>
+      <input
+        id="plan-address"
+        className="field-input"
+        role="combobox"
+        aria-expanded={open && items.length > 0}
+        aria-controls={listId}
+        aria-autocomplete="list"
+        autoComplete="off"
+        placeholder="Street, farm, postcode, or lat, lon"
+        value={q}
+        onChange={(e) => {
+          setQ(e.target.value);
+          setOpen(true);
+        }}
+        onFocus={() => setOpen(true)}
+        onKeyDown={(e) => {
+          if (e.key === 'ArrowDown') setActive((a) => Math.min(a + 1, items.length - 1));
+          else if (e.key === 'ArrowUp') setActive((a) => Math.max(a - 1, 0));
+          else if (e.key === 'Enter' && items[active]) {
+            e.preventDefault();
+            pick(items[active]);
+          } else if (e.key === 'Escape') setOpen(false);
+        }}
+      />
+      {error && <p className="mt-1 text-xs text-ink-600" role="status">{error}</p>}
+      {open && items.length > 0 && (
+        <ul id={listId} role="listbox" className="absolute z-20 mt-1 max-h-72 w-full overflow-auto rounded-md border border-ink-200 bg-white shadow-lg">
+          {items.map((m, i) => (
+            <li
+              key={`${m.label}-${m.lat}-${m.lon}`}
+              role="option"
+              aria-selected={i === active}
+              className={`cursor-pointer px-3 py-2 text-sm ${i === active ? 'bg-ink-100' : ''}`}
+              onMouseDown={(e) => {
+                e.preventDefault();
+                pick(m);
+              }}
+              onMouseEnter={() => setActive(i)}
+            >
+              <span className="font-semibold">{m.label}</span>
+              {m.postcode && <span className="ml-2 text-ink-500">{m.postcode}</span>}
+              {m.kind === 'coordinates' && <span className="ml-2 text-ink-500">(typed position)</span>}
+            </li>
+          ))}
+        </ul>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,82 @@
+import { useState } from 'react';
+import type { ShortlistItem } from '../../lib/client/planner-api';
+import { SortableTable, type Column } from '../ui/SortableTable';
+import { GradeBadge, TERRAIN_LABELS } from './grades';
+
+interface Props {
+  items: ShortlistItem[];
+  selectedCellId: string | null;
+  onSelect: (cellId: string) => void;
+}
+
+const km = (m: number) => (m / 1000).toFixed(1);
+
+/** Rows shown before "Show all": the best candidates matter, the tail is for completeness. */
+const FIRST_ROWS = 12;
+
+export default function ShortlistTable({ items, selectedCellId, onSelect }: Props) {
+  const [showAll, setShowAll] = useState(false);
+  const selectedIndex = items.findIndex((i) => i.cell_id === selectedCellId);
+  const visible = showAll ? items : items.slice(0, Math.max(FIRST_ROWS, selectedIndex + 1));
+  const columns: Column<ShortlistItem>[] = [
+    { key: 'rank', label: '#', sortValue: (i) => i.rank, render: (i) => i.rank },
+    {
+      key: 'mast',
+      label: 'Mast / cell',
+      sortValue: (i) => i.mast.name,
+      render: (i) => (
+        <button type="button" className="text-left" onClick={() => onSelect(i.cell_id)} aria-pressed={i.cell_id === selectedCellId}>
+          <span className="block font-semibold underline decoration-ink-300 underline-offset-2">{i.mast.name}</span>
+          <span className="text-xs text-ink-600">
+            <span className="mr-1 inline-block h-2 w-2 rounded-full" style={{ background: i.operator.colour ?? '#476785' }} aria-hidden="true" />
+            {i.operator.name} · {i.tech.toUpperCase()} {i.band} · ch {i.channel} · PCI {i.pci ?? '—'}
+          </span>
+        </button>
+      ),
+    },
+    { key: 'dist', label: 'km', sortValue: (i) => i.distance_m, render: (i) => <span className="tabular-nums">{km(i.distance_m)}</span>, className: 'text-right' },
+    {
+      key: 'bearing',
+      label: 'Aim °T / °M',
+      sortValue: (i) => i.bearing_true_deg,
+      render: (i) => <span className="tabular-nums">{i.bearing_true_deg.toFixed(0)} / {i.bearing_magnetic_deg.toFixed(0)}</span>,
+      className: 'text-right',
+    },
+    { key: 'elev', label: 'Tilt °', sortValue: (i) => i.elevation_deg, render: (i) => <span className="tabular-nums">{i.elevation_deg.toFixed(2)}</span>, className: 'text-right' },
+    { key: 'terrain', label: 'Terrain', sortValue: (i) => i.terrain.diffraction_loss_db, render: (i) => TERRAIN_LABELS[i.terrain.status] },
+    {
+      key: 'rsrp',
+      label: 'RSRP dBm',
+      sortValue: (i) => i.predicted_rsrp_dbm,
+      render: (i) => (
+        <span className="flex flex-wrap items-center justify-end gap-1">
+          <span className="font-semibold tabular-nums" data-testid="rsrp">{i.predicted_rsrp_dbm.toFixed(0)}</span>
+          <GradeBadge grade={i.grade} />
+        </span>
+      ),
+      className: 'text-right',
+    },
+    {
+      key: 'gain',
+      label: 'Gain dB',
+      sortValue: (i) => i.expected_gain_db,
+      render: (i) => <span className="tabular-nums">{i.expected_gain_db === null ? '—' : `${i.expected_gain_db > 0 ? '+' : ''}${i.expected_gain_db.toFixed(1)}`}</span>,
+      className: 'text-right',
+    },
+    {
+      key: 'cal',
+      label: 'Readings',
+      sortValue: (i) => i.calibration?.readings_used ?? 0,
+      render: (i) => (i.calibration ? <span title={`median residual ${i.calibration.residual_db} dB`}>{i.calibration.readings_used}</span> : '—'),
+      className: 'text-right',
+    },
+  ];
+  return (
+    <>
+      <SortableTable rows={visible} columns={columns} rowKey={(i) => i.cell_id} empty="No active LTE or NR cell within the search radius" caption="Shortlist" rowClassName={(i) => (i.cell_id === selectedCellId ? 'bg-ember-50' : undefined)} />
+      {items.length > visible.length && (
+        <button type="button" className="btn-secondary mt-3" onClick={() => setShowAll(true)}>Show all {items.length} candidates</button>
+      )}
+    </>
+  );
+}
