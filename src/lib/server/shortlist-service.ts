@@ -79,9 +79,9 @@ async function calibrate(
     const cell = byCell.get(r.cellId)!;
     const samples = toSamples(await profileFor(r.position, cell.mastPosition, { maxSamples: 64 }));
     const diffraction = samples
-      ? analysePathProfile({ samples, txHeightM: READING_HEIGHT_M, rxHeightM: cell.antennaHeightM ?? DEFAULT_MAST_ANTENNA_HEIGHT_M, freqMhz: cell.dlMhz }).diffractionLossDb
+      ? analysePathProfile({ samples, txHeightM: r.heightM ?? READING_HEIGHT_M, rxHeightM: cell.antennaHeightM ?? DEFAULT_MAST_ANTENNA_HEIGHT_M, freqMhz: cell.dlMhz }).diffractionLossDb
       : 0;
-    const modelled = modelCellAt(cell, r.position, { receiveGainDbi: READING_ANTENNA_GAIN_DBI, diffractionLossDb: diffraction });
+    const modelled = modelCellAt(cell, r.position, { receiveGainDbi: r.antennaGainDbi ?? READING_ANTENNA_GAIN_DBI, diffractionLossDb: diffraction });
     const list = residuals.get(r.cellId) ?? [];
     list.push(r.rsrpDbm - modelled.rsrpDbm);
     residuals.set(r.cellId, list);

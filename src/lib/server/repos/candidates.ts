@@ -83,16 +83,19 @@ export interface CellReading {
   cellId: string;
   position: LatLon;
   rsrpDbm: number;
+  /** Net gain of the receiving antenna and feeder; null for a device's own antenna. */
+  antennaGainDbi: number | null;
+  heightM: number | null;
 }
 
 /** Up to `perCell` readings of each cell nearest to a point, within a radius. */
 export async function listNearbyReadings(db: Tx, cellIds: string[], at: LatLon, radiusM: number, perCell: number): Promise<CellReading[]> {
   if (cellIds.length === 0) return [];
-  const { rows } = await db.raw<{ rows: { cell_id: string; lat: number; lon: number; rsrp_dbm: number }[] }>(
-    `SELECT c.id AS cell_id, r.lat, r.lon, r.rsrp_dbm
+  const { rows } = await db.raw<{ rows: { cell_id: string; lat: number; lon: number; rsrp_dbm: number; antenna_gain_dbi: number | null; height_m: number | null }[] }>(
+    `SELECT c.id AS cell_id, r.lat, r.lon, r.rsrp_dbm, r.antenna_gain_dbi, r.height_m
        FROM unnest(?::bigint[]) AS c(id)
        CROSS JOIN LATERAL (
-         SELECT ST_Y(geom) AS lat, ST_X(geom) AS lon, rsrp_dbm
+         SELECT ST_Y(geom) AS lat, ST_X(geom) AS lon, rsrp_dbm, antenna_gain_dbi, height_m
            FROM readings
           WHERE cell_id = c.id AND rsrp_dbm IS NOT NULL
             AND geom && ST_MakeEnvelope(?, ?, ?, ?, 4326)
@@ -101,5 +104,11 @@ export async function listNearbyReadings(db: Tx, cellIds: string[], at: LatLon, 
        ) r`,
     [cellIds, ...getSearchBox(at, radiusM), at.lon, at.lat, perCell],
   );
-  return rows.map((r) => ({ cellId: String(r.cell_id), position: { lat: Number(r.lat), lon: Number(r.lon) }, rsrpDbm: Number(r.rsrp_dbm) }));
+  return rows.map((r) => ({
+    cellId: String(r.cell_id),
+    position: { lat: Number(r.lat), lon: Number(r.lon) },
+    rsrpDbm: Number(r.rsrp_dbm),
+    antennaGainDbi: r.antenna_gain_dbi,
+    heightM: r.height_m,
+  }));
 }
