@@ -176,7 +176,7 @@ describe('mast map', () => {
       await table.getByRole('button', { name: /PCI/ }).click();
       await expect(table.locator('th[aria-sort]').textContent()).resolves.toContain('PCI');
       // A planner may not edit masts.
-      expect(await panel.getByRole('link', { name: 'Edit mast' }).count()).toBe(0);
+      expect(await panel.getByRole('button', { name: 'Edit mast' }).count()).toBe(0);
 
       await panel.getByRole('button', { name: 'Close mast details' }).click();
       expect(await page.getByTestId('mast-panel').count()).toBe(0);
@@ -207,14 +207,30 @@ describe('mast map', () => {
     }
   });
 
-  it('offers edit links to those who may edit masts', async () => {
-    const { context, page } = await openMap('reviewer');
+  it('lets those who may edit masts correct one in the panel, with errors beside the fields', async () => {
+    const { context, page, outside } = await openMap('reviewer');
     try {
       await page.evaluate(() => window.bearlineMap!.setZoom(window.bearlineMap!.getZoom() + 1));
       await settle(page);
       const [mast] = await renderedMasts(page);
       await page.mouse.click(mast.x, mast.y);
-      await page.getByTestId('mast-panel').getByRole('link', { name: 'Edit mast' }).waitFor();
+      const panel = page.getByTestId('mast-panel');
+      await panel.getByRole('heading', { level: 2, name: mast.name }).waitFor();
+      await panel.getByRole('button', { name: 'Edit mast' }).click();
+
+      const form = panel.getByTestId('mast-edit-form');
+      await form.getByLabel('Latitude').fill('123');
+      await form.getByRole('button', { name: 'Save mast' }).click();
+      await form.locator('#mast-lat-error').waitFor();
+      await expect(form.locator('#mast-lat-error').textContent()).resolves.toMatch(/between/);
+
+      const notes = `Gate code changes monthly (${Date.now()})`;
+      await form.getByRole('button', { name: 'Cancel' }).click();
+      await panel.getByRole('button', { name: 'Edit mast' }).click();
+      await panel.getByLabel('Access notes').fill(notes);
+      await panel.getByRole('button', { name: 'Save mast' }).click();
+      await panel.getByText(notes).waitFor();
+      expect(outside).toEqual([]);
     } finally {
       await context.close();
     }

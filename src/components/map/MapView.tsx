@@ -193,7 +193,8 @@ export default function MapView({ canEditMasts }: Props) {
     if (id && /^\d+$/.test(id)) setSelectedId(id);
   }, []);
 
-  const source = useMemo(() => mastSource(origin), [origin]);
+  const [tileVersion, setTileVersion] = useState(0);
+  const source = useMemo(() => mastSource(origin, tileVersion), [origin, tileVersion]);
   const mastFilter = useMemo(() => buildMastFilter(filters), [filters]);
   const selectedLayer = useMemo(() => selectedMastLayer(selectedId), [selectedId]);
   const regionData = useMemo(() => regionFeatures(regions), [regions]);
@@ -265,6 +266,7 @@ export default function MapView({ canEditMasts }: Props) {
   );
 
   const closePanel = useCallback(() => setSelectedId(null), []);
+  const onMastChanged = useCallback(() => setTileVersion((v) => v + 1), []);
 
   const filterCount = filters.operators.length + filters.techs.length + filters.bands.length + (filters.statuses.length < 3 ? 1 : 0);
 
@@ -343,7 +345,7 @@ export default function MapView({ canEditMasts }: Props) {
         </div>
       )}
 
-      {selectedId && operators && <MastPanel mastId={selectedId} operators={operators} canEdit={canEditMasts} onClose={closePanel} />}
+      {selectedId && operators && <MastPanel mastId={selectedId} operators={operators} canEdit={canEditMasts} onClose={closePanel} onChanged={onMastChanged} />}
       <p className="sr-only" aria-live="polite">{selectedId ? '' : 'Select a mast on the map, or search for one by name, to see its cells.'}</p>
     </div>
   );

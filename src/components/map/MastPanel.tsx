@@ -4,12 +4,15 @@ import { STRUCTURE_TYPE_LABELS, type StructureType } from '../../lib/schemas/mas
 import { SortableTable, type Column } from '../ui/SortableTable';
 import { MAST_STATUS_LABELS, mastIconDataUrl, type OperatorMark } from './mast-icons';
 import { TECH_LABELS } from './MapFilters';
+import MastEditForm from './MastEditForm';
 
 interface Props {
   mastId: string;
   operators: readonly OperatorMark[];
   canEdit: boolean;
   onClose: () => void;
+  /** Called after the mast was edited, so the map can redraw it. */
+  onChanged: () => void;
 }
 
 const STATUS_BADGE: Record<MastDetailDto['status'], string> = {
@@ -51,15 +54,17 @@ function CopyPosition({ lat, lon }: { lat: number; lon: number }) {
 }
 
 /** Details of one mast: structure, position, operators, cells and recent readings. */
-export default function MastPanel({ mastId, operators, canEdit, onClose }: Props) {
+export default function MastPanel({ mastId, operators, canEdit, onClose, onChanged }: Props) {
   const [mast, setMast] = useState<MastDetailDto | null>(null);
   const [error, setError] = useState<string | null>(null);
+  const [editing, setEditing] = useState(false);
+  const [version, setVersion] = useState(0);
   const headingRef = useRef<HTMLHeadingElement>(null);
 
   useEffect(() => {
     let stale = false;
-    setMast(null);
     setError(null);
+    setEditing(false);
     mastsApi.get(mastId).then(
       (m) => !stale && setMast(m),
       (e: unknown) => !stale && setError(e instanceof ApiError ? e.message : 'Could not load the mast'),
@@ -67,14 +72,16 @@ export default function MastPanel({ mastId, operators, canEdit, onClose }: Props
     return () => {
       stale = true;
     };
-  }, [mastId]);
+  }, [mastId, version]);
+
+  useEffect(() => setMast(null), [mastId]);
 
   useEffect(() => {
     if (mast) headingRef.current?.focus();
   }, [mast]);
 
   useEffect(() => {
-    const onKey = (e: KeyboardEvent) => e.key === 'Escape' && onClose();
+    const onKey = (e: KeyboardEvent) => e.key === 'Escape' && !(e.target instanceof HTMLElement && e.target.closest('form')) && onClose();
     window.addEventListener('keydown', onKey);
     return () => window.removeEventListener('keydown', onKey);
   }, [onClose]);
@@ -149,9 +156,20 @@ export default function MastPanel({ mastId, operators, canEdit, onClose }: Props
       <div className="min-h-0 flex-1 space-y-4 overflow-y-auto px-4 py-3 text-sm">
         {error && <p role="alert" className="text-alarm-700">{error}</p>}
         {!mast && !error && <p className="text-ink-500">Loading…</p>}
-        {mast && (
+        {mast && editing && (
+          <MastEditForm
+            key={mast.row_version}
+            mast={mast}
+            onCancel={() => setEditing(false)}
+            onSaved={() => {
+              setVersion((v) => v + 1);
+              onChanged();
+            }}
+          />
+        )}
+        {mast && !editing && (
           <>
-            <dl className="grid grid-cols-[7.5rem_1fr] gap-x-3 gap-y-1.5">
+            <dl className="grid grid-cols-[6.5rem_1fr] gap-x-3 gap-y-1.5">
               <dt className="text-ink-500">Structure</dt>
               <dd>{STRUCTURE_TYPE_LABELS[mast.structure_type as StructureType] ?? mast.structure_type}{mast.structure_height_m !== null && `, ${fmt(mast.structure_height_m, 0, ' m')} high`}</dd>
               <dt className="text-ink-500">Ground</dt>
@@ -198,10 +216,9 @@ export default function MastPanel({ mastId, operators, canEdit, onClose }: Props
             </section>
 
             {canEdit && (
-              <nav aria-label="Mast actions" className="flex flex-wrap gap-2 border-t border-ink-100 pt-3">
-                <a className="btn-secondary py-1.5" href={`/masts/${mast.id}/edit`}>Edit mast</a>
-                <a className="btn-secondary py-1.5" href={`/masts/${mast.id}/edit#cells`}>Edit cells</a>
-              </nav>
+              <div className="flex flex-wrap gap-2 border-t border-ink-100 pt-3">
+                <button type="button" className="btn-secondary py-1.5" onClick={() => setEditing(true)}>Edit mast</button>
+              </div>
             )}
           </>
         )}

@@ -20,10 +20,11 @@ export const MAST_TILE_MAX_ZOOM = 14;
 /** Zoom at which mast names appear. */
 export const MAST_LABEL_MIN_ZOOM = 12;
 
-export function mastSource(origin: string): VectorSourceSpecification {
+/** The mast tiles; a new `version` makes MapLibre fetch them afresh after an edit. */
+export function mastSource(origin: string, version = 0): VectorSourceSpecification {
   return {
     type: 'vector',
-    tiles: [origin + tilePathTemplate('masts')],
+    tiles: [origin + tilePathTemplate('masts') + (version ? `?v=${version}` : '')],
     minzoom: 0,
     maxzoom: MAST_TILE_MAX_ZOOM,
   };

@@ -194,6 +194,9 @@ export const mastsApi = {
   list: (filter: { bbox?: string; operator?: string[]; band?: string[]; tech?: string[]; status?: string[]; limit?: number } = {}) =>
     get<MastCollectionDto>(`/api/masts${query(filter)}`),
   get: (id: string) => get<MastDetailDto>(`/api/masts/${encodeURIComponent(id)}`),
+  /** Partial change; `row_version` must be the one last read, or the answer is 409 (CONFLICT). */
+  update: (id: string, change: Record<string, unknown> & { row_version: number }) =>
+    request<Omit<MastDetailDto, 'operators' | 'cells' | 'recent_readings'>>('PATCH', `/api/masts/${encodeURIComponent(id)}`, change),
 };
 
 export const regionsApi = {
