@@ -258,3 +258,58 @@ describe('mast map', () => {
     }
   });
 });
+
+describe('operators and regions admin', () => {
+  it('saves an operator colour that the map legend then uses, and shows bad input beside the field', async () => {
+    const context = await browser.newContext({ viewport: { width: 1280, height: 860 } });
+    const page = await context.newPage();
+    const outside = watchOutsideRequests(page);
+    try {
+      await signIn(page, demoEmail('admin'));
+      await page.goto(`${APP_URL}/admin/operators`);
+      const input = page.getByTestId('colour-input-3');
+      await input.waitFor();
+      const original = await input.inputValue();
+
+      await input.fill('#12');
+      await page.getByRole('button', { name: 'Save' }).click();
+      await page.locator('#colour-3-error').waitFor();
+
+      await input.fill('#8844cc');
+      await page.getByRole('button', { name: 'Save' }).click();
+      await page.getByTestId('operators-notice').filter({ hasText: '#8844cc' }).waitFor();
+
+      await page.goto(`${APP_URL}/map`);
+      const legendDots = page.getByTestId('map-legend').locator('li span[aria-hidden="true"].rounded-full');
+      await legendDots.first().waitFor();
+      const colours = await legendDots.evaluateAll((els) => els.map((e) => getComputedStyle(e).backgroundColor));
+      expect(colours).toContain('rgb(136, 68, 204)');
+
+      await page.goto(`${APP_URL}/admin/operators`);
+      await page.getByTestId('colour-input-3').fill(original);
+      await page.getByRole('button', { name: 'Save' }).click();
+      await page.getByTestId('operators-notice').filter({ hasText: original }).waitFor();
+      expect(outside).toEqual([]);
+    } finally {
+      await context.close();
+    }
+  });
+
+  it('refuses a region file without a polygon, with the reason beside the file field', async () => {
+    const context = await browser.newContext();
+    const page = await context.newPage();
+    try {
+      await signIn(page, demoEmail('admin'));
+      await page.goto(`${APP_URL}/admin/regions`);
+      await page.getByRole('table', { name: 'Regions' }).waitFor();
+      await page.setInputFiles('#region-file', {
+        name: 'point.geojson',
+        mimeType: 'application/geo+json',
+        buffer: Buffer.from(JSON.stringify({ type: 'Point', coordinates: [-128.5, -47.2] })),
+      });
+      await expect(page.locator('#region-file-error').textContent()).resolves.toContain('No Polygon or MultiPolygon');
+    } finally {
+      await context.close();
+    }
+  });
+});
