@@ -28,6 +28,12 @@ function Facts({ items }: { items: Array<[string, ReactNode]> }) {
   );
 }
 
+const TERRAIN_LABELS: Record<string, string> = {
+  clear: 'Clear line of sight',
+  fresnel: 'Fresnel zone infringed',
+  obstructed: 'Obstructed',
+};
+
 const STEP_VERB: Record<PlanState, string> = {
   enquiry: 'Back to enquiry',
   planned: 'Mark planned',
@@ -104,7 +110,7 @@ function PlanCard({ plan, canWrite, onChanged }: { plan: PlanDetailJson; canWrit
               ['Distance', typeof f.distance_m === 'number' ? `${(f.distance_m / 1000).toFixed(2)} km` : '—'],
               ['Bearing', `${fmt(f.bearing_true_deg, 1, '° true')} · ${fmt(f.bearing_magnetic_deg, 1, '° magnetic')}`],
               ['Elevation', fmt(f.elevation_deg, 2, '°')],
-              ['Terrain', terrain ?? '—'],
+              ['Terrain', terrain ? (TERRAIN_LABELS[terrain] ?? terrain) : '—'],
             ]}
           />
         ) : (
