@@ -12,6 +12,7 @@ import type { ElevationProfile } from '../src/lib/domain/elevation-grid';
 import type { PlanState } from '../src/lib/domain/plan-state';
 import { createCustomer } from '../src/lib/server/repos/customers';
 import { addInstallCheck, createPlan, updatePlan } from '../src/lib/server/repos/plans';
+import { syncInstallReadings } from '../src/lib/server/repos/install-feedback';
 import { buildShortlist, type ProfileProvider } from '../src/lib/server/shortlist-service';
 import { shortlistJson } from '../src/lib/server/shortlist-json';
 
@@ -197,6 +198,9 @@ export async function seed(knex: Knex): Promise<void> {
       surveyorId,
       new Date(`${day}T12:05:00Z`),
     );
-    if (c.target === 'verified') await updatePlan(knex, plan.id, { state: 'verified' }, plannerId);
+    if (c.target === 'verified') {
+      await updatePlan(knex, plan.id, { state: 'verified' }, plannerId);
+      await syncInstallReadings(knex, plan.id);
+    }
   }
 }

@@ -4,6 +4,7 @@ import { ForbiddenError } from '../../../lib/server/errors';
 import { canViewPlans } from '../../../lib/domain/plan-state';
 import { findPlanDetail, planDetailJson, updatePlan } from '../../../lib/server/repos/plans';
 import { PlanChangeSchema } from '../../../lib/schemas/plans';
+import { syncInstallReadings } from '../../../lib/server/repos/install-feedback';
 import { IdParamSchema } from '../../../lib/schemas/users';
 
 // The plan with its install checks and the measured result against the prediction.
@@ -17,6 +18,9 @@ export const PATCH = handler(async ({ locals, params, request }) => {
   const actor = requirePermission(locals, 'plans:write');
   const { id } = parseWith(IdParamSchema, params);
   const change = await parseBody(PlanChangeSchema, request);
-  await getDb().transaction((trx) => updatePlan(trx, id, change, actor.id));
+  await getDb().transaction(async (trx) => {
+    await updatePlan(trx, id, change, actor.id);
+    if (change.state !== undefined) await syncInstallReadings(trx, id);
+  });
   return json(planDetailJson(await findPlanDetail(getDb(), id)));
 });

@@ -4,6 +4,7 @@ import { ForbiddenError } from '../../../../lib/server/errors';
 import { canRecordChecks, canViewPlans } from '../../../../lib/domain/plan-state';
 import { addInstallCheck, findPlan, installCheckJson, listInstallChecks } from '../../../../lib/server/repos/plans';
 import { InstallCheckInputSchema } from '../../../../lib/schemas/plans';
+import { syncInstallReadings } from '../../../../lib/server/repos/install-feedback';
 import { IdParamSchema } from '../../../../lib/schemas/users';
 
 export const GET = handler(async ({ locals, params }) => {
@@ -21,6 +22,10 @@ export const POST = handler(async ({ locals, params, request }) => {
   if (!canRecordChecks(actor.role)) throw new ForbiddenError();
   const { id } = parseWith(IdParamSchema, params);
   const input = await parseBody(InstallCheckInputSchema, request);
-  const check = await getDb().transaction((trx) => addInstallCheck(trx, id, input, actor.id, new Date()));
+  const check = await getDb().transaction(async (trx) => {
+    const added = await addInstallCheck(trx, id, input, actor.id, new Date());
+    await syncInstallReadings(trx, id);
+    return added;
+  });
   return json(installCheckJson(check), 201);
 });

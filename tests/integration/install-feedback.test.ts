@@ -1,0 +1,83 @@
+// Verified installs feed their after-install readings into the calibration of the measured cell.
+import { beforeEach, describe, expect, it } from 'vitest';
+import { POST as createPlan } from '../../src/pages/api/plans/index';
+import { PATCH as patchPlan } from '../../src/pages/api/plans/[id]';
+import { POST as addCheck } from '../../src/pages/api/plans/[id]/checks';
+import { GET as shortlist } from '../../src/pages/api/shortlist/index';
+import { getFreeSpacePathLossDb } from '../../src/lib/domain/link-budget';
+import { call } from '../helpers/endpoint';
+import { testDb, truncateAll } from '../helpers/db';
+import { asSessionUser, makeUser } from '../helpers/factories';
+import type { SessionUser } from '../../src/lib/server/session-user';
+
+let planner: SessionUser;
+const ids: Record<string, string> = {};
+
+beforeEach(async () => {
+  await truncateAll();
+  planner = asSessionUser(await makeUser('planner'));
+  const db = testDb();
+  const [op] = await db('operators').insert({ name: 'Test Mobile', mcc: '001', mnc: '01', colour: '#336699' }).returning('id');
+  const [mast] = await db('masts').insert({ name: 'Test Hill', geom: db.raw('ST_SetSRID(ST_MakePoint(-128.5, -47.1), 4326)'), ground_elevation_m: 50 }).returning('id');
+  const [cell] = await db('cells')
+    .insert({ mast_id: mast.id, operator_id: op.id, tech: 'lte', band: 'B20', channel: 6300, dl_mhz: 806, pci: 101, sector_azimuth_deg: 180, antenna_height_m: 30 })
+    .returning('id');
+  const flat = (g: number) => JSON.stringify([{ freq_mhz: 700, gain_dbi: g }, { freq_mhz: 2700, gain_dbi: g }]);
+  const [ant] = await db('antennas').insert({ name: 'Panel', kind: 'directional', ports: 2, horizontal_beamwidth_deg: 40, gain_table: flat(8) }).returning('id');
+  await db('antennas').insert({ name: 'Stub', kind: 'stub', ports: 1, horizontal_beamwidth_deg: 360, gain_table: flat(2) });
+  const [cable] = await db('cables').insert({ name: 'Feeder', loss_table: JSON.stringify([{ freq_mhz: 700, loss_db_per_m: 0.2 }, { freq_mhz: 2700, loss_db_per_m: 0.2 }]), connector_loss_db: 0.15, connectors: 2 }).returning('id');
+  const [cust] = await db('customers').insert({ name: 'Test Customer', address_label: 'Alder Farm', geom: db.raw('ST_SetSRID(ST_MakePoint(-128.52, -47.21), 4326)') }).returning('id');
+  Object.assign(ids, { cell: String(cell.id), antenna: String(ant.id), cable: String(cable.id), customer: String(cust.id) });
+});
+
+async function verifiedPlan(afterRsrp: number) {
+  const plan = await call(createPlan, {
+    user: planner,
+    json: { customer_id: ids.customer, cell_id: ids.cell, antenna_id: ids.antenna, cable_id: ids.cable, cable_m: 10, mount_height_m: 7, state: 'planned', figures: { predicted_rsrp_dbm: -90, expected_gain_db: 4 } },
+  });
+  const id = plan.body.id;
+  const patch = (json: unknown) => call(patchPlan, { method: 'PATCH', user: planner, params: { id }, json });
+  expect((await patch({ state: 'scheduled', scheduled_for: '2027-03-01' })).status).toBe(200);
+  await call(addCheck, { user: planner, params: { id }, json: { phase: 'before', readings: [{ pci: 101, channel: 6300, rsrp_dbm: afterRsrp - 6 }] } });
+  expect((await patch({ state: 'installed' })).status).toBe(200);
+  const after = await call(addCheck, { user: planner, params: { id }, json: { phase: 'after', readings: [{ pci: 101, channel: 6300, rsrp_dbm: afterRsrp }, { pci: 999, channel: 6300, rsrp_dbm: -120 }] } });
+  expect(after.status).toBe(201);
+  return { id, patch };
+}
+
+const customerAt = 'lat=-47.21&lon=-128.52';
+
+describe('install feedback', () => {
+  it('adds nothing until the plan is verified, then one reading per matched PCI through the installed kit', async () => {
+    const { patch } = await verifiedPlan(-80);
+    expect(await testDb()('readings').count('* as n').first()).toEqual({ n: '0' });
+    expect((await patch({ state: 'verified' })).status).toBe(200);
+    const rows = await testDb()('readings').select('cell_id', 'pci', 'rsrp_dbm', 'antenna_gain_dbi', 'height_m', 'source');
+    // PCI 999 matches no cell on channel 6300 within reach: left out.
+    expect(rows).toHaveLength(1);
+    expect(rows[0]).toMatchObject({ cell_id: ids.cell, pci: 101, rsrp_dbm: -80, height_m: 7, source: 'install_check' });
+    // Net gain: 8 dBi − 10 m × 0.2 dB/m − 2 × 0.15 dB (DOMAIN.md §10 connector loss, common practice)
+    expect(rows[0].antenna_gain_dbi).toBeCloseTo(8 - 2 - 0.3, 6);
+  });
+
+  it('takes the readings back out when the plan steps back from verified', async () => {
+    const { patch } = await verifiedPlan(-80);
+    await patch({ state: 'verified' });
+    await patch({ state: 'installed' });
+    expect(await testDb()('readings').count('* as n').first()).toEqual({ n: '0' });
+  });
+
+  it('calibrates the shortlist at the customer from the verified reading', async () => {
+    const ask = () => call(shortlist, { user: planner, url: `/api/shortlist?${customerAt}&antenna_id=${ids.antenna}&cable_id=${ids.cable}&cable_m=10&height_m=7` });
+    const before = (await ask()).body.items[0];
+    expect(before.calibration).toBeNull();
+    // A reading 10 dB above the model at the customer's own position, through the same kit.
+    const { patch } = await verifiedPlan(Math.round(before.predicted_rsrp_dbm + 10));
+    await patch({ state: 'verified' });
+    const after = (await ask()).body.items[0];
+    expect(after.calibration.readings_used).toBe(1);
+    expect(after.predicted_rsrp_dbm).toBeCloseTo(Math.round(before.predicted_rsrp_dbm + 10), 0);
+    // sanity: the model itself is a free-space-based figure (ITU-R P.525 loss at 806 MHz over ~12 km)
+    expect(before.path_loss_db).toBeGreaterThan(getFreeSpacePathLossDb(806, 11));
+  });
+});
