@@ -43,7 +43,7 @@ export const MAST_SYMBOL_LAYER: Omit<SymbolLayerSpecification, 'source'> = {
   'source-layer': MAST_SOURCE_LAYER,
   layout: {
     'icon-image': MAST_ICON_EXPRESSION as unknown as ExpressionSpecification,
-    'icon-size': ['interpolate', ['linear'], ['zoom'], 7, 0.5, 10, 0.78, 12, 0.9, 14, 1],
+    'icon-size': ['interpolate', ['linear'], ['zoom'], 7, 0.55, 10, 0.85, 12, 1, 15, 1.15],
     'icon-overlap': 'never',
     'icon-padding': 0,
     'symbol-sort-key': [
@@ -66,7 +66,7 @@ export const MAST_LABEL_LAYER: Omit<SymbolLayerSpecification, 'source'> = {
     'text-size': 11.5,
     'text-variable-anchor': ['top', 'right', 'left', 'bottom'],
     // Clear of the mark's collision box (half its size at this zoom, in ems of the text).
-    'text-radial-offset': ['interpolate', ['linear'], ['zoom'], 12, 1.75, 14, 1.95],
+    'text-radial-offset': ['interpolate', ['linear'], ['zoom'], 12, 1.9, 15, 2.15],
     'text-justify': 'auto',
     'text-max-width': 9,
     'symbol-sort-key': ['match', status, 'active', 0, 'planned', 1, 2],
@@ -86,7 +86,7 @@ export function selectedMastLayer(id: string | null): Omit<CircleLayerSpecificat
     'source-layer': MAST_SOURCE_LAYER,
     filter: ['==', ['to-string', ['get', 'id']], id ?? ''],
     paint: {
-      'circle-radius': ['interpolate', ['linear'], ['zoom'], 7, 11, 10, 15, 13, 19],
+      'circle-radius': ['interpolate', ['linear'], ['zoom'], 7, 12, 10, 18, 12, 21, 15, 24],
       'circle-color': 'rgba(217,137,26,0.18)',
       'circle-stroke-color': '#d9891a',
       'circle-stroke-width': 2.5,
