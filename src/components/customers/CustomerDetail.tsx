@@ -1,13 +1,16 @@
 import { useCallback, useEffect, useState, type ReactNode } from 'react';
 import { ApiError, type FieldErrors } from '../../lib/client/api';
 import { customersApi, plansApi, type CustomerJson, type HistoryEntryJson, type PlanDetailJson } from '../../lib/client/planning-api';
-import { PLAN_STATES, PLAN_STATE_LABELS, type PlanState } from '../../lib/domain/plan-state';
+import { PLAN_STATES, PLAN_STATE_LABELS, isKitLocked, type PlanState } from '../../lib/domain/plan-state';
+import InstallCheckForm from './InstallCheckForm';
 import CustomerForm from './CustomerForm';
 import { PlanStateBadge, PlanSteps } from './PlanStateBadge';
 
 interface Props {
   customerId: string;
   canWrite: boolean;
+  /** Surveyors record install checks without editing plans. */
+  canRecord: boolean;
 }
 
 const fmt = (v: unknown, digits: number, unit: string) =>
@@ -42,7 +45,7 @@ const STEP_VERB: Record<PlanState, string> = {
   verified: 'Mark verified',
 };
 
-function PlanCard({ plan, canWrite, onChanged }: { plan: PlanDetailJson; canWrite: boolean; onChanged: (p: PlanDetailJson) => void }) {
+function PlanCard({ plan, canWrite, canRecord, onChanged }: { plan: PlanDetailJson; canWrite: boolean; canRecord: boolean; onChanged: (p: PlanDetailJson) => void }) {
   const [date, setDate] = useState(plan.scheduled_for ?? '');
   const [problem, setProblem] = useState<{ message: string; fields: FieldErrors } | null>(null);
   const [busy, setBusy] = useState(false);
@@ -120,6 +123,16 @@ function PlanCard({ plan, canWrite, onChanged }: { plan: PlanDetailJson; canWrit
       {plan.notes && <p className="whitespace-pre-line rounded bg-ink-50 p-2 text-sm">{plan.notes}</p>}
 
       {plan.checks.length > 0 && <CheckResult plan={plan} />}
+
+      {canRecord && plan.state !== 'enquiry' && (
+        <InstallCheckForm
+          planId={plan.id}
+          defaultChannel={plan.cell?.channel ?? null}
+          defaultPci={plan.cell?.pci ?? null}
+          phases={isKitLocked(plan.state) ? ['after', 'before'] : ['before']}
+          onSaved={async () => onChanged(await plansApi.get(plan.id))}
+        />
+      )}
 
       {canWrite && (
         <div className="space-y-2 border-t border-ink-100 pt-3">
@@ -228,7 +241,7 @@ function describe(e: HistoryEntryJson): string {
   return `${what}: ${parts.join('; ') || 'saved without changes'}`;
 }
 
-export default function CustomerDetail({ customerId, canWrite }: Props) {
+export default function CustomerDetail({ customerId, canWrite, canRecord }: Props) {
   const [customer, setCustomer] = useState<CustomerJson | null>(null);
   const [plans, setPlans] = useState<PlanDetailJson[] | null>(null);
   const [history, setHistory] = useState<HistoryEntryJson[]>([]);
@@ -323,6 +336,7 @@ export default function CustomerDetail({ customerId, canWrite }: Props) {
                 key={p.id}
                 plan={p}
                 canWrite={canWrite}
+                canRecord={canRecord}
                 onChanged={(next) => {
                   setPlans((l) => (l ?? []).map((x) => (x.id === next.id ? next : x)));
                   setNotice(`Plan ${next.id} is now ${PLAN_STATE_LABELS[next.state].toLowerCase()}`);

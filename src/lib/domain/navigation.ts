@@ -15,7 +15,7 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { href: '/admin/regions', label: 'Regions', permission: 'reference:manage' },
   { href: '/admin/users', label: 'Users', permission: 'users:manage' },
   { href: '/admin/elevation', label: 'Elevation', permission: 'reference:manage' },
-  { href: '/customers', label: 'Customers', permission: 'plans:write' },
+  { href: '/customers', label: 'Customers', permission: 'plans:view' },
   { href: '/admin/catalogue', label: 'Catalogue', permission: 'reference:manage' },
   { href: '/admin/addresses', label: 'Addresses', permission: 'reference:manage' },
 ];

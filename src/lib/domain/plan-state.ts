@@ -119,7 +119,7 @@ export function getCheckPhaseProblem(state: PlanState, phase: 'before' | 'after'
 // surveyors see them to carry out installs and record checks; reviewers and contributors
 // have no need to.
 export function canViewPlans(role: Role | null | undefined): boolean {
-  return can(role, 'plans:write') || can(role, 'readings:write');
+  return can(role, 'plans:view');
 }
 
 export function canWritePlans(role: Role | null | undefined): boolean {

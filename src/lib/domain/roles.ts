@@ -10,6 +10,7 @@ export type Permission =
   | 'users:manage'
   | 'reference:manage' // operators, regions, catalogue, data imports
   | 'masts:write'
+  | 'plans:view' // customers, plans and install checks (personal contact details)
   | 'plans:write'
   | 'readings:write'
   | 'sightings:submit'
@@ -20,8 +21,8 @@ export type Permission =
 // includes nothing implicitly, except that admin can do everything.
 const EVERYONE: readonly Permission[] = ['map:view', 'tools:use'];
 const GRANTS: Record<Exclude<Role, 'admin'>, readonly Permission[]> = {
-  planner: [...EVERYONE, 'plans:write'],
-  surveyor: [...EVERYONE, 'readings:write', 'sightings:submit'],
+  planner: [...EVERYONE, 'plans:view', 'plans:write'],
+  surveyor: [...EVERYONE, 'plans:view', 'readings:write', 'sightings:submit'],
   reviewer: [...EVERYONE, 'masts:write', 'sightings:review'],
   contributor: [...EVERYONE, 'sightings:submit'],
 };
