@@ -57,6 +57,8 @@ const round1 = (v: number) => Math.round(v * 10) / 10;
 export async function seed(knex: Knex): Promise<void> {
   await knex.raw('TRUNCATE customers, plans, install_checks, install_check_readings, install_check_speed_tests RESTART IDENTITY CASCADE');
   await knex('audit_log').whereIn('entity', ['customer', 'plan']).delete();
+  // Readings fed back from the previous run's verified installs go with their checks.
+  await knex('readings').whereNotNull('install_check_id').delete();
 
   const planner = await knex('users').where({ email: 'planner@demo.bearline.test' }).first('id');
   const surveyor = await knex('users').where({ email: 'surveyor@demo.bearline.test' }).first('id');
