@@ -213,6 +213,9 @@ function CandidateDetail(props: {
         <h2 id="candidate-heading">{item.mast.name}: {item.operator.name} {item.tech.toUpperCase()} {item.band}</h2>
         <GradeBadge grade={item.grade} />
       </div>
+      <p className="mt-1 text-sm text-ink-700" data-testid="candidate-aim">
+        Aim {item.bearing_true_deg.toFixed(1)}° true / {item.bearing_magnetic_deg.toFixed(1)}° magnetic · tilt {item.elevation_deg >= 0 ? 'up' : 'down'} {Math.abs(item.elevation_deg).toFixed(2)}° · {(item.distance_m / 1000).toFixed(2)} km · {item.tech.toUpperCase()} {item.band} ch {item.channel} ({item.freq_mhz.toFixed(1)} MHz) PCI {item.pci ?? '—'}
+      </p>
       <div className="mt-3 grid gap-4 xl:grid-cols-[1fr_18rem]">
         <div className="min-w-0">
           <h3 className="mb-1 text-sm font-semibold">Terrain profile</h3>

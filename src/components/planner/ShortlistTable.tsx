@@ -19,7 +19,7 @@ export default function ShortlistTable({ items, selectedCellId, onSelect }: Prop
   const selectedIndex = items.findIndex((i) => i.cell_id === selectedCellId);
   const visible = showAll ? items : items.slice(0, Math.max(FIRST_ROWS, selectedIndex + 1));
   const columns: Column<ShortlistItem>[] = [
-    { key: 'rank', label: '#', sortValue: (i) => i.rank, render: (i) => i.rank },
+    { key: 'rank', label: '#', sortValue: (i) => i.rank, render: (i) => i.rank, className: 'hidden sm:table-cell' },
     {
       key: 'mast',
       label: 'Mast / cell',
@@ -42,7 +42,7 @@ export default function ShortlistTable({ items, selectedCellId, onSelect }: Prop
       render: (i) => <span className="tabular-nums">{i.bearing_true_deg.toFixed(0)} / {i.bearing_magnetic_deg.toFixed(0)}</span>,
       className: 'text-right',
     },
-    { key: 'elev', label: 'Tilt °', sortValue: (i) => i.elevation_deg, render: (i) => <span className="tabular-nums">{i.elevation_deg.toFixed(2)}</span>, className: 'text-right' },
+    { key: 'elev', label: 'Tilt °', sortValue: (i) => i.elevation_deg, render: (i) => <span className="tabular-nums">{i.elevation_deg.toFixed(2)}</span>, className: 'hidden text-right sm:table-cell' },
     { key: 'terrain', label: 'Terrain', sortValue: (i) => i.terrain.diffraction_loss_db, render: (i) => TERRAIN_LABELS[i.terrain.status] },
     {
       key: 'rsrp',
@@ -61,14 +61,14 @@ export default function ShortlistTable({ items, selectedCellId, onSelect }: Prop
       label: 'Gain dB',
       sortValue: (i) => i.expected_gain_db,
       render: (i) => <span className="tabular-nums">{i.expected_gain_db === null ? '—' : `${i.expected_gain_db > 0 ? '+' : ''}${i.expected_gain_db.toFixed(1)}`}</span>,
-      className: 'text-right',
+      className: 'hidden text-right sm:table-cell',
     },
     {
       key: 'cal',
       label: 'Readings',
       sortValue: (i) => i.calibration?.readings_used ?? 0,
       render: (i) => (i.calibration ? <span title={`median residual ${i.calibration.residual_db} dB`}>{i.calibration.readings_used}</span> : '—'),
-      className: 'text-right',
+      className: 'hidden text-right sm:table-cell',
     },
   ];
   return (
