@@ -1,5 +1,5 @@
 import { useEffect, useMemo, useState, type FormEvent } from 'react';
-import { ApiError, operatorsApi, type FieldErrors, type OperatorDto } from '../../lib/client/api';
+import { ApiError, operatorsApi, type FieldErrors, type OperatorJson } from '../../lib/client/api';
 import { OPERATOR_PALETTE } from '../../lib/schemas/operators';
 import { SortableTable, type Column } from '../ui/SortableTable';
 import { mastIconDataUrl } from '../map/mast-icons';
@@ -15,7 +15,7 @@ function colourDistance(a: string, b: string): number {
   return Math.sqrt((2 + rm / 256) * (r1 - r2) ** 2 + 4 * (g1 - g2) ** 2 + (2 + (255 - rm) / 256) * (b1 - b2) ** 2);
 }
 
-function ColourEditor({ op, all, onSaved }: { op: OperatorDto; all: OperatorDto[]; onSaved: (o: OperatorDto) => void }) {
+function ColourEditor({ op, all, onSaved }: { op: OperatorJson; all: OperatorJson[]; onSaved: (o: OperatorJson) => void }) {
   const [draft, setDraft] = useState(op.colour);
   const [errors, setErrors] = useState<string[]>([]);
   const [busy, setBusy] = useState(false);
@@ -80,7 +80,7 @@ function ColourEditor({ op, all, onSaved }: { op: OperatorDto; all: OperatorDto[
 const EMPTY_FORM = { name: '', mcc: '001', mnc: '' };
 
 export default function OperatorsAdmin() {
-  const [operators, setOperators] = useState<OperatorDto[] | null>(null);
+  const [operators, setOperators] = useState<OperatorJson[] | null>(null);
   const [loadError, setLoadError] = useState<string | null>(null);
   const [notice, setNotice] = useState<string | null>(null);
   const [form, setForm] = useState(EMPTY_FORM);
@@ -95,7 +95,7 @@ export default function OperatorsAdmin() {
   const marks = useMemo(() => (operators ?? []).map((o) => ({ id: o.id, name: o.name, colour: o.colour })), [operators]);
   const preview = useMemo(() => (marks.length ? mastIconDataUrl('active', marks.map((m) => m.id), marks) : null), [marks]);
 
-  const replace = (o: OperatorDto) => {
+  const replace = (o: OperatorJson) => {
     setOperators((list) => (list ?? []).map((x) => (x.id === o.id ? o : x)));
     setNotice(`${o.name}: colour set to ${o.colour}`);
   };
@@ -120,7 +120,7 @@ export default function OperatorsAdmin() {
     }
   }
 
-  const columns: Column<OperatorDto>[] = [
+  const columns: Column<OperatorJson>[] = [
     {
       key: 'name',
       label: 'Operator',

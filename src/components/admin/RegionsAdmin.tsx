@@ -1,5 +1,5 @@
 import { useEffect, useMemo, useRef, useState, type FormEvent } from 'react';
-import { ApiError, regionsApi, type FieldErrors, type RegionDto } from '../../lib/client/api';
+import { ApiError, regionsApi, type FieldErrors, type RegionJson } from '../../lib/client/api';
 import { SortableTable, type Column } from '../ui/SortableTable';
 
 type Rings = number[][][];
@@ -73,7 +73,7 @@ function findCandidates(doc: unknown, fileName: string): Candidate[] {
 const MAX_FILE_BYTES = 10 * 1024 * 1024;
 
 export default function RegionsAdmin() {
-  const [regions, setRegions] = useState<RegionDto[] | null>(null);
+  const [regions, setRegions] = useState<RegionJson[] | null>(null);
   const [loadError, setLoadError] = useState<string | null>(null);
   const [notice, setNotice] = useState<string | null>(null);
   const [candidates, setCandidates] = useState<Candidate[]>([]);
@@ -145,7 +145,7 @@ export default function RegionsAdmin() {
     }
   }
 
-  async function remove(r: RegionDto) {
+  async function remove(r: RegionJson) {
     setConfirming(null);
     try {
       await regionsApi.remove(r.id);
@@ -156,7 +156,7 @@ export default function RegionsAdmin() {
     }
   }
 
-  const columns: Column<RegionDto>[] = [
+  const columns: Column<RegionJson>[] = [
     { key: 'shape', label: 'Outline', render: (r) => <PolygonPreview geometry={r.geometry} size={44} /> },
     { key: 'name', label: 'Name', sortValue: (r) => r.name.toLowerCase(), render: (r) => <span className="font-semibold">{r.name}</span> },
     { key: 'area', label: 'Area', sortValue: (r) => r.area_km2, render: (r) => `${r.area_km2.toFixed(1)} km²`, className: 'text-right whitespace-nowrap' },

@@ -1,11 +1,11 @@
 import { useEffect, useId, useRef, useState, type KeyboardEvent } from 'react';
-import { ApiError, mapApi, type SearchHitDto } from '../../lib/client/api';
+import { ApiError, mapApi, type SearchHitJson } from '../../lib/client/api';
 
 interface Props {
-  onPick: (hit: SearchHitDto) => void;
+  onPick: (hit: SearchHitJson) => void;
 }
 
-const KIND_LABELS: Record<SearchHitDto['kind'], string> = { mast: 'Mast', place: 'Place' };
+const KIND_LABELS: Record<SearchHitJson['kind'], string> = { mast: 'Mast', place: 'Place' };
 
 /** Finds a mast (name or reference) or a place by name; a keyboard-friendly combobox. */
 export default function MapSearch({ onPick }: Props) {
@@ -13,7 +13,7 @@ export default function MapSearch({ onPick }: Props) {
   const listId = `${id}-list`;
   const inputRef = useRef<HTMLInputElement>(null);
   const [text, setText] = useState('');
-  const [hits, setHits] = useState<SearchHitDto[]>([]);
+  const [hits, setHits] = useState<SearchHitJson[]>([]);
   const [open, setOpen] = useState(false);
   const [active, setActive] = useState(-1);
   const [message, setMessage] = useState<string | null>(null);
@@ -60,7 +60,7 @@ export default function MapSearch({ onPick }: Props) {
     return () => window.removeEventListener('keydown', onKey);
   }, []);
 
-  function pick(hit: SearchHitDto | undefined) {
+  function pick(hit: SearchHitJson | undefined) {
     if (!hit) return;
     setText(hit.name);
     setOpen(false);

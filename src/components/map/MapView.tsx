@@ -12,7 +12,7 @@ import Map, {
 } from 'react-map-gl/maplibre';
 import type { Map as MaplibreMap, StyleSpecification } from 'maplibre-gl';
 import type { FeatureCollection } from 'geojson';
-import { ApiError, mapApi, mastsApi, operatorsApi, regionsApi, type RegionDto, type SearchHitDto } from '../../lib/client/api';
+import { ApiError, mapApi, mastsApi, operatorsApi, regionsApi, type RegionJson, type SearchHitJson } from '../../lib/client/api';
 import { loadLabelFonts } from './label-fonts';
 import {
   MAST_LABEL_LAYER,
@@ -74,7 +74,7 @@ function readSavedView(): InitialView | null {
   return null;
 }
 
-function boundsOf(regions: readonly RegionDto[]): [number, number, number, number] | null {
+function boundsOf(regions: readonly RegionJson[]): [number, number, number, number] | null {
   let box: [number, number, number, number] | null = null;
   for (const r of regions)
     for (const poly of r.geometry.coordinates)
@@ -85,7 +85,7 @@ function boundsOf(regions: readonly RegionDto[]): [number, number, number, numbe
 }
 
 /** A region asked for in the address (?region=ID), else the saved view, else all regions, else the world. */
-function chooseInitialView(regions: readonly RegionDto[], regionId: string | null): InitialView {
+function chooseInitialView(regions: readonly RegionJson[], regionId: string | null): InitialView {
   const asked = regionId ? boundsOf(regions.filter((r) => r.id === regionId)) : null;
   if (asked) return { bounds: asked };
   const saved = readSavedView();
@@ -94,7 +94,7 @@ function chooseInitialView(regions: readonly RegionDto[], regionId: string | nul
   return all ? { bounds: all } : WORLD_VIEW;
 }
 
-function regionFeatures(regions: readonly RegionDto[]): FeatureCollection {
+function regionFeatures(regions: readonly RegionJson[]): FeatureCollection {
   return {
     type: 'FeatureCollection',
     features: regions.map((r) => ({ type: 'Feature', id: Number(r.id), geometry: r.geometry, properties: { id: r.id, name: r.name } })),
@@ -156,7 +156,7 @@ export default function MapView({ canEditMasts }: Props) {
   const [style, setStyle] = useState<StyleSpecification | null>(null);
   const [operators, setOperators] = useState<OperatorMark[] | null>(null);
   const [initialView, setInitialView] = useState<InitialView | null>(null);
-  const [regions, setRegions] = useState<RegionDto[]>([]);
+  const [regions, setRegions] = useState<RegionJson[]>([]);
   const [loadError, setLoadError] = useState<string | null>(null);
   const [filters, setFilters] = useState<MastFilterState>(NO_MAST_FILTER);
   const [bands, setBands] = useState<string[]>([]);
@@ -175,7 +175,7 @@ export default function MapView({ canEditMasts }: Props) {
   }, []);
 
   useEffect(() => {
-    const regionList = regionsApi.list().then((r) => r.items, () => [] as RegionDto[]);
+    const regionList = regionsApi.list().then((r) => r.items, () => [] as RegionJson[]);
     Promise.all([loadLabelFonts(), mapApi.style<StyleSpecification>(), operatorsApi.list(), regionList]).then(
       ([, s, ops, regionItems]) => {
         setStyle(rebaseStyle(s, window.location.origin));
@@ -257,7 +257,7 @@ export default function MapView({ canEditMasts }: Props) {
   );
 
   const onPick = useCallback(
-    (hit: SearchHitDto) => {
+    (hit: SearchHitJson) => {
       const mast = hit.kind === 'mast';
       mapRef.current?.flyTo({ center: [hit.lon, hit.lat], zoom: mast ? 14 : 13, offset: mast ? panelOffset() : [0, 0], essential: false });
       if (mast) setSelectedId(hit.id);

@@ -1,10 +1,10 @@
 import { useState, type FormEvent, type ReactNode } from 'react';
-import { ApiError, mastsApi, type FieldErrors, type MastDetailDto } from '../../lib/client/api';
+import { ApiError, mastsApi, type FieldErrors, type MastDetailJson } from '../../lib/client/api';
 import { MAST_STATUSES, MastChangeSchema, STRUCTURE_TYPES, STRUCTURE_TYPE_LABELS } from '../../lib/schemas/masts';
 import { MAST_STATUS_LABELS } from './mast-icons';
 
 interface Props {
-  mast: MastDetailDto;
+  mast: MastDetailJson;
   onSaved: () => void;
   onCancel: () => void;
 }
@@ -13,7 +13,7 @@ type Draft = Record<'name' | 'reference' | 'status' | 'structure_type' | 'struct
 
 const numText = (v: number | null) => (v === null ? '' : String(v));
 
-function draftOf(m: MastDetailDto): Draft {
+function draftOf(m: MastDetailJson): Draft {
   return {
     name: m.name,
     reference: m.reference ?? '',

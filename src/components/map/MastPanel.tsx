@@ -1,5 +1,5 @@
 import { useEffect, useMemo, useRef, useState } from 'react';
-import { ApiError, mastsApi, type CellDto, type MastDetailDto, type ReadingDto } from '../../lib/client/api';
+import { ApiError, mastsApi, type CellJson, type MastDetailJson, type ReadingJson } from '../../lib/client/api';
 import { STRUCTURE_TYPE_LABELS, type StructureType } from '../../lib/schemas/masts';
 import { SortableTable, type Column } from '../ui/SortableTable';
 import { MAST_STATUS_LABELS, mastIconDataUrl, type OperatorMark } from './mast-icons';
@@ -15,7 +15,7 @@ interface Props {
   onChanged: () => void;
 }
 
-const STATUS_BADGE: Record<MastDetailDto['status'], string> = {
+const STATUS_BADGE: Record<MastDetailJson['status'], string> = {
   active: 'bg-moss-50 text-moss-700',
   planned: 'bg-ember-50 text-ember-700',
   decommissioned: 'bg-ink-100 text-ink-600',
@@ -55,7 +55,7 @@ function CopyPosition({ lat, lon }: { lat: number; lon: number }) {
 
 /** Details of one mast: structure, position, operators, cells and recent readings. */
 export default function MastPanel({ mastId, operators, canEdit, onClose, onChanged }: Props) {
-  const [mast, setMast] = useState<MastDetailDto | null>(null);
+  const [mast, setMast] = useState<MastDetailJson | null>(null);
   const [error, setError] = useState<string | null>(null);
   const [editing, setEditing] = useState(false);
   const [version, setVersion] = useState(0);
@@ -97,7 +97,7 @@ export default function MastPanel({ mastId, operators, canEdit, onClose, onChang
     [mast, operators],
   );
 
-  const cellColumns: Column<CellDto>[] = [
+  const cellColumns: Column<CellJson>[] = [
     {
       key: 'operator',
       label: 'Operator',
@@ -119,7 +119,7 @@ export default function MastPanel({ mastId, operators, canEdit, onClose, onChang
     { key: 'seen', label: 'Last observed', sortValue: (c) => c.last_observed_at, render: (c) => <span className="whitespace-nowrap">{fmtDate(c.last_observed_at)}</span> },
   ];
 
-  const readingColumns: Column<ReadingDto>[] = [
+  const readingColumns: Column<ReadingJson>[] = [
     { key: 'time', label: 'When', sortValue: (r) => r.taken_at, render: (r) => <span className="whitespace-nowrap">{fmtTime(r.taken_at)}</span> },
     { key: 'tech', label: 'Tech', sortValue: (r) => r.tech, render: (r) => r.tech.toUpperCase() },
     { key: 'pci', label: 'PCI', sortValue: (r) => r.pci, render: (r) => fmt(r.pci), className: 'text-right' },

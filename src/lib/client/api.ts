@@ -1,5 +1,10 @@
 // The only place islands call fetch. Error bodies become ApiError.
 import type { Role } from '../domain/roles';
+import type { OperatorJson } from '../schemas/operators';
+import type { CellJson, MastDetailJson, MastFeatureCollectionJson, MastJson, ReadingJson, SearchHitJson } from '../schemas/masts';
+import type { RegionJson } from '../schemas/regions';
+
+export type { OperatorJson, CellJson, MastDetailJson, MastJson, ReadingJson, SearchHitJson, RegionJson };
 
 export type FieldErrors = Record<string, string[]>;
 
@@ -59,114 +64,6 @@ export const usersApi = {
 
 // --- Map: style, operators, masts, regions, search ---------------------------------------------
 
-export type MastStatusDto = 'active' | 'planned' | 'decommissioned';
-export type TechDto = 'gsm' | 'umts' | 'lte' | 'nr';
-
-export interface OperatorDto {
-  id: string;
-  name: string;
-  mcc: string;
-  mnc: string;
-  plmn: string;
-  colour: string;
-  cell_count: number;
-  created_at: string;
-  updated_at: string;
-}
-
-export interface OperatorRefDto {
-  id: string;
-  name: string;
-  colour: string;
-}
-
-export interface CellDto {
-  id: string;
-  mast_id: string;
-  operator: OperatorRefDto;
-  tech: TechDto;
-  band: string;
-  channel: number;
-  dl_mhz: number | null;
-  pci: number | null;
-  cell_identity: number | null;
-  sector_azimuth_deg: number | null;
-  antenna_height_m: number | null;
-  bandwidth_mhz: number | null;
-  rs_power_dbm: number;
-  last_observed_at: string | null;
-}
-
-export interface ReadingDto {
-  id: string;
-  taken_at: string;
-  lat: number;
-  lon: number;
-  tech: TechDto;
-  channel: number | null;
-  pci: number | null;
-  rsrp_dbm: number | null;
-  rsrq_db: number | null;
-  sinr_db: number | null;
-  rssi_dbm: number | null;
-  cell_id: string | null;
-  device: string | null;
-  source: string | null;
-}
-
-export interface MastDetailDto {
-  id: string;
-  name: string;
-  reference: string | null;
-  lat: number;
-  lon: number;
-  ground_elevation_m: number | null;
-  structure_height_m: number | null;
-  structure_type: string;
-  status: MastStatusDto;
-  access_notes: string | null;
-  source: string;
-  created_at: string;
-  updated_at: string;
-  row_version: number;
-  operators: OperatorRefDto[];
-  cells: CellDto[];
-  recent_readings: ReadingDto[];
-}
-
-export interface MastFeatureDto {
-  type: 'Feature';
-  id: number;
-  geometry: { type: 'Point'; coordinates: [number, number] };
-  properties: { id: string; name: string; reference: string | null; status: MastStatusDto; bands: string[]; techs: TechDto[]; cell_count: number; operators: OperatorRefDto[] };
-}
-
-export interface MastCollectionDto {
-  type: 'FeatureCollection';
-  features: MastFeatureDto[];
-  truncated: boolean;
-}
-
-export interface SearchHitDto {
-  kind: 'mast' | 'place';
-  id: string;
-  name: string;
-  detail: string | null;
-  lat: number;
-  lon: number;
-}
-
-export interface RegionDto {
-  id: string;
-  name: string;
-  geometry: { type: 'MultiPolygon'; coordinates: number[][][][] };
-  area_km2: number;
-  created_at: string;
-  updated_at: string;
-}
-
-export type PolygonGeometryDto = { type: 'Polygon'; coordinates: number[][][] } | { type: 'MultiPolygon'; coordinates: number[][][][] };
-
 const query = (params: Record<string, string | number | readonly string[] | undefined>) => {
   const q = new URLSearchParams();
   for (const [k, v] of Object.entries(params)) {
@@ -181,27 +78,27 @@ const query = (params: Record<string, string | number | readonly string[] | unde
 export const mapApi = {
   /** The basemap style (MapLibre style JSON) with absolute tile URLs. */
   style: <Style>() => get<Style>('/api/map/style.json'),
-  search: (q: string, limit = 8) => get<List<SearchHitDto>>(`/api/search${query({ q, limit })}`),
+  search: (q: string, limit = 8) => get<List<SearchHitJson>>(`/api/search${query({ q, limit })}`),
 };
 
 export const operatorsApi = {
-  list: () => get<List<OperatorDto>>('/api/operators'),
-  create: (input: { name: string; mcc: string; mnc: string; colour?: string }) => request<OperatorDto>('POST', '/api/operators', input),
-  update: (id: string, change: { name?: string; mcc?: string; mnc?: string; colour?: string }) => request<OperatorDto>('PATCH', `/api/operators/${id}`, change),
+  list: () => get<List<OperatorJson>>('/api/operators'),
+  create: (input: { name: string; mcc: string; mnc: string; colour?: string }) => request<OperatorJson>('POST', '/api/operators', input),
+  update: (id: string, change: { name?: string; mcc?: string; mnc?: string; colour?: string }) => request<OperatorJson>('PATCH', `/api/operators/${id}`, change),
 };
 
 export const mastsApi = {
   list: (filter: { bbox?: string; operator?: string[]; band?: string[]; tech?: string[]; status?: string[]; limit?: number } = {}) =>
-    get<MastCollectionDto>(`/api/masts${query(filter)}`),
-  get: (id: string) => get<MastDetailDto>(`/api/masts/${encodeURIComponent(id)}`),
+    get<MastFeatureCollectionJson>(`/api/masts${query(filter)}`),
+  get: (id: string) => get<MastDetailJson>(`/api/masts/${encodeURIComponent(id)}`),
   /** Partial change; `row_version` must be the one last read, or the answer is 409 (CONFLICT). */
   update: (id: string, change: Record<string, unknown> & { row_version: number }) =>
-    request<Omit<MastDetailDto, 'operators' | 'cells' | 'recent_readings'>>('PATCH', `/api/masts/${encodeURIComponent(id)}`, change),
+    request<MastJson>('PATCH', `/api/masts/${encodeURIComponent(id)}`, change),
 };
 
 export const regionsApi = {
-  list: () => get<List<RegionDto>>('/api/regions'),
-  create: (input: { name: string; geometry: unknown }) => request<RegionDto>('POST', '/api/regions', input),
-  update: (id: string, change: { name?: string; geometry?: unknown }) => request<RegionDto>('PATCH', `/api/regions/${id}`, change),
+  list: () => get<List<RegionJson>>('/api/regions'),
+  create: (input: { name: string; geometry: unknown }) => request<RegionJson>('POST', '/api/regions', input),
+  update: (id: string, change: { name?: string; geometry?: unknown }) => request<RegionJson>('PATCH', `/api/regions/${id}`, change),
   remove: (id: string) => request<void>('DELETE', `/api/regions/${id}`),
 };

@@ -1,6 +1,11 @@
 // Client calls of the planner page.
-import { get, request } from './api';
+import { get, request, type List } from './api';
 import type { PathResult } from './tools-api';
+import type { AntennaJson, CableJson } from '../schemas/catalogue';
+import type { GeocodeMatchJson } from '../schemas/addresses';
+import type { OperatorRefJson } from '../schemas/masts';
+import type { CustomerJson } from '../schemas/customers';
+import type { PlanJson } from '../schemas/plans';
 
 export type Grade = 'excellent' | 'good' | 'fair' | 'poor' | 'unusable';
 export type TerrainStatus = 'clear' | 'fresnel' | 'obstructed' | 'unknown';
@@ -45,35 +50,10 @@ export interface Shortlist {
   total: number;
 }
 
-export interface AntennaOption {
-  id: string;
-  name: string;
-  kind: string;
-  ports: number;
-  horizontal_beamwidth_deg: number;
-}
-
-export interface CableOption {
-  id: string;
-  name: string;
-  connector_loss_db: number;
-  connectors: number;
-}
-
-export interface OperatorOption {
-  id: string;
-  name: string;
-  colour: string;
-}
-
-export interface GeocodeMatch {
-  label: string;
-  postcode: string | null;
-  lat: number;
-  lon: number;
-  score: number;
-  kind: 'address' | 'coordinates';
-}
+export type AntennaOption = Pick<AntennaJson, 'id' | 'name' | 'kind' | 'ports' | 'horizontal_beamwidth_deg'>;
+export type CableOption = Pick<CableJson, 'id' | 'name' | 'connector_loss_db' | 'connectors'>;
+export type OperatorOption = OperatorRefJson;
+export type GeocodeMatch = GeocodeMatchJson;
 
 export interface ShortlistParams {
   lat: number;
@@ -91,10 +71,10 @@ const qs = (params: Record<string, string | number | undefined | null>) =>
 
 export const plannerApi = {
   shortlist: (p: ShortlistParams) => get<Shortlist>(`/api/shortlist?${qs({ ...p })}`),
-  antennas: () => get<{ items: AntennaOption[]; total: number }>('/api/catalogue/antennas'),
-  cables: () => get<{ items: CableOption[]; total: number }>('/api/catalogue/cables'),
-  operators: () => get<{ items: OperatorOption[]; total: number }>('/api/operators'),
-  geocode: (q: string) => get<{ items: GeocodeMatch[]; total: number }>(`/api/geocode?${qs({ q, limit: 8 })}`),
+  antennas: () => get<List<AntennaOption>>('/api/catalogue/antennas'),
+  cables: () => get<List<CableOption>>('/api/catalogue/cables'),
+  operators: () => get<List<OperatorOption>>('/api/operators'),
+  geocode: (q: string) => get<List<GeocodeMatch>>(`/api/geocode?${qs({ q, limit: 8 })}`),
   profile: (from: { lat: number; lon: number }, item: ShortlistItem, h1: string) =>
     get<PathResult>(
       `/api/tools/path?${qs({
@@ -107,16 +87,8 @@ export const plannerApi = {
     ),
 };
 
-export interface SavedPlan {
-  id: string;
-  customer_id: string;
-  state: string;
-}
-
-export interface SavedCustomer {
-  id: string;
-  name: string;
-}
+export type SavedPlan = Pick<PlanJson, 'id' | 'customer_id' | 'state'>;
+export type SavedCustomer = Pick<CustomerJson, 'id' | 'name'>;
 
 export const planSaveApi = {
   createCustomer: (input: { name: string; address_label: string; lat: number; lon: number; current_antenna_id?: string | null }) =>

@@ -5,6 +5,7 @@ import type { AntennaJson, AntennaKind, CableJson } from '../schemas/catalogue';
 import type { AddressImportJson, AddressJson, GeocodeMatchJson } from '../schemas/addresses';
 import type { CustomerJson, CustomerSort, HistoryEntryJson } from '../schemas/customers';
 import type { CheckPhase, InstallCheckJson, PlanDetailJson, PlanJson } from '../schemas/plans';
+import type { OperatorRefJson } from '../schemas/masts';
 import type { PlanState } from '../domain/plan-state';
 
 export type { AntennaJson, CableJson, AddressJson, AddressImportJson, GeocodeMatchJson, CustomerJson, HistoryEntryJson, PlanJson, PlanDetailJson, InstallCheckJson };
@@ -74,11 +75,7 @@ export const addressesApi = {
 
 // --- reference ----------------------------------------------------------------------------
 
-export interface OperatorChoice {
-  id: string;
-  name: string;
-  colour: string;
-}
+export type OperatorChoice = OperatorRefJson;
 
 export const referenceApi = {
   operators: () => get<List<OperatorChoice>>('/api/operators'),

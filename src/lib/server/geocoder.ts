@@ -3,16 +3,9 @@
 import type { Knex } from 'knex';
 import { findNearbyAddresses, searchGazetteer } from './repos/addresses';
 import { formatDecimal, tryParseCoordinates } from '../domain/coords';
+import type { GeocodeMatchJson } from '../schemas/addresses';
 
-export interface GeocodeMatch {
-  label: string;
-  postcode: string | null;
-  lat: number;
-  lon: number;
-  /** 0–1, higher is better. */
-  score: number;
-  kind: 'address' | 'coordinates';
-}
+export type GeocodeMatch = GeocodeMatchJson;
 
 export interface Geocoder {
   search(q: string, limit: number): Promise<GeocodeMatch[]>;
