@@ -2,6 +2,7 @@
 // search queries, and the JSON shapes the API returns.
 import Papa from 'papaparse';
 import { z } from 'zod';
+import { intParam, pageParams, searchParam } from './params';
 
 export const ADDRESS_IMPORT_MAX_BYTES = 5 * 1024 * 1024;
 export const ADDRESS_CSV_COLUMNS = ['label', 'postcode', 'lat', 'lon'] as const;
@@ -119,16 +120,6 @@ export function csvErrorFields(errors: readonly CsvRowError[]): Record<string, s
   return Object.fromEntries(errors.slice(0, MAX_REPORTED_ROW_ERRORS).map((e) => [`line ${e.line}`, e.messages]));
 }
 
-const intParam = (label: string, min: number, max: number, fallback: number) =>
-  z
-    .string()
-    .trim()
-    .regex(/^\d+$/, `${label} must be a whole number`)
-    .transform(Number)
-    .refine((n) => n >= min && n <= max, `${label} must be between ${min} and ${max}`)
-    .optional()
-    .transform((n) => n ?? fallback);
-
 export const GeocodeQuerySchema = z.object({
   q: z
     .string({ required_error: 'Type an address, postcode or coordinates' })
@@ -140,9 +131,8 @@ export const GeocodeQuerySchema = z.object({
 export type GeocodeQuery = z.output<typeof GeocodeQuerySchema>;
 
 export const AddressListQuerySchema = z.object({
-  q: z.string().trim().max(200, 'At most 200 characters').optional().transform((s) => s || undefined),
-  limit: intParam('limit', 1, 200, 50),
-  offset: intParam('offset', 0, 10_000_000, 0),
+  q: searchParam,
+  ...pageParams,
 });
 export type AddressListQuery = z.output<typeof AddressListQuerySchema>;
 

@@ -1,6 +1,7 @@
 // Catalogue of customer antennas and cables: input schemas (shared by endpoints and the
 // admin forms) and the JSON shapes the API returns.
 import { z } from 'zod';
+import { enumOf, hasAnyField, numberField as num, requiredText } from './params';
 
 export const ANTENNA_KINDS = ['directional', 'omni', 'stub'] as const;
 export type AntennaKind = (typeof ANTENNA_KINDS)[number];
@@ -14,18 +15,11 @@ export const ANTENNA_KIND_LABELS: Record<AntennaKind, string> = {
 export const FREQ_MIN_MHZ = 400;
 export const FREQ_MAX_MHZ = 6000;
 
-const num = (label: string) =>
-  z.number({ required_error: `${label} is required`, invalid_type_error: `${label} must be a number` }).finite();
-
 const freq = num('Frequency')
   .min(FREQ_MIN_MHZ, `Frequency must be at least ${FREQ_MIN_MHZ} MHz`)
   .max(FREQ_MAX_MHZ, `Frequency must be at most ${FREQ_MAX_MHZ} MHz`);
 
-const name = z
-  .string({ required_error: 'Required', invalid_type_error: 'Required' })
-  .trim()
-  .min(1, 'Required')
-  .max(80, 'At most 80 characters');
+const name = requiredText(80);
 
 const notes = z
   .string()
@@ -65,7 +59,7 @@ export const LossTableSchema = z
   .max(40, 'At most 40 rows')
   .superRefine(increasingFrequencies);
 
-const kind = z.enum(ANTENNA_KINDS, { errorMap: () => ({ message: `Choose one of: ${ANTENNA_KINDS.join(', ')}` }) });
+const kind = enumOf(ANTENNA_KINDS);
 const ports = num('Ports').int('Ports must be a whole number').min(1, 'At least 1 port').max(8, 'At most 8 ports');
 const beamwidth = num('Beamwidth').gt(0, 'Beamwidth must be above 0°').max(360, 'Beamwidth must be at most 360°');
 
@@ -103,8 +97,6 @@ export const AntennaInputSchema = z
   }));
 export type AntennaInput = z.output<typeof AntennaInputSchema>;
 
-const atLeastOne = (v: Record<string, unknown>) => Object.values(v).some((x) => x !== undefined);
-
 export const AntennaChangeSchema = z
   .object({
     name: name.optional(),
@@ -114,7 +106,7 @@ export const AntennaChangeSchema = z
     gain_table: GainTableSchema.optional(),
     notes: notes.optional(),
   })
-  .refine(atLeastOne, { message: 'Nothing to change' })
+  .refine(hasAnyField, { message: 'Nothing to change' })
   .transform((v) => ({
     name: v.name,
     kind: v.kind,
@@ -154,7 +146,7 @@ export const CableChangeSchema = z
     connectors: connectors.optional(),
     notes: notes.optional(),
   })
-  .refine(atLeastOne, { message: 'Nothing to change' })
+  .refine(hasAnyField, { message: 'Nothing to change' })
   .transform((v) => ({
     name: v.name,
     lossTable: v.loss_table?.map((r) => ({ freqMhz: r.freq_mhz, dbPerM: r.loss_db_per_m })),

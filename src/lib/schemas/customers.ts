@@ -2,27 +2,9 @@
 // API returns.
 import { z } from 'zod';
 import type { PlanState } from '../domain/plan-state';
+import { IdRefSchema, numberField as num, optionalText, pageParams, requiredText, searchParam } from './params';
 
-/** A database id given as a string ("12") or a number (12). */
-export const IdRefSchema = z
-  .union([z.string().trim().regex(/^\d{1,18}$/, 'Not a valid id'), z.number().int().positive().max(Number.MAX_SAFE_INTEGER)], {
-    errorMap: () => ({ message: 'Not a valid id' }),
-  })
-  .transform(String);
-
-export const num = (label: string) =>
-  z.number({ required_error: `${label} is required`, invalid_type_error: `${label} must be a number` }).finite();
-
-/** Optional free text: blank becomes null. */
-export const optionalText = (max: number) =>
-  z
-    .string({ invalid_type_error: 'Must be text' })
-    .trim()
-    .max(max, `At most ${max} characters`)
-    .nullish()
-    .transform((s) => (s ? s : null));
-
-const name = z.string({ required_error: 'Required', invalid_type_error: 'Required' }).trim().min(1, 'Required').max(120, 'At most 120 characters');
+const name = requiredText(120);
 const phone = z
   .string()
   .trim()
@@ -35,7 +17,7 @@ const email = z
   .refine((s) => s === '' || z.string().email().max(254).safeParse(s).success, 'Enter a valid e-mail address')
   .nullish()
   .transform((s) => (s ? s.toLowerCase() : null));
-const addressLabel = z.string({ required_error: 'Required', invalid_type_error: 'Required' }).trim().min(1, 'Required').max(300, 'At most 300 characters');
+const addressLabel = requiredText(300);
 const postcode = z
   .string()
   .trim()
@@ -113,22 +95,11 @@ export type CustomerChange = Partial<z.output<typeof CustomerChangeSchema>>;
 export const CUSTOMER_SORTS = ['name', 'address', 'postcode', 'state', 'created_at', 'updated_at'] as const;
 export type CustomerSort = (typeof CUSTOMER_SORTS)[number];
 
-const intParam = (label: string, min: number, max: number, fallback: number) =>
-  z
-    .string()
-    .trim()
-    .regex(/^\d+$/, `${label} must be a whole number`)
-    .transform(Number)
-    .refine((n) => n >= min && n <= max, `${label} must be between ${min} and ${max}`)
-    .optional()
-    .transform((n) => n ?? fallback);
-
 export const CustomerListQuerySchema = z.object({
-  q: z.string().trim().max(200, 'At most 200 characters').optional().transform((s) => s || undefined),
+  q: searchParam,
   sort: z.enum(CUSTOMER_SORTS, { errorMap: () => ({ message: `Sort by one of: ${CUSTOMER_SORTS.join(', ')}` }) }).default('updated_at'),
   dir: z.enum(['asc', 'desc'], { errorMap: () => ({ message: 'Choose asc or desc' }) }).optional(),
-  limit: intParam('limit', 1, 200, 50),
-  offset: intParam('offset', 0, 10_000_000, 0),
+  ...pageParams,
 });
 export type CustomerListQuery = z.output<typeof CustomerListQuerySchema>;
 

@@ -1,8 +1,6 @@
 // Elevation data: request schemas (shared by endpoints and the admin page) and the JSON the API returns.
 import { z } from 'zod';
 
-export const ElevationIdParamSchema = z.object({ id: z.string().regex(/^\d{1,18}$/, 'Not a valid id') });
-
 const coordinate = (label: string, limit: number) =>
   z.coerce
     .number({ required_error: `${label} is required`, invalid_type_error: `${label} must be a number` })

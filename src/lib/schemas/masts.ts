@@ -2,6 +2,7 @@
 // shapes the API returns. Channel and PCI checks use the 3GPP tables in lib/domain/channels.ts.
 import { z } from 'zod';
 import { getBand, isChannelInBand, isKnownBand, lookupChannel, type RadioTech } from '../domain/channels';
+import { enumOf, hasAnyField, numberField, optionalText, requiredText } from './params';
 
 export const MAST_STATUSES = ['active', 'planned', 'decommissioned'] as const;
 export type MastStatus = (typeof MAST_STATUSES)[number];
@@ -28,26 +29,14 @@ export type Tech = (typeof TECHS)[number];
  */
 export const PCI_MAX: Record<Tech, number | null> = { lte: 503, nr: 1007, umts: 511, gsm: null };
 
-const enumOf = <T extends readonly [string, ...string[]]>(values: T) =>
-  z.enum(values, { errorMap: () => ({ message: `Choose one of: ${values.join(', ')}` }) });
-
 export const MastStatusSchema = enumOf(MAST_STATUSES);
 export const StructureTypeSchema = enumOf(STRUCTURE_TYPES);
 export const TechSchema = enumOf(TECHS);
 
-const num = (label: string) =>
-  z.number({ required_error: `${label} is required`, invalid_type_error: `${label} must be a number` }).finite(`${label} must be a number`);
+const num = (label: string) => numberField(label, `${label} must be a number`);
 
 export const LatSchema = num('Latitude').min(-90, 'Latitude must be between −90 and 90').max(90, 'Latitude must be between −90 and 90');
 export const LonSchema = num('Longitude').min(-180, 'Longitude must be between −180 and 180').max(180, 'Longitude must be between −180 and 180');
-
-const optionalText = (max: number) =>
-  z
-    .string({ invalid_type_error: 'Must be text' })
-    .trim()
-    .max(max, `At most ${max} characters`)
-    .nullish()
-    .transform((s) => (s ? s : null));
 
 // --- Query strings ---------------------------------------------------------------------------
 
@@ -160,7 +149,7 @@ export const MastDeleteQuerySchema = z.object({
 
 // --- Mast input ------------------------------------------------------------------------------
 
-const mastName = z.string({ required_error: 'Required', invalid_type_error: 'Required' }).trim().min(1, 'Required').max(120, 'At most 120 characters');
+const mastName = requiredText(120);
 const reference = optionalText(40);
 const groundElevation = num('Ground elevation').min(-500, 'Ground elevation must be at least −500 m').max(9000, 'Ground elevation must be at most 9000 m').nullish();
 const structureHeight = num('Structure height').min(0, 'Cannot be negative').max(700, 'Structure height must be at most 700 m').nullish();
@@ -337,7 +326,7 @@ export const CellChangeSchema = z
     rs_power_dbm: rsPower.optional(),
     last_observed_at: lastObserved,
   })
-  .refine((v) => Object.values(v).some((x) => x !== undefined), { message: 'Nothing to change' });
+  .refine(hasAnyField, { message: 'Nothing to change' });
 export type CellChange = z.output<typeof CellChangeSchema>;
 
 // --- JSON the API returns ----------------------------------------------------------------------

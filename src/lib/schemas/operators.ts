@@ -1,5 +1,6 @@
 // Operators (MCC/MNC and map colour): input schemas and the JSON the API returns.
 import { z } from 'zod';
+import { hasAnyField, requiredText } from './params';
 
 /**
  * Default operator colours, in the order new operators take them: the Okabe–Ito palette, chosen to
@@ -14,7 +15,7 @@ export function pickDefaultColour(used: readonly string[]): string {
   return OPERATOR_PALETTE.find((c) => !taken.has(c)) ?? OPERATOR_PALETTE[used.length % OPERATOR_PALETTE.length]!;
 }
 
-const name = z.string({ required_error: 'Required', invalid_type_error: 'Required' }).trim().min(1, 'Required').max(80, 'At most 80 characters');
+const name = requiredText(80);
 // MCC is three digits, MNC two or three (ITU-T E.212); 001/01 is the test network code.
 const mcc = z.string({ required_error: 'Required', invalid_type_error: 'Required' }).trim().regex(/^\d{3}$/, 'MCC is three digits');
 const mnc = z.string({ required_error: 'Required', invalid_type_error: 'Required' }).trim().regex(/^\d{2,3}$/, 'MNC is two or three digits');
@@ -29,7 +30,7 @@ export type OperatorInput = z.output<typeof OperatorInputSchema>;
 
 export const OperatorChangeSchema = z
   .object({ name: name.optional(), mcc: mcc.optional(), mnc: mnc.optional(), colour: colour.optional() })
-  .refine((v) => Object.values(v).some((x) => x !== undefined), { message: 'Nothing to change' });
+  .refine(hasAnyField, { message: 'Nothing to change' });
 export type OperatorChange = z.output<typeof OperatorChangeSchema>;
 
 export interface OperatorJson {

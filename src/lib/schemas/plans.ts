@@ -2,9 +2,10 @@
 // the JSON the API returns.
 import { z } from 'zod';
 import { PLAN_STATES, type PlanState } from '../domain/plan-state';
-import { IdRefSchema, RowVersionSchema, num, optionalText } from './customers';
+import { RowVersionSchema } from './customers';
+import { IdRefSchema, enumOf, numberField as num, optionalText, pageParams } from './params';
 
-const stateEnum = z.enum(PLAN_STATES, { errorMap: () => ({ message: `Choose one of: ${PLAN_STATES.join(', ')}` }) });
+const stateEnum = enumOf(PLAN_STATES);
 const ref = IdRefSchema.nullable();
 const cableM = num('Cable length').min(0, 'Cable length cannot be negative').max(200, 'Cable length must be at most 200 m');
 const mountHeightM = num('Mount height').min(0, 'Mount height cannot be negative').max(100, 'Mount height must be at most 100 m');
@@ -79,21 +80,10 @@ export const PlanChangeSchema = z
   }));
 export type PlanChange = Partial<z.output<typeof PlanChangeSchema>>;
 
-const intParam = (label: string, min: number, max: number, fallback: number) =>
-  z
-    .string()
-    .trim()
-    .regex(/^\d+$/, `${label} must be a whole number`)
-    .transform(Number)
-    .refine((n) => n >= min && n <= max, `${label} must be between ${min} and ${max}`)
-    .optional()
-    .transform((n) => n ?? fallback);
-
 export const PlanListQuerySchema = z.object({
   customer_id: z.string().trim().regex(/^\d{1,18}$/, 'Not a valid id').optional(),
   state: stateEnum.optional(),
-  limit: intParam('limit', 1, 200, 50),
-  offset: intParam('offset', 0, 10_000_000, 0),
+  ...pageParams,
 });
 export type PlanListQuery = z.output<typeof PlanListQuerySchema>;
 

@@ -1,6 +1,7 @@
 // Regions: named polygons, imported as GeoJSON (RFC 7946). Shape checks here; the database checks
 // validity (self-intersections and the like) with ST_IsValid.
 import { z } from 'zod';
+import { requiredText } from './params';
 
 const position = z
   .array(z.number({ invalid_type_error: 'Coordinates must be numbers' }).finite(), { invalid_type_error: 'A position is [lon, lat]' })
@@ -40,7 +41,7 @@ export const RegionGeometrySchema = z.preprocess(
   GeometrySchema,
 );
 
-const name = z.string({ required_error: 'Required', invalid_type_error: 'Required' }).trim().min(1, 'Required').max(80, 'At most 80 characters');
+const name = requiredText(80);
 
 export const RegionInputSchema = z.object({ name, geometry: RegionGeometrySchema });
 export type RegionInput = z.output<typeof RegionInputSchema>;

@@ -1,7 +1,8 @@
 import { z } from 'zod';
 import { ROLES } from '../domain/roles';
+import { enumOf } from './params';
 
-export const RoleSchema = z.enum(ROLES, { errorMap: () => ({ message: `Choose one of: ${ROLES.join(', ')}` }) });
+export const RoleSchema = enumOf(ROLES);
 
 export const PASSWORD_MIN = 10;
 
@@ -23,5 +24,3 @@ export const UserChangeSchema = z
     message: 'Nothing to change',
   });
 export type UserChangeInput = z.infer<typeof UserChangeSchema>;
-
-export const IdParamSchema = z.object({ id: z.string().regex(/^\d{1,18}$/, 'Not a valid id') });

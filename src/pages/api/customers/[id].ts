@@ -4,7 +4,7 @@ import { ForbiddenError } from '../../../lib/server/errors';
 import { canViewPlans } from '../../../lib/domain/plan-state';
 import { customerJson, findCustomer, updateCustomer } from '../../../lib/server/repos/customers';
 import { CustomerChangeSchema } from '../../../lib/schemas/customers';
-import { IdParamSchema } from '../../../lib/schemas/users';
+import { IdParamSchema } from '../../../lib/schemas/params';
 
 export const GET = handler(async ({ locals, params }) => {
   if (!canViewPlans(requireUser(locals).role)) throw new ForbiddenError();

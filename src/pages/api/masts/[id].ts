@@ -2,7 +2,7 @@ import { getDb } from '../../../lib/server/db';
 import { handler, json, parseBody, parseQuery, parseWith, requirePermission } from '../../../lib/server/http';
 import { deleteMast, findMast, mastDetailJson, mastJson, updateMast } from '../../../lib/server/repos/masts';
 import { MastChangeSchema, MastDeleteQuerySchema } from '../../../lib/schemas/masts';
-import { IdParamSchema } from '../../../lib/schemas/users';
+import { IdParamSchema } from '../../../lib/schemas/params';
 
 /** The mast with its cells (and operators) and up to 20 recent readings matched to them. */
 export const GET = handler(async ({ locals, params }) => {

@@ -5,7 +5,7 @@ import { canViewPlans } from '../../../lib/domain/plan-state';
 import { findPlanDetail, planDetailJson, updatePlan } from '../../../lib/server/repos/plans';
 import { PlanChangeSchema } from '../../../lib/schemas/plans';
 import { syncInstallReadings } from '../../../lib/server/repos/install-feedback';
-import { IdParamSchema } from '../../../lib/schemas/users';
+import { IdParamSchema } from '../../../lib/schemas/params';
 
 // The plan with its install checks and the measured result against the prediction.
 export const GET = handler(async ({ locals, params }) => {

@@ -1,7 +1,8 @@
 import { getDb } from '../../../lib/server/db';
 import { handler, json, parseBody, parseWith, requirePermission } from '../../../lib/server/http';
 import { findUser, updateUser } from '../../../lib/server/repos/users';
-import { IdParamSchema, UserChangeSchema } from '../../../lib/schemas/users';
+import { IdParamSchema } from '../../../lib/schemas/params';
+import { UserChangeSchema } from '../../../lib/schemas/users';
 
 export const GET = handler(async ({ locals, params }) => {
   requirePermission(locals, 'users:manage');

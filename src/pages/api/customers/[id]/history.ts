@@ -3,7 +3,7 @@ import { handler, json, parseWith, requireUser } from '../../../../lib/server/ht
 import { ForbiddenError } from '../../../../lib/server/errors';
 import { canViewPlans } from '../../../../lib/domain/plan-state';
 import { listCustomerHistory } from '../../../../lib/server/repos/customers';
-import { IdParamSchema } from '../../../../lib/schemas/users';
+import { IdParamSchema } from '../../../../lib/schemas/params';
 
 // The audit trail of a customer and their plans, newest first.
 export const GET = handler(async ({ locals, params }) => {

@@ -2,7 +2,7 @@ import { getDb } from '../../../../lib/server/db';
 import { handler, json, parseBody, parseWith, requirePermission } from '../../../../lib/server/http';
 import { cellJson, createCell, listCellsOfExistingMast } from '../../../../lib/server/repos/cells';
 import { CellInputSchema } from '../../../../lib/schemas/masts';
-import { IdParamSchema } from '../../../../lib/schemas/users';
+import { IdParamSchema } from '../../../../lib/schemas/params';
 
 export const GET = handler(async ({ locals, params }) => {
   requirePermission(locals, 'map:view');

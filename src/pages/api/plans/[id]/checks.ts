@@ -5,7 +5,7 @@ import { canRecordChecks, canViewPlans } from '../../../../lib/domain/plan-state
 import { addInstallCheck, findPlan, installCheckJson, listInstallChecks } from '../../../../lib/server/repos/plans';
 import { InstallCheckInputSchema } from '../../../../lib/schemas/plans';
 import { syncInstallReadings } from '../../../../lib/server/repos/install-feedback';
-import { IdParamSchema } from '../../../../lib/schemas/users';
+import { IdParamSchema } from '../../../../lib/schemas/params';
 
 export const GET = handler(async ({ locals, params }) => {
   if (!canViewPlans(requireUser(locals).role)) throw new ForbiddenError();
