@@ -19,6 +19,16 @@ export class ApiError extends Error {
   }
 }
 
+export type ErrorBody = { error?: { code?: string; message?: string; fields?: FieldErrors } } | null;
+
+/** The ApiError for a failed answer, from its error body when it has one. */
+export function toApiError(status: number, data: ErrorBody, failed: string): ApiError {
+  const err = data?.error;
+  return new ApiError(status, err?.code ?? 'UNKNOWN', err?.message ?? `${failed} (${status})`, err?.fields ?? {});
+}
+
+export const networkError = () => new ApiError(0, 'NETWORK', 'The server could not be reached. Check your connection and try again.');
+
 export async function request<T>(method: string, url: string, body?: unknown): Promise<T> {
   const init: RequestInit = { method, headers: { Accept: 'application/json' }, credentials: 'same-origin' };
   if (body !== undefined) {
@@ -29,14 +39,11 @@ export async function request<T>(method: string, url: string, body?: unknown): P
   try {
     res = await fetch(url, init);
   } catch {
-    throw new ApiError(0, 'NETWORK', 'The server could not be reached. Check your connection and try again.');
+    throw networkError();
   }
   if (res.status === 204) return undefined as T;
   const data = await res.json().catch(() => null);
-  if (!res.ok) {
-    const err = data?.error;
-    throw new ApiError(res.status, err?.code ?? 'UNKNOWN', err?.message ?? `Request failed (${res.status})`, err?.fields ?? {});
-  }
+  if (!res.ok) throw toApiError(res.status, data, 'Request failed');
   return data as T;
 }
 
@@ -64,14 +71,19 @@ export const usersApi = {
 
 // --- Map: style, operators, masts, regions, search ---------------------------------------------
 
-const query = (params: Record<string, string | number | readonly string[] | undefined>) => {
+/** URL-encoded parameters without the `?`; undefined, null and empty values are left out, lists comma-joined. */
+export const queryString = (params: Record<string, string | number | readonly string[] | undefined | null>) => {
   const q = new URLSearchParams();
   for (const [k, v] of Object.entries(params)) {
-    if (v === undefined) continue;
+    if (v === undefined || v === null) continue;
     const text = Array.isArray(v) ? v.join(',') : String(v);
     if (text !== '') q.set(k, text);
   }
-  const s = q.toString();
+  return q.toString();
+};
+
+const query = (params: Record<string, string | number | readonly string[] | undefined>) => {
+  const s = queryString(params);
   return s ? `?${s}` : '';
 };
 

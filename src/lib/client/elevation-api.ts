@@ -1,5 +1,5 @@
 // Elevation data endpoints for the islands.
-import { ApiError, get, request, type List } from './api';
+import { ApiError, get, networkError, request, toApiError, type ErrorBody, type List } from './api';
 import type { ElevationGridJson, ElevationSampleJson } from '../schemas/elevation';
 
 export type { ElevationGridJson, ElevationSampleJson };
@@ -23,17 +23,16 @@ function uploadFile<T>(url: string, file: File, onProgress?: (p: UploadProgress)
       if (e.lengthComputable) onProgress?.({ loaded: e.loaded, total: e.total });
     };
     xhr.onload = () => {
-      let data: { error?: { code?: string; message?: string; fields?: Record<string, string[]> } } | null = null;
+      let data: ErrorBody = null;
       try {
         data = xhr.responseText ? JSON.parse(xhr.responseText) : null;
       } catch {
         data = null;
       }
       if (xhr.status >= 200 && xhr.status < 300) return resolve(data as T);
-      const err = data?.error;
-      reject(new ApiError(xhr.status, err?.code ?? 'UNKNOWN', err?.message ?? `Upload failed (${xhr.status})`, err?.fields ?? {}));
+      reject(toApiError(xhr.status, data, 'Upload failed'));
     };
-    xhr.onerror = () => reject(new ApiError(0, 'NETWORK', 'The server could not be reached. Check your connection and try again.'));
+    xhr.onerror = () => reject(networkError());
     xhr.onabort = () => reject(new ApiError(0, 'ABORTED', 'Upload cancelled'));
     signal?.addEventListener('abort', () => xhr.abort(), { once: true });
     const form = new FormData();

@@ -1,5 +1,5 @@
 // Client calls of the planner page.
-import { get, request, type List } from './api';
+import { get, queryString as qs, request, type List } from './api';
 import type { PathResult } from './tools-api';
 import type { AntennaJson, CableJson } from '../schemas/catalogue';
 import type { GeocodeMatchJson } from '../schemas/addresses';
@@ -65,9 +65,6 @@ export interface ShortlistParams {
   operator: string;
   current_antenna_id: string;
 }
-
-const qs = (params: Record<string, string | number | undefined | null>) =>
-  new URLSearchParams(Object.entries(params).filter(([, v]) => v !== undefined && v !== null && v !== '').map(([k, v]) => [k, String(v)])).toString();
 
 export const plannerApi = {
   shortlist: (p: ShortlistParams) => get<Shortlist>(`/api/shortlist?${qs({ ...p })}`),

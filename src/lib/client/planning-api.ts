@@ -1,6 +1,6 @@
 // Typed client calls for the catalogue, gazetteer, customers and plans. Response shapes are the
 // API's own (snake_case, units in the names), declared beside the schemas.
-import { ApiError, get, request, type FieldErrors, type List } from './api';
+import { get, networkError, queryString as qs, request, toApiError, type FieldErrors, type List } from './api';
 import type { AntennaJson, AntennaKind, CableJson } from '../schemas/catalogue';
 import type { AddressImportJson, AddressJson, GeocodeMatchJson } from '../schemas/addresses';
 import type { CustomerJson, CustomerSort, HistoryEntryJson } from '../schemas/customers';
@@ -9,13 +9,6 @@ import type { OperatorRefJson } from '../schemas/masts';
 import type { PlanState } from '../domain/plan-state';
 
 export type { AntennaJson, CableJson, AddressJson, AddressImportJson, GeocodeMatchJson, CustomerJson, HistoryEntryJson, PlanJson, PlanDetailJson, InstallCheckJson };
-
-const qs = (params: Record<string, string | number | undefined | null>) =>
-  new URLSearchParams(
-    Object.entries(params)
-      .filter(([, v]) => v !== undefined && v !== null && v !== '')
-      .map(([k, v]) => [k, String(v)]),
-  ).toString();
 
 // --- catalogue ----------------------------------------------------------------------------
 
@@ -57,13 +50,10 @@ async function importAddressFile(file: File): Promise<AddressImportJson> {
   try {
     res = await fetch('/api/addresses/import', { method: 'POST', body: form, credentials: 'same-origin', headers: { Accept: 'application/json' } });
   } catch {
-    throw new ApiError(0, 'NETWORK', 'The server could not be reached. Check your connection and try again.');
+    throw networkError();
   }
   const data = await res.json().catch(() => null);
-  if (!res.ok) {
-    const err = data?.error;
-    throw new ApiError(res.status, err?.code ?? 'UNKNOWN', err?.message ?? `Upload failed (${res.status})`, err?.fields ?? {});
-  }
+  if (!res.ok) throw toApiError(res.status, data, 'Upload failed');
   return data as AddressImportJson;
 }
 

@@ -1,4 +1,4 @@
-import { get } from './api';
+import { get, queryString as qs } from './api';
 
 export interface ChannelResult {
   tech: string;
@@ -54,9 +54,6 @@ export interface PathResult {
   };
   terrain_note?: string;
 }
-
-const qs = (params: Record<string, string | number | undefined>) =>
-  new URLSearchParams(Object.entries(params).filter(([, v]) => v !== undefined && v !== '') as [string, string][]).toString();
 
 export const toolsApi = {
   channel: (tech: string, channel: string) => get<ChannelResult>(`/api/tools/channel?${qs({ tech, channel })}`),
