@@ -21,16 +21,21 @@ const figures = z
   .record(z.unknown(), { invalid_type_error: 'Figures must be an object' })
   .refine((f) => JSON.stringify(f).length <= FIGURES_MAX_CHARS, `Figures must be under ${FIGURES_MAX_CHARS} characters of JSON`);
 
+/** The chosen cell and kit and the visit date: the same fields in a new plan and in a change. */
+const kitFields = {
+  cell_id: ref.optional(),
+  antenna_id: ref.optional(),
+  cable_id: ref.optional(),
+  cable_m: cableM.nullable().optional(),
+  mount_height_m: mountHeightM.nullable().optional(),
+  figures: figures.optional(),
+  scheduled_for: date.optional(),
+};
+
 export const PlanInputSchema = z
   .object({
     customer_id: IdRefSchema,
-    cell_id: ref.optional(),
-    antenna_id: ref.optional(),
-    cable_id: ref.optional(),
-    cable_m: cableM.nullable().optional(),
-    mount_height_m: mountHeightM.nullable().optional(),
-    figures: figures.optional(),
-    scheduled_for: date.optional(),
+    ...kitFields,
     notes: optionalText(4000),
     // A plan starts as an enquiry, or as planned when the planner saves a chosen cell and kit.
     state: z.enum(['enquiry', 'planned'], { errorMap: () => ({ message: 'A new plan starts as enquiry or planned' }) }).default('enquiry'),
@@ -51,13 +56,7 @@ export type PlanInput = z.output<typeof PlanInputSchema>;
 
 export const PlanChangeSchema = z
   .object({
-    cell_id: ref.optional(),
-    antenna_id: ref.optional(),
-    cable_id: ref.optional(),
-    cable_m: cableM.nullable().optional(),
-    mount_height_m: mountHeightM.nullable().optional(),
-    figures: figures.optional(),
-    scheduled_for: date.optional(),
+    ...kitFields,
     notes: optionalText(4000).optional(),
     state: stateEnum.optional(),
     row_version: RowVersionSchema.optional(),
