@@ -5,8 +5,8 @@ import type { LineString, MultiPolygon, Point, Polygon } from 'geojson';
 import { createIslandModel, DEMO_SEED, type IslandModel } from './geography';
 import { createElevationFn, getIslandBounds, type ElevationFn, type GeoBounds } from './elevation';
 import { createLanduse, createPlaceLabels, createRoads, listNearestRoadPoints, routeRoad, type LanduseKind, type PlaceLabelKind, type Road, type RoadKind } from './basemap';
-import { createNetwork, DEMO_OPERATORS, type DemoOperatorSpec, type MastStatus, type SiteKind, type StructureType } from './network';
-import { createReadings } from './readings';
+import { createNetwork, DEMO_OPERATORS, type DemoCellPlan, type DemoOperatorSpec, type MastStatus, type SiteKind, type StructureType } from './network';
+import { createReadings, type ReadingPlan } from './readings';
 import { createRegions } from './regions';
 import { round6, toGeo, toPosition, type LocalPoint } from './projection';
 import { createRandom } from './random';
@@ -25,39 +25,15 @@ export interface DemoMast {
   siteKind: SiteKind;
 }
 
-export interface DemoCell {
-  id: number;
-  mastId: number;
-  operatorId: number;
-  tech: 'lte' | 'nr';
-  band: string;
-  channel: number;
-  dlMhz: number;
-  pci: number;
-  cellIdentity: number;
-  sectorAzimuthDeg: number;
-  antennaHeightM: number;
-  bandwidthMhz: number;
-  rsPowerDbm: number;
+/** A planned cell as stored; `biasDb` stays in the readings, not in the database. */
+export interface DemoCell extends DemoCellPlan {
   lastObservedAt: Date | null;
-  /** Hidden offset of the real cell from the prediction model (dB); in the readings, not in the database. */
-  biasDb: number;
 }
 
-export interface DemoReading {
-  takenAt: Date;
+/** A planned reading placed in WGS84. */
+export interface DemoReading extends Omit<ReadingPlan, 'at'> {
   lat: number;
   lon: number;
-  tech: 'lte' | 'nr';
-  channel: number;
-  pci: number;
-  rsrpDbm: number;
-  rsrqDb: number;
-  sinrDb: number;
-  rssiDbm: number;
-  cellId: number | null;
-  device: string;
-  source: string;
 }
 
 export interface DemoFeature<G, K extends string> {
