@@ -6,6 +6,7 @@ import { createIslandModel, getNormalisedRadius, type IslandModel } from './geog
 import { distanceKm, distanceToSegmentKm, isInRing, toGeo, toLocal, type LocalPoint } from './projection';
 import { createValueNoise } from './noise';
 import { hashString } from './random';
+import type { GridFrame } from '../domain/elevation-grid';
 
 export type ElevationFn = (p: LocalPoint) => number;
 
@@ -175,15 +176,9 @@ export function getIslandBounds(model: IslandModel, marginKm = 0): GeoBounds {
 
 /**
  * A regular lat/lon elevation grid, point-registered (first/last rows and columns on the bounds, as in
- * .hgt tiles); the field names follow the app's elevation-grid module so it can be stored as is.
+ * .hgt tiles); an elevation-grid frame, so it can be stored as is.
  */
-export interface DemoElevationGrid {
-  west: number;
-  south: number;
-  east: number;
-  north: number;
-  width: number;
-  height: number;
+export interface DemoElevationGrid extends GridFrame {
   registration: 'point';
   nodata: null;
   /** Row-major, row 0 the northernmost, metres. */
