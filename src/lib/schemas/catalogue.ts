@@ -42,22 +42,22 @@ export const GainRowSchema = z.object({
   gain_dbi: num('Gain').min(-10, 'Gain must be at least −10 dBi').max(30, 'Gain must be at most 30 dBi'),
 });
 
-export const GainTableSchema = z
-  .array(GainRowSchema, { required_error: 'Add at least one row', invalid_type_error: 'Add at least one row' })
-  .min(1, 'Add at least one row')
-  .max(40, 'At most 40 rows')
-  .superRefine(increasingFrequencies);
+/** A table of 1–40 rows by frequency, lowest first. */
+const frequencyTable = <T extends { freq_mhz: number }>(row: z.ZodType<T>) =>
+  z
+    .array(row, { required_error: 'Add at least one row', invalid_type_error: 'Add at least one row' })
+    .min(1, 'Add at least one row')
+    .max(40, 'At most 40 rows')
+    .superRefine(increasingFrequencies);
+
+export const GainTableSchema = frequencyTable(GainRowSchema);
 
 export const LossRowSchema = z.object({
   freq_mhz: freq,
   loss_db_per_m: num('Loss').gt(0, 'Loss must be above 0 dB/m').max(5, 'Loss must be at most 5 dB/m'),
 });
 
-export const LossTableSchema = z
-  .array(LossRowSchema, { required_error: 'Add at least one row', invalid_type_error: 'Add at least one row' })
-  .min(1, 'Add at least one row')
-  .max(40, 'At most 40 rows')
-  .superRefine(increasingFrequencies);
+export const LossTableSchema = frequencyTable(LossRowSchema);
 
 const kind = enumOf(ANTENNA_KINDS);
 const ports = num('Ports').int('Ports must be a whole number').min(1, 'At least 1 port').max(8, 'At most 8 ports');
