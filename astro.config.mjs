@@ -23,6 +23,7 @@ export default defineConfig({
       SMTP_URL: envField.string({ context: 'server', access: 'secret', optional: true }),
       MAIL_FROM: envField.string({ context: 'server', access: 'secret', optional: true, default: 'Bearline <noreply@bearline.invalid>' }),
       DATA_DIR: envField.string({ context: 'server', access: 'secret', optional: true }),
+      MAIL_DIR: envField.string({ context: 'server', access: 'secret', optional: true }),
       PUBLIC_ORIGIN: envField.string({ context: 'server', access: 'secret', optional: true }),
     },
   },

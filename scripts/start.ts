@@ -16,8 +16,9 @@ async function main() {
     await runSeeds(databaseUrl);
   }
   buildIfChanged();
-  const smtpUrl = process.env.SMTP_URL ?? (await startMailCatcher({ port: SMTP_PORT, dir: `${DATA_DIR}/mail` }));
-  const server = startServer({ host: HOST, port: PORT, env: { DATABASE_URL: databaseUrl, SMTP_URL: smtpUrl, DATA_DIR } });
+  const mailDir = `${DATA_DIR}/mail`;
+  const smtpUrl = process.env.SMTP_URL ?? (await startMailCatcher({ port: SMTP_PORT, dir: mailDir }));
+  const server = startServer({ host: HOST, port: PORT, env: { DATABASE_URL: databaseUrl, SMTP_URL: smtpUrl, DATA_DIR, MAIL_DIR: mailDir } });
   const stop = () => server.kill('SIGTERM');
   process.on('SIGINT', stop);
   process.on('SIGTERM', stop);

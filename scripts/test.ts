@@ -58,7 +58,7 @@ async function main() {
     const mailDir = join(work, 'mail');
     const smtpUrl = await startMailCatcher({ port: SMTP_PORT, dir: mailDir });
     const appUrl = `http://127.0.0.1:${APP_PORT}`;
-    server = startServer({ host: '127.0.0.1', port: APP_PORT, stdio: 'ignore', env: { DATABASE_URL: e2eUrl, SMTP_URL: smtpUrl, DATA_DIR: join(work, 'data') } });
+    server = startServer({ host: '127.0.0.1', port: APP_PORT, stdio: 'ignore', env: { DATABASE_URL: e2eUrl, SMTP_URL: smtpUrl, DATA_DIR: join(work, 'data'), MAIL_DIR: mailDir } });
     await waitForHttp(`${appUrl}/api/health`);
 
     const env = { DATABASE_URL: testUrl, APP_URL: appUrl, E2E_DATABASE_URL: e2eUrl, MAIL_DIR: mailDir, SMTP_URL: smtpUrl, DATA_DIR: join(work, 'data-int') };

@@ -14,6 +14,7 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { href: '/admin/operators', label: 'Operators', permission: 'reference:manage' },
   { href: '/admin/regions', label: 'Regions', permission: 'reference:manage' },
   { href: '/admin/users', label: 'Users', permission: 'users:manage' },
+  { href: '/admin/mailbox', label: 'Mailbox', permission: 'mail:view' },
   { href: '/admin/elevation', label: 'Elevation', permission: 'reference:manage' },
   { href: '/customers', label: 'Customers', permission: 'plans:view' },
   { href: '/admin/catalogue', label: 'Catalogue', permission: 'reference:manage' },
