@@ -2,6 +2,7 @@
 import type { Tx } from '../db';
 import type { AddressJson, AddressRow } from '../../schemas/addresses';
 import { recordAudit } from './audit';
+import { escapeLike } from './masts';
 
 export interface Address {
   id: string;
@@ -46,7 +47,7 @@ export async function listAddresses(
   query: { q?: string; limit: number; offset: number },
 ): Promise<{ items: Address[]; total: number }> {
   const base = db('addresses');
-  if (query.q) base.whereRaw('search_text ILIKE ?', [`%${query.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`]);
+  if (query.q) base.whereRaw('search_text ILIKE ?', [`%${escapeLike(query.q)}%`]);
   const [{ count }] = await base.clone().count<{ count: string }[]>('* as count');
   const rows = await base
     .select<AddressRowDb[]>([...COLUMNS, db.raw('ST_Y(geom) AS lat'), db.raw('ST_X(geom) AS lon')])

@@ -5,6 +5,7 @@ import { PLAN_STATES, type PlanState } from '../../domain/plan-state';
 import type { CustomerChange, CustomerInput, CustomerJson, CustomerListQuery, HistoryEntryJson } from '../../schemas/customers';
 import { ConflictError, NotFoundError, ValidationError } from '../errors';
 import { recordAudit } from './audit';
+import { escapeLike } from './masts';
 
 export interface Customer {
   id: string;
@@ -121,7 +122,6 @@ function selectCustomers(db: Tx): Knex.QueryBuilder {
 }
 
 const SEARCH_TEXT = "(c.name || ' ' || c.address_label || ' ' || coalesce(c.postcode, ''))";
-const escapeLike = (s: string) => s.replace(/[\\%_]/g, (ch) => `\\${ch}`);
 
 export async function listCustomers(db: Tx, query: CustomerListQuery): Promise<{ items: Customer[]; total: number }> {
   const filtered = (q: Knex.QueryBuilder) => {
