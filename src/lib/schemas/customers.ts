@@ -2,7 +2,7 @@
 // API returns.
 import { z } from 'zod';
 import type { PlanState } from '../domain/plan-state';
-import { IdRefSchema, numberField as num, optionalText, pageParams, requiredText, searchParam } from './params';
+import { IdRefSchema, hasChange, numberField as num, optionalText, pageParams, requiredText, searchParam } from './params';
 
 const name = requiredText(120);
 const phone = z
@@ -74,8 +74,7 @@ export const CustomerChangeSchema = z
     if ((v.lat === undefined) !== (v.lon === undefined)) {
       ctx.addIssue({ code: 'custom', path: [v.lat === undefined ? 'lat' : 'lon'], message: 'Give latitude and longitude together' });
     }
-    const { row_version: _, ...rest } = v;
-    if (!Object.values(rest).some((x) => x !== undefined)) ctx.addIssue({ code: 'custom', path: [], message: 'Nothing to change' });
+    if (!hasChange(v)) ctx.addIssue({ code: 'custom', path: [], message: 'Nothing to change' });
   })
   .transform((v) => ({
     name: v.name,

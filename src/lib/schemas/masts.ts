@@ -2,7 +2,7 @@
 // shapes the API returns. Channel and PCI checks use the 3GPP tables in lib/domain/channels.ts.
 import { z } from 'zod';
 import { getBand, isChannelInBand, isKnownBand, lookupChannel, type RadioTech } from '../domain/channels';
-import { enumOf, hasAnyField, numberField, optionalText, requiredText } from './params';
+import { enumOf, hasAnyField, hasChange, numberField, optionalText, requiredText } from './params';
 
 export const MAST_STATUSES = ['active', 'planned', 'decommissioned'] as const;
 export type MastStatus = (typeof MAST_STATUSES)[number];
@@ -180,8 +180,6 @@ export const MastInputSchema = z
     source: v.source ?? 'manual',
   }));
 export type MastInput = z.output<typeof MastInputSchema>;
-
-const hasChange = (v: Record<string, unknown>) => Object.entries(v).some(([k, x]) => k !== 'row_version' && x !== undefined);
 
 export const MastChangeSchema = z
   .object({

@@ -75,3 +75,6 @@ export const IdRefSchema = z
 
 /** For change schemas: true when at least one field is given. */
 export const hasAnyField = (v: Record<string, unknown>) => Object.values(v).some((x) => x !== undefined);
+
+/** For change schemas with optimistic concurrency: true when a field besides `row_version` is given. */
+export const hasChange = (v: Record<string, unknown>) => Object.entries(v).some(([k, x]) => k !== 'row_version' && x !== undefined);

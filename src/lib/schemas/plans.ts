@@ -3,7 +3,7 @@
 import { z } from 'zod';
 import { PLAN_STATES, type PlanState } from '../domain/plan-state';
 import { RowVersionSchema } from './customers';
-import { IdRefSchema, enumOf, numberField as num, optionalText, pageParams } from './params';
+import { IdRefSchema, enumOf, hasChange, numberField as num, optionalText, pageParams } from './params';
 
 const stateEnum = enumOf(PLAN_STATES);
 const ref = IdRefSchema.nullable();
@@ -62,8 +62,7 @@ export const PlanChangeSchema = z
     row_version: RowVersionSchema.optional(),
   })
   .superRefine((v, ctx) => {
-    const { row_version: _, ...rest } = v;
-    if (!Object.values(rest).some((x) => x !== undefined)) ctx.addIssue({ code: 'custom', path: [], message: 'Nothing to change' });
+    if (!hasChange(v)) ctx.addIssue({ code: 'custom', path: [], message: 'Nothing to change' });
   })
   .transform((v) => ({
     cellId: v.cell_id,
