@@ -312,17 +312,11 @@ export const CellInputSchema = z.object(cellFields).transform(checkCell);
 /** A partial change; the repo merges it with the stored cell and checks the result with CellInputSchema. */
 export const CellChangeSchema = z
   .object({
+    ...cellFields,
     operator_id: operatorId.optional(),
     tech: TechSchema.optional(),
-    band: cellFields.band,
     channel: channel.optional(),
-    pci,
-    cell_identity: cellIdentity,
-    sector_azimuth_deg: azimuth,
-    antenna_height_m: antennaHeight,
-    bandwidth_mhz: bandwidth,
     rs_power_dbm: rsPower.optional(),
-    last_observed_at: lastObserved,
   })
   .refine(hasAnyField, { message: 'Nothing to change' });
 export type CellChange = z.output<typeof CellChangeSchema>;
