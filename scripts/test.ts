@@ -4,7 +4,7 @@
 import { chmodSync, mkdtempSync, readFileSync, existsSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { spawnSync, type ChildProcess } from 'node:child_process';
+import { spawn, type ChildProcess } from 'node:child_process';
 import { startCluster, destroyCluster, databaseUrl } from './lib/pg-cluster';
 import { ensureChromium } from './lib/system-packages';
 import { migrateLatest } from './lib/migrate-runner';
@@ -23,13 +23,16 @@ interface Tally {
   failed: number;
 }
 
-function runVitest(label: string, args: string[], env: Record<string, string>, reportFile: string): Tally {
+// Async, not spawnSync: the mail catcher lives in this process and must keep answering SMTP
+// while the tests run.
+async function runVitest(label: string, args: string[], env: Record<string, string>, reportFile: string): Promise<Tally> {
   log(`${label} tests…`);
-  const res = spawnSync('npx', ['vitest', 'run', ...args, '--reporter=default', '--reporter=json', `--outputFile.json=${reportFile}`], {
+  const child = spawn('npx', ['vitest', 'run', ...args, '--reporter=default', '--reporter=json', `--outputFile.json=${reportFile}`], {
     cwd: ROOT,
     stdio: 'inherit',
     env: { ...process.env, ...env },
   });
+  const res = { status: await new Promise<number | null>((resolve) => child.on('exit', (code) => resolve(code))) };
   if (!existsSync(reportFile)) return { passed: 0, failed: 1 }; // the runner itself failed
   const report = JSON.parse(readFileSync(reportFile, 'utf8')) as { numPassedTests: number; numFailedTests: number; numTotalTestSuites: number; testResults: { status: string }[] };
   const brokenFiles = report.testResults.filter((f) => f.status === 'failed').length;
@@ -62,8 +65,8 @@ async function main() {
     await waitForHttp(`${appUrl}/api/health`);
 
     const env = { DATABASE_URL: testUrl, APP_URL: appUrl, E2E_DATABASE_URL: e2eUrl, MAIL_DIR: mailDir, SMTP_URL: smtpUrl, DATA_DIR: join(work, 'data-int') };
-    const unit = runVitest('unit + integration', [], env, join(work, 'vitest.json'));
-    const browser = runVitest('browser', ['--config', 'vitest.e2e.config.ts'], env, join(work, 'vitest-e2e.json'));
+    const unit = await runVitest('unit + integration', [], env, join(work, 'vitest.json'));
+    const browser = await runVitest('browser', ['--config', 'vitest.e2e.config.ts'], env, join(work, 'vitest-e2e.json'));
     tally.passed = unit.passed + browser.passed;
     tally.failed = unit.failed + browser.failed;
   } catch (err) {
