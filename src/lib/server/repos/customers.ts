@@ -28,26 +28,12 @@ export interface Customer {
   rowVersion: number;
 }
 
-interface CustomerRow {
-  id: string;
-  name: string;
-  phone: string | null;
-  email: string | null;
-  address_label: string;
-  postcode: string | null;
-  lat: number;
-  lon: number;
-  current_operator_id: string | null;
-  current_operator_name: string | null;
-  current_antenna_id: string | null;
-  current_antenna_name: string | null;
-  notes: string | null;
+// Rows as selected: the response fields, with dates and the count as the driver returns them.
+type CustomerRow = Omit<CustomerJson, 'plan_count' | 'created_at' | 'updated_at'> & {
   plan_count: string | number;
-  latest_plan_state: PlanState | null;
   created_at: Date;
   updated_at: Date;
-  row_version: number;
-}
+};
 
 function toCustomer(r: CustomerRow): Customer {
   return {

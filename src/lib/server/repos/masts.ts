@@ -67,24 +67,8 @@ export interface MastDetail extends Mast {
   recentReadings: Reading[];
 }
 
-interface MastRow {
-  id: string;
-  name: string;
-  reference: string | null;
-  lat: number;
-  lon: number;
-  ground_elevation_m: number | null;
-  structure_height_m: number | null;
-  structure_type: StructureType;
-  status: MastStatus;
-  access_notes: string | null;
-  source: string;
-  created_by: string | null;
-  updated_by: string | null;
-  created_at: Date;
-  updated_at: Date;
-  row_version: number;
-}
+/** Rows as selected: the response fields with the times as Dates. */
+type MastRow = Omit<MastJson, 'created_at' | 'updated_at'> & { created_at: Date; updated_at: Date };
 
 const MAST_COLUMNS = [
   'm.id',

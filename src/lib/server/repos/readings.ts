@@ -19,22 +19,8 @@ export interface Reading {
   source: string | null;
 }
 
-interface ReadingRow {
-  id: string;
-  taken_at: Date;
-  lat: number;
-  lon: number;
-  tech: Tech;
-  channel: number | null;
-  pci: number | null;
-  rsrp_dbm: number | null;
-  rsrq_db: number | null;
-  sinr_db: number | null;
-  rssi_dbm: number | null;
-  cell_id: string | null;
-  device: string | null;
-  source: string | null;
-}
+/** Rows as selected: the response fields with the time as a Date. */
+type ReadingRow = Omit<ReadingJson, 'taken_at'> & { taken_at: Date };
 
 function toReading(r: ReadingRow): Reading {
   return {
