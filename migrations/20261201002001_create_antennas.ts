@@ -2,7 +2,7 @@ import type { Knex } from 'knex';
 
 // Customer-side antennas in the team's catalogue. gain_table holds rows
 // [{freq_mhz, gain_dbi}] sorted by frequency; the shortlist interpolates linearly
-// between them (DOMAIN.md §13). Shape and ranges are checked by the zod schema.
+// between them. Shape and ranges are checked by the zod schema.
 export async function up(knex: Knex): Promise<void> {
   await knex.schema.createTable('antennas', (t) => {
     t.bigIncrements('id').primary();

@@ -1,7 +1,7 @@
 import type { Knex } from 'knex';
 
 // Feeder cables in the team's catalogue. loss_table holds rows [{freq_mhz, loss_db_per_m}]
-// sorted by frequency (DOMAIN.md §10); connector_loss_db is per mated connector pair.
+// sorted by frequency; connector_loss_db is per mated connector pair.
 export async function up(knex: Knex): Promise<void> {
   await knex.schema.createTable('cables', (t) => {
     t.bigIncrements('id').primary();

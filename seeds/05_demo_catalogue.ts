@@ -1,9 +1,9 @@
 // Demo catalogue: customer antennas and feeder cables with generic names of our own.
 // Values are common practice, not any maker's datasheet:
 // - customer directional antennas (panel / log-periodic) 7–9 dBi over 700–2700 MHz with a ~40°
-//   horizontal beam; a small stub or whip ~2 dBi (DOMAIN.md §11, §13);
-// - cable attenuation per metre from the cable-class table of DOMAIN.md §10 (±20 %), connector
-//   loss 0.1–0.2 dB per mated pair below 3 GHz (DOMAIN.md §10, common practice).
+//   horizontal beam; a small stub or whip ~2 dBi;
+// - cable attenuation per metre from REFERENCE_CABLE_LOSS in link-budget.ts (±20 %), connector
+//   loss 0.1–0.2 dB per mated pair below 3 GHz (common practice).
 import type { Knex } from 'knex';
 import { DEFAULT_CONNECTOR_LOSS_DB, REFERENCE_CABLE_LOSS } from '../src/lib/domain/link-budget';
 

@@ -26,7 +26,7 @@ function expectChannelError(fn: () => unknown, code: string, message: RegExp): v
 }
 
 describe('LTE EARFCN', () => {
-  // DOMAIN.md §1 check values (3GPP TS 36.101 Table 5.7.3-1), ±0.001 MHz
+  // 3GPP TS 36.101 Table 5.7.3-1, calculated check values, ±0.001 MHz
   it.each([
     { earfcn: 6300, band: 'B20', dl: 806.0, ulEarfcn: 24300, ul: 847.0, duplex: 'FDD' },
     { earfcn: 6150, band: 'B20', dl: 791.0, ulEarfcn: 24150, ul: 832.0, duplex: 'FDD' },
@@ -55,7 +55,7 @@ describe('LTE EARFCN', () => {
     expect(info.alternativeBands).toEqual([]);
   });
 
-  // DOMAIN.md §1: N_UL = N_DL + 18000 for these FDD rows, so an uplink EARFCN maps back to its downlink
+  // TS 36.101 Table 5.7.3-1: N_UL = N_DL + 18000 for these FDD rows, so an uplink EARFCN maps back to its downlink
   it.each([
     [24300, 'B20', 6300, 806.0, 847.0],
     [19300, 'B3', 1300, 1815.0, 1720.0],
@@ -67,7 +67,7 @@ describe('LTE EARFCN', () => {
     expect(info.ulMhz).toBeCloseTo(ul, 3);
   });
 
-  // DOMAIN.md §1 inverse: N_DL = 10·(806 − 791) + 6150 = 6300; 2650 MHz is both B7 DL and B41; 2595 MHz B38 and B41
+  // TS 36.101 §5.7.3 inverse: N_DL = 10·(806 − 791) + 6150 = 6300; 2650 MHz is both B7 DL and B41; 2595 MHz B38 and B41
   it.each([
     [806, [{ band: 'B20', channel: 6300, direction: 'DL', exact: true }]],
     // 847 MHz is also the uplink of bands 5 and 26 (rows from memory, TS 36.101)
@@ -91,7 +91,7 @@ describe('LTE EARFCN', () => {
     expect(candidate).toMatchObject({ band: 'B20', channel: 6300, exact: false });
   });
 
-  // DOMAIN.md §1: EARFCN ranges are disjoint; numbers between the rows belong to no band
+  // TS 36.101 Table 5.7.3-1: EARFCN ranges are disjoint; numbers between the rows belong to no band
   it.each([70000, 10360, 65535, 262144])('EARFCN %s is in no known band', (earfcn) => {
     expectChannelError(() => lookupChannel('lte', earfcn), 'NO_BAND', new RegExp(`^EARFCN ${earfcn} is in no known LTE band$`));
   });
@@ -113,19 +113,19 @@ describe('LTE EARFCN', () => {
 });
 
 describe('band tables', () => {
-  // DOMAIN.md §1–3: every band listed there is known
+  // every band of TS 36.101 Table 5.7.3-1, TS 38.104 Table 5.2-1, TS 25.101 Table 5.1 and TS 45.005 §2 that we read is known
   it.each([
     ['lte', ['B1', 'B3', 'B7', 'B8', 'B19', 'B20', 'B28', 'B32', 'B38', 'B40', 'B41', 'B42', 'B43']],
     ['nr', ['n1', 'n3', 'n7', 'n8', 'n20', 'n28', 'n38', 'n40', 'n41', 'n77', 'n78', 'n258']],
     ['umts', ['I', 'VIII']],
     ['gsm', ['P-GSM900', 'E-GSM900', 'DCS1800', 'PCS1900']],
-  ] as const)('%s covers the bands of DOMAIN.md', (tech, bands) => {
+  ] as const)('%s covers the published bands', (tech, bands) => {
     const known = listBands(tech).map((b) => b.band);
     for (const band of bands) expect(known).toContain(band);
     for (const band of bands) expect(getBand(tech, band).provenance).toBe('published');
   });
 
-  // DOMAIN.md §1 table: the LTE EARFCN ranges (DL and UL) never overlap
+  // TS 36.101 Table 5.7.3-1: the LTE EARFCN ranges (DL and UL) never overlap
   it('keeps LTE channel ranges disjoint', () => {
     const ranges = listBands('lte')
       .flatMap((b) => [...b.dlChannels, ...(b.duplex === 'FDD' ? (b.ulChannels ?? []) : [])])
@@ -133,7 +133,7 @@ describe('band tables', () => {
     for (let i = 1; i < ranges.length; i++) expect(ranges[i]!.first).toBeGreaterThan(ranges[i - 1]!.last);
   });
 
-  // DOMAIN.md §1–2 band edges (DL / UL MHz columns)
+  // band edges, TS 36.101 Table 5.5-1 and TS 38.104 Table 5.2-1 (DL / UL MHz)
   it.each([
     ['lte', 'B20', 791, 821, 832, 862],
     ['lte', 'B28', 758, 803, 703, 748],
@@ -149,7 +149,7 @@ describe('band tables', () => {
     expect(summary.ulMhz).toEqual({ low: ulLow, high: ulHigh });
   });
 
-  // DOMAIN.md §1 (N range rows): first and last channel of every LTE band resolve to that band
+  // TS 36.101 Table 5.7.3-1 (N range rows): first and last channel of every LTE band resolve to that band
   it.each(listBands('lte').map((b) => [b.band, b] as const))('LTE %s: first and last channels are in the band', (band, summary) => {
     for (const range of [...summary.dlChannels, ...(summary.ulChannels ?? [])]) {
       expect(lookupChannel('lte', range.first).band).toBe(band);
@@ -169,7 +169,7 @@ describe('band tables', () => {
 });
 
 describe('5G NR-ARFCN', () => {
-  // DOMAIN.md §2 check values (3GPP TS 38.104 Table 5.4.2.1-1 global raster), ±0.001 MHz
+  // 3GPP TS 38.104 Table 5.4.2.1-1 global raster, calculated check values, ±0.001 MHz
   it.each([
     [158200, 791.0, 'n20'],
     [151600, 758.0, 'n28'],
@@ -195,7 +195,7 @@ describe('5G NR-ARFCN', () => {
     expect(getNrArfcnForFrequency(mhz)).toBe(arfcn);
   });
 
-  // DOMAIN.md §2 range switch between the 5 kHz and 15 kHz rasters
+  // TS 38.104 Table 5.4.2.1-1: range switch between the 5 kHz and 15 kHz rasters
   it.each([
     [599999, 2999.995],
     [600000, 3000.0],
@@ -205,8 +205,8 @@ describe('5G NR-ARFCN', () => {
     expect(getNrArfcnFrequencyMhz(arfcn)).toBeCloseTo(mhz, 3);
   });
 
-  // DOMAIN.md §2: overlapping ranges resolve to a band whose raster holds the number, published rows
-  // (DOMAIN.md) before rows from memory, then the narrowest
+  // TS 38.104 Table 5.4.2.3-1: overlapping ranges resolve to a band whose raster holds the number, published
+  // rows before rows from memory, then the narrowest
   it.each([
     [641280, 'n78', ['n77', 'n48']],
     [680000, 'n77', []],
@@ -227,7 +227,7 @@ describe('5G NR-ARFCN', () => {
     expectChannelError(() => lookupChannel('nr', 680000, { band: 'n78' }), 'NOT_IN_BAND', /NR-ARFCN 680000 is not in NR band n78/);
   });
 
-  // DOMAIN.md §2 band table: FDD pairs (n20 UL 832–862 above DL; n1 duplex 190 MHz)
+  // TS 38.104 Table 5.2-1: FDD pairs (n20 UL 832–862 above DL; n1 duplex 190 MHz)
   it.each([
     [158200, 166400, 832.0],
     [428000, 390000, 1950.0],
@@ -242,7 +242,7 @@ describe('5G NR-ARFCN', () => {
     expect(lookupChannel('nr', 166400)).toMatchObject({ band: 'n20', direction: 'UL', dlChannel: 158200 });
   });
 
-  // DOMAIN.md §2 caution: phones often report the SSB position, which need not sit on the channel raster
+  // from memory, verify: phones often report the SSB position, which need not sit on the channel raster
   it('notes an NR-ARFCN off the channel raster as a likely SSB position', () => {
     const info = lookupChannel('nr', 422410); // 2112.05 MHz = GSCN 5279
     expect(info.band).toBe('n1');
@@ -251,7 +251,7 @@ describe('5G NR-ARFCN', () => {
     expect(lookupChannel('nr', 155608).notes).toEqual([]); // n28's listed 40 MHz value
   });
 
-  // DOMAIN.md §2 GSCN check values (TS 38.104 Table 5.4.3.1-1)
+  // GSCN check values (TS 38.104 Table 5.4.3.1-1)
   it.each([
     [7711, 3305.28],
     [8051, 3794.88],
@@ -279,7 +279,7 @@ describe('5G NR-ARFCN', () => {
 });
 
 describe('UMTS UARFCN', () => {
-  // DOMAIN.md §3 check values (3GPP TS 25.101 Table 5.1), ±0.01 MHz
+  // 3GPP TS 25.101 Table 5.1, calculated check values, ±0.01 MHz
   it.each([
     [10562, 'I', 'DL', 2112.4],
     [10700, 'I', 'DL', 2140.0],
@@ -297,7 +297,7 @@ describe('UMTS UARFCN', () => {
     expect(direction === 'DL' ? info.dlMhz : info.ulMhz).toBeCloseTo(mhz, 2);
   });
 
-  // DOMAIN.md §3: duplex spacing 190 MHz (band I) and 45 MHz (band VIII)
+  // TS 25.101 Table 5.1: duplex spacing 190 MHz (band I) and 45 MHz (band VIII)
   it.each([
     [10700, 9750, 1950.0],
     [3011, 2786, 897.2],
@@ -317,7 +317,7 @@ describe('UMTS UARFCN', () => {
 });
 
 describe('GSM ARFCN', () => {
-  // DOMAIN.md §3 check values (3GPP TS 45.005 §2), ±0.01 MHz
+  // 3GPP TS 45.005 §2, calculated check values, ±0.01 MHz
   it.each([
     [1, 'P-GSM900', 890.2, 935.2],
     [62, 'P-GSM900', 902.4, 947.4],
@@ -337,7 +337,7 @@ describe('GSM ARFCN', () => {
     expect(info.ulChannel).toBe(arfcn);
   });
 
-  // DOMAIN.md §3 caution: ARFCN 512–810 is also PCS 1900; DCS is the default
+  // TS 45.005 §2: ARFCN 512–810 is also PCS 1900; DCS is the default
   it('defaults 512–810 to DCS 1800 with a PCS 1900 caution', () => {
     const info = lookupChannel('gsm', 700);
     expect(info.alternativeBands).toEqual(['PCS1900']);
@@ -346,7 +346,7 @@ describe('GSM ARFCN', () => {
     expect(lookupChannel('gsm', 885).alternativeBands).toEqual([]);
   });
 
-  // DOMAIN.md §3: PCS 1900 uplink 1850.2 + 0.2·(n − 512), downlink +80 MHz
+  // TS 45.005 §2: PCS 1900 uplink 1850.2 + 0.2·(n − 512), downlink +80 MHz
   it('uses PCS 1900 when that band is given', () => {
     const info = lookupChannel('gsm', 512, { band: 'PCS1900' });
     expect(info.band).toBe('PCS1900');
@@ -367,7 +367,7 @@ describe('GSM ARFCN', () => {
 });
 
 describe('isChannelInBand', () => {
-  // DOMAIN.md §1–3 ranges
+  // TS 36.101 / 38.104 / 25.101 / 45.005 channel-number ranges
   it.each([
     ['lte', 6300, 'B20', true],
     ['lte', 6300, '20', true],

@@ -10,7 +10,7 @@ import {
 const dms = (d: number, m: number, s: number) => d + m / 60 + s / 3600;
 
 describe('parseCoordinates', () => {
-  // common practice: the ways people type or paste positions (DOMAIN.md §8 W1/G2 place for the DMS cases)
+  // common practice: the ways people type or paste positions (the DMS cases use 52.2053, 0.1218)
   it.each([
     ['52.1, -1.2', 52.1, -1.2],
     ['52.1 -1.2', 52.1, -1.2],
@@ -75,7 +75,7 @@ describe('parseCoordinates', () => {
 });
 
 describe('formatting', () => {
-  // DOMAIN.md §8 G2/W1 place: 52.2053, 0.1218 is 52°12'19.1"N 0°7'18.5"E
+  // arithmetic: 52.2053, 0.1218 is 52°12'19.1"N 0°7'18.5"E
   it.each([
     [{ lat: 52.2053, lon: 0.1218 }, `52°12'19.1"N 0°7'18.5"E`],
     [{ lat: -35.2809, lon: 149.13 }, `35°16'51.2"S 149°7'48.0"E`],

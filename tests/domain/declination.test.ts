@@ -6,14 +6,14 @@ import {
   getMagneticBearing,
 } from '../../src/lib/domain/declination';
 
-/** Decimal year → date the way the WMM test harness does it: year + fraction·365 days (DOMAIN.md §9). */
+/** Decimal year → date the way the WMM test harness does it: year + fraction·365 days (geomagnetism/test). */
 function dateFromDecimalYear(decimalYear: number): Date {
   const year = Math.floor(decimalYear);
   return new Date(Date.UTC(year, 0, 1) + (decimalYear - year) * 365 * 86_400_000);
 }
 
 describe('WMM2025 test values', () => {
-  // WMM2025 test values (DOMAIN.md §9 selection of the 100-row list; ±0.01° for D and I, ±1 nT for H and F)
+  // WMM2025 test values (a selection of NOAA's 100-row list, as carried in geomagnetism/test/values.csv; ±0.01° for D and I, ±1 nT for H and F)
   it.each([
     { year: 2025, heightKm: 28, lat: 89, lon: -121, D: -99.77, I: 88.47, H: 1504.3, F: 56214.4 },
     { year: 2025, heightKm: 48, lat: 80, lon: -96, D: -29.91, I: 87.77, H: 2164.3, F: 55665.1 },
@@ -39,7 +39,7 @@ describe('WMM2025 test values', () => {
 });
 
 describe('rural declination values W1–W12', () => {
-  // DOMAIN.md §9 rural check values [GEN, geomagnetism 0.2.0 = WMM2025, height 0, 00:00 UTC], ±0.01°
+  // rural check values generated with geomagnetism 0.2.0 (= WMM2025), height 0, 00:00 UTC, ±0.01°
   const rows = [
     { id: 'W1', lat: 52.2053, lon: 0.1218, d2025: 0.94, d2026: 1.11, d2027: 1.37, i2026: 67.12, h2026: 19171 },
     { id: 'W2', lat: 48, lon: 11, d2025: 4.01, d2026: 4.13, d2027: 4.31, i2026: 64.24, h2026: 21169 },
@@ -70,7 +70,7 @@ describe('rural declination values W1–W12', () => {
 });
 
 describe('model validity window', () => {
-  // DOMAIN.md §9 quirk: the package's WMM2025 window ends 2029-11-13; the model is valid to the end of 2029
+  // geomagnetism 0.2.0 quirk (read from its source): the package's WMM2025 window ends 2029-11-13; the model is valid to the end of 2029
   it('still answers for late 2029, inside the official validity', () => {
     const field = getGeomagneticField({ lat: 52, lon: 0, date: new Date('2029-12-15T00:00:00Z') });
     expect(Number.isFinite(field.declinationDeg)).toBe(true);
@@ -102,7 +102,7 @@ describe('model validity window', () => {
 });
 
 describe('getMagneticBearing', () => {
-  // DOMAIN.md §9 magnetic-bearing check values [CALC] (±0.01°), incl. wrap-around both ways
+  // magnetic bearing = true − D (WMM sign convention), calculated (±0.01°), incl. wrap-around both ways
   it.each([
     [45.83, 1.11, 44.72],
     [100, -12.61, 112.61],
@@ -115,7 +115,7 @@ describe('getMagneticBearing', () => {
 });
 
 describe('getDeclinationUncertaintyDeg', () => {
-  // DOMAIN.md §9 WMM2025 error model (third-party summary, verify): H 19 000 nT → 0.39°, 10 800 nT → 0.57°.
+  // WMM2025 technical report error model (third-party summary, from memory, verify): H 19 000 nT → 0.39°, 10 800 nT → 0.57°.
   // The formula gives 0.5650 for 10 800 nT, which the document rounds up; allow the printed 0.01° plus rounding.
   it.each([
     [19_000, 0.39],

@@ -70,7 +70,7 @@ describe('wrap180', () => {
   });
 });
 
-// DOMAIN.md §8 WGS84 inverse-problem cases G1–G12 [GEN, geographiclib-geodesic 2.2.0] with the
+// WGS84 (NGA.STND.0036) inverse-problem cases G1–G12 generated with geographiclib-geodesic 2.2.0, with the
 // spherical columns (haversine R = 6 371 008.8 m, spherical initial bearing).
 const wgs84Cases = [
   { id: 'G1', a: [52, -1], b: [52.009, -1], s12: 1001.407, azi1: 0, back: 180, haversine: 1000.756, sphBearing: 0 },
@@ -88,28 +88,28 @@ const wgs84Cases = [
 ].map((c) => ({ ...c, from: { lat: c.a[0]!, lon: c.a[1]! }, to: { lat: c.b[0]!, lon: c.b[1]! } }));
 
 describe('distance and bearings against the WGS84 check cases', () => {
-  // DOMAIN.md §8 cases G1–G12: spherical distance within 0.6 % of the ellipsoidal geodesic
+  // cases G1–G12: spherical distance within 0.6 % of the ellipsoidal geodesic
   it.each(wgs84Cases)('$id: distance within 0.6 % of geographiclib s12', ({ from, to, s12 }) => {
     expect(Math.abs(getDistanceM(from, to) - s12) / s12).toBeLessThan(0.006);
   });
 
-  // DOMAIN.md §8 "haversine R=6371008.8" column: same sphere, so agreement to the printed millimetre
+  // haversine R = 6 371 008.8 m column: same sphere, so agreement to the printed millimetre
   it.each(wgs84Cases)('$id: distance equals the haversine column', ({ from, to, haversine }) => {
     expect(getDistanceM(from, to)).toBeCloseTo(haversine, 2);
   });
 
-  // DOMAIN.md §8 "spherical initial bearing" column (printed to 4 decimals)
+  // spherical initial bearing column (printed to 4 decimals)
   it.each(wgs84Cases)('$id: initial bearing equals the spherical column', ({ from, to, sphBearing }) => {
     expect(bearingGap(getInitialBearing(from, to), sphBearing)).toBeLessThan(0.00006);
   });
 
-  // DOMAIN.md §8: geodesic azi1 and the pt2→pt1 bearing (azi2 ± 180°); sphere within 0.2°
+  // geographiclib-geodesic: geodesic azi1 and the pt2→pt1 bearing (azi2 ± 180°); sphere within 0.2°
   it.each(wgs84Cases)('$id: customer→mast and mast→customer bearings within 0.2° of the geodesic', ({ from, to, azi1, back }) => {
     expect(bearingGap(getInitialBearing(from, to), azi1)).toBeLessThan(0.2);
     expect(bearingGap(getReverseBearing(from, to), back)).toBeLessThan(0.2);
   });
 
-  // DOMAIN.md §8: the reverse bearing is not the forward bearing + 180° (G12: 51.25° vs 108.47°)
+  // geographiclib-geodesic: the reverse bearing is not the forward bearing + 180° (G12: 51.25° vs 108.47°)
   it('computes the reverse bearing from the other end, not as forward + 180°', () => {
     const g12 = wgs84Cases.find((c) => c.id === 'G12')!;
     const reverse = getReverseBearing(g12.from, g12.to);
@@ -124,7 +124,7 @@ describe('distance and bearings against the WGS84 check cases', () => {
   });
 });
 
-// Vincenty 1975 Table II lines (a)–(e), via DOMAIN.md §8 — on Bessel 1841 / International 1924, so only
+// Vincenty 1975 Table II lines (a)–(e) (Survey Review 23(176)) — on Bessel 1841 / International 1924, so only
 // loose agreement is expected from a sphere; the long and near-antipodal lines must simply not break.
 const vincentyLines = [
   { line: 'a', phi1: dms(55, 45, 0), phi2: -dms(33, 26, 0), L: dms(108, 13, 0), s: 14110526.17, alpha1: dms(96, 36, 8.7996) },
@@ -135,7 +135,7 @@ const vincentyLines = [
 ];
 
 describe('Vincenty 1975 Table II lines', () => {
-  // Vincenty 1975 Table II (DOMAIN.md §8): spherical distance within 0.6 % of s
+  // Vincenty 1975 Table II: spherical distance within 0.6 % of s
   it.each(vincentyLines)('line ($line): distance within 0.6 % and finite bearings', ({ phi1, phi2, L, s }) => {
     const from = { lat: phi1, lon: 0 };
     const to = { lat: phi2, lon: L };
@@ -188,7 +188,7 @@ describe('random short lines against geographiclib', () => {
 });
 
 describe('getDestination', () => {
-  // DOMAIN.md §8 direct-problem checks [GEN]; a sphere lands within 0.6 % of the distance from the geodesic point
+  // direct-problem checks generated with geographiclib-geodesic 2.2.0; a sphere lands within 0.6 % of the distance from the geodesic point
   it.each([
     { origin: { lat: 52, lon: -1 }, azi: 45, s: 10_000, geodesicEnd: { lat: 52.06350483, lon: -0.89689433 } },
     { origin: { lat: -35.2809, lon: 149.13 }, azi: 200, s: 25_000, geodesicEnd: { lat: -35.49260563, lon: 149.03576701 } },
@@ -199,7 +199,7 @@ describe('getDestination', () => {
     expect(bearingGap(getInitialBearing(origin, end), azi)).toBeLessThan(1e-6);
   });
 
-  // DOMAIN.md §8 G9: crossing the antimeridian keeps longitude in [−180, 180)
+  // case G9: crossing the antimeridian keeps longitude in [−180, 180)
   it('wraps the longitude across the antimeridian', () => {
     const end = getDestination({ lat: 64.8, lon: 179.7 }, 26_113.951, 64.5722);
     expect(end.lon).toBeCloseTo(-179.8, 3);
@@ -219,7 +219,7 @@ describe('getBearingLine', () => {
     expect(line.geometry.coordinates[9]).toEqual([0.18, 52.24]);
   });
 
-  // DOMAIN.md §8 G9: across the antimeridian the line stays continuous (no 360° jump)
+  // case G9: across the antimeridian the line stays continuous (no 360° jump)
   it('unwraps longitudes across the antimeridian (G9)', () => {
     const line = getBearingLine({ lat: 64.8, lon: 179.7 }, { lat: 64.9, lon: -179.8 });
     const coords = line.geometry.coordinates;
@@ -230,7 +230,7 @@ describe('getBearingLine', () => {
     expect(coords[coords.length - 1]![1]).toBeCloseTo(64.9, 9);
   });
 
-  // DOMAIN.md §8 G10: over the pole the line passes through ~90°N without breaking
+  // case G10: over the pole the line passes through ~90°N without breaking
   it('handles a path over the north pole (G10)', () => {
     const line = getBearingLine({ lat: 89.5, lon: 30 }, { lat: 89.6, lon: -150 }, { npoints: 21 });
     const lats = line.geometry.coordinates.map((c) => c[1]!);
@@ -255,7 +255,7 @@ describe('getBearingLine', () => {
 });
 
 describe('listPointsAlong', () => {
-  // DOMAIN.md §8 G8 as a sample path
+  // case G8 as a sample path
   it('spaces points evenly from the first to the last point', () => {
     const from: LatLon = { lat: 53, lon: -8 };
     const to: LatLon = { lat: 53.3, lon: -7.45 };

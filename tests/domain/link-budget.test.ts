@@ -22,12 +22,12 @@ import {
 import { wrap180 } from '../../src/lib/domain/geodesy';
 
 describe('free-space path loss', () => {
-  // DOMAIN.md §6: exact constant 20·log10(4π·10⁹/c) = 32.4478 (ITU-R P.525 prints 32.4)
+  // calculated: exact constant 20·log10(4π·10⁹/c) = 32.4478 (ITU-R P.525 prints 32.4)
   it('uses the exact constant', () => {
     expect(FSPL_CONSTANT_DB).toBeCloseTo(32.4478, 4);
   });
 
-  // DOMAIN.md §6 check values [CALC] (ITU-R P.525, exact constant, ±0.01 dB)
+  // ITU-R P.525 formula, calculated with the exact constant, ±0.01 dB
   it.each([
     [800, 1, 90.51],
     [1000, 1, 92.45],
@@ -40,12 +40,12 @@ describe('free-space path loss', () => {
     expect(Math.abs(getFreeSpacePathLossDb(f, d) - loss)).toBeLessThanOrEqual(0.01);
   });
 
-  // DOMAIN.md §6: the P.525 printed constant 32.4 sits 0.048 dB below the exact one
+  // ITU-R P.525: the printed constant 32.4 sits 0.048 dB below the exact one
   it('differs from the rounded P.525 constant by 0.048 dB', () => {
     expect(getFreeSpacePathLossDb(800, 1) - (32.4 + 20 * Math.log10(800))).toBeCloseTo(0.048, 3);
   });
 
-  // DOMAIN.md §6 inverse check value: 120 dB at 800 MHz → 29.82 km
+  // ITU-R P.525 inverted, calculated: 120 dB at 800 MHz → 29.82 km
   it('inverts to a distance', () => {
     expect(getFreeSpaceDistanceKm(120, 800)).toBeCloseTo(29.82, 2);
     expect(getFreeSpaceDistanceKm(getFreeSpacePathLossDb(3500, 7.3), 3500)).toBeCloseTo(7.3, 9);
@@ -61,7 +61,7 @@ describe('free-space path loss', () => {
 });
 
 describe('EIRP and units', () => {
-  // DOMAIN.md §6: EIRP = P + G − L; ERP = EIRP − 2.15; G(dBi) = G(dBd) + 2.15
+  // ITU Radio Regulations Art. 1 (e.i.r.p., e.r.p.; from memory, verify): EIRP = P + G − L; ERP = EIRP − 2.15; G(dBi) = G(dBd) + 2.15
   it('adds gain and subtracts feeder loss', () => {
     expect(getEirpDbm(15.21, 17, 0.5)).toBeCloseTo(31.71, 9);
     expect(getEirpDbm(43, 17)).toBe(60);
@@ -70,7 +70,7 @@ describe('EIRP and units', () => {
     expect(getDbdFromDbi(8)).toBeCloseTo(5.85, 9);
   });
 
-  // DOMAIN.md §6 dBm ↔ W check values, to the printed precision
+  // dBm ↔ W, calculated, to the printed precision
   it.each([
     [43, 19.95, 0.005],
     [46, 39.81, 0.005],
@@ -82,14 +82,14 @@ describe('EIRP and units', () => {
     expect(getDbmFromWatts(getWattsFromDbm(dbm))).toBeCloseTo(dbm, 9);
   });
 
-  // DOMAIN.md §6 worked budget: 46 dBm over 20 MHz (100 RB) → RS EPRE 15.21 dBm
+  // TS 36.101 Table 5.6-1 N_RB, calculated: 46 dBm over 20 MHz (100 RB) → RS EPRE 15.21 dBm
   it('spreads total power over the resource elements', () => {
     expect(getRsEpreDbm(46, 100)).toBeCloseTo(15.21, 2);
   });
 });
 
 describe('interpolateGain', () => {
-  // common practice: catalogue gain tables, linear in frequency (DOMAIN.md §13)
+  // common practice: catalogue gain tables, linear in frequency
   const panel = [
     { freqMhz: 1800, gainDbi: 9 },
     { freqMhz: 700, gainDbi: 7 },
@@ -122,7 +122,7 @@ describe('interpolateGain', () => {
 });
 
 describe('cable loss', () => {
-  // DOMAIN.md §10 table (fitted estimates, ±20 %)
+  // cable-class table (two-term fits through ARRL / Codan anchors, from memory, verify, ±20 %)
   it.each([
     ['LL-10', 2600, 0.23],
     ['LL-10', 2350, 0.215],
@@ -135,7 +135,7 @@ describe('cable loss', () => {
     expect(result.approximate).toBe(false);
   });
 
-  // DOMAIN.md §10 check value: √f scaling of 0.13 dB/m from 900 to 3500 MHz → 0.256 dB/m
+  // calculated: √f scaling of 0.13 dB/m from 900 to 3500 MHz → 0.256 dB/m
   it('extrapolates above the table by √f and flags it', () => {
     const table = [
       { freqMhz: 800, dbPerM: 0.12 },
@@ -149,18 +149,18 @@ describe('cable loss', () => {
     expect(below.approximate).toBe(true);
   });
 
-  // DOMAIN.md §10 check values [CALC] (±0.01 dB)
+  // calculated from the table, ±0.01 dB
   it('gives the total loss for a length', () => {
     expect(getCableLossDb(REFERENCE_CABLE_LOSS['RG-58'], 800, 15).lossDb).toBeCloseTo(8.4, 2);
     expect(getCableLossDb([{ freqMhz: 800, dbPerM: 0.35 }], 800, 10).lossDb).toBeCloseTo(3.5, 9);
   });
 
-  // DOMAIN.md §10: 10.3 mm foam datasheet formula A = 0.12229·√f + 0.00026·f dB/100 ft → 10 m at 2600 MHz 2.27 dB
+  // 10.3 mm foam datasheet formula (from memory, verify) A = 0.12229·√f + 0.00026·f dB/100 ft → 10 m at 2600 MHz 2.27 dB
   it('evaluates datasheet two-term coefficients', () => {
     expect(10 * getTwoTermCableLossDbPerM({ k1: 0.12229, k2: 0.00026 }, 2600)).toBeCloseTo(2.27, 2);
   });
 
-  // DOMAIN.md §10 (S3 anchors, dB/100 ft at 150/450 MHz): the formulas reproduce them to ±0.05
+  // Santa Clara County ARES/RACES coaxial-cable page (dB/100 ft at 150/450 MHz): the formulas reproduce them to ±0.05
   it.each([
     [{ k1: 0.12229, k2: 0.00026 }, 150, 1.5],
     [{ k1: 0.12229, k2: 0.00026 }, 450, 2.7],
@@ -186,7 +186,7 @@ describe('cable loss', () => {
 });
 
 describe('getSectorPatternLossDb', () => {
-  // DOMAIN.md §11 check values [CALC] (3GPP TR 36.942 §4.2.1 sector model, from memory, verify), ±0.01 dB
+  // 3GPP TR 36.942 §4.2.1 sector model (from memory, verify), calculated, ±0.01 dB
   it.each([
     [0, 0],
     [20, 1.14],
@@ -200,21 +200,21 @@ describe('getSectorPatternLossDb', () => {
     expect(Math.abs(getSectorPatternLossDb(offset) - loss)).toBeLessThanOrEqual(0.01);
   });
 
-  // DOMAIN.md §11 worked example: G5, mast→customer 148.0231°, sector 120° → offset 28.02° → 2.23 dB
+  // TR 36.942 §4.2.1 with WGS84 case G5 (geographiclib-geodesic): mast→customer 148.0231°, sector 120° → offset 28.02° → 2.23 dB
   it('gives the G5 worked example', () => {
     const offset = wrap180(148.023098 - 120);
     expect(offset).toBeCloseTo(28.02, 2);
     expect(getSectorPatternLossDb(offset)).toBeCloseTo(2.23, 2);
   });
 
-  // DOMAIN.md §11: 10° aiming error on a 40° beam ≈ 0.75 dB
+  // same parabola, calculated: 10° aiming error on a 40° beam ≈ 0.75 dB
   it('gives the customer aiming loss with the customer beamwidth', () => {
     expect(getSectorPatternLossDb(10, 40)).toBeCloseTo(0.75, 9);
   });
 });
 
 describe('predictRsrp', () => {
-  // DOMAIN.md §6 worked link budget: 46 dBm/20 MHz, 17 dBi, 0.5 dB feeder, 10 km at 806 MHz,
+  // worked link budget (ITU-R P.525, TS 36.101 Table 5.6-1), calculated: 46 dBm/20 MHz, 17 dBi, 0.5 dB feeder, 10 km at 806 MHz,
   // 8 dBi customer, 10 m at 0.35 dB/m, 0.3 dB connectors → −74.67 dBm (±0.02 dB)
   it('reproduces the worked free-space budget', () => {
     const prediction = predictRsrp({
@@ -231,7 +231,7 @@ describe('predictRsrp', () => {
     expect(prediction.terms.reduce((sum, t) => sum + t.db, 0)).toBeCloseTo(prediction.rsrpDbm, 9);
   });
 
-  // DOMAIN.md §13 defaults: RS EPRE 15.2 dBm + 17 dBi − 0.5 dB → 31.7 dBm RS EIRP
+  // common-practice defaults: RS EPRE 15.2 dBm + 17 dBi − 0.5 dB → 31.7 dBm RS EIRP
   it('applies the documented defaults and lists every term', () => {
     const prediction = predictRsrp({ freqMhz: 806, distanceM: 10_000, customerGainDbi: 8 });
     expect(prediction.rsEirpDbm).toBeCloseTo(31.7, 9);
@@ -253,7 +253,7 @@ describe('predictRsrp', () => {
     expect(prediction.rsrpDbm).toBeCloseTo(31.7 - 110.5745 + 8, 3);
   });
 
-  // DOMAIN.md §11 G5 sector example and §13 terrain/clutter/calibration terms
+  // TR 36.942 §4.2.1 G5 sector example and the shortlist model's terrain/clutter/calibration terms
   it('subtracts sector, diffraction and excess loss and adds calibration', () => {
     const base = predictRsrp({ freqMhz: 806, distanceM: 10_000, customerGainDbi: 8 });
     const full = predictRsrp({

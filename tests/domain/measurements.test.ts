@@ -17,7 +17,7 @@ import {
 } from '../../src/lib/domain/measurements';
 
 describe('validateMeasurement', () => {
-  // DOMAIN.md §4 reporting ranges (TS 36.133 §9.1.4/§9.1.7, TS 38.133 §10.1.6/10.1.11/10.1.16, AOSP HAL)
+  // reporting ranges (TS 36.133 §9.1.4/§9.1.7, TS 38.133 §10.1.6/10.1.11/10.1.16, AOSP HAL)
   it.each([
     ['lteRsrp', -140, true],
     ['lteRsrp', -44, true],
@@ -51,7 +51,7 @@ describe('validateMeasurement', () => {
     expect(validateMeasurement('nrSsSinr', Number.NaN)).toEqual({ ok: false, message: 'NR SS-SINR must be a number' });
   });
 
-  // DOMAIN.md §4: extended LTE ranges (RSRP to −156 dBm; RSRQ −34 … +2.5 dB), details from memory, verify
+  // TS 36.133 extended LTE ranges (RSRP to −156 dBm; RSRQ −34 … +2.5 dB), details from memory, verify
   it.each([
     ['lteRsrp', -150, true],
     ['lteRsrp', -157, false],
@@ -68,7 +68,7 @@ describe('validateMeasurement', () => {
 });
 
 describe('report indices', () => {
-  // DOMAIN.md §4 check values (TS 36.133 Tables 9.1.4-1 and 9.1.7-1)
+  // TS 36.133 Tables 9.1.4-1 and 9.1.7-1, calculated check values
   it.each([
     ['lteRsrp', 0, null, -140],
     ['lteRsrp', 45, -96, -95],
@@ -77,7 +77,7 @@ describe('report indices', () => {
     ['lteRsrq', 1, -19.5, -19],
     ['lteRsrq', 20, -10, -9.5],
     ['lteRsrq', 34, -3, null],
-    // DOMAIN.md §4 NR index formulas (TS 38.133; end rows from memory, verify)
+    // NR index formulas (TS 38.133; end rows from memory, verify)
     ['nrSsRsrp', 1, -156, -155],
     ['nrSsRsrp', 126, -31, null],
     ['nrSsRsrq', 1, -43, -42.5],
@@ -104,7 +104,7 @@ describe('report indices', () => {
 });
 
 describe('RSRP, RSSI and RSRQ', () => {
-  // DOMAIN.md §4 Table 5.6-1 (TS 36.101 §5.6)
+  // TS 36.101 §5.6 Table 5.6-1
   it.each([
     [1.4, 6],
     [3, 15],
@@ -120,7 +120,7 @@ describe('RSRP, RSSI and RSRQ', () => {
     expect(() => getLteResourceBlockCount(7)).toThrow(/1.4, 3, 5, 10, 15, 20/);
   });
 
-  // DOMAIN.md §4 NR N_RB (TS 38.104 Table 5.3.2-1)
+  // NR N_RB (TS 38.104 Table 5.3.2-1)
   it.each([
     [20, 15, 106],
     [50, 15, 270],
@@ -130,7 +130,7 @@ describe('RSRP, RSSI and RSRQ', () => {
     expect(getNrResourceBlockCount(bw, scs)).toBe(rb);
   });
 
-  // DOMAIN.md §4 rule-of-thumb check values [CALC] (±0.01 dB)
+  // rule of thumb RSRP ≈ RSSI − 10·log10(12·N_RB) from the TS 36.214 definitions, calculated (±0.01 dB)
   it.each([
     [-60, 20, -90.79],
     [-70, 10, -97.78],
@@ -140,7 +140,7 @@ describe('RSRP, RSSI and RSRQ', () => {
     expect(estimateRssiFromRsrp(rsrp, bw)).toBeCloseTo(rssi, 2);
   });
 
-  // DOMAIN.md §4: exact RSRQ = 10·log10(N) + RSRP − RSSI; and ≈ −10.79 dB at full uniform load
+  // TS 36.214 §5.1.3: exact RSRQ = 10·log10(N) + RSRP − RSSI; and ≈ −10.79 dB at full uniform load
   it.each([
     [-95, -65, 50, -13.01],
     [-90.79, -60, 100, -10.79],
@@ -148,7 +148,7 @@ describe('RSRP, RSSI and RSRQ', () => {
     expect(getRsrqDb(rsrp, rssi, n)).toBeCloseTo(rsrq, 2);
   });
 
-  // DOMAIN.md §4: thermal noise per 15 kHz RE −132.24 dBm; with a 7 dB noise figure −125.24 dBm
+  // kT at 290 K, calculated: thermal noise per 15 kHz RE −132.24 dBm; with a 7 dB noise figure −125.24 dBm
   it.each([
     [0, -132.24],
     [7, -125.24],
@@ -156,7 +156,7 @@ describe('RSRP, RSSI and RSRQ', () => {
     expect(getThermalNoiseDbm(15_000, nf)).toBeCloseTo(dbm, 2);
   });
 
-  // DOMAIN.md §4 +CSQ mapping (TS 27.007 §8.5, from memory, verify)
+  // +CSQ mapping (TS 27.007 §8.5, from memory, verify)
   it.each([
     [0, -113],
     [31, -51],
@@ -172,7 +172,7 @@ describe('RSRP, RSSI and RSRQ', () => {
 });
 
 describe('gradeSignal', () => {
-  // DOMAIN.md §5 (common practice, no source); boundaries inclusive on the better side
+  // common practice, no source; boundaries inclusive on the better side
   it.each([
     ['lteRsrp', -85, 'good'],
     ['lteRsrp', -100, 'fair'],

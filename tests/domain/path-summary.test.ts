@@ -3,8 +3,8 @@ import { summarisePath } from '../../src/lib/domain/path-summary';
 import { getDestination } from '../../src/lib/domain/geodesy';
 
 describe('summarisePath', () => {
-  // WGS84 case G2 (DOMAIN.md §8, geographiclib-geodesic): 5543.139 m, azi1 45.825423°; spherical within 0.6 % / 0.2°.
-  // Declination W1 at 2026-01-01 = +1.11° (DOMAIN.md §9, WMM2025); magnetic = true − D (DOMAIN.md §9).
+  // WGS84 case G2 (geographiclib-geodesic 2.2.0 Inverse): 5543.139 m, azi1 45.825423°; spherical within 0.6 % / 0.2°.
+  // Declination W1 at 2026-01-01 = +1.11° (WMM2025 via geomagnetism 0.2.0); magnetic = true − D (WMM sign convention).
   const g2 = summarisePath({
     from: { lat: 52.2053, lon: 0.1218 },
     to: { lat: 52.24, lon: 0.18 },
@@ -25,7 +25,7 @@ describe('summarisePath', () => {
   });
 
   it('computes the reverse bearing from the mast end, not by adding 180°', () => {
-    // G2: azi2 at point 2 = 45.871424°, so mast → customer = 225.871424° (DOMAIN.md §8)
+    // G2: azi2 at point 2 = 45.871424°, so mast → customer = 225.871424° (geographiclib-geodesic)
     expect(Math.abs(g2.reverseBearingTrueDeg - 225.871424)).toBeLessThan(0.2);
   });
 
@@ -34,12 +34,12 @@ describe('summarisePath', () => {
     const to = getDestination(from, 10_000, 0);
     const s = summarisePath({ from, to, fromHeightM: 8, toHeightM: 48, freqMhz: 806, date: new Date('2026-06-01T00:00:00Z') });
     expect(s.distanceM).toBeCloseTo(10_000, 0);
-    expect(s.fsplDb).toBeCloseTo(110.57, 2); // DOMAIN.md §6 (ITU-R P.525): 806 MHz, 10 km → 110.57 dB
-    expect(s.elevationDeg).toBeCloseTo(0.1955, 3); // DOMAIN.md §11: 8 m → 48 m at 10 km, k = 4/3 → 0.1955°
-    expect(s.earthBulgeMidM).toBeCloseTo(5.89 / 4, 1); // DOMAIN.md §7: d1 = d2 = 5 km, k = 4/3 → 1.47 m
-    // DOMAIN.md §7 (ITU-R P.526 general form): D 10 km, d1 5 km, 0.8 GHz → 30.62 m; at 0.806 GHz scale by √(0.8/0.806)
+    expect(s.fsplDb).toBeCloseTo(110.57, 2); // ITU-R P.525: 806 MHz, 10 km → 110.57 dB
+    expect(s.elevationDeg).toBeCloseTo(0.1955, 3); // spherical geometry, calculated: 8 m → 48 m at 10 km, k = 4/3 → 0.1955°
+    expect(s.earthBulgeMidM).toBeCloseTo(5.89 / 4, 1); // earth bulge d1·d2/(2kR), calculated: d1 = d2 = 5 km, k = 4/3 → 1.47 m
+    // ITU-R P.526 §2 general form: D 10 km, d1 5 km, 0.8 GHz → 30.62 m; at 0.806 GHz scale by √(0.8/0.806)
     expect(s.fresnelRadiusMidM!).toBeCloseTo(30.62 * Math.sqrt(0.8 / 0.806), 1);
-    // DOMAIN.md §7 radio horizon: 4.12·(√8 + √48)
+    // radio horizon (ITU-R P.1546 form, k = 4/3): 4.12·(√8 + √48)
     expect(s.radioHorizonKm).toBeCloseTo(4.12 * (Math.sqrt(8) + Math.sqrt(48)), 1);
     expect(s.terrain).toBeNull();
   });
@@ -51,7 +51,7 @@ describe('summarisePath', () => {
     const s = summarisePath({ from, to, fromHeightM: 6, toHeightM: 30, freqMhz: 806, date: new Date('2026-06-01T00:00:00Z'), profile });
     expect(s.terrain?.classification).toBe('obstructed');
     expect(s.terrain?.worst?.distanceM).toBe(2000);
-    expect(s.terrain!.diffractionLossDb).toBeGreaterThan(6); // beyond grazing incidence: J(ν) > 6.03 dB (DOMAIN.md §7)
+    expect(s.terrain!.diffractionLossDb).toBeGreaterThan(6); // beyond grazing incidence: J(ν) > 6.03 dB (ITU-R P.526)
     // Both ends at 100 m ground: the angle follows the antenna heights alone (flat ≈ atan(24/4000) = 0.344°)
     expect(s.elevationDeg).toBeCloseTo(0.3438 - (4000 / (2 * (4 / 3) * 6371008.8)) * (180 / Math.PI), 3);
   });

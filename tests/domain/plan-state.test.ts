@@ -17,7 +17,7 @@ import {
   type PlanState,
 } from '../../src/lib/domain/plan-state';
 
-// The product's own workflow rules (DESIGN.md journeys 1 and 4); no outside source.
+// The product's own workflow rules (planning and install checks); no outside source.
 const COMPLETE: PlanFacts = {
   cellId: '7',
   antennaId: '1',

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { can, isRole, ROLES } from '../../src/lib/domain/roles';
 
-// Role rules from the product design (DESIGN.md "Who uses it"): admin can do everything,
+// Role rules from the product's own design, no outside source: admin can do everything,
 // other roles include nothing implicitly.
 describe('can', () => {
   it.each([

@@ -34,7 +34,7 @@ const flat = (lengthM: number, n = 30): ProfileSample[] =>
 const ridge = (lengthM: number, n = 30): ProfileSample[] =>
   flat(lengthM, n).map((s) => (Math.abs(s.distanceM - lengthM / 2) <= lengthM / n ? { ...s, groundM: 160 } : s));
 
-// Common-practice demo kit (DOMAIN.md §11, §13): 8 dBi panel, 0.35 dB/m cable, 2 dBi stub for "before".
+// Common-practice demo kit: 8 dBi panel, 0.35 dB/m cable, 2 dBi stub for "before".
 const kit: Kit = {
   antenna: { id: 'a1', name: 'Panel', gainTable: [{ freqMhz: 700, gainDbi: 8 }, { freqMhz: 2700, gainDbi: 8 }], horizontalBeamwidthDeg: 40 },
   cable: { id: 'c1', name: 'Cable', lossTable: [{ freqMhz: 700, dbPerM: 0.35 }, { freqMhz: 2700, dbPerM: 0.35 }], connectorLossDb: 0.15, connectors: 2 },
@@ -53,7 +53,7 @@ describe('shortlist', () => {
 
   it('sees the Fresnel zone infringed on the same flat path with lower mast antennas', () => {
     const low = evaluateCandidate(cell('E', eastMast, 270), { profile: flat(11_000), calibration: null }, settings);
-    // 10 m and 30 m over 11 km: mid-path ray 20 m − bulge 1.78 m < 0.6 × r1 (32.0 m at 806 MHz) — DOMAIN.md §7
+    // 10 m and 30 m over 11 km: mid-path ray 20 m − bulge 1.78 m < 0.6 × r1 (32.0 m at 806 MHz) — ITU-R P.526 §2, 60 % clearance common practice
     expect(low.terrain.status).toBe('fresnel');
   });
 
@@ -75,8 +75,8 @@ describe('shortlist', () => {
     expect(east.bearingMagneticDeg).toBeCloseTo(((east.bearingTrueDeg - east.declinationDeg) % 360 + 360) % 360, 9);
   });
 
-  it('sums the link budget of DOMAIN.md §13 for a clear path', () => {
-    // RS EPRE 15.2 + 17 dBi − 0.5 feeder (DOMAIN.md §6) − FSPL (ITU-R P.525) − excess + 8 dBi − 3.5 dB cable − 0.3 dB connectors
+  it('sums the link budget of the shortlist model for a clear path', () => {
+    // RS EPRE 15.2 + 17 dBi − 0.5 feeder (common practice) − FSPL (ITU-R P.525) − excess + 8 dBi − 3.5 dB cable − 0.3 dB connectors
     const d = getDistanceM(customer, eastMast) / 1000;
     const expected = 15.2 + 17 - 0.5 - getFreeSpacePathLossDb(806, d) - DEFAULT_EXCESS_LOSS_DB + 8 - 3.5 - 0.3;
     // (to 0.001 dB: the bearing back from the east mast is a few hundredths of a degree off its sector axis)
@@ -92,7 +92,7 @@ describe('shortlist', () => {
     expect(['excellent', 'good', 'fair', 'poor', 'unusable']).toContain(east.grade);
   });
 
-  it('loses sector pattern gain off the sector axis (3GPP TR 36.942 pattern, DOMAIN.md §11: 60° → −10.22 dB)', () => {
+  it('loses sector pattern gain off the sector axis (3GPP TR 36.942 §4.2.1 pattern: 60° → −10.22 dB)', () => {
     const offAxis = evaluateCandidate(cell('E2', eastMast, 330, { antennaHeightM: 45 }), { profile: flat(11_000), calibration: null }, settings);
     expect(offAxis.sectorOffsetDeg).toBeCloseTo(-60, 0);
     expect(east.predictedRsrpDbm - offAxis.predictedRsrpDbm).toBeCloseTo(10.22, 1);

@@ -16,7 +16,7 @@ import {
 const R = 6_371_008.8;
 
 describe('getFresnelRadiusM', () => {
-  // DOMAIN.md §7 check values [CALC] (ITU-R P.530 17.32 shortcut; exact λ form differs ≤ 0.01 m), ±0.02 m
+  // ITU-R P.530 §2.2.2 17.32 shortcut (from memory, verify), calculated (exact λ form differs ≤ 0.01 m), ±0.02 m
   it.each([
     [10, 5, 0.8, 30.62, 18.37],
     [5, 2.5, 1.8, 14.43, 8.66],
@@ -38,7 +38,7 @@ describe('getFresnelRadiusM', () => {
 });
 
 describe('earth bulge and k', () => {
-  // DOMAIN.md §7 check values [CALC], ±0.01 m
+  // earth bulge d1·d2/(2kR), calculated, ±0.01 m
   it.each([
     [5, 5, 4 / 3, 1.47],
     [10, 10, 4 / 3, 5.89],
@@ -54,7 +54,7 @@ describe('earth bulge and k', () => {
     expect(getEarthBulgeM(5000, 5000, Number.POSITIVE_INFINITY)).toBe(0);
   });
 
-  // DOMAIN.md §7: k = 157/(157 + dN/dh) (ITU-R P.453, from memory, verify)
+  // k = 157/(157 + dN/dh) (ITU-R P.453, from memory, verify)
   it.each([
     [-40, 1.342],
     [0, 1],
@@ -68,7 +68,7 @@ describe('earth bulge and k', () => {
 });
 
 describe('radio horizon', () => {
-  // DOMAIN.md §7 check values [CALC] (4.12·√h, k = 4/3), ±0.02 km
+  // radio horizon √(2kRh) = 4.12·√h (k = 4/3), calculated, ±0.02 km
   it.each([
     [2, 5.83],
     [6, 10.09],
@@ -80,12 +80,12 @@ describe('radio horizon', () => {
     expect(Math.abs(getRadioHorizonKm(h) - km)).toBeLessThanOrEqual(0.02);
   });
 
-  // DOMAIN.md §7: mast 40 m + customer 8 m → 4.12·(6.325 + 2.828) = 37.71 km
+  // ITU-R P.1546 eq. (39b) form: mast 40 m + customer 8 m → 4.12·(6.325 + 2.828) = 37.71 km
   it('adds both horizons for the longest line of sight', () => {
     expect(Math.abs(getMaxLineOfSightKm(40, 8) - 37.71)).toBeLessThanOrEqual(0.02);
   });
 
-  // DOMAIN.md §7: geometric horizon (k = 1) 3.57·√h
+  // calculated: geometric horizon (k = 1) 3.57·√h
   it('is shorter without refraction', () => {
     expect(getRadioHorizonKm(100, 1)).toBeCloseTo(35.7, 1);
     expect(getRadioHorizonKm(-5)).toBe(0);
@@ -93,7 +93,7 @@ describe('radio horizon', () => {
 });
 
 describe('getElevationAngleDeg', () => {
-  // DOMAIN.md §11 check values [CALC] (R = 6 371 008.8 m; exact spherical form), ±0.001°
+  // spherical geometry, calculated (R = 6 371 008.8 m; exact form), ±0.001°
   it.each([
     [8, 48, 10, 0.2292, 0.1955, 0.1842],
     [10, 40, 2, 0.8594, 0.8526, 0.8504],
@@ -106,7 +106,7 @@ describe('getElevationAngleDeg', () => {
     expect(Math.abs(getElevationAngleDeg({ ...base, k: Number.POSITIVE_INFINITY }) - flat)).toBeLessThanOrEqual(0.001);
     expect(Math.abs(getElevationAngleDeg(base) - k43)).toBeLessThanOrEqual(0.001);
     expect(Math.abs(getElevationAngleDeg({ ...base, k: 1 }) - k1)).toBeLessThanOrEqual(0.001);
-    // DOMAIN.md §11: the approximation atan(Δh/d) − d/(2kR) agrees to 10⁻⁴°
+    // calculated: the approximation atan(Δh/d) − d/(2kR) agrees to 10⁻⁴°
     const approx = ((Math.atan((hm - hc) / (dKm * 1000)) - (dKm * 1000) / (2 * (4 / 3) * R)) * 180) / Math.PI;
     expect(Math.abs(getElevationAngleDeg(base) - approx)).toBeLessThan(1e-4);
   });
@@ -119,7 +119,7 @@ describe('getElevationAngleDeg', () => {
 });
 
 describe('getBeamGroundDistanceM', () => {
-  // DOMAIN.md §11: 40 m and 4° downtilt → 572 m
+  // plane geometry: 40 m and 4° downtilt → 572 m
   it('places the beam axis on the ground', () => {
     expect(getBeamGroundDistanceM(40, 4)).toBeCloseTo(572, 0);
     expect(getBeamGroundDistanceM(40, 0)).toBe(Number.POSITIVE_INFINITY);
@@ -127,7 +127,7 @@ describe('getBeamGroundDistanceM', () => {
 });
 
 describe('getKnifeEdgeLossDb', () => {
-  // DOMAIN.md §7 check values [CALC] (ITU-R P.526 J(ν), from memory, verify), ±0.02 dB
+  // ITU-R P.526 J(ν) (from memory, verify), calculated, ±0.02 dB
   it.each([
     [-0.849, 0],
     [-0.5, 1.96],
@@ -141,7 +141,7 @@ describe('getKnifeEdgeLossDb', () => {
     expect(Math.abs(getKnifeEdgeLossDb(nu) - loss)).toBeLessThanOrEqual(0.02);
   });
 
-  // DOMAIN.md §7: 0.6·r1 clearance gives ν ≈ −0.85
+  // ν = √2·h/r1: 0.6·r1 clearance gives ν ≈ −0.85
   it('relates clearance to ν = √2·h/r1', () => {
     const r1 = getFresnelRadiusM(5000, 5000, 800);
     expect(getDiffractionParameter(-0.6 * r1, 5000, 5000, 800)).toBeCloseTo(-0.6 * Math.SQRT2, 9);
@@ -159,7 +159,7 @@ describe('analysePathProfile', () => {
   const midR1 = getFresnelRadiusM(5000, 5000, 800);
   const midBulge = getEarthBulgeM(5000, 5000);
 
-  // DOMAIN.md §7: 10 km at 800 MHz, midpoint r1 ≈ 30.6 m, bulge 1.47 m (k = 4/3)
+  // calculated: 10 km at 800 MHz, midpoint r1 ≈ 30.6 m, bulge 1.47 m (k = 4/3)
   it('computes bulge, ray, Fresnel radius and clearance per sample', () => {
     const result = analysePathProfile({ samples: flatProfile(10_000, 5000), txHeightM: 20, rxHeightM: 20, freqMhz: 800 });
     const [start, mid, end] = result.samples;
@@ -175,7 +175,7 @@ describe('analysePathProfile', () => {
     expect(result.diffractionLossDb).toBe(0);
   });
 
-  // DOMAIN.md §7: clearance below 0.6·r1 infringes the Fresnel zone; the loss follows J(ν)
+  // common practice: clearance below 0.6·r1 infringes the Fresnel zone; the loss follows J(ν)
   it('classifies partial Fresnel clearance and charges J(ν)', () => {
     const result = analysePathProfile({ samples: flatProfile(10_000, 5000), txHeightM: 10, rxHeightM: 10, freqMhz: 800 });
     const ratio = (10 - midBulge) / midR1;
@@ -186,7 +186,7 @@ describe('analysePathProfile', () => {
     expect(result.diffractionLossDb).toBeGreaterThan(2);
   });
 
-  // DOMAIN.md §7 J(ν) check values placed on a hill at mid-path: ν = 0 → 6.03, 0.5 → 10.29, 1 → 13.93, −0.5 → 1.96
+  // ITU-R P.526 J(ν) values placed on a hill at mid-path: ν = 0 → 6.03, 0.5 → 10.29, 1 → 13.93, −0.5 → 1.96
   it.each([
     [0, 6.03, 'fresnel'], // grazing: the ray touches the edge but is not blocked
     [0.5, 10.29, 'obstructed'],
@@ -216,7 +216,7 @@ describe('analysePathProfile', () => {
     expect(wooded.worst!.distanceM).toBe(1000);
   });
 
-  // DOMAIN.md §7: k = 1 bulge 1.96 m vs 1.47 m at k = 4/3 for 5 + 5 km
+  // calculated: k = 1 bulge 1.96 m vs 1.47 m at k = 4/3 for 5 + 5 km
   it('uses more bulge with a smaller k', () => {
     const input = { samples: flatProfile(10_000, 5000), txHeightM: 20, rxHeightM: 20, freqMhz: 800 };
     expect(analysePathProfile({ ...input, k: 1 }).samples[1]!.bulgeM).toBeCloseTo(1.96, 2);

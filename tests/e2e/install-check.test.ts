@@ -1,4 +1,4 @@
-// Journey 4 (DESIGN.md): an installer records after-install readings and speed tests against the plan,
+// After the install: an installer records after-install readings and speed tests against the plan,
 // sees measured gain against predicted, and the planner marks the install verified.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';

@@ -1,4 +1,4 @@
-// Journey 1 (DESIGN.md): a planner picks the best mast for an address, saves the plan and prints the aim sheet.
+// Planning: a planner picks the best mast for an address, saves the plan and prints the aim sheet.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { mkdirSync } from 'node:fs';
 import type { Browser } from 'playwright-core';

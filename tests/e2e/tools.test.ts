@@ -48,7 +48,7 @@ describe('calculators', () => {
   });
 
   it('gives distance and bearings for a path, and flags a bad latitude inline', async () => {
-    // WGS84 case G3 (DOMAIN.md §8): 48,11 → 48,11.1341 is 10 007 m at 89.95° (spherical within 0.6 %)
+    // WGS84 case G3 (geographiclib-geodesic 2.2.0 Inverse): 48,11 → 48,11.1341 is 10 007 m at 89.95° (spherical within 0.6 %)
     await page.fill('#path-from', '48, 11');
     await page.fill('#path-to', '48, 11.1341');
     await page.fill('#path-date', '2026-01-01');
@@ -58,7 +58,7 @@ describe('calculators', () => {
     const trueBearing = Number(await page.locator('[data-testid=path-true]').innerText());
     expect(Math.abs(trueBearing - 89.95)).toBeLessThan(0.2);
     const magnetic = Number(await page.locator('[data-testid=path-magnetic]').innerText());
-    expect(magnetic).toBeCloseTo(trueBearing - 4.13, 0); // W2 2026-01-01: D = +4.13° (DOMAIN.md §9)
+    expect(magnetic).toBeCloseTo(trueBearing - 4.13, 0); // W2 2026-01-01: D = +4.13° (WMM2025 via geomagnetism 0.2.0)
     await page.fill('#path-from', '95, 11');
     await expect(textOf('#path-from-hint', /latitude must be between -90 and 90/)).resolves.toBeTruthy();
     await page.screenshot({ path: 'test-results/tools-phone.png', fullPage: true });

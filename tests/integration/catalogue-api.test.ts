@@ -8,7 +8,7 @@ import { call } from '../helpers/endpoint';
 import { testDb, truncateAll } from '../helpers/db';
 import { asSessionUser, makeUser } from '../helpers/factories';
 
-// Common-practice customer panel: 7–9 dBi over 700–2700 MHz, ~40° beam (DOMAIN.md §11).
+// Common-practice customer panel: 7–9 dBi over 700–2700 MHz, ~40° beam.
 const PANEL = {
   name: 'Test panel',
   kind: 'directional',
@@ -20,7 +20,7 @@ const PANEL = {
     { freq_mhz: 2700, gain_dbi: 9 },
   ],
 };
-// LL-10-class losses from DOMAIN.md §10.
+// LL-10-class losses (10.3 mm foam datasheet formula, from memory, verify).
 const FEEDER = {
   name: 'Test feeder',
   loss_table: [
@@ -136,7 +136,7 @@ describe('catalogue API', () => {
     const admin = asSessionUser(await makeUser('admin'));
     const created = await call(createCable, { user: admin, json: FEEDER });
     expect(created.status).toBe(201);
-    // 0.1–0.2 dB per mated pair — common practice (DOMAIN.md §10).
+    // 0.1–0.2 dB per mated pair — common practice.
     expect(created.body).toMatchObject({ ...FEEDER, connector_loss_db: 0.15, connectors: 2, notes: null });
     const patched = await call(patchCable, { method: 'PATCH', user: admin, params: { id: created.body.id }, json: { connectors: 4 } });
     expect(patched.body.connectors).toBe(4);

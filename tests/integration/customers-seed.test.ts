@@ -27,7 +27,7 @@ describe('demo catalogue, gazetteer and customers', () => {
     await runSeeds();
   }, 180_000);
 
-  it('loads the generic catalogue with common-practice values (DOMAIN.md §10, §11)', async () => {
+  it('loads the generic catalogue with common-practice values', async () => {
     const antennas = await testDb()('antennas').orderBy('id');
     expect(antennas.map((a) => a.kind)).toEqual(['directional', 'directional', 'omni', 'stub']);
     const panel = antennas[0];
@@ -37,7 +37,7 @@ describe('demo catalogue, gazetteer and customers', () => {
       expect(row.gain_dbi).toBeLessThanOrEqual(9);
     }
     const cables = await testDb()('cables').orderBy('id');
-    // LL-10 class at 2600 MHz: 0.23 dB/m (DOMAIN.md §10 table).
+    // LL-10 class at 2600 MHz: 0.23 dB/m (REFERENCE_CABLE_LOSS, a fitted estimate, ±20 %).
     expect(cables.find((c) => c.name === 'Feeder 10 mm low-loss').loss_table).toContainEqual({ freq_mhz: 2600, loss_db_per_m: 0.23 });
   });
 

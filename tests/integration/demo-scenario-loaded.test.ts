@@ -1,4 +1,4 @@
-// The whole demo scenario as `npm start` loads it (DESIGN.md "Demo scenario"): checked on the
+// The whole demo scenario as `npm start` loads it (the invented island region of src/lib/demo): checked on the
 // database the browser tests use, which scripts/test.ts seeds with every seed in order.
 import { afterAll, describe, expect, it } from 'vitest';
 import { connect } from '../../scripts/lib/migrate-runner';

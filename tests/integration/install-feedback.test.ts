@@ -56,7 +56,7 @@ describe('install feedback', () => {
     // PCI 999 matches no cell on channel 6300 within reach: left out.
     expect(rows).toHaveLength(1);
     expect(rows[0]).toMatchObject({ cell_id: ids.cell, pci: 101, rsrp_dbm: -80, height_m: 7, source: 'install_check' });
-    // Net gain: 8 dBi − 10 m × 0.2 dB/m − 2 × 0.15 dB (DOMAIN.md §10 connector loss, common practice)
+    // Net gain: 8 dBi − 10 m × 0.2 dB/m − 2 × 0.15 dB (connector loss, common practice)
     expect(rows[0].antenna_gain_dbi).toBeCloseTo(8 - 2 - 0.3, 6);
   });
 

@@ -40,7 +40,7 @@ async function buildFixture(): Promise<Fixture> {
   const hill = (await makeMast({ name: 'Test Hill', reference: 'TST-001', lat: -47.2, lon: -128.5, structure_type: 'lattice_tower' })).id;
   const planned = (await makeMast({ name: 'Test Planned', lat: -47.25, lon: -128.55, status: 'planned' })).id;
   const far = (await makeMast({ name: 'Far Station', lat: -40, lon: 170, status: 'decommissioned' })).id;
-  // 3GPP TS 36.101 Table 5.7.3-1: EARFCN 6300 is B20 at 806.0 MHz (DOMAIN.md §1 check value).
+  // 3GPP TS 36.101 Table 5.7.3-1: EARFCN 6300 is B20 at 806.0 MHz.
   const hillB20 = (await makeCell(hill, { operator_id: op1, tech: 'lte', channel: 6300, pci: 101, sector_azimuth_deg: 0 })).id;
   await makeCell(hill, { operator_id: op2, tech: 'nr', band: 'n78', channel: 641280, pci: 900, sector_azimuth_deg: 120 });
   await makeCell(far, { operator_id: op1, tech: 'lte', band: 'B3', channel: 1300, pci: 5 });
@@ -170,7 +170,7 @@ describe('masts API: one mast', () => {
     expect(res.body.operators.map((o: { name: string }) => o.name)).toEqual(['Test Mobile A', 'Test Mobile B']);
     expect(res.body.cells).toHaveLength(2);
     expect(res.body.cells[0]).toMatchObject({ tech: 'lte', band: 'B20', channel: 6300, dl_mhz: 806, pci: 101, rs_power_dbm: 15.2, operator: { name: 'Test Mobile A' } });
-    // NR-ARFCN 641280 → 3619.2 MHz (TS 38.104 §5.4.2.1; DOMAIN.md §2 check value).
+    // NR-ARFCN 641280 → 3619.2 MHz (TS 38.104 §5.4.2.1).
     expect(res.body.cells[1]).toMatchObject({ tech: 'nr', band: 'n78', channel: 641280, dl_mhz: 3619.2, operator: { name: 'Test Mobile B' } });
     expect(res.body.recent_readings).toHaveLength(20);
     expect(res.body.recent_readings[0]).toMatchObject({ rsrp_dbm: -114, cell_id: f.hillB20, lat: -47.21, lon: -128.51 });
@@ -336,7 +336,7 @@ describe('cells API', () => {
   it('updates a cell and checks the whole cell again; a new channel re-derives the band', async () => {
     const moved = await call(patchCell, { method: 'PATCH', user: admin, params: { id: f.hillB20 }, json: { channel: 3050 } });
     expect(moved.status).toBe(200);
-    // EARFCN 3050 → B7, 2650.0 MHz (DOMAIN.md §1 check value).
+    // EARFCN 3050 → B7, 2650.0 MHz (3GPP TS 36.101 Table 5.7.3-1).
     expect(moved.body).toMatchObject({ band: 'B7', channel: 3050, dl_mhz: 2650, pci: 101 });
     const bad = await call(patchCell, { method: 'PATCH', user: admin, params: { id: f.hillB20 }, json: { band: 'B20' } });
     expect(bad.status).toBe(400);

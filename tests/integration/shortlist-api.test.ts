@@ -113,9 +113,9 @@ describe('GET /api/shortlist', () => {
     expect(n.bearing_true_deg).toBeCloseTo(0, 1);
     expect(n.bearing_from_mast_deg).toBeCloseTo(180, 1);
     expect(n.sector_offset_deg).toBeCloseTo(0, 0);
-    // Declination at the customer from WMM2025 (geomagnetism package), magnetic = true − D (DOMAIN.md §9)
+    // Declination at the customer from WMM2025 (geomagnetism package), magnetic = true − D (WMM sign convention)
     expect(n.bearing_magnetic_deg).toBeCloseTo((((n.bearing_true_deg - n.declination_deg) % 360) + 360) % 360, 1);
-    // Both ends on 100 m ground: 10 m mount to a 30 m mast over 6 km, k = 4/3 (DOMAIN.md §11 formula)
+    // Both ends on 100 m ground: 10 m mount to a 30 m mast over 6 km, k = 4/3 (spherical geometry, effective radius k·R)
     expect(n.elevation_deg).toBeCloseTo((Math.atan(20 / 6000) * 180) / Math.PI - (6000 / (2 * (4 / 3) * 6371008.8)) * (180 / Math.PI), 2);
     expect(n.expected_gain_db).toBeCloseTo(8 - 3.5 - 0.3 - 2, 1);
     expect(n.budget.reduce((s: number, t: { db: number }) => s + t.db, 0)).toBeCloseTo(n.predicted_rsrp_dbm, 0);

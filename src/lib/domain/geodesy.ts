@@ -8,10 +8,10 @@ export interface LatLon {
 }
 
 /**
- * Mean earth radius R1 = (2a + b)/3 of WGS84 (NGA.STND.0036; DOMAIN.md §8), the radius turf uses.
+ * Mean earth radius R1 = (2a + b)/3 of WGS84 (NGA.STND.0036), the radius turf uses.
  *
  * Every function here works on this sphere. Against the WGS84 ellipsoid that errs by about −0.45 % … +0.56 %
- * in distance and up to ~0.2° in bearing (worst near the equator, DOMAIN.md §8 haversine table): negligible
+ * in distance and up to ~0.2° in bearing (worst near the equator; compared with geographiclib-geodesic): negligible
  * for aiming a 40° beam, not for survey work.
  */
 export const EARTH_MEAN_RADIUS_M = 6_371_008.8;
@@ -47,7 +47,7 @@ export function getInitialBearing(from: LatLon, to: LatLon): number {
 /**
  * Bearing seen from `to` looking back at `from` (e.g. mast → customer when `from` is the customer).
  * Computed as the initial bearing from the other end: on a sphere or ellipsoid it is not the forward
- * bearing + 180° (meridians converge; DOMAIN.md §8).
+ * bearing + 180° (meridians converge).
  */
 export function getReverseBearing(from: LatLon, to: LatLon): number {
   return getInitialBearing(to, from);

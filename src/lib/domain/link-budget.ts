@@ -1,13 +1,13 @@
 /**
  * Link budget: free-space loss, EIRP, gain units, antenna gain and cable loss over frequency, sector
- * pattern, and the shortlist's RSRP prediction (DOMAIN.md §6, §10, §11, §13).
+ * pattern, and the shortlist's RSRP prediction (ITU-R P.525, 3GPP TR 36.942 §4.2.1, cable datasheets, Bearline's own model).
  */
 
 export const SPEED_OF_LIGHT_M_PER_S = 299_792_458;
 
 /**
  * 20·log10(4π·10⁹/c) = 32.4478 dB for f in MHz and d in km. ITU-R P.525 prints it rounded to 32.4,
- * textbooks use 32.44 or 32.45; the spread is ≤ 0.05 dB (DOMAIN.md §6).
+ * textbooks use 32.44 or 32.45; the spread is ≤ 0.05 dB.
  */
 export const FSPL_CONSTANT_DB = 20 * Math.log10((4 * Math.PI * 1e9) / SPEED_OF_LIGHT_M_PER_S);
 
@@ -53,7 +53,7 @@ export function getDbmFromWatts(watts: number): number {
 
 /**
  * Reference-signal energy per resource element when the total power is spread evenly over all
- * 12·N_RB subcarriers, e.g. 46 dBm over 20 MHz → 15.21 dBm (DOMAIN.md §6). Operators may boost RS power.
+ * 12·N_RB subcarriers, e.g. 46 dBm over 20 MHz → 15.21 dBm (N_RB from 3GPP TS 36.101 Table 5.6-1). Operators may boost RS power.
  */
 export function getRsEpreDbm(totalPowerDbm: number, resourceBlocks: number): number {
   return totalPowerDbm - 10 * Math.log10(12 * resourceBlocks);
@@ -105,7 +105,7 @@ export function interpolateGain(
 /**
  * Cable attenuation (dB/m) at a frequency: linear in frequency inside the table; outside it the nearest
  * point is scaled by √f and flagged `approximate`. √f scaling keeps only the conductor loss and under-predicts
- * at UHF/SHF (900 → 2600 MHz: ×1.70 vs ×1.77 … ×2.13 real; DOMAIN.md §10).
+ * at UHF/SHF (900 → 2600 MHz: ×1.70 vs ×1.77 … ×2.13 real; two-term fits, from memory, verify).
  */
 export function getCableLossPerM(
   table: readonly CableLossPoint[],
@@ -133,7 +133,7 @@ export function getCableLossDb(
 
 /**
  * Datasheet two-term attenuation A = k1·√f + k2·f in dB per 100 ft (f in MHz), converted to dB/m:
- * k1 is the conductor (skin-effect) term, k2 the dielectric term (DOMAIN.md §10).
+ * k1 is the conductor (skin-effect) term, k2 the dielectric term (common datasheet form).
  */
 export function getTwoTermCableLossDbPerM(coefficients: { k1: number; k2: number }, freqMhz: number): number {
   const dbPer100Ft = coefficients.k1 * Math.sqrt(freqMhz) + coefficients.k2 * freqMhz;
@@ -142,7 +142,8 @@ export function getTwoTermCableLossDbPerM(coefficients: { k1: number; k2: number
 
 /**
  * Representative attenuation by cable class, dB/m — two-term fits through a few published anchors and
- * remembered datasheet points, ±20 % (DOMAIN.md §10). Prefer the actual cable's datasheet.
+ * remembered datasheet points, ±20 % (anchors: ARRL General Class License Manual Table 6-1, Codan Radio Repeater
+ * Systems Training Guide App. H; the rest from memory, verify). Prefer the actual cable's datasheet.
  */
 export const REFERENCE_CABLE_LOSS: Record<'RG-58' | 'RG-8X' | 'RG-213' | 'LL-6' | 'LL-10', CableLossPoint[]> = {
   'RG-58': tabulate([0.56, 0.61, 0.99, 1.1, 1.29, 1.62]),
@@ -160,7 +161,7 @@ function tabulate(dbPerM: number[]): CableLossPoint[] {
 /** Typical loss of one mated connector pair below 3 GHz, 0.1–0.2 dB — common practice, no source. */
 export const DEFAULT_CONNECTOR_LOSS_DB = 0.15;
 
-/** Common-practice customer feeder attenuation when the catalogue has none (DOMAIN.md §11, §13). */
+/** Common-practice customer feeder attenuation when the catalogue has none. */
 export const DEFAULT_CUSTOMER_CABLE_DB_PER_M = 0.35;
 
 export function getConnectorLossDb(connectorCount: number, lossPerConnectorDb = DEFAULT_CONNECTOR_LOSS_DB): number {
@@ -176,7 +177,7 @@ export const DEFAULT_SECTOR_MAX_ATTENUATION_DB = 20;
 
 /**
  * Horizontal pattern loss (positive dB) `offsetDeg` off a panel's boresight: min(12·(θ/θ3dB)², A_m), the
- * 3GPP sector model of TR 36.942 §4.2.1 (from memory, verify; DOMAIN.md §11). The same parabola gives a
+ * 3GPP sector model of TR 36.942 §4.2.1 (from memory, verify). The same parabola gives a
  * customer antenna's aiming loss with its own beamwidth (10° off a 40° beam ≈ 0.75 dB).
  */
 export function getSectorPatternLossDb(
@@ -188,7 +189,7 @@ export function getSectorPatternLossDb(
 }
 
 // ---------------------------------------------------------------------------------------------------------
-// RSRP prediction (DOMAIN.md §13, our own model).
+// RSRP prediction (Bearline's own model).
 
 /** RS EPRE: 46 dBm spread over 100 RB ≈ 15.2 dBm per resource element — common practice default. */
 export const DEFAULT_RS_EPRE_DBM = 15.2;

@@ -1,6 +1,6 @@
 /**
  * Measured signal quantities: valid ranges, report-index mapping, RSRP/RSSI/RSRQ relations and the
- * installers' quality grades (DOMAIN.md §4–5).
+ * installers' quality grades (3GPP TS 36.133, 38.133, 36.214; grades common practice).
  */
 
 export type MeasurementKind =
@@ -25,7 +25,7 @@ const RANGES: Record<MeasurementKind, Omit<MeasurementRange, 'kind'>> = {
   lteRsrq: { unit: 'dB', min: -19.5, max: -3, source: '3GPP TS 36.133 Table 9.1.7-1' },
   // RSSI is not reported in LTE RRC. The window spans the RSRP range plus 10·log10(12·N_RB) for
   // 1.4–20 MHz, widened a little: a plausibility check, not a reporting range.
-  lteRssi: { unit: 'dBm', min: -130, max: -10, source: 'derived from the RSRP range and N_RB (DOMAIN.md §4)' },
+  lteRssi: { unit: 'dBm', min: -130, max: -10, source: 'derived from the RSRP range and N_RB (TS 36.101 Table 5.6-1)' },
   // SINR/RSSNR is not standardised by 3GPP; this is the Android HAL range.
   lteSinr: { unit: 'dB', min: -20, max: 30, source: 'AOSP HAL LteSignalStrength.rssnr' },
   nrSsRsrp: { unit: 'dBm', min: -156, max: -31, source: '3GPP TS 38.133 Table 10.1.6.1-1' },
@@ -34,7 +34,7 @@ const RANGES: Record<MeasurementKind, Omit<MeasurementRange, 'kind'>> = {
 };
 
 // Extended LTE ranges for coverage-enhanced UEs in later releases (RSRP to −156 dBm; RSRQ
-// Table 9.1.7-2, −34 … +2.5 dB) — index details from memory, verify (DOMAIN.md §4).
+// Table 9.1.7-2, −34 … +2.5 dB) — index details from memory, verify.
 const EXTENDED_RANGES: Partial<Record<MeasurementKind, Omit<MeasurementRange, 'kind'>>> = {
   lteRsrp: { unit: 'dBm', min: -156, max: -44, source: '3GPP TS 36.133 extended RSRP range' },
   lteRsrq: { unit: 'dB', min: -34, max: 2.5, source: '3GPP TS 36.133 Table 9.1.7-2' },
@@ -125,7 +125,7 @@ const LTE_RESOURCE_BLOCKS: ReadonlyMap<number, number> = new Map([
   [20, 100],
 ]);
 
-// TS 38.104 Table 5.3.2-1 (DOMAIN.md §4): bandwidth (MHz) → resource blocks per subcarrier spacing.
+// TS 38.104 Table 5.3.2-1: bandwidth (MHz) → resource blocks per subcarrier spacing.
 const NR_RESOURCE_BLOCKS: Record<15 | 30, ReadonlyMap<number, number>> = {
   15: new Map([
     [5, 25],
@@ -166,7 +166,7 @@ export function getNrResourceBlockCount(bandwidthMhz: number, subcarrierSpacingK
 
 /**
  * RSRP estimated from RSSI: RSRP ≈ RSSI − 10·log10(12·N_RB). Rule of thumb, no normative formula: it
- * assumes every resource element is loaded with equal power and noise is negligible (DOMAIN.md §4). In a
+ * assumes every resource element is loaded with equal power and noise is negligible (follows from the TS 36.214 definitions). In a
  * lightly loaded cell RSSI is lower, so this under-estimates RSRP.
  */
 export function estimateRsrpFromRssi(rssiDbm: number, bandwidthMhz: number): number {
@@ -185,7 +185,7 @@ export function getRsrqDb(rsrpDbm: number, rssiDbm: number, resourceBlocks: numb
 
 /**
  * Thermal noise kT·B at 290 K, −174 dBm/Hz rounded, plus the receiver noise figure. One 15 kHz resource
- * element: −132.24 dBm (DOMAIN.md §4).
+ * element: −132.24 dBm.
  */
 export function getThermalNoiseDbm(bandwidthHz: number, noiseFigureDb = 0): number {
   return -174 + 10 * Math.log10(bandwidthHz) + noiseFigureDb;
@@ -202,7 +202,7 @@ export function getRssiFromCsq(csq: number): number | null {
 }
 
 // ---------------------------------------------------------------------------------------------------------
-// Quality grades — common practice among installers, no normative source (DOMAIN.md §5). Boundaries are
+// Quality grades — common practice among installers, no normative source. Boundaries are
 // inclusive on the better side (−100 dBm RSRP is fair). NR uses the LTE thresholds; NR's wider ranges make
 // this rough at the extremes.
 

@@ -1,7 +1,7 @@
 /**
  * A plan's life: enquiry → planned → scheduled → installed → verified, the facts each step
  * needs, who may see and change plans, and the measured result of an install (before/after
- * readings per PCI against the predicted gain, DESIGN.md journey 4; DOMAIN.md §13).
+ * readings per PCI against the predicted gain; the prediction is Bearline's own model in shortlist.ts).
  */
 import { can, type Role } from './roles';
 

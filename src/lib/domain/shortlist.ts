@@ -4,7 +4,7 @@
  * Model (Bearline's own, documented defaults):
  *   predicted RSRP = RS EPRE + mast gain − mast feeder − free space − terrain diffraction − clutter/excess
  *                    − sector pattern loss + customer antenna gain − cable − connectors + calibration
- * (DOMAIN.md §13). Terrain diffraction comes from the elevation profile where one covers the path
+ * (Bearline's own model). Terrain diffraction comes from the elevation profile where one covers the path
  * (single knife edge on the worst obstacle, ITU-R P.526). The clutter/excess term is one flat value for
  * rural paths, and each cell's readings shift its prediction by their median residual (calibration).
  */

@@ -1,6 +1,6 @@
 /**
  * Terrain and propagation geometry: Fresnel zone, earth bulge, radio horizon, elevation angle, knife-edge
- * diffraction and the analysis of a sampled path profile (DOMAIN.md §7, §11).
+ * diffraction and the analysis of a sampled path profile (ITU-R P.526, P.530, P.1546; spherical geometry).
  */
 import { EARTH_MEAN_RADIUS_M } from './geodesy';
 import { SPEED_OF_LIGHT_M_PER_S } from './link-budget';
@@ -51,7 +51,7 @@ export function getMaxLineOfSightKm(height1M: number, height2M: number, k = STAN
 /**
  * Elevation angle (degrees, positive up) from one antenna to another, heights above a common datum
  * (ground elevation + mast height), `distanceM` along the surface. Exact spherical form with effective
- * radius R_e = k·R: θ = atan2(r2·cos γ − r1, r2·sin γ), r_i = R_e + h_i, γ = d/R_e (DOMAIN.md §11);
+ * radius R_e = k·R: θ = atan2(r2·cos γ − r1, r2·sin γ), r_i = R_e + h_i, γ = d/R_e (standard spherical geometry);
  * k = Infinity gives the flat-earth atan(Δh/d).
  */
 export function getElevationAngleDeg(input: {
@@ -72,7 +72,7 @@ export function getElevationAngleDeg(input: {
 
 /**
  * Where a mast's beam axis, tilted down by `downtiltDeg`, meets flat ground `heightAboveGroundM` below it:
- * Δh/tan(tilt) (DOMAIN.md §11). Customers well beyond this are served by the upper part of the main lobe.
+ * Δh/tan(tilt) (plane geometry). Customers well beyond this are served by the upper part of the main lobe.
  */
 export function getBeamGroundDistanceM(heightAboveGroundM: number, downtiltDeg: number): number {
   if (downtiltDeg <= 0) return Number.POSITIVE_INFINITY;
@@ -89,7 +89,7 @@ export function getDiffractionParameter(heightAboveRayM: number, d1M: number, d2
 
 /**
  * Single knife-edge loss J(ν) = 6.9 + 20·log10(√((ν − 0.1)² + 1) + ν − 0.1) dB for ν > −0.78, else 0
- * (ITU-R P.526 approximation — from memory, verify; DOMAIN.md §7).
+ * (ITU-R P.526 approximation — from memory, verify).
  */
 export function getKnifeEdgeLossDb(nu: number): number {
   if (nu <= -0.78) return 0;
@@ -155,7 +155,7 @@ export interface PathProfileAnalysis {
   classification: PathClassification;
 }
 
-/** Clearance below this fraction of r1 counts as Fresnel-zone infringement — common practice (DOMAIN.md §7). */
+/** Clearance below this fraction of r1 counts as Fresnel-zone infringement — common practice, grounded in ITU-R P.526 J(ν) ≈ 0 dB at ν ≤ −0.78. */
 export const FRESNEL_CLEARANCE_RATIO = 0.6;
 
 /**

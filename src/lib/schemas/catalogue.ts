@@ -124,7 +124,7 @@ export const CableInputSchema = z
   .object({
     name,
     loss_table: LossTableSchema,
-    // 0.1–0.2 dB per mated pair below 3 GHz — common practice (DOMAIN.md §10).
+    // 0.1–0.2 dB per mated pair below 3 GHz — common practice, no source.
     connector_loss_db: connectorLoss.default(0.15),
     connectors: connectors.default(2),
     notes,

@@ -91,8 +91,8 @@ export const CHECK_PHASES = ['before', 'after'] as const;
 export type CheckPhase = (typeof CHECK_PHASES)[number];
 
 // Plausibility limits: the widest reporting ranges of 3GPP TS 36.133 / 38.133 (LTE RSRP
-// −156…−44 dBm extended, NR SS-RSRP to −31 dBm; RSRQ −43…20 dB; SINR −23…40 dB), see
-// DOMAIN.md §4.
+// −156…−44 dBm extended, NR SS-RSRP to −31 dBm; RSRQ −43…20 dB; SINR −23…40 dB): TS 36.133
+// §9.1.4 / §9.1.7, TS 38.133 §10.1.6 / §10.1.11 / §10.1.16.
 const CheckReadingSchema = z.object({
   pci: num('PCI').int('PCI must be a whole number').min(0, 'PCI must be 0–1007').max(1007, 'PCI must be 0–1007'),
   channel: num('Channel').int('Channel must be a whole number').min(0, 'Channel cannot be negative').nullish().transform((v) => v ?? null),

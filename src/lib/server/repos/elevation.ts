@@ -3,8 +3,8 @@
 // Storage: the metadata, the checksum of the uploaded file and a PostGIS bounds polygon are rows
 // of elevation_grids; the decoded samples are a plain little-endian array (int16 or float32, rows
 // north → south) in a file <data dir>/elevation/<sha256 of the samples>.<i16|f32>. Files rather
-// than bytea keep large grids out of the database, its backups and its memory (DESIGN.md: uploads
-// on local disk, metadata and checksums in the database); naming them by their checksum makes a
+// than bytea keep large grids out of the database, its backups and its memory (uploads on local
+// disk, metadata and checksums in the database); naming them by their checksum makes a
 // file immutable, so the in-process cache can never serve stale samples, and a file is verified
 // against its checksum when it is loaded. A file is written before its row and removed after its
 // last row is gone, so a crash can leave an unreferenced file behind, never a row without samples.
