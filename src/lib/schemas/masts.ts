@@ -214,28 +214,28 @@ export type MastChange = z.output<typeof MastChangeSchema>;
 
 // --- Cell input ------------------------------------------------------------------------------
 
-const operatorId = z
+export const OperatorIdSchema = z
   .union([z.number().int().positive(), z.string().regex(/^\d{1,18}$/)], {
     errorMap: () => ({ message: 'Choose an operator' }),
   })
   .transform(String);
-const channel = num('Channel').int('Channel must be a whole number').min(0, 'Channel cannot be negative');
-const pci = num('PCI').int('PCI must be a whole number').min(0, 'PCI cannot be negative').nullish();
+export const ChannelSchema = num('Channel').int('Channel must be a whole number').min(0, 'Channel cannot be negative');
+export const PciSchema = num('PCI').int('PCI must be a whole number').min(0, 'PCI cannot be negative').nullish();
 const cellIdentity = num('Cell identity').int('Cell identity must be a whole number').min(0, 'Cannot be negative').max(2 ** 36 - 1, 'At most 36 bits').nullish();
-const azimuth = num('Azimuth').min(0, 'Azimuth must be 0–359°').lt(360, 'Azimuth must be 0–359°').nullish();
+export const AzimuthSchema = num('Azimuth').min(0, 'Azimuth must be 0–359°').lt(360, 'Azimuth must be 0–359°').nullish();
 const antennaHeight = num('Antenna height').min(0, 'Cannot be negative').max(700, 'At most 700 m').nullish();
 const bandwidth = num('Bandwidth').gt(0, 'Bandwidth must be above 0').max(400, 'At most 400 MHz').nullish();
 const rsPower = num('RS power').min(-20, 'RS power must be at least −20 dBm').max(60, 'RS power must be at most 60 dBm');
 const lastObserved = z.coerce.date({ errorMap: () => ({ message: 'Give a date and time (ISO 8601)' }) }).nullish();
 
 const cellFields = {
-  operator_id: operatorId,
+  operator_id: OperatorIdSchema,
   tech: TechSchema,
   band: z.string().trim().max(20, 'At most 20 characters').nullish(),
-  channel,
-  pci,
+  channel: ChannelSchema,
+  pci: PciSchema,
   cell_identity: cellIdentity,
-  sector_azimuth_deg: azimuth,
+  sector_azimuth_deg: AzimuthSchema,
   antenna_height_m: antennaHeight,
   bandwidth_mhz: bandwidth,
   rs_power_dbm: rsPower.default(15.2),
@@ -259,11 +259,20 @@ export interface CellInput {
 
 type CellFields = z.output<z.ZodObject<typeof cellFields>>;
 
+/** Band, channel and PCI as typed; `checkRadio` resolves the band and downlink frequency. */
+export interface RadioFields {
+  tech: Tech;
+  band?: string | null;
+  channel: number;
+  pci?: number | null;
+}
+
 /**
- * The rules that tie a cell's fields together: the band must exist for the technology and hold the
- * channel (derived from the channel when not given), and the PCI must be in the technology's range.
+ * The rules that tie a cell's radio fields together: the band must exist for the technology and
+ * hold the channel (derived from the channel when not given), and the PCI must be in the
+ * technology's range. Shared by mast cells and the cells of a sighting.
  */
-function checkCell(v: CellFields, ctx: z.RefinementCtx): CellInput {
+export function checkRadio(v: RadioFields, ctx: z.RefinementCtx): { band: string; dlMhz: number } {
   let band: string | null = null;
   let dlMhz = Number.NaN;
   if (v.band) {
@@ -291,10 +300,15 @@ function checkCell(v: CellFields, ctx: z.RefinementCtx): CellInput {
     if (max === null) ctx.addIssue({ code: 'custom', path: ['pci'], message: 'GSM cells have no PCI' });
     else if (v.pci > max) ctx.addIssue({ code: 'custom', path: ['pci'], message: `${v.tech.toUpperCase()} PCI must be 0–${max}` });
   }
+  return { band: band ?? '', dlMhz };
+}
+
+function checkCell(v: CellFields, ctx: z.RefinementCtx): CellInput {
+  const { band, dlMhz } = checkRadio(v, ctx);
   return {
     operatorId: v.operator_id,
     tech: v.tech,
-    band: band ?? '',
+    band,
     channel: v.channel,
     dlMhz,
     pci: v.pci ?? null,
@@ -313,9 +327,9 @@ export const CellInputSchema = z.object(cellFields).transform(checkCell);
 export const CellChangeSchema = z
   .object({
     ...cellFields,
-    operator_id: operatorId.optional(),
+    operator_id: OperatorIdSchema.optional(),
     tech: TechSchema.optional(),
-    channel: channel.optional(),
+    channel: ChannelSchema.optional(),
     rs_power_dbm: rsPower.optional(),
   })
   .refine(hasAnyField, { message: 'Nothing to change' });
