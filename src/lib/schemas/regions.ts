@@ -3,6 +3,9 @@
 import { z } from 'zod';
 import { requiredText } from './params';
 
+/** Largest region request body: the admin page reads GeoJSON files of up to 10 MB. */
+export const REGION_BODY_MAX_BYTES = 10 * 1024 * 1024;
+
 const position = z
   .array(z.number({ invalid_type_error: 'Coordinates must be numbers' }).finite(), { invalid_type_error: 'A position is [lon, lat]' })
   .min(2, 'A position is [lon, lat]')

@@ -13,6 +13,7 @@ import {
 import { MAX_ELEVATION_UPLOAD_BYTES, type ElevationFormat } from '../schemas/elevation';
 import type { Tx } from './db';
 import { AppError, ConflictError, ValidationError } from './errors';
+import { readMultipartFiles } from './request-body';
 import {
   findElevationGridBySha256,
   getSampleType,
@@ -36,66 +37,22 @@ export interface ElevationUpload {
   bytes: Uint8Array;
 }
 
-// Room for the multipart boundaries and headers around the file.
-const MULTIPART_OVERHEAD_BYTES = 64 * 1024;
-
 const tooLarge = () =>
   new AppError('PAYLOAD_TOO_LARGE', `The file is larger than ${MAX_ELEVATION_UPLOAD_BYTES / (1024 * 1024)} MB: cut the area into tiles`);
 const unsupported = (message: string) => new AppError('UNSUPPORTED_MEDIA_TYPE', message);
 const unprocessable = (message: string) => new AppError('UNPROCESSABLE_CONTENT', message);
 
-/** Reads the `file` field of a multipart upload, refusing oversized bodies before buffering them. */
+/** Reads the `file` field of a multipart upload, refusing oversized bodies while they stream in. */
 export async function readElevationUpload(request: Request): Promise<ElevationUpload> {
   const type = request.headers.get('content-type') ?? '';
   if (!type.toLowerCase().startsWith('multipart/form-data')) {
     throw unsupported('Send the file as multipart/form-data in a field named "file"');
   }
-  const limit = MAX_ELEVATION_UPLOAD_BYTES + MULTIPART_OVERHEAD_BYTES;
-  const declared = Number(request.headers.get('content-length'));
-  if (Number.isFinite(declared) && declared > limit) throw tooLarge();
-  const body = await readBounded(request, limit);
-  let form: FormData;
-  try {
-    form = await new Response(body, { headers: { 'content-type': type } }).formData();
-  } catch {
-    throw new ValidationError('The upload could not be read as multipart form data');
-  }
-  const file = form.get('file');
-  if (!file || typeof file === 'string') throw new ValidationError('Choose a file to upload', { file: ['Choose a file'] });
-  if (file.size > MAX_ELEVATION_UPLOAD_BYTES) throw tooLarge();
-  if (file.size === 0) throw new ValidationError('The file is empty', { file: ['The file is empty'] });
-  return { fileName: cleanFileName(file.name), bytes: new Uint8Array(await file.arrayBuffer()) };
-}
-
-async function readBounded(request: Request, limit: number): Promise<Uint8Array<ArrayBuffer>> {
-  if (!request.body) return new Uint8Array(0);
-  const reader = request.body.getReader();
-  const chunks: Uint8Array[] = [];
-  let total = 0;
-  for (;;) {
-    const { done, value } = await reader.read();
-    if (done) break;
-    total += value.byteLength;
-    if (total > limit) {
-      await reader.cancel().catch(() => undefined);
-      throw tooLarge();
-    }
-    chunks.push(value);
-  }
-  const out = new Uint8Array(total);
-  let at = 0;
-  for (const c of chunks) {
-    out.set(c, at);
-    at += c.byteLength;
-  }
-  return out;
-}
-
-function cleanFileName(name: string | undefined): string {
-  const base = (name ?? '').split(/[\\/]/).pop() ?? '';
-  // eslint-disable-next-line no-control-regex
-  const clean = base.replace(/[\u0000-\u001f\u007f]/g, '').trim().slice(0, 200);
-  return clean || 'upload';
+  const { files } = await readMultipartFiles(request, { maxFileBytes: MAX_ELEVATION_UPLOAD_BYTES, fileTooLargeMessage: tooLarge().message });
+  const file = files.find((f) => f.field === 'file');
+  if (!file) throw new ValidationError('Choose a file to upload', { file: ['Choose a file'] });
+  if (file.bytes.byteLength === 0) throw new ValidationError('The file is empty', { file: ['The file is empty'] });
+  return { fileName: file.fileName, bytes: file.bytes };
 }
 
 function isTiff(bytes: Uint8Array): boolean {

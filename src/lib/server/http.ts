@@ -4,6 +4,8 @@ import { ZodError, type ZodType, type ZodTypeDef } from 'zod';
 import { AppError, STATUS_BY_CODE, ForbiddenError, UnauthorizedError, ValidationError, type FieldErrors } from './errors';
 import { can, type Permission } from '../domain/roles';
 import type { SessionUser } from './session-user';
+import { appErrorFromDatabase } from './db-errors';
+import { JSON_BODY_MAX_BYTES, readJsonBody, readLimitedText, readMultipart } from './request-body';
 
 export function json(body: unknown, status = 200, headers: Record<string, string> = {}): Response {
   return new Response(JSON.stringify(body), {
@@ -12,10 +14,18 @@ export function json(body: unknown, status = 200, headers: Record<string, string
   });
 }
 
-/** Any thrown value as an AppError; unknown errors are logged and hidden. */
+/**
+ * Any thrown value as an AppError: zod issues are 400 with fields, database faults 503, unique
+ * violations 409 (see db-errors.ts); unknown errors are logged and hidden behind a 500.
+ */
 export function asAppError(err: unknown): AppError {
   if (err instanceof ZodError) return validationFromZod(err);
   if (err instanceof AppError) return err;
+  const fromDb = appErrorFromDatabase(err);
+  if (fromDb) {
+    if (fromDb.code === 'SERVICE_UNAVAILABLE') console.error('[bearline] database unavailable', err instanceof Error ? err.message : err);
+    return fromDb;
+  }
   console.error('[bearline] unhandled error', err);
   return new AppError('INTERNAL_SERVER_ERROR', 'Something went wrong on the server');
 }
@@ -59,27 +69,35 @@ export function parseQuery<T>(schema: ZodType<T, ZodTypeDef, unknown>, url: URL)
   return parseWith(schema, Object.fromEntries(url.searchParams));
 }
 
-/** Reads a JSON or form body (url-encoded or multipart without files). */
-export async function readBody(request: Request): Promise<Record<string, unknown>> {
-  const type = request.headers.get('content-type') ?? '';
+export interface BodyOptions {
+  /** Largest body accepted (default JSON_BODY_MAX_BYTES, 1 MB); counted while it streams in. */
+  maxBytes?: number;
+}
+
+/**
+ * Reads a JSON or form body (url-encoded, or multipart without files) of at most 1 MB unless
+ * `maxBytes` says otherwise: 413 before parsing when it is larger, whoever sends it.
+ */
+export async function readBody(request: Request, opts: BodyOptions = {}): Promise<Record<string, unknown>> {
+  const maxBytes = opts.maxBytes ?? JSON_BODY_MAX_BYTES;
+  const type = (request.headers.get('content-type') ?? '').toLowerCase();
   if (type.includes('application/json')) {
-    try {
-      const body = await request.json();
-      if (body === null || typeof body !== 'object' || Array.isArray(body)) throw new Error();
-      return body as Record<string, unknown>;
-    } catch {
-      throw new ValidationError('The request body is not a JSON object');
-    }
+    const body = await readJsonBody(request, maxBytes);
+    if (body === null || typeof body !== 'object' || Array.isArray(body)) throw new ValidationError('The request body is not a JSON object');
+    return body as Record<string, unknown>;
   }
-  if (type.includes('application/x-www-form-urlencoded') || type.includes('multipart/form-data')) {
-    const form = await request.formData();
-    return Object.fromEntries([...form.entries()].filter(([, v]) => typeof v === 'string'));
+  if (type.includes('application/x-www-form-urlencoded')) {
+    return Object.fromEntries(new URLSearchParams(await readLimitedText(request, maxBytes)));
+  }
+  if (type.includes('multipart/form-data')) {
+    const { fields } = await readMultipart(request, { maxFiles: 0, maxFileBytes: 0, maxTotalBytes: maxBytes, maxFieldBytes: maxBytes }, async () => undefined);
+    return fields;
   }
   throw new AppError('UNSUPPORTED_MEDIA_TYPE', 'Send JSON (application/json) or a form');
 }
 
-export async function parseBody<T>(schema: ZodType<T, ZodTypeDef, unknown>, request: Request): Promise<T> {
-  return parseWith(schema, await readBody(request));
+export async function parseBody<T>(schema: ZodType<T, ZodTypeDef, unknown>, request: Request, opts?: BodyOptions): Promise<T> {
+  return parseWith(schema, await readBody(request, opts));
 }
 
 export function requireUser(locals: App.Locals): SessionUser {

@@ -2,6 +2,7 @@ import { createHash } from 'node:crypto';
 import { getDb } from '../../../lib/server/db';
 import { handler, json, requirePermission } from '../../../lib/server/http';
 import { AppError, ValidationError } from '../../../lib/server/errors';
+import { readLimitedBytes, readMultipartFiles } from '../../../lib/server/request-body';
 import { importAddresses } from '../../../lib/server/repos/addresses';
 import { ADDRESS_IMPORT_MAX_BYTES, csvErrorFields, parseAddressCsv } from '../../../lib/schemas/addresses';
 
@@ -10,45 +11,20 @@ const notCsv = () => new AppError('UNSUPPORTED_MEDIA_TYPE', 'Send a CSV file (co
 
 const CSV_TYPES = ['text/csv', 'application/csv', 'text/plain', 'application/vnd.ms-excel', ''];
 
-/** Reads the request body, giving up as soon as it passes the limit. */
-async function readLimited(request: Request, max: number): Promise<Uint8Array> {
-  const reader = request.body?.getReader();
-  if (!reader) return new Uint8Array();
-  const chunks: Uint8Array[] = [];
-  let size = 0;
-  for (;;) {
-    const { done, value } = await reader.read();
-    if (done) break;
-    size += value.byteLength;
-    if (size > max) {
-      await reader.cancel();
-      throw tooLarge();
-    }
-    chunks.push(value);
-  }
-  return Buffer.concat(chunks);
-}
-
-/** The uploaded CSV as bytes and a name: multipart field `file`, or a text/csv body. */
+/** The uploaded CSV as bytes and a name: multipart field `file`, or a text/csv body; 413 while streaming. */
 async function readUpload(request: Request): Promise<{ bytes: Uint8Array; fileName: string | null }> {
-  const declared = Number(request.headers.get('content-length') ?? 0);
-  // Multipart framing adds a little; allow for it before reading anything.
-  if (declared > ADDRESS_IMPORT_MAX_BYTES + 64 * 1024) throw tooLarge();
   const type = (request.headers.get('content-type') ?? '').toLowerCase();
   if (type.startsWith('multipart/form-data')) {
-    const form = await request.formData().catch(() => {
-      throw new ValidationError('The upload could not be read', { file: ['Choose a CSV file'] });
-    });
-    const file = form.get('file');
-    if (!(file instanceof File)) throw new ValidationError('Choose a CSV file', { file: ['Choose a CSV file'] });
-    if (file.size > ADDRESS_IMPORT_MAX_BYTES) throw tooLarge();
-    const typeOk = CSV_TYPES.includes(file.type.toLowerCase().split(';')[0]!.trim());
-    const nameOk = !/\.[a-z0-9]+$/i.test(file.name) || /\.(csv|txt)$/i.test(file.name);
+    const { files } = await readMultipartFiles(request, { maxFileBytes: ADDRESS_IMPORT_MAX_BYTES, fileTooLargeMessage: tooLarge().message });
+    const file = files.find((f) => f.field === 'file');
+    if (!file) throw new ValidationError('Choose a CSV file', { file: ['Choose a CSV file'] });
+    const typeOk = CSV_TYPES.includes(file.mimeType.toLowerCase().split(';')[0]!.trim());
+    const nameOk = !/\.[a-z0-9]+$/i.test(file.fileName) || /\.(csv|txt)$/i.test(file.fileName);
     if (!typeOk || !nameOk) throw notCsv();
-    return { bytes: new Uint8Array(await file.arrayBuffer()), fileName: file.name || null };
+    return { bytes: file.bytes, fileName: file.fileName === 'upload' ? null : file.fileName };
   }
   if (type.startsWith('text/csv') || type.startsWith('application/csv')) {
-    return { bytes: await readLimited(request, ADDRESS_IMPORT_MAX_BYTES), fileName: null };
+    return { bytes: await readLimitedBytes(request, ADDRESS_IMPORT_MAX_BYTES, tooLarge), fileName: null };
   }
   throw notCsv();
 }

@@ -1,7 +1,7 @@
 import { getDb } from '../../../lib/server/db';
 import { handler, json, parseBody, requirePermission } from '../../../lib/server/http';
 import { createRegion, listRegions, regionJson } from '../../../lib/server/repos/regions';
-import { RegionInputSchema } from '../../../lib/schemas/regions';
+import { REGION_BODY_MAX_BYTES, RegionInputSchema } from '../../../lib/schemas/regions';
 
 export const GET = handler(async ({ locals }) => {
   requirePermission(locals, 'map:view');
@@ -12,7 +12,7 @@ export const GET = handler(async ({ locals }) => {
 /** Imports a GeoJSON Polygon or MultiPolygon (bare or as a Feature); invalid polygons are refused. */
 export const POST = handler(async ({ locals, request }) => {
   const actor = requirePermission(locals, 'reference:manage');
-  const input = await parseBody(RegionInputSchema, request);
+  const input = await parseBody(RegionInputSchema, request, { maxBytes: REGION_BODY_MAX_BYTES });
   const region = await getDb().transaction((trx) => createRegion(trx, input, actor.id));
   return json(regionJson(region), 201);
 });
