@@ -11,6 +11,8 @@ export interface CallOptions {
   form?: Record<string, string>;
   body?: BodyInit;
   headers?: Record<string, string>;
+  /** The caller's IP address (default 127.0.0.1). */
+  clientAddress?: string;
 }
 
 export interface CallResult {
@@ -37,7 +39,7 @@ export async function call(route: APIRoute, opts: CallOptions = {}): Promise<Cal
     url,
     params: opts.params ?? {},
     locals: { user: opts.user ?? null, session: null },
-    clientAddress: '127.0.0.1',
+    clientAddress: opts.clientAddress ?? '127.0.0.1',
     cookies: {
       get: (name: string) => (cookieJar.has(name) ? { value: cookieJar.get(name)! } : undefined),
       set: (name: string, value: string) => cookieJar.set(name, value),

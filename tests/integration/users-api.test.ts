@@ -20,16 +20,16 @@ describe('users API', () => {
     const list = await call(listUsers, { user: asSessionUser(u) });
     expect(list.status).toBe(403);
     expect(list.body.error.code).toBe('FORBIDDEN');
-    const create = await call(createUser, { user: asSessionUser(u), json: { email: 'x@example.test', name: 'X', role: 'admin', password: 'long enough password' } });
+    const create = await call(createUser, { user: asSessionUser(u), json: { email: 'x@example.test', name: 'X', role: 'admin' } });
     expect(create.status).toBe(403);
     expect(await testDb()('users').where({ email: 'x@example.test' }).first()).toBeUndefined();
   });
 
-  it('lets an admin list, create and audit a user', async () => {
+  it('lets an admin list, invite and audit a user', async () => {
     const admin = asSessionUser(await makeUser('admin'));
-    const created = await call(createUser, { user: admin, json: { email: 'new@example.test', name: 'New Person', role: 'surveyor', password: 'a fine long password' } });
+    const created = await call(createUser, { user: admin, json: { email: 'new@example.test', name: 'New Person', role: 'surveyor' } });
     expect(created.status).toBe(201);
-    expect(created.body).toMatchObject({ email: 'new@example.test', role: 'surveyor', disabledAt: null });
+    expect(created.body).toMatchObject({ email: 'new@example.test', role: 'surveyor', disabledAt: null, invite: 'pending' });
     expect(created.body).not.toHaveProperty('passwordHash');
     const list = await call(listUsers, { user: admin });
     expect(list.body.total).toBe(2);
@@ -40,14 +40,14 @@ describe('users API', () => {
 
   it('rejects bad input with 400 and a fields map', async () => {
     const admin = asSessionUser(await makeUser('admin'));
-    const res = await call(createUser, { user: admin, json: { email: 'nope', name: '', role: 'wizard', password: 'short' } });
+    const res = await call(createUser, { user: admin, json: { email: 'nope', name: '', role: 'wizard' } });
     expect(res.status).toBe(400);
-    expect(Object.keys(res.body.error.fields).sort()).toEqual(['email', 'name', 'password', 'role']);
+    expect(Object.keys(res.body.error.fields).sort()).toEqual(['email', 'name', 'role']);
   });
 
   it('refuses a duplicate e-mail (any case) with 409', async () => {
     const admin = asSessionUser(await makeUser('admin', { email: 'boss@example.test' }));
-    const res = await call(createUser, { user: admin, json: { email: 'BOSS@example.test', name: 'Dup', role: 'planner', password: 'a fine long password' } });
+    const res = await call(createUser, { user: admin, json: { email: 'BOSS@example.test', name: 'Dup', role: 'planner' } });
     expect(res.status).toBe(409);
   });
 

@@ -1,13 +1,14 @@
 import { useEffect, useMemo, useState, type FormEvent } from 'react';
 import { ApiError, usersApi, type UserDto, type FieldErrors } from '../../lib/client/api';
 import { ROLES, ROLE_LABELS, type Role } from '../../lib/domain/roles';
+import { TOKEN_LIFETIME_MIN } from '../../lib/domain/account-tokens';
 import { SortableTable, type Column } from '../ui/SortableTable';
 
 interface Props {
   currentUserId: string;
 }
 
-const EMPTY_FORM = { email: '', name: '', role: 'planner' as Role, password: '' };
+const EMPTY_FORM = { email: '', name: '', role: 'planner' as Role };
 
 export default function UsersAdmin({ currentUserId }: Props) {
   const [users, setUsers] = useState<UserDto[] | null>(null);
@@ -48,17 +49,32 @@ export default function UsersAdmin({ currentUserId }: Props) {
     setFieldErrors({});
     setFormError(null);
     try {
-      const created = await usersApi.create(form);
+      const created = await usersApi.invite(form);
       setUsers((list) => [...(list ?? []), created]);
       setForm(EMPTY_FORM);
-      setNotice(`Created ${created.name} (${ROLE_LABELS[created.role]})`);
+      setNotice(
+        created.mailSent
+          ? `Invited ${created.name} (${ROLE_LABELS[created.role]}): a link to choose a password is on its way to ${created.email}`
+          : `Made ${created.name}'s account, but the invitation could not be mailed. Try "Resend invitation".`,
+      );
     } catch (err) {
       if (err instanceof ApiError) {
         setFieldErrors(err.fields);
         setFormError(err.message);
-      } else setFormError('Could not create the user');
+      } else setFormError('Could not invite the user');
     } finally {
       setBusy(false);
+    }
+  }
+
+  async function resend(u: UserDto) {
+    setNotice(null);
+    try {
+      const updated = await usersApi.resendInvite(u.id);
+      replace(updated);
+      setNotice(updated.mailSent ? `New invitation sent to ${updated.email}; older links no longer work` : 'The invitation could not be mailed. Try again later.');
+    } catch (e) {
+      setNotice(e instanceof ApiError ? e.message : 'Could not send the invitation');
     }
   }
 
@@ -84,8 +100,17 @@ export default function UsersAdmin({ currentUserId }: Props) {
     {
       key: 'status',
       label: 'Status',
-      sortValue: (u) => (u.disabledAt ? 1 : 0),
-      render: (u) => (u.disabledAt ? <span className="rounded bg-alarm-50 px-2 py-0.5 text-alarm-700">Disabled</span> : <span className="rounded bg-moss-50 px-2 py-0.5 text-moss-700">Active</span>),
+      sortValue: (u) => (u.disabledAt ? 2 : u.invite ? 1 : 0),
+      render: (u) =>
+        u.disabledAt ? (
+          <span className="rounded bg-alarm-50 px-2 py-0.5 text-alarm-700">Disabled</span>
+        ) : u.invite === 'pending' ? (
+          <span className="rounded bg-ember-50 px-2 py-0.5 text-ember-700">Invited</span>
+        ) : u.invite === 'expired' ? (
+          <span className="rounded bg-ember-50 px-2 py-0.5 text-ember-700">Invitation expired</span>
+        ) : (
+          <span className="rounded bg-moss-50 px-2 py-0.5 text-moss-700">Active</span>
+        ),
     },
     { key: 'created', label: 'Since', sortValue: (u) => u.createdAt, render: (u) => new Date(u.createdAt).toLocaleDateString() },
     {
@@ -95,9 +120,16 @@ export default function UsersAdmin({ currentUserId }: Props) {
         u.id === currentUserId ? (
           <span className="text-ink-400">You</span>
         ) : (
-          <button type="button" className={u.disabledAt ? 'btn-secondary py-1' : 'btn-danger py-1'} onClick={() => change(u, { disabled: !u.disabledAt })}>
-            {u.disabledAt ? 'Enable' : 'Disable'}
-          </button>
+          <div className="flex flex-wrap gap-2">
+            {u.invite && !u.disabledAt && (
+              <button type="button" className="btn-secondary py-1" onClick={() => resend(u)} aria-label={`Resend invitation to ${u.name}`}>
+                Resend invitation
+              </button>
+            )}
+            <button type="button" className={u.disabledAt ? 'btn-secondary py-1' : 'btn-danger py-1'} onClick={() => change(u, { disabled: !u.disabledAt })}>
+              {u.disabledAt ? 'Enable' : 'Disable'}
+            </button>
+          </div>
         ),
     },
   ];
@@ -124,7 +156,8 @@ export default function UsersAdmin({ currentUserId }: Props) {
         )}
       </section>
       <section className="card min-w-0" aria-labelledby="new-user-heading">
-        <h2 id="new-user-heading">New user</h2>
+        <h2 id="new-user-heading">Invite a user</h2>
+        <p className="mt-1 text-sm text-ink-600">They get an e-mail with a link to choose their own password. The link works for {TOKEN_LIFETIME_MIN.invite / 1440} days.</p>
         <form className="mt-3 space-y-3" onSubmit={create} noValidate>
           {formError && <p role="alert" className="text-sm text-alarm-700">{formError}</p>}
           <div>
@@ -144,12 +177,7 @@ export default function UsersAdmin({ currentUserId }: Props) {
             </select>
             {err('role')}
           </div>
-          <div>
-            <label htmlFor="nu-password" className="field-label">Initial password</label>
-            <input id="nu-password" type="password" autoComplete="new-password" className="field-input" value={form.password} onChange={(e) => setForm({ ...form, password: e.target.value })} aria-invalid={!!fieldErrors.password} aria-describedby="password-error" />
-            {err('password')}
-          </div>
-          <button type="submit" className="btn-primary w-full" disabled={busy}>{busy ? 'Creating…' : 'Create user'}</button>
+          <button type="submit" className="btn-primary w-full" disabled={busy}>{busy ? 'Inviting…' : 'Send invitation'}</button>
         </form>
       </section>
     </div>

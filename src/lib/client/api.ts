@@ -61,11 +61,17 @@ export interface UserDto {
   role: Role;
   disabledAt: string | null;
   createdAt: string;
+  /** While an invited person has not chosen a password: whether the link still works. */
+  invite: 'pending' | 'expired' | null;
 }
+
+export type InvitedUserDto = UserDto & { mailSent: boolean };
 
 export const usersApi = {
   list: () => get<List<UserDto>>('/api/users'),
-  create: (input: { email: string; name: string; role: Role; password: string }) => request<UserDto>('POST', '/api/users', input),
+  /** Makes the account and mails the person a link to choose their password. */
+  invite: (input: { email: string; name: string; role: Role }) => request<InvitedUserDto>('POST', '/api/users', input),
+  resendInvite: (id: string) => request<InvitedUserDto>('POST', `/api/users/${id}/invite`),
   update: (id: string, change: { role?: Role; disabled?: boolean; name?: string }) => request<UserDto>('PATCH', `/api/users/${id}`, change),
 };
 

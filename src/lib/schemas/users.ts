@@ -6,11 +6,11 @@ export const RoleSchema = enumOf(ROLES);
 
 export const PASSWORD_MIN = 10;
 
+/** An invitation: the person chooses their own password from the link mailed to them. */
 export const NewUserSchema = z.object({
   email: z.string().trim().min(1, 'Required').email('Enter a valid e-mail address').max(254),
   name: z.string().trim().min(1, 'Required').max(120),
   role: RoleSchema,
-  password: z.string().min(PASSWORD_MIN, `At least ${PASSWORD_MIN} characters`).max(200),
 });
 export type NewUserInput = z.infer<typeof NewUserSchema>;
 

@@ -14,6 +14,8 @@ export interface OutgoingMail {
   to: string;
   subject: string;
   text: string;
+  /** An HTML alternative to the plain text, when the message has one. */
+  html?: string;
 }
 
 export async function sendMail(mail: OutgoingMail): Promise<void> {

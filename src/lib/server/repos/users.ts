@@ -58,6 +58,19 @@ export interface NewUser {
 }
 
 export async function createUser(db: Tx, input: NewUser, actorId: string | null): Promise<User> {
+  const { password, ...rest } = input;
+  return createUserWithHash(db, { ...rest, passwordHash: await hashPassword(password) }, actorId);
+}
+
+export interface NewUserWithHash {
+  email: string;
+  name: string;
+  role: Role;
+  passwordHash: string;
+}
+
+/** Creates a user whose password is already hashed (a confirmed sign-up, an invitation). */
+export async function createUserWithHash(db: Tx, input: NewUserWithHash, actorId: string | null, via?: 'signup' | 'invite'): Promise<User> {
   const exists = await db('users').whereRaw('lower(email) = lower(?)', [input.email]).first('id');
   if (exists) throw new ConflictError(`A user with e-mail ${input.email} already exists`);
   const [row] = await db<UserRow>('users')
@@ -65,12 +78,26 @@ export async function createUser(db: Tx, input: NewUser, actorId: string | null)
       email: input.email.trim(),
       name: input.name.trim(),
       role: input.role,
-      password_hash: await hashPassword(input.password),
+      password_hash: input.passwordHash,
     })
     .returning('*');
   const user = toUser(row);
-  await recordAudit(db, { userId: actorId, action: 'create', entity: 'user', entityId: user.id, after: auditView(user) });
+  await recordAudit(db, {
+    userId: actorId ?? (via === 'signup' ? user.id : null),
+    action: 'create',
+    entity: 'user',
+    entityId: user.id,
+    after: via ? { ...auditView(user), via } : auditView(user),
+  });
   return user;
+}
+
+/** Replaces the password and ends every session of the user, audited. */
+export async function setUserPassword(db: Tx, id: string, passwordHash: string, via: 'reset' | 'invite'): Promise<void> {
+  const updated = await db('users').where({ id }).update({ password_hash: passwordHash });
+  if (!updated) throw new NotFoundError('User not found');
+  await db('sessions').where({ user_id: id }).delete();
+  await recordAudit(db, { userId: id, action: 'set_password', entity: 'user', entityId: id, after: { via } });
 }
 
 export interface UserChange {

@@ -1,17 +1,22 @@
 import { getDb } from '../../../lib/server/db';
 import { handler, json, parseBody, requirePermission } from '../../../lib/server/http';
-import { createUser, listUsers } from '../../../lib/server/repos/users';
+import { listUsers } from '../../../lib/server/repos/users';
+import { listOpenInvites } from '../../../lib/server/repos/account-tokens';
+import { inviteUser, linkOrigin } from '../../../lib/server/accounts';
 import { NewUserSchema } from '../../../lib/schemas/users';
 
+/** Every user, with `invite` = pending / expired while an invited person has not chosen a password. */
 export const GET = handler(async ({ locals }) => {
   requirePermission(locals, 'users:manage');
-  const items = await listUsers(getDb());
+  const [users, invites] = await Promise.all([listUsers(getDb()), listOpenInvites(getDb())]);
+  const items = users.map((u) => ({ ...u, invite: invites.get(u.id) ?? null }));
   return json({ items, total: items.length });
 });
 
-export const POST = handler(async ({ locals, request }) => {
+/** Invites a person: makes the account and mails them a link to choose their password. */
+export const POST = handler(async ({ locals, request, url }) => {
   const actor = requirePermission(locals, 'users:manage');
   const input = await parseBody(NewUserSchema, request);
-  const user = await getDb().transaction((trx) => createUser(trx, input, actor.id));
-  return json(user, 201);
+  const { user, mailSent } = await inviteUser(getDb(), input, actor, linkOrigin(url));
+  return json({ ...user, invite: 'pending', mailSent }, 201);
 });
