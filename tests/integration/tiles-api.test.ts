@@ -2,6 +2,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import type { APIContext } from 'astro';
 import { VectorTile } from '@mapbox/vector-tile';
 import Pbf from 'pbf';
+import { gunzipSync } from 'node:zlib';
 import { GET as getTile } from '../../src/pages/api/tiles/[layer]/[z]/[x]/[y].mvt';
 import { createOperator } from '../../src/lib/server/repos/operators';
 import { createMast } from '../../src/lib/server/repos/masts';
@@ -238,5 +239,65 @@ describe('mast tiles', () => {
 
   it('answer 204 where there are no masts', async () => {
     expect((await fetchTile('masts', tileOf(10, 10, 12), { user: contributor })).status).toBe(204);
+  });
+});
+
+describe('mast tiles zoomed out, cached and compressed', () => {
+  const layerFeatures = (bytes: Uint8Array, name: string) => {
+    const layer = decode(bytes).layers[name];
+    return layer ? Array.from({ length: layer.length }, (_, i) => layer.feature(i)) : [];
+  };
+  const FAR = { lat: -40.5, lon: -120.5 };
+
+  it('draw masts sharing a grid square as one cluster with a count below zoom 9, and lone masts as masts', async () => {
+    const db = testDb();
+    const mast = async (name: string, lat: number, lon: number) => (await createMast(db, MastInputSchema.parse({ name, lat, lon }), null)).id;
+    // Three masts within about 300 m of each other, one 60 km away (another grid square of the same z5 tile).
+    await mast('Cluster A', FAR.lat, FAR.lon);
+    await mast('Cluster B', FAR.lat + 0.002, FAR.lon + 0.002);
+    await mast('Cluster C', FAR.lat - 0.001, FAR.lon + 0.003);
+    await mast('Far Lone', FAR.lat, FAR.lon - 0.7);
+    const t = tileOf(FAR.lat, FAR.lon, 5);
+    const res = await fetchTile('masts', t, { user: contributor });
+    expect(res.status).toBe(200);
+    const clusters = layerFeatures(res.bytes, 'mast_clusters');
+    expect(clusters.map((f) => f.properties.point_count)).toEqual([3]);
+    // At their mean position (one tile unit at z5 is about 300 m here).
+    const [lon, lat] = (clusters[0]!.toGeoJSON(t.x, t.y, t.z).geometry as { coordinates: number[] }).coordinates as [number, number];
+    expect(lat).toBeCloseTo(FAR.lat + 0.00033, 2);
+    expect(lon).toBeCloseTo(FAR.lon + 0.00167, 2);
+    expect(layerFeatures(res.bytes, 'masts').map((f) => f.properties.name)).toEqual(['Far Lone']);
+    // From zoom 9 on every mast is its own feature.
+    const close = await fetchTile('masts', tileOf(FAR.lat, FAR.lon, 9), { user: contributor });
+    expect(layerFeatures(close.bytes, 'masts').map((f) => f.properties.name).sort()).toEqual(['Cluster A', 'Cluster B', 'Cluster C']);
+    expect(layerFeatures(close.bytes, 'mast_clusters')).toEqual([]);
+  });
+
+  it('show every cell write at once although tiles are cached (the summary follows the cells)', async () => {
+    const db = testDb();
+    const t = tileOf(FAR.lat, FAR.lon, 12);
+    const clusterA = async () => layerFeatures((await fetchTile('masts', t, { user: contributor })).bytes, 'masts').find((f) => f.properties.name === 'Cluster A')!;
+    expect((await clusterA()).properties).toMatchObject({ cell_count: 0, bands: '' });
+    expect((await clusterA()).properties).toMatchObject({ cell_count: 0 }); // served from the cache
+    const mastId = String((await clusterA()).properties.id);
+    const cell = await createCell(db, mastId, CellInputSchema.parse({ operator_id: ids.op1, tech: 'lte', channel: 6300, pci: 5 }), null);
+    expect((await clusterA()).properties).toMatchObject({ cell_count: 1, bands: 'B20', techs: 'lte', op_ids: ids.op1 });
+    await db('cells').where({ id: cell.id }).update({ operator_id: ids.op2 });
+    expect((await clusterA()).properties).toMatchObject({ cell_count: 1, op_ids: ids.op2 });
+    await db('cells').where({ id: cell.id }).delete();
+    expect((await clusterA()).properties).toMatchObject({ cell_count: 0, bands: '', op_ids: '' });
+  });
+
+  it('come gzipped to clients that accept it, identical once unzipped', async () => {
+    const t = tileOf(HILL.lat, HILL.lon, 9);
+    const plain = await fetchTile('masts', t, { user: contributor });
+    const zipped = await fetchTile('masts', t, { user: contributor, headers: { 'Accept-Encoding': 'gzip, deflate, br' } });
+    expect(plain.headers.get('content-encoding')).toBeNull();
+    expect(zipped.headers.get('content-encoding')).toBe('gzip');
+    expect(zipped.headers.get('vary')).toBe('Accept-Encoding');
+    expect(Buffer.from(gunzipSync(zipped.bytes)).equals(Buffer.from(plain.bytes))).toBe(true);
+    expect(zipped.headers.get('etag')).toBe(plain.headers.get('etag'));
+    const refused = await fetchTile('masts', t, { user: contributor, headers: { 'Accept-Encoding': 'gzip;q=0' } });
+    expect(refused.headers.get('content-encoding')).toBeNull();
   });
 });

@@ -15,6 +15,9 @@ import type { FeatureCollection } from 'geojson';
 import { ApiError, mapApi, mastsApi, operatorsApi, regionsApi, type RegionJson, type SearchHitJson } from '../../lib/client/api';
 import { loadLabelFonts } from './label-fonts';
 import {
+  MAST_CLUSTER_COUNT_LAYER,
+  MAST_CLUSTER_LAYER,
+  MAST_CLUSTER_LAYER_ID,
   MAST_LABEL_LAYER,
   MAST_SOURCE_ID,
   MAST_SOURCE_LAYER,
@@ -243,6 +246,12 @@ export default function MapView({ canEditMasts }: Props) {
 
   const onClick = useCallback(
     (e: MapLayerMouseEvent) => {
+      const cluster = e.features?.find((x) => x.layer.id === MAST_CLUSTER_LAYER_ID);
+      if (cluster && cluster.geometry.type === 'Point') {
+        const map = mapRef.current;
+        map?.easeTo({ center: cluster.geometry.coordinates as [number, number], zoom: Math.min(map.getZoom() + 2, 14), duration: 400, essential: false });
+        return;
+      }
       const f = e.features?.find((x) => x.layer.id === MAST_SYMBOL_LAYER_ID);
       if (f?.properties?.id === undefined) return;
       setSelectedId(String(f.properties.id));
@@ -289,7 +298,7 @@ export default function MapView({ canEditMasts }: Props) {
           ref={setMapRef}
           initialViewState={{ ...initialView, fitBoundsOptions: { padding: isPhone ? 24 : { top: 70, bottom: 30, left: 270, right: 60 } } }}
           mapStyle={style}
-          interactiveLayerIds={[MAST_SYMBOL_LAYER_ID]}
+          interactiveLayerIds={[MAST_SYMBOL_LAYER_ID, MAST_CLUSTER_LAYER_ID]}
           cursor={hovering ? 'pointer' : 'grab'}
           onMouseEnter={() => setHovering(true)}
           onMouseLeave={() => setHovering(false)}
@@ -314,6 +323,8 @@ export default function MapView({ canEditMasts }: Props) {
             <Layer {...selectedLayer} />
             <Layer {...MAST_LABEL_LAYER} filter={mastFilter} />
             <Layer {...MAST_SYMBOL_LAYER} filter={mastFilter} />
+            <Layer {...MAST_CLUSTER_LAYER} />
+            <Layer {...MAST_CLUSTER_COUNT_LAYER} />
           </Source>
         </Map>
       )}

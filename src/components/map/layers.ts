@@ -78,6 +78,41 @@ export const MAST_LABEL_LAYER: Omit<SymbolLayerSpecification, 'source'> = {
   },
 };
 
+export const MAST_CLUSTER_SOURCE_LAYER = 'mast_clusters';
+export const MAST_CLUSTER_LAYER_ID = 'mast-clusters';
+export const MAST_CLUSTER_COUNT_LAYER_ID = 'mast-clusters-count';
+
+/**
+ * Zoomed out, the server sends masts that share a grid square as one cluster with `point_count`
+ * (unfiltered: filters apply to single masts; zoom in to filter every mast). A disc that grows with
+ * the count; a click zooms in on it.
+ */
+export const MAST_CLUSTER_LAYER: Omit<CircleLayerSpecification, 'source'> = {
+  id: MAST_CLUSTER_LAYER_ID,
+  type: 'circle',
+  'source-layer': MAST_CLUSTER_SOURCE_LAYER,
+  paint: {
+    'circle-radius': ['interpolate', ['linear'], ['to-number', ['get', 'point_count'], 2], 2, 9, 50, 14, 500, 20, 5000, 26],
+    'circle-color': '#2f5d86',
+    'circle-opacity': 0.85,
+    'circle-stroke-color': '#ffffff',
+    'circle-stroke-width': 1.5,
+  },
+};
+
+export const MAST_CLUSTER_COUNT_LAYER: Omit<SymbolLayerSpecification, 'source'> = {
+  id: MAST_CLUSTER_COUNT_LAYER_ID,
+  type: 'symbol',
+  'source-layer': MAST_CLUSTER_SOURCE_LAYER,
+  layout: {
+    'text-field': ['number-format', ['to-number', ['get', 'point_count'], 0], { locale: 'en-GB' }],
+    'text-font': [...LABEL_FONTS.semibold],
+    'text-size': 11,
+    'text-allow-overlap': true,
+  },
+  paint: { 'text-color': '#ffffff' },
+};
+
 /** A ring under the selected mast. */
 export function selectedMastLayer(id: string | null): Omit<CircleLayerSpecification, 'source'> {
   return {

@@ -167,19 +167,6 @@ export function mastFeatureCollectionJson(list: { items: MastSummary[]; truncate
 
 // --- Shared SQL for the list and the tiles -----------------------------------------------------
 
-/**
- * Per-mast summary of its cells, for `LEFT JOIN LATERAL (…) s ON true` against `masts m`: cell_count,
- * op_ids (bigint[]), bands (text[], lowest downlink MHz first) and techs (text[], oldest first).
- */
-export const MAST_CELL_SUMMARY_SQL = `
-  SELECT count(*)::int AS cell_count,
-    coalesce(array_agg(DISTINCT c.operator_id ORDER BY c.operator_id), '{}') AS op_ids,
-    (SELECT coalesce(array_agg(b.band ORDER BY b.f NULLS LAST, b.band), '{}')
-       FROM (SELECT band, min(dl_mhz) AS f FROM cells WHERE mast_id = m.id GROUP BY band) b) AS bands,
-    (SELECT coalesce(array_agg(t.tech ORDER BY array_position(ARRAY['gsm','umts','lte','nr'], t.tech)), '{}')
-       FROM (SELECT DISTINCT tech FROM cells WHERE mast_id = m.id) t) AS techs
-  FROM cells c WHERE c.mast_id = m.id`;
-
 /** Adds the filters to a query over `masts m`: OR within a list, AND across lists; cell filters need one cell matching all. */
 export function applyMastFilter(db: Tx, q: Knex.QueryBuilder, filter: MastFilter): Knex.QueryBuilder {
   if (filter.statuses?.length) q.whereIn('m.status', filter.statuses);
@@ -215,18 +202,21 @@ export async function listMasts(db: Tx, options: MastListOptions): Promise<{ ite
       'm.structure_type',
       db.raw('ST_Y(m.geom) AS lat'),
       db.raw('ST_X(m.geom) AS lon'),
-      's.cell_count',
-      's.op_ids',
-      's.bands',
-      's.techs',
+      db.raw('coalesce(s.cell_count, 0) AS cell_count'),
+      db.raw("coalesce(s.op_ids, '{}') AS op_ids"),
+      db.raw("coalesce(s.bands, '{}') AS bands"),
+      db.raw("coalesce(s.techs, '{}') AS techs"),
     )
-    .joinRaw(`LEFT JOIN LATERAL (${MAST_CELL_SUMMARY_SQL}) s ON true`)
-    .orderBy('m.id')
+    .leftJoin('mast_cell_summaries as s', 's.mast_id', 'm.id')
     .limit(options.limit + 1);
   if (options.bbox) {
+    // A box holding more masts than the limit gives the ones nearest its centre (index order),
+    // so a wide view shows the masts around where the user looks, not the oldest ids anywhere.
     const b = options.bbox;
     q.whereRaw('m.geom && ST_MakeEnvelope(?, ?, ?, ?, 4326)', [b.minLon, b.minLat, b.maxLon, b.maxLat]);
+    q.orderByRaw('m.geom <-> ST_SetSRID(ST_MakePoint(?, ?), 4326)', [(b.minLon + b.maxLon) / 2, (b.minLat + b.maxLat) / 2]);
   }
+  q.orderBy('m.id');
   applyMastFilter(db, q, options);
   const [rows, operators] = await Promise.all([q, loadOperatorRefs(db)]);
   const items = (rows as Array<Record<string, unknown>>).slice(0, options.limit).map(

@@ -3,7 +3,7 @@
 // common practice of web maps (OGC Two Dimensional Tile Matrix Set "WebMercatorQuad").
 import type { Tx } from '../db';
 import type { MastFilter } from '../../schemas/masts';
-import { applyMastFilter, MAST_CELL_SUMMARY_SQL } from './masts';
+import { applyMastFilter } from './masts';
 
 /** Tile coordinate units per side (the MVT default). */
 export const TILE_EXTENT = 4096;
@@ -58,29 +58,60 @@ export async function getBasemapTile(db: Tx, t: TileAddress): Promise<Buffer> {
   return rows[0]?.tile ?? Buffer.alloc(0);
 }
 
-/** The masts tile: one layer `masts`, filtered like the mast list. */
+/** Below this zoom masts that share a grid square are drawn as one cluster with a count. */
+export const MAST_CLUSTER_BELOW_ZOOM = 9;
+/** Grid squares per tile side for clustering (a square is 1/32 of the tile, ~16 px on a 512 px tile). */
+export const MAST_CLUSTER_GRID = 32;
+
+/** Per-mast MVT features (layer `masts`) for the masts chosen by `idsSql` (a query yielding `id`). */
+function mastFeaturesSql(idsSql: string): string {
+  return `(SELECT coalesce(ST_AsMVT(q, 'masts', ${TILE_EXTENT}, 'geom', 'fid'), ''::bytea) FROM (
+      SELECT m.id AS fid, m.id, m.name, m.status, m.structure_type,
+        array_to_string(coalesce(s.op_ids, '{}'), ',') AS op_ids,
+        coalesce(cardinality(s.op_ids), 0) AS op_count,
+        array_to_string(coalesce(s.bands, '{}'), ',') AS bands,
+        array_to_string(coalesce(s.techs, '{}'), ',') AS techs,
+        coalesce(s.cell_count, 0) AS cell_count,
+        ST_AsMVTGeom(m.geom_3857, (SELECT env FROM bounds), ${TILE_EXTENT}, ${TILE_BUFFER}, true) AS geom
+      FROM masts m LEFT JOIN mast_cell_summaries s ON s.mast_id = m.id
+      WHERE m.id IN (${idsSql})
+      ORDER BY m.id
+    ) q WHERE q.geom IS NOT NULL)`;
+}
+
+/**
+ * The masts tile. From MAST_CLUSTER_BELOW_ZOOM on: layer `masts`, every mast in the tile (plus
+ * buffer). Below it: masts alone in their grid square stay in `masts`; squares holding several
+ * become one feature in layer `mast_clusters` at their masts' mean position, with `point_count`.
+ * Filtered like the mast list. Each mast's summary comes from mast_cell_summaries (kept by
+ * triggers on cells), so no per-mast join over cells is needed.
+ */
 export async function getMastsTile(db: Tx, t: TileAddress, filter: MastFilter): Promise<Buffer> {
-  const inner = db('masts as m')
-    .select(
-      'm.id as fid',
-      'm.id',
-      'm.name',
-      'm.status',
-      'm.structure_type',
-      db.raw(`array_to_string(s.op_ids, ',') AS op_ids`),
-      db.raw('cardinality(s.op_ids) AS op_count'),
-      db.raw(`array_to_string(s.bands, ',') AS bands`),
-      db.raw(`array_to_string(s.techs, ',') AS techs`),
-      's.cell_count',
-      db.raw(`ST_AsMVTGeom(ST_Transform(m.geom, 3857), ST_TileEnvelope(?, ?, ?), ${TILE_EXTENT}, ${TILE_BUFFER}, true) AS geom`, [t.z, t.x, t.y]),
-    )
-    .joinRaw(`LEFT JOIN LATERAL (${MAST_CELL_SUMMARY_SQL}) s ON true`)
-    .whereRaw(`m.geom && ST_Transform(ST_TileEnvelope(?, ?, ?, margin => ${margin}), 4326)`, [t.z, t.x, t.y])
-    .orderBy('m.id');
-  applyMastFilter(db, inner, filter);
-  const { rows } = await db.raw<{ rows: Array<{ tile: Buffer | null }> }>(
-    `SELECT ST_AsMVT(q, 'masts', ${TILE_EXTENT}, 'geom', 'fid') AS tile FROM (?) q WHERE q.geom IS NOT NULL`,
-    [inner],
-  );
+  const clustered = t.z < MAST_CLUSTER_BELOW_ZOOM;
+  const inTile = db('masts as m')
+    .select('m.id', 'm.geom_3857')
+    .whereRaw(`m.geom_3857 && ST_TileEnvelope(?, ?, ?${clustered ? '' : `, margin => ${margin}`})`, [t.z, t.x, t.y]);
+  applyMastFilter(db, inTile, filter);
+  const sql = clustered
+    ? `WITH bounds AS (SELECT ST_TileEnvelope(:z, :x, :y) AS env),
+            grid AS (SELECT ST_XMin(env) AS x0, ST_YMin(env) AS y0, (ST_XMax(env) - ST_XMin(env)) / ${MAST_CLUSTER_GRID} AS size FROM bounds),
+            pts AS (:inTile),
+            squares AS (
+              SELECT count(*)::int AS n, min(p.id) AS id, avg(ST_X(p.geom_3857)) AS cx, avg(ST_Y(p.geom_3857)) AS cy
+                FROM pts p, grid g
+               GROUP BY floor((ST_X(p.geom_3857) - g.x0) / g.size), floor((ST_Y(p.geom_3857) - g.y0) / g.size))
+       SELECT ${mastFeaturesSql('SELECT id FROM squares WHERE n = 1')}
+         || (SELECT coalesce(ST_AsMVT(k, 'mast_clusters', ${TILE_EXTENT}, 'geom'), ''::bytea) FROM (
+              SELECT sq.n AS point_count,
+                ST_AsMVTGeom(ST_SetSRID(ST_MakePoint(sq.cx, sq.cy), 3857), (SELECT env FROM bounds), ${TILE_EXTENT}, ${TILE_BUFFER}, true) AS geom
+              FROM squares sq WHERE sq.n > 1 ORDER BY sq.n DESC, sq.id
+            ) k WHERE k.geom IS NOT NULL) AS tile`
+    : `WITH bounds AS (SELECT ST_TileEnvelope(:z, :x, :y) AS env), pts AS (:inTile)
+       SELECT ${mastFeaturesSql('SELECT id FROM pts')} AS tile`;
+  // Tile queries are short and planned afresh each time: JIT compilation would cost more than it saves.
+  const { rows } = await db.transaction(async (trx) => {
+    await trx.raw('SET LOCAL jit = off');
+    return trx.raw<{ rows: Array<{ tile: Buffer | null }> }>(sql, { z: t.z, x: t.x, y: t.y, inTile });
+  });
   return rows[0]?.tile ?? Buffer.alloc(0);
 }

@@ -1,7 +1,8 @@
-import { createHash } from 'node:crypto';
 import { getDb } from '../../../../../../lib/server/db';
+import { getDataVersion } from '../../../../../../lib/server/data-version';
 import { handler, parseQuery, parseWith, requirePermission } from '../../../../../../lib/server/http';
 import { getBasemapTile, getMastsTile } from '../../../../../../lib/server/repos/tiles';
+import { getTileCache, prepareTile, type CachedTile } from '../../../../../../lib/server/tile-cache';
 import { MastFilterSchema, TileParamsSchema } from '../../../../../../lib/schemas/masts';
 
 // The basemap is invented public geography, so its tiles are public and cacheable by anyone for a
@@ -18,25 +19,40 @@ function isFresh(ifNoneMatch: string | null, etag: string): boolean {
   });
 }
 
-function tileResponse(body: Buffer, cacheControl: string, ifNoneMatch: string | null): Response {
-  if (body.length === 0) return new Response(null, { status: 204, headers: { 'Cache-Control': cacheControl } });
-  const etag = `"${createHash('sha1').update(body).digest('base64url')}"`;
-  const headers = { 'Cache-Control': cacheControl, ETag: etag };
-  if (isFresh(ifNoneMatch, etag)) return new Response(null, { status: 304, headers });
+function acceptsGzip(acceptEncoding: string | null): boolean {
+  return !!acceptEncoding && /(^|,)\s*(gzip|\*)\s*(;\s*q=(?!0(\.0*)?\s*(,|$))[\d.]+)?\s*(,|$)/i.test(acceptEncoding);
+}
+
+function tileResponse(tile: CachedTile, cacheControl: string, request: Request): Response {
+  if (tile.raw.length === 0) return new Response(null, { status: 204, headers: { 'Cache-Control': cacheControl } });
+  const headers: Record<string, string> = { 'Cache-Control': cacheControl, ETag: tile.etag, Vary: 'Accept-Encoding' };
+  if (isFresh(request.headers.get('if-none-match'), tile.etag)) return new Response(null, { status: 304, headers });
+  const gzipped = acceptsGzip(request.headers.get('accept-encoding'));
+  const body = gzipped ? tile.gzipped : tile.raw;
+  if (gzipped) headers['Content-Encoding'] = 'gzip';
   return new Response(new Uint8Array(body), {
     status: 200,
     headers: { ...headers, 'Content-Type': 'application/vnd.mapbox-vector-tile', 'Content-Length': String(body.length) },
   });
 }
 
-/** Mapbox Vector Tile of the basemap (public) or the masts (map:view; ?operator=&band=&tech=&status=). */
+/**
+ * Mapbox Vector Tile of the basemap (public) or the masts (map:view; ?operator=&band=&tech=&status=).
+ * Finished tiles are cached per process under the data version, so any write to masts, cells or the
+ * basemap (which raises it) is seen by the next request.
+ */
 export const GET = handler(async ({ locals, params, url, request }) => {
   if (params.layer === 'masts') requirePermission(locals, 'map:view');
   const tile = parseWith(TileParamsSchema, params);
-  const ifNoneMatch = request.headers.get('if-none-match');
-  if (tile.layer === 'masts') {
-    const filter = parseQuery(MastFilterSchema, url);
-    return tileResponse(await getMastsTile(getDb(), tile, filter), CACHE_MASTS, ifNoneMatch);
+  const db = getDb();
+  const filter = tile.layer === 'masts' ? parseQuery(MastFilterSchema, url) : null;
+  const version = await getDataVersion(db, tile.layer === 'masts' ? 'masts' : 'basemap');
+  const key = `${tile.layer}/${version}/${tile.z}/${tile.x}/${tile.y}${filter ? `?${JSON.stringify(filter)}` : ''}`;
+  const cache = getTileCache();
+  let ready = cache.get(key);
+  if (!ready) {
+    ready = await prepareTile(filter ? await getMastsTile(db, tile, filter) : await getBasemapTile(db, tile));
+    cache.set(key, ready);
   }
-  return tileResponse(await getBasemapTile(getDb(), tile), CACHE_BASEMAP, ifNoneMatch);
+  return tileResponse(ready, tile.layer === 'masts' ? CACHE_MASTS : CACHE_BASEMAP, request);
 });
