@@ -2,8 +2,13 @@ import { defineMiddleware } from 'astro:middleware';
 import { lucia, setSessionCookie } from './lib/server/auth';
 import { json } from './lib/server/http';
 import { isForeignWrite } from './lib/server/origin';
+import { config } from './lib/server/config';
+import { getDb } from './lib/server/db';
+import { startResidualJob } from './lib/server/residual-job';
 
 export const onRequest = defineMiddleware(async (context, next) => {
+  // Stores model residuals for new or changed readings in the background (once per process).
+  if (config.databaseUrl) startResidualJob(getDb(), config.dataDir);
   if (isForeignWrite(context.request, context.url)) {
     return json({ error: { code: 'FORBIDDEN', message: 'Cross-site request refused' } }, 403);
   }

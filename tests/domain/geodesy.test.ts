@@ -2,6 +2,7 @@ import { describe, it, expect } from 'vitest';
 import geodesic from 'geographiclib-geodesic';
 import {
   getBearingLine,
+  interpolatePointsAlong,
   getDestination,
   getDistanceM,
   getInitialBearing,
@@ -272,5 +273,34 @@ describe('listPointsAlong', () => {
 
   it.each([0, 1, 2.5])('rejects count %s', (count) => {
     expect(() => listPointsAlong({ lat: 0, lon: 0 }, { lat: 0, lon: 1 }, count)).toThrow(RangeError);
+  });
+});
+
+describe('interpolatePointsAlong', () => {
+  // Spherical linear interpolation (Shoemake 1985) against one destination call per point: the same
+  // great circle, so equal within floating-point noise. Tolerance: 1e-9° (about 0.1 mm).
+  it.each([
+    [{ lat: -47.2, lon: -128.5 }, { lat: -47.15, lon: -128.3 }, 401],
+    [{ lat: 51.5, lon: -0.1 }, { lat: 48.85, lon: 2.35 }, 64],
+    [{ lat: 0, lon: 179.9 }, { lat: 0.1, lon: -179.9 }, 17],
+    [{ lat: 60, lon: 10 }, { lat: 60, lon: 10.000001 }, 5],
+  ])('matches listPointsAlong from %o to %o (%i points)', (from, to, count) => {
+    const fast = interpolatePointsAlong(from, to, count);
+    const slow = listPointsAlong(from, to, count);
+    expect(fast).toHaveLength(count);
+    fast.forEach((p, i) => {
+      expect(Math.abs(p.lat - slow[i]!.lat)).toBeLessThan(1e-9);
+      expect(Math.abs(wrap180(p.lon - slow[i]!.lon))).toBeLessThan(1e-9);
+      expect(p.distanceM).toBe(slow[i]!.distanceM);
+    });
+  });
+
+  it('keeps both ends exactly', () => {
+    const from = { lat: 10, lon: 20 };
+    const to = { lat: 10.5, lon: 20.5 };
+    const pts = interpolatePointsAlong(from, to, 3);
+    expect(pts[0]).toMatchObject(from);
+    expect(pts[2]).toMatchObject(to);
+    expect(() => interpolatePointsAlong(from, to, 1)).toThrow(RangeError);
   });
 });

@@ -1,6 +1,6 @@
 // Elevation grids (DEM tiles) on a regular latitude/longitude lattice: bilinear sampling,
 // terrain profiles along a path with a report of where data is missing, and SRTM .hgt decoding.
-import { EARTH_MEAN_RADIUS_M, getDistanceM, listPointsAlong, type LatLon } from './geodesy';
+import { EARTH_MEAN_RADIUS_M, getDistanceM, interpolatePointsAlong, type LatLon } from './geodesy';
 
 /**
  * How the samples sit relative to the bounds.
@@ -220,7 +220,7 @@ interface Box {
 
 /** The path's latitude/longitude box, from points along the great circle (it may bow past the ends). */
 function getPathBox(from: LatLon, to: LatLon): Box {
-  const pts = listPointsAlong(from, to, 33);
+  const pts = interpolatePointsAlong(from, to, 33);
   const lats = pts.map((p) => p.lat);
   const lons = pts.map((p) => p.lon);
   return { west: Math.min(...lons), south: Math.min(...lats), east: Math.max(...lons), north: Math.max(...lats) };
@@ -256,7 +256,7 @@ export function sampleElevationProfile(
   const count = Math.min(maxSamples, Math.max(2, Math.ceil(distanceM / wantedStepM) + 1));
 
   const used = new Set<ElevationGrid>();
-  const points = listPointsAlong(from, to, count).map(({ lat, lon, distanceM: d }) => {
+  const points = interpolatePointsAlong(from, to, count).map(({ lat, lon, distanceM: d }) => {
     let groundM: number | null = null;
     for (const { grid } of touching) {
       groundM = sampleElevation(grid, lat, lon);

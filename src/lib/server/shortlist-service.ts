@@ -16,7 +16,8 @@ import {
   type Kit,
   type ShortlistEntry,
 } from '../domain/shortlist';
-import { findCandidateCell, listCandidateCells, listNearbyReadings } from './repos/candidates';
+import { findCandidateCell, listCandidateCells, listNearbyReadings, type CellReading } from './repos/candidates';
+import { getDataVersion } from './data-version';
 import { ValidationError } from './errors';
 import { findAntenna, findCable, listAntennas, type Antenna, type Cable } from './repos/catalogue';
 
@@ -66,24 +67,52 @@ function toSamples(profile: ElevationProfile | null): ProfileSample[] | null {
   return profile.points.map((p) => ({ distanceM: p.distanceM, groundM: p.groundM as number }));
 }
 
+/**
+ * What the stored residuals were computed with: the propagation model's revision (raise it whenever
+ * modelCellAt, the terrain analysis or the reading defaults change what a residual comes to) and the
+ * elevation data version. A stored residual with another basis counts as missing.
+ */
+export const RESIDUAL_MODEL_REVISION = 1;
+
+export async function getResidualBasis(db: Tx): Promise<string> {
+  return `model ${RESIDUAL_MODEL_REVISION}, elevation ${await getDataVersion(db, 'elevation')}`;
+}
+
+/** A reading's residual against the model: measured minus modelled RSRP, in dB. */
+export async function computeResidualDb(
+  cell: CandidateCell,
+  r: Pick<CellReading, 'position' | 'rsrpDbm' | 'antennaGainDbi' | 'heightM'>,
+  profileFor: ProfileProvider,
+): Promise<number> {
+  const samples = toSamples(await profileFor(r.position, cell.mastPosition, { maxSamples: 64 }));
+  const diffraction = samples
+    ? analysePathProfile({ samples, txHeightM: r.heightM ?? READING_HEIGHT_M, rxHeightM: cell.antennaHeightM ?? DEFAULT_MAST_ANTENNA_HEIGHT_M, freqMhz: cell.dlMhz }).diffractionLossDb
+    : 0;
+  const modelled = modelCellAt(cell, r.position, { receiveGainDbi: r.antennaGainDbi ?? READING_ANTENNA_GAIN_DBI, diffractionLossDb: diffraction });
+  return r.rsrpDbm - modelled.rsrpDbm;
+}
+
+/**
+ * Calibration of each cell from its readings nearest the customer. Residuals stored by the residual
+ * job are read as they are; readings it has not reached yet (or whose basis is stale) are computed here.
+ */
 async function calibrate(
   db: Tx,
   cells: CandidateCell[],
   at: LatLon,
   profileFor: ProfileProvider,
 ): Promise<Map<string, ReturnType<typeof getCalibration>>> {
-  const readings = await listNearbyReadings(db, cells.map((c) => c.cellId), at, CALIBRATION_RADIUS_M, CALIBRATION_READINGS_PER_CELL);
+  const [readings, basis] = await Promise.all([
+    listNearbyReadings(db, cells.map((c) => c.cellId), at, CALIBRATION_RADIUS_M, CALIBRATION_READINGS_PER_CELL),
+    getResidualBasis(db),
+  ]);
   const byCell = new Map(cells.map((c) => [c.cellId, c]));
   const residuals = new Map<string, number[]>();
   for (const r of readings) {
-    const cell = byCell.get(r.cellId)!;
-    const samples = toSamples(await profileFor(r.position, cell.mastPosition, { maxSamples: 64 }));
-    const diffraction = samples
-      ? analysePathProfile({ samples, txHeightM: r.heightM ?? READING_HEIGHT_M, rxHeightM: cell.antennaHeightM ?? DEFAULT_MAST_ANTENNA_HEIGHT_M, freqMhz: cell.dlMhz }).diffractionLossDb
-      : 0;
-    const modelled = modelCellAt(cell, r.position, { receiveGainDbi: r.antennaGainDbi ?? READING_ANTENNA_GAIN_DBI, diffractionLossDb: diffraction });
+    const stored = r.residualBasis === basis ? r.residualDb : null;
+    const residual = stored ?? (await computeResidualDb(byCell.get(r.cellId)!, r, profileFor));
     const list = residuals.get(r.cellId) ?? [];
-    list.push(r.rsrpDbm - modelled.rsrpDbm);
+    list.push(residual);
     residuals.set(r.cellId, list);
   }
   return new Map(cells.map((c) => [c.cellId, getCalibration(residuals.get(c.cellId) ?? [])]));

@@ -86,16 +86,30 @@ export interface CellReading {
   /** Net gain of the receiving antenna and feeder; null for a device's own antenna. */
   antennaGainDbi: number | null;
   heightM: number | null;
+  /** The stored model residual and what it was computed with (null until the residual job reaches it). */
+  residualDb: number | null;
+  residualBasis: string | null;
 }
 
 /** Up to `perCell` readings of each cell nearest to a point, within a radius. */
 export async function listNearbyReadings(db: Tx, cellIds: string[], at: LatLon, radiusM: number, perCell: number): Promise<CellReading[]> {
   if (cellIds.length === 0) return [];
-  const { rows } = await db.raw<{ rows: { cell_id: string; lat: number; lon: number; rsrp_dbm: number; antenna_gain_dbi: number | null; height_m: number | null }[] }>(
-    `SELECT c.id AS cell_id, r.lat, r.lon, r.rsrp_dbm, r.antenna_gain_dbi, r.height_m
+  const { rows } = await db.raw<{
+    rows: {
+      cell_id: string;
+      lat: number;
+      lon: number;
+      rsrp_dbm: number;
+      antenna_gain_dbi: number | null;
+      height_m: number | null;
+      model_residual_db: number | null;
+      residual_basis: string | null;
+    }[];
+  }>(
+    `SELECT c.id AS cell_id, r.lat, r.lon, r.rsrp_dbm, r.antenna_gain_dbi, r.height_m, r.model_residual_db, r.residual_basis
        FROM unnest(?::bigint[]) AS c(id)
        CROSS JOIN LATERAL (
-         SELECT ST_Y(geom) AS lat, ST_X(geom) AS lon, rsrp_dbm, antenna_gain_dbi, height_m
+         SELECT ST_Y(geom) AS lat, ST_X(geom) AS lon, rsrp_dbm, antenna_gain_dbi, height_m, model_residual_db, residual_basis
            FROM readings
           WHERE cell_id = c.id AND rsrp_dbm IS NOT NULL
             AND geom && ST_MakeEnvelope(?, ?, ?, ?, 4326)
@@ -110,5 +124,14 @@ export async function listNearbyReadings(db: Tx, cellIds: string[], at: LatLon, 
     rsrpDbm: Number(r.rsrp_dbm),
     antennaGainDbi: r.antenna_gain_dbi,
     heightM: r.height_m,
+    residualDb: r.model_residual_db,
+    residualBasis: r.residual_basis,
   }));
+}
+
+/** Cells by id as candidates (whatever their masts' status); cells without a frequency are left out. */
+export async function listCandidateCellsByIds(db: Tx, cellIds: string[]): Promise<CandidateRow[]> {
+  if (cellIds.length === 0) return [];
+  const rows = await selectCandidates(db).whereIn('c.id', cellIds).whereNotNull('c.dl_mhz');
+  return rows.map(toCandidate);
 }
