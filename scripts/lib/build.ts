@@ -4,6 +4,7 @@ import { existsSync, readdirSync, readFileSync, statSync, writeFileSync } from '
 import { join, resolve } from 'node:path';
 import { spawnSync } from 'node:child_process';
 import { ROOT, log } from './project';
+import { precompressDir } from './precompress';
 
 const INPUTS = ['src', 'public', 'astro.config.mjs', 'tailwind.config.cjs', 'tsconfig.json', 'package-lock.json'];
 const STAMP = resolve(ROOT, 'dist/.source-hash');
@@ -34,5 +35,6 @@ export function buildIfChanged(): void {
   log('building the app (astro build)…');
   const res = spawnSync('npx', ['astro', 'build'], { cwd: ROOT, stdio: 'inherit', env: { ...process.env, ASTRO_TELEMETRY_DISABLED: '1' } });
   if (res.status !== 0) throw new Error('astro build failed');
+  precompressDir(resolve(ROOT, 'dist/client'));
   writeFileSync(STAMP, hash);
 }

@@ -1,4 +1,4 @@
-// Starts the built app (dist/server/entry.mjs) and waits until it answers.
+// Starts the built app (server/serve.mjs: dist/ on every core, compressed) and waits until it answers.
 import { spawn, type ChildProcess } from 'node:child_process';
 import { resolve } from 'node:path';
 import { ROOT } from './project';
@@ -11,7 +11,7 @@ export interface ServerOptions {
 }
 
 export function startServer(opts: ServerOptions): ChildProcess {
-  return spawn(process.execPath, [resolve(ROOT, 'dist/server/entry.mjs')], {
+  return spawn(process.execPath, [resolve(ROOT, 'server/serve.mjs')], {
     cwd: ROOT,
     stdio: opts.stdio ?? 'inherit',
     env: { ...process.env, ...opts.env, HOST: opts.host, PORT: String(opts.port), ASTRO_TELEMETRY_DISABLED: '1' },

@@ -1,6 +1,7 @@
 // Mapbox Vector Tiles straight from PostGIS (ST_AsMVT / ST_AsMVTGeom / ST_TileEnvelope): tiles are
 // addressed z/x/y in the Web Mercator (EPSG:3857) XYZ scheme with y counted from the north, the
 // common practice of web maps (OGC Two Dimensional Tile Matrix Set "WebMercatorQuad").
+import type { Knex } from 'knex';
 import type { Tx } from '../db';
 import type { MastFilter } from '../../schemas/masts';
 import { applyMastFilter } from './masts';
@@ -87,6 +88,16 @@ function mastFeaturesSql(idsSql: string): string {
  * triggers on cells), so no per-mast join over cells is needed.
  */
 export async function getMastsTile(db: Tx, t: TileAddress, filter: MastFilter): Promise<Buffer> {
+  // Tile queries are short and planned afresh each time: JIT compilation would cost more than it saves.
+  const { rows } = await db.transaction(async (trx) => {
+    await trx.raw('SET LOCAL jit = off');
+    return mastsTileQuery(trx, t, filter);
+  });
+  return rows[0]?.tile ?? Buffer.alloc(0);
+}
+
+/** The masts tile query (one row, column `tile`); the benchmark runs the same SQL in psql. */
+export function mastsTileQuery(db: Tx, t: TileAddress, filter: MastFilter): Knex.Raw<{ rows: Array<{ tile: Buffer | null }> }> {
   const clustered = t.z < MAST_CLUSTER_BELOW_ZOOM;
   const inTile = db('masts as m')
     .select('m.id', 'm.geom_3857')
@@ -108,10 +119,5 @@ export async function getMastsTile(db: Tx, t: TileAddress, filter: MastFilter): 
             ) k WHERE k.geom IS NOT NULL) AS tile`
     : `WITH bounds AS (SELECT ST_TileEnvelope(:z, :x, :y) AS env), pts AS (:inTile)
        SELECT ${mastFeaturesSql('SELECT id FROM pts')} AS tile`;
-  // Tile queries are short and planned afresh each time: JIT compilation would cost more than it saves.
-  const { rows } = await db.transaction(async (trx) => {
-    await trx.raw('SET LOCAL jit = off');
-    return trx.raw<{ rows: Array<{ tile: Buffer | null }> }>(sql, { z: t.z, x: t.x, y: t.y, inTile });
-  });
-  return rows[0]?.tile ?? Buffer.alloc(0);
+  return db.raw(sql, { z: t.z, x: t.x, y: t.y, inTile });
 }
