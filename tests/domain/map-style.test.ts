@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { featureFilter, validateStyleMin } from '@maplibre/maplibre-gl-style-spec';
 import type { LayerSpecification, StyleSpecification } from 'maplibre-gl';
-import { buildBasemapStyle, BASEMAP_SOURCE_ID } from '../../src/lib/domain/map-style';
+import { buildBasemapStyle, BASEMAP_SOURCE_ID } from '../../src/components/map/map-style';
 import {
   MAST_LABEL_LAYER,
   MAST_SOURCE_ID,

@@ -1,5 +1,5 @@
 import { useMemo, useState } from 'react';
-import { BASEMAP_PALETTE } from '../../lib/domain/map-style';
+import { BASEMAP_PALETTE } from './map-style';
 import { mastIconDataUrl, sightingIconDataUrl, type OperatorMark } from './mast-icons';
 
 interface Props {

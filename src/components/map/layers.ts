@@ -7,7 +7,7 @@ import type {
   SymbolLayerSpecification,
   VectorSourceSpecification,
 } from 'maplibre-gl';
-import { LABEL_FONTS, tilePathTemplate } from '../../lib/domain/map-style';
+import { LABEL_FONTS, tilePathTemplate } from './map-style';
 import { MAST_ICON_EXPRESSION, MAST_STATUSES, type MastStatus } from './mast-icons';
 
 export const MAST_SOURCE_ID = 'masts';

@@ -4,7 +4,7 @@ import Map, { Layer, NavigationControl, ScaleControl, Source, type MapRef } from
 import type { Map as MaplibreMap, StyleSpecification } from 'maplibre-gl';
 import type { FeatureCollection } from 'geojson';
 import { bbox } from '@turf/turf';
-import { LABEL_FONTS, buildBasemapStyle } from '../../lib/domain/map-style';
+import { LABEL_FONTS, buildBasemapStyle } from '../map/map-style';
 import { getBearingLine, type LatLon } from '../../lib/domain/geodesy';
 import { regionsApi } from '../../lib/client/api';
 import type { ShortlistItem } from '../../lib/client/planner-api';
@@ -46,6 +46,8 @@ export default function PlannerMap({ position, items, selectedCellId, onPickPosi
 
   useEffect(() => {
     if (position) mapRef.current?.flyTo({ center: [position.lon, position.lat], zoom: Math.max(mapRef.current.getZoom(), 10.5), duration: 600 });
+    // Keyed on the position's values: a new object for the same place does not move the map.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [position?.lat, position?.lon]);
 
   const lines = useMemo<FeatureCollection>(() => {

@@ -1,5 +1,5 @@
 import { handler, json, requirePermission } from '../../../lib/server/http';
-import { buildBasemapStyle } from '../../../lib/domain/map-style';
+import { buildBasemapStyle } from '../../../components/map/map-style';
 
 // The basemap style, with tile URLs made absolute for the origin the browser used.
 export const GET = handler(({ locals, url }) => {
