@@ -1,4 +1,4 @@
-// npm test: a throwaway PostgreSQL cluster on loopback, then unit + integration
+// npm test: lint, then a throwaway PostgreSQL cluster on loopback, unit + integration
 // tests (vitest, real PostgreSQL) and browser tests (Debian's Chromium) against
 // the built app. Ends with one plain line: "N passed, N failed".
 import { chmodSync, mkdtempSync, readFileSync, existsSync, rmSync } from 'node:fs';
@@ -40,12 +40,21 @@ async function runVitest(label: string, args: string[], env: Record<string, stri
   return { passed: report.numPassedTests, failed };
 }
 
+/** `npm run lint` counts as one check: passed when ESLint finds no error. */
+async function runLint(): Promise<Tally> {
+  log('lint…');
+  const child = spawn('npm', ['run', '--silent', 'lint'], { cwd: ROOT, stdio: 'inherit' });
+  const status = await new Promise<number | null>((resolve) => child.on('exit', (code) => resolve(code)));
+  if (status !== 0) log('lint found errors (npm run lint)');
+  return status === 0 ? { passed: 1, failed: 0 } : { passed: 0, failed: 1 };
+}
+
 async function main() {
   const work = mkdtempSync(join(tmpdir(), 'bearline-test-'));
   chmodSync(work, 0o755); // the postgres system user must reach the cluster folder inside
   const clusterDir = join(work, 'pg');
   let server: ChildProcess | null = null;
-  const tally: Tally = { passed: 0, failed: 0 };
+  const tally: Tally = await runLint();
   try {
     ensureChromium();
     log(`throwaway PostgreSQL on 127.0.0.1:${PG_PORT}`);
@@ -67,8 +76,8 @@ async function main() {
     const env = { DATABASE_URL: testUrl, APP_URL: appUrl, E2E_DATABASE_URL: e2eUrl, MAIL_DIR: mailDir, SMTP_URL: smtpUrl, DATA_DIR: join(work, 'data-int') };
     const unit = await runVitest('unit + integration', [], env, join(work, 'vitest.json'));
     const browser = await runVitest('browser', ['--config', 'vitest.e2e.config.ts'], env, join(work, 'vitest-e2e.json'));
-    tally.passed = unit.passed + browser.passed;
-    tally.failed = unit.failed + browser.failed;
+    tally.passed += unit.passed + browser.passed;
+    tally.failed += unit.failed + browser.failed;
   } catch (err) {
     console.error(`[bearline] test run aborted: ${err instanceof Error ? err.stack : err}`);
     tally.failed += 1;

@@ -308,7 +308,7 @@ export default function ElevationAdmin() {
         </section>
         <section className="card" aria-labelledby="check-elevation-heading">
           <h2 id="check-elevation-heading">Check a point</h2>
-          <p className="mt-1 text-sm text-ink-600">The ground height the planner's terrain profiles will use at a position.</p>
+          <p className="mt-1 text-sm text-ink-600">The ground height the planner’s terrain profiles will use at a position.</p>
           <PointCheck />
         </section>
       </div>

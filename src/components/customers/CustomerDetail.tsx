@@ -138,7 +138,7 @@ function PlanCard({ plan, canWrite, canRecord, onChanged }: { plan: PlanDetailJs
         <div className="space-y-2 border-t border-ink-100 pt-3">
           {(plan.state === 'planned' || plan.state === 'scheduled') && (
             <p className="rounded border border-ember-500 bg-ember-50 p-2 text-xs text-ember-700" role="note">
-              Before anyone goes up a ladder: read the safety cautions on this page and on the aim sheet. Local codes, the owner's consent and licensed professionals come first.
+              Before anyone goes up a ladder: read the safety cautions on this page and on the aim sheet. Local codes, the owner’s consent and licensed professionals come first.
             </p>
           )}
           <div className="flex flex-wrap items-end gap-2">

@@ -87,7 +87,7 @@ export default function PlannerApp({ customer, canSave }: Props) {
     return () => {
       live = false;
     };
-  }, [request]);
+  }, [request, customer?.currentAntennaId]);
 
   const chosen = useMemo(() => shortlist?.items.find((i) => i.cell_id === selected) ?? null, [shortlist, selected]);
 
@@ -99,6 +99,8 @@ export default function PlannerApp({ customer, canSave }: Props) {
     return () => {
       live = false;
     };
+    // Keyed on the cell and the position's values: a new object for the same place asks nothing new.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [chosen?.cell_id, position?.lat, position?.lon, kit.heightM]);
 
   const fieldError = (k: string) => error?.fields[k]?.[0];
@@ -277,7 +279,7 @@ function SavePlan({ item, customer, addressLabel, position, kit }: { item: Short
     >
       {!customer && (
         <div className="min-w-56 flex-1">
-          <label htmlFor="plan-customer-name" className="field-label">New customer's name</label>
+          <label htmlFor="plan-customer-name" className="field-label">New customer’s name</label>
           <input id="plan-customer-name" className="field-input" value={name} onChange={(e) => setName(e.target.value)} aria-invalid={!!error?.fields.name} required />
           {error?.fields.name && <p className="field-error">{error.fields.name[0]}</p>}
         </div>

@@ -13,7 +13,7 @@ import { existingAccountMail, inviteMail, resetMail, signupMail } from './accoun
 import { consumeToken, issueToken, listOpenInvites, peekToken, retireUserTokens, type AccountToken } from './repos/account-tokens';
 import { createUserWithHash, findUser, findUserForLogin, setUserPassword, type User } from './repos/users';
 import { recordAudit } from './repos/audit';
-import { TOKEN_PROBLEM, tokenState, type TokenPurpose } from '../domain/account-tokens';
+import { type TOKEN_PROBLEM, tokenState, type TokenPurpose } from '../domain/account-tokens';
 import { TokenSchema } from '../schemas/accounts';
 
 export const SIGNUP_ANSWER =
