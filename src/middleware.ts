@@ -5,10 +5,13 @@ import { isForeignWrite } from './lib/server/origin';
 import { config } from './lib/server/config';
 import { getDb } from './lib/server/db';
 import { startResidualJob } from './lib/server/residual-job';
+import { startBackgroundWork } from './lib/server/background';
 
 export const onRequest = defineMiddleware(async (context, next) => {
   // Stores model residuals for new or changed readings in the background (once per process).
   if (config.databaseUrl) startResidualJob(getDb(), config.dataDir);
+  // Tells reviewers that sightings wait (at most hourly each; once per process).
+  if (config.databaseUrl) startBackgroundWork(context.url.origin);
   if (isForeignWrite(context.request, context.url)) {
     return json({ error: { code: 'FORBIDDEN', message: 'Cross-site request refused' } }, 403);
   }

@@ -347,6 +347,18 @@ export async function updateMast(db: Tx, id: string, change: MastChange, actorId
   return after;
 }
 
+/**
+ * Records that a reviewed sighting confirmed the mast (its cells were added or seen): a new row
+ * version, so open edit forms learn of the change, and an audit entry naming the sighting.
+ */
+export async function markMastConfirmed(db: Tx, id: string, sightingId: string, actorId: string): Promise<Mast> {
+  const before = await findMastRow(db, id, true);
+  await db('masts').where({ id }).update({ row_version: db.raw('row_version + 1'), updated_at: db.fn.now(), updated_by: actorId });
+  const after = await findMastRow(db, id);
+  await recordAudit(db, { userId: actorId, action: 'merge_sighting', entity: 'mast', entityId: id, before: auditView(before), after: { ...auditView(after), sighting_id: sightingId } });
+  return after;
+}
+
 /** Deletes a mast and its cells (readings keep their values and lose the match). */
 export async function deleteMast(db: Tx, id: string, rowVersion: number | undefined, actorId: string): Promise<void> {
   const before = await findMastRow(db, id, true);

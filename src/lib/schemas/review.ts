@@ -1,0 +1,85 @@
+// The review queue and a reviewer's decision on a sighting: schemas shared by the endpoint and
+// the review page, and the JSON shapes the API returns.
+import { z } from 'zod';
+import type { CellJson, MastJson, MastStatus, StructureType } from './masts';
+import type { SightingJson } from './sightings';
+import { IdRefSchema, enumOf, optionalText, pageParams } from './params';
+
+export const DECISIONS = ['approve', 'merge', 'reject'] as const;
+export type Decision = (typeof DECISIONS)[number];
+
+export const DECISION_LABELS: Record<Decision, string> = {
+  approve: 'Approve as a new mast',
+  merge: 'Merge into a mast',
+  reject: 'Reject',
+};
+
+export const DecisionSchema = z
+  .object({
+    decision: enumOf(DECISIONS),
+    mast_id: IdRefSchema.nullish(),
+    reason: optionalText(1000),
+    /** The new mast's name when approving; a name is made up when left out. */
+    name: optionalText(120),
+  })
+  .superRefine((v, ctx) => {
+    if (v.decision === 'merge' && !v.mast_id) ctx.addIssue({ code: 'custom', path: ['mast_id'], message: 'Choose the mast to merge into' });
+    if (v.decision !== 'merge' && v.mast_id) ctx.addIssue({ code: 'custom', path: ['mast_id'], message: 'Only a merge names a mast' });
+    if (v.decision === 'reject' && (!v.reason || v.reason.length < 3)) {
+      ctx.addIssue({ code: 'custom', path: ['reason'], message: 'Say why, so the surveyor can learn from it' });
+    }
+    if (v.decision !== 'approve' && v.name) ctx.addIssue({ code: 'custom', path: ['name'], message: 'Only an approval names a new mast' });
+  })
+  .transform((v) => ({ decision: v.decision, mastId: v.mast_id ?? null, reason: v.reason, name: v.name }));
+export type DecisionInput = z.output<typeof DecisionSchema>;
+export type DecisionBody = z.input<typeof DecisionSchema>;
+
+export const ReviewQueueQuerySchema = z.object({ ...pageParams });
+
+// --- JSON ------------------------------------------------------------------------------------------
+
+/** How a submitter's earlier sightings fared. */
+export interface SubmitterRecordJson {
+  approved: number;
+  merged: number;
+  rejected: number;
+  pending: number;
+}
+
+export interface CandidateMastJson {
+  id: string;
+  name: string;
+  reference: string | null;
+  status: MastStatus;
+  structure_type: StructureType;
+  lat: number;
+  lon: number;
+}
+
+/** An existing mast near the sighting that it may duplicate. */
+export interface DuplicateCandidateJson {
+  mast: CandidateMastJson;
+  distance_m: number;
+  shared_cells: number;
+  cells: CellJson[];
+}
+
+export interface ReviewItemJson {
+  sighting: SightingJson;
+  submitter: SubmitterRecordJson;
+  candidates: DuplicateCandidateJson[];
+}
+
+export interface ReviewQueueJson {
+  items: ReviewItemJson[];
+  total: number;
+  radius_m: number;
+}
+
+export interface DecisionResultJson {
+  sighting: SightingJson;
+  /** The new mast (approve) or the mast merged into (merge). */
+  mast: MastJson | null;
+  added_cells: number;
+  observed_cells: number;
+}
