@@ -143,7 +143,7 @@ export async function decideSighting(trx: Tx, id: string, input: DecisionInput, 
   }
   const before = await findSighting(trx, id);
   let mast: Mast | null = null;
-  let addedCells: Cell[] = [];
+  const addedCells: Cell[] = [];
   let observedCells = 0;
 
   if (input.decision === 'approve') {
