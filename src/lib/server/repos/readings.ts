@@ -60,8 +60,11 @@ export function readingJson(r: Reading): ReadingJson {
   };
 }
 
-/** The latest readings matched to any of a mast's cells, newest first. */
-export async function listRecentReadingsForMast(db: Tx, mastId: string, limit: number): Promise<Reading[]> {
+/**
+ * The latest readings matched to any of a mast's cells, newest first. Readings from install checks
+ * (taken at a customer's home) only with `withInstallReadings`.
+ */
+export async function listRecentReadingsForMast(db: Tx, mastId: string, limit: number, withInstallReadings: boolean): Promise<Reading[]> {
   const rows: ReadingRow[] = await db('readings as r')
     .select(
       'r.id',
@@ -80,6 +83,9 @@ export async function listRecentReadingsForMast(db: Tx, mastId: string, limit: n
       'r.source',
     )
     .whereIn('r.cell_id', db('cells').select('id').where({ mast_id: mastId }))
+    .modify((q) => {
+      if (!withInstallReadings) q.whereNull('r.install_check_id');
+    })
     .orderBy([{ column: 'r.taken_at', order: 'desc' }, { column: 'r.id', order: 'desc' }])
     .limit(limit);
   return rows.map(toReading);

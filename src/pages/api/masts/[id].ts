@@ -3,12 +3,14 @@ import { handler, json, parseBody, parseQuery, parseWith, requirePermission } fr
 import { deleteMast, findMast, mastDetailJson, mastJson, updateMast } from '../../../lib/server/repos/masts';
 import { MastChangeSchema, MastDeleteQuerySchema } from '../../../lib/schemas/masts';
 import { IdParamSchema } from '../../../lib/schemas/params';
+import { can } from '../../../lib/domain/roles';
 
-/** The mast with its cells (and operators) and up to 20 recent readings matched to them. */
+/** The mast with its cells (and operators) and up to 20 recent readings matched to them (install-check
+ * readings, taken at customers' homes, only for roles that may see customers). */
 export const GET = handler(async ({ locals, params }) => {
-  requirePermission(locals, 'map:view');
+  const user = requirePermission(locals, 'map:view');
   const { id } = parseWith(IdParamSchema, params);
-  return json(mastDetailJson(await findMast(getDb(), id)));
+  return json(mastDetailJson(await findMast(getDb(), id, { withInstallReadings: can(user.role, 'plans:view') })));
 });
 
 /** Partial update; `row_version` must match the stored one or the answer is 409. */
@@ -20,7 +22,8 @@ export const PATCH = handler(async ({ locals, params, request }) => {
   return json(mastJson(mast));
 });
 
-/** Deletes the mast and its cells; `?row_version=` makes it conditional (409 when stale). */
+/** Deletes the mast and its cells (409 while plans use a cell: decommission it instead), unlinking and
+ * auditing their readings; `?row_version=` makes it conditional (409 when stale). */
 export const DELETE = handler(async ({ locals, params, url }) => {
   const actor = requirePermission(locals, 'masts:write');
   const { id } = parseWith(IdParamSchema, params);
