@@ -185,6 +185,12 @@ export async function deleteAntenna(db: Tx, id: string, actorId: string): Promis
   const before = await findAntenna(db, id);
   const used = await countPlansUsing(db, 'antenna_id', id);
   if (used > 0) throw new ConflictError(`“${before.name}” is part of ${used} plan${used === 1 ? '' : 's'}; it cannot be deleted`);
+  // Customers' current antenna is what their expected gain is measured against: never clear it silently.
+  const row = await db('customers').where('current_antenna_id', id).count<{ count: string }[]>('* as count').first();
+  const customers = Number(row?.count ?? 0);
+  if (customers > 0) {
+    throw new ConflictError(`“${before.name}” is the current antenna of ${customers} customer${customers === 1 ? '' : 's'}; it cannot be deleted`);
+  }
   await db('antennas').where({ id }).delete();
   await recordAudit(db, { userId: actorId, action: 'delete', entity: 'antenna', entityId: id, before: antennaJson(before) });
 }

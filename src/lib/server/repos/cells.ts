@@ -4,6 +4,7 @@ import type { Tx } from '../db';
 import { CellInputSchema, type CellChange, type CellInput, type CellJson, type Tech } from '../../schemas/masts';
 import { NotFoundError, ValidationError } from '../errors';
 import { recordAudit } from './audit';
+import { assertNoPlansUseCells, unlinkReadingsOfCells } from './cell-dependents';
 
 export interface Cell {
   id: string;
@@ -184,9 +185,20 @@ export async function updateCell(db: Tx, id: string, change: CellChange, actorId
 
 export async function deleteCell(db: Tx, id: string, actorId: string): Promise<void> {
   const before = await findCell(db, id);
+  await assertNoPlansUseCells(db, [id], `Cell ${id}`);
+  const readingsUnlinked = await unlinkReadingsOfCells(db, [id]);
   await db('cells').where({ id }).delete();
-  await recordAudit(db, { userId: actorId, action: 'delete', entity: 'cell', entityId: id, before: auditView(before) });
+  await recordAudit(db, {
+    userId: actorId,
+    action: 'delete',
+    entity: 'cell',
+    entityId: id,
+    before: { ...auditView(before), readings_unlinked: readingsUnlinked[id] ?? [] },
+  });
 }
+
+/** The audited fields of a cell (also listed in a deleted mast's audit entry). */
+export const cellAuditView = (c: Cell) => ({ id: c.id, ...auditView(c) });
 
 function auditView(c: Cell) {
   return {
