@@ -4,6 +4,7 @@ import { customersApi, plansApi, type CustomerJson, type HistoryEntryJson, type 
 import { PLAN_STATES, PLAN_STATE_LABELS, isKitLocked, type PlanState } from '../../lib/domain/plan-state';
 import InstallCheckForm from './InstallCheckForm';
 import CustomerForm from './CustomerForm';
+import EraseCustomer from './EraseCustomer';
 import { PlanStateBadge, PlanSteps } from './PlanStateBadge';
 
 interface Props {
@@ -225,6 +226,7 @@ function CheckResult({ plan }: { plan: PlanDetailJson }) {
 function describe(e: HistoryEntryJson): string {
   const what = e.entity === 'plan' ? `Plan ${e.entity_id}` : 'Customer';
   if (e.action === 'create') return `${what} created`;
+  if (e.action === 'erase') return `${what}: personal data erased on request`;
   if (e.action === 'check') {
     const d = e.details ?? {};
     return `${what}: ${d.phase === 'after' ? 'after-install' : 'before'} check recorded (${d.readings ?? 0} readings, ${d.speed_tests ?? 0} speed tests)`;
@@ -286,10 +288,15 @@ export default function CustomerDetail({ customerId, canWrite, canRecord }: Prop
         <section className="card min-w-0" aria-labelledby="customer-heading">
           <div className="mb-3 flex flex-wrap items-center gap-2">
             <h2 id="customer-heading">Details</h2>
-            {canWrite && !editing && (
+            {canWrite && !editing && !customer.erased_at && (
               <button type="button" className="btn-secondary ml-auto py-1" onClick={() => setEditing(true)}>Edit</button>
             )}
           </div>
+          {customer.erased_at && (
+            <p role="note" className="mb-3 rounded bg-ink-50 p-2 text-sm text-ink-700">
+              Personal data erased on the customer's request on {new Date(customer.erased_at).toLocaleDateString()}. The position is kept only to about 11 km.
+            </p>
+          )}
           {editing ? (
             <CustomerForm
               customer={customer}
@@ -314,6 +321,21 @@ export default function CustomerDetail({ customerId, canWrite, canRecord }: Prop
                 ['Notes', customer.notes ? <span className="whitespace-pre-line">{customer.notes}</span> : '—'],
               ]}
             />
+          )}
+          {canWrite && !editing && !customer.erased_at && (
+            <div className="mt-3 flex border-t border-ink-100 pt-3">
+              <EraseCustomer
+                customerId={customer.id}
+                customerName={customer.name}
+                onErased={async (result) => {
+                  setCustomer(result.customer);
+                  setNotice(`Personal data erased; ${result.plans_anonymised} plan${result.plans_anonymised === 1 ? '' : 's'} kept without it`);
+                  const list = await plansApi.list({ customer_id: customerId, limit: 50 });
+                  setPlans(await Promise.all(list.items.map((p) => plansApi.get(p.id))));
+                  loadHistory();
+                }}
+              />
+            </div>
           )}
         </section>
 

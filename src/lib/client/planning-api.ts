@@ -3,12 +3,12 @@
 import { get, networkError, queryString as qs, request, toApiError, type FieldErrors, type List } from './api';
 import type { AntennaJson, AntennaKind, CableJson } from '../schemas/catalogue';
 import type { AddressImportJson, AddressJson, GeocodeMatchJson } from '../schemas/addresses';
-import type { CustomerJson, CustomerSort, HistoryEntryJson } from '../schemas/customers';
+import type { CustomerErasureJson, CustomerJson, CustomerSort, HistoryEntryJson } from '../schemas/customers';
 import type { CheckPhase, InstallCheckJson, PlanDetailJson, PlanJson } from '../schemas/plans';
 import type { OperatorRefJson } from '../schemas/masts';
 import type { PlanState } from '../domain/plan-state';
 
-export type { AntennaJson, CableJson, AddressJson, AddressImportJson, GeocodeMatchJson, CustomerJson, HistoryEntryJson, PlanJson, PlanDetailJson, InstallCheckJson };
+export type { AntennaJson, CableJson, AddressJson, AddressImportJson, GeocodeMatchJson, CustomerJson, CustomerErasureJson, HistoryEntryJson, PlanJson, PlanDetailJson, InstallCheckJson };
 
 // --- catalogue ----------------------------------------------------------------------------
 
@@ -93,6 +93,8 @@ export const customersApi = {
   create: (body: CustomerBody) => request<CustomerJson>('POST', '/api/customers', body),
   update: (id: string, body: Partial<CustomerBody> & { row_version?: number }) => request<CustomerJson>('PATCH', `/api/customers/${id}`, body),
   history: (id: string) => get<List<HistoryEntryJson>>(`/api/customers/${id}/history`),
+  /** Erases the customer's personal data on their request (planner/admin). */
+  erase: (id: string) => request<CustomerErasureJson>('POST', `/api/customers/${id}/erasure`),
 };
 
 // --- plans --------------------------------------------------------------------------------

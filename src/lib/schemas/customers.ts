@@ -123,7 +123,18 @@ export interface CustomerJson {
   latest_plan_state: PlanState | null;
   created_at: string;
   updated_at: string;
+  /** When the personal data was erased on the customer's request (null while it is held). */
+  erased_at: string | null;
   row_version: number;
+}
+
+/** Answer of POST /api/customers/:id/erasure: the erased customer and what else was cleared. */
+export interface CustomerErasureJson {
+  customer: CustomerJson;
+  plans_anonymised: number;
+  install_checks_cleared: number;
+  install_readings_removed: number;
+  audit_entries_scrubbed: number;
 }
 
 export interface HistoryEntryJson {

@@ -25,14 +25,17 @@ export interface Customer {
   latestPlanState: PlanState | null;
   createdAt: Date;
   updatedAt: Date;
+  /** When the customer's personal data was erased on their request; null while it is held. */
+  erasedAt: Date | null;
   rowVersion: number;
 }
 
 // Rows as selected: the response fields, with dates and the count as the driver returns them.
-type CustomerRow = Omit<CustomerJson, 'plan_count' | 'created_at' | 'updated_at'> & {
+type CustomerRow = Omit<CustomerJson, 'plan_count' | 'created_at' | 'updated_at' | 'erased_at'> & {
   plan_count: string | number;
   created_at: Date;
   updated_at: Date;
+  erased_at: Date | null;
 };
 
 function toCustomer(r: CustomerRow): Customer {
@@ -54,6 +57,7 @@ function toCustomer(r: CustomerRow): Customer {
     latestPlanState: r.latest_plan_state,
     createdAt: r.created_at,
     updatedAt: r.updated_at,
+    erasedAt: r.erased_at,
     rowVersion: r.row_version,
   };
 }
@@ -77,6 +81,7 @@ export function customerJson(c: Customer): CustomerJson {
     latest_plan_state: c.latestPlanState,
     created_at: c.createdAt.toISOString(),
     updated_at: c.updatedAt.toISOString(),
+    erased_at: c.erasedAt ? c.erasedAt.toISOString() : null,
     row_version: c.rowVersion,
   };
 }
@@ -103,6 +108,7 @@ function selectCustomers(db: Tx): Knex.QueryBuilder {
       db.raw('(SELECT p.state FROM plans p WHERE p.customer_id = c.id ORDER BY p.updated_at DESC, p.id DESC LIMIT 1) AS latest_plan_state'),
       'c.created_at',
       'c.updated_at',
+      'c.erased_at',
       'c.row_version',
     );
 }
@@ -197,8 +203,9 @@ export async function createCustomer(db: Tx, input: CustomerInput, actorId: stri
 }
 
 export async function updateCustomer(db: Tx, id: string, change: CustomerChange, actorId: string): Promise<Customer> {
-  const current = await db('customers').where({ id }).forUpdate().first('row_version');
+  const current = await db('customers').where({ id }).forUpdate().first('row_version', 'erased_at');
   if (!current) throw new NotFoundError('Customer not found');
+  if (current.erased_at) throw new ConflictError("This customer's personal data was erased on their request; record a new customer instead");
   if (change.rowVersion !== undefined && change.rowVersion !== current.row_version) {
     throw new ConflictError('Someone else changed this customer since you opened it; reload to see their change');
   }

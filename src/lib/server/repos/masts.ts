@@ -18,7 +18,8 @@ import type {
 } from '../../schemas/masts';
 import { ConflictError, NotFoundError } from '../errors';
 import { recordAudit } from './audit';
-import { cellJson, listCellsForMast, type Cell } from './cells';
+import { cellAuditView, cellJson, listCellsForMast, type Cell } from './cells';
+import { assertNoPlansUseCells, unlinkReadingsOfCells } from './cell-dependents';
 import { listRecentReadingsForMast, readingJson, type Reading } from './readings';
 
 export interface Mast {
@@ -248,10 +249,14 @@ async function findMastRow(db: Tx, id: string, forUpdate = false): Promise<Mast>
   return toMast(row);
 }
 
-export async function findMast(db: Tx, id: string): Promise<MastDetail> {
+/**
+ * The mast with its cells and recent readings. Readings fed back from install checks were taken at
+ * customers' homes, so they are left out unless the caller may see customers (`withInstallReadings`).
+ */
+export async function findMast(db: Tx, id: string, options: { withInstallReadings?: boolean } = {}): Promise<MastDetail> {
   const mast = await findMastRow(db, id);
   const cells = await listCellsForMast(db, id);
-  const recentReadings = await listRecentReadingsForMast(db, id, 20);
+  const recentReadings = await listRecentReadingsForMast(db, id, 20, options.withInstallReadings ?? false);
   const operators = new Map<string, OperatorRef>();
   for (const c of cells) operators.set(c.operator.id, c.operator);
   return { ...mast, operators: [...operators.values()].sort((a, b) => Number(a.id) - Number(b.id)), cells, recentReadings };
@@ -363,14 +368,17 @@ export async function markMastConfirmed(db: Tx, id: string, sightingId: string, 
 export async function deleteMast(db: Tx, id: string, rowVersion: number | undefined, actorId: string): Promise<void> {
   const before = await findMastRow(db, id, true);
   if (rowVersion !== undefined && before.rowVersion !== rowVersion) throw staleVersion(before.rowVersion);
-  const cells = await db('cells').where({ mast_id: id }).count<{ count: string }[]>('* as count');
+  const cells = await listCellsForMast(db, id);
+  const cellIds = cells.map((c) => c.id);
+  await assertNoPlansUseCells(db, cellIds, `Mast “${before.name}”`);
+  const readingsUnlinked = await unlinkReadingsOfCells(db, cellIds);
   await db('masts').where({ id }).delete();
   await recordAudit(db, {
     userId: actorId,
     action: 'delete',
     entity: 'mast',
     entityId: id,
-    before: { ...auditView(before), cells_deleted: Number(cells[0]?.count ?? 0) },
+    before: { ...auditView(before), cells_deleted: cells.map(cellAuditView), readings_unlinked: readingsUnlinked },
   });
 }
 
