@@ -1,8 +1,10 @@
-// npm run db:start | stop | db:reset
+// npm run db:start | stop | db:reset [-- --force]
 import { ensureDatabase, stopDatabase, destroyDatabase } from './lib/database';
 import { migrateLatest } from './lib/migrate-runner';
 import { runSeeds } from './lib/seed-runner';
-import { log } from './lib/project';
+import { BACKUP_DIR, DATA_DIR, log } from './lib/project';
+import { assertOnlyDemoData, findNonDemoData } from './lib/demo-guard';
+import { createBackup } from './lib/backup';
 
 const command = process.argv[2];
 
@@ -19,6 +21,12 @@ async function main() {
       break;
     case 'reset': {
       if (process.env.DATABASE_URL) throw new Error('db:reset only resets the project database; unset DATABASE_URL');
+      const before = await ensureDatabase();
+      await assertOnlyDemoData(before, 'db:reset', process.argv.includes('--force'));
+      if ((await findNonDemoData(before)).length) {
+        const { dir } = await createBackup({ databaseUrl: before, dataDir: DATA_DIR, backupRoot: BACKUP_DIR });
+        log(`backup of the old data written to ${dir}`);
+      }
       destroyDatabase();
       const url = await ensureDatabase();
       const applied = await migrateLatest(url);

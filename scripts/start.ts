@@ -1,6 +1,7 @@
 // npm start: database → migrate → demo scenario when empty → build when changed → serve.
 import { ensureDatabase } from './lib/database';
-import { migrateLatest } from './lib/migrate-runner';
+import { migrateLatest, withKnex } from './lib/migrate-runner';
+import { removeOrphanSampleFiles } from '../src/lib/server/repos/elevation';
 import { isDatabaseEmpty, runSeeds } from './lib/seed-runner';
 import { buildIfChanged } from './lib/build';
 import { startServer, waitForHttp } from './lib/server-process';
@@ -11,6 +12,8 @@ async function main() {
   const databaseUrl = await ensureDatabase();
   const applied = await migrateLatest(databaseUrl);
   log(applied.length ? `applied ${applied.length} migration(s)` : 'schema up to date');
+  const orphans = await withKnex(databaseUrl, (knex) => removeOrphanSampleFiles(knex, DATA_DIR));
+  if (orphans.length) log(`removed ${orphans.length} elevation samples file(s) no grid refers to`);
   if (await isDatabaseEmpty(databaseUrl)) {
     log('empty database: loading the demo scenario…');
     await runSeeds(databaseUrl);

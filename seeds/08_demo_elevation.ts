@@ -5,7 +5,7 @@ import { resolve } from 'node:path';
 import { writeArrayBuffer } from 'geotiff';
 import { getDemoElevationM, getDemoIsland, getIslandBounds } from '../src/lib/demo/elevation';
 import { importElevationFile } from '../src/lib/server/elevation-import';
-import { removeSamplesFileIfUnused } from '../src/lib/server/repos/elevation';
+import { removeOrphanSampleFiles } from '../src/lib/server/repos/elevation';
 import { ROOT } from '../scripts/lib/project';
 
 export const DEMO_ELEVATION_FILE_NAME = 'marrowen-dem-3arcsec.tif';
@@ -52,9 +52,8 @@ function getDataDir(): string {
 
 export async function seed(knex: Knex): Promise<void> {
   const dataDir = getDataDir();
-  const previous: { samples_file: string }[] = await knex('elevation_grids').select('samples_file');
   await knex('elevation_grids').delete();
   await importElevationFile(knex, { fileName: DEMO_ELEVATION_FILE_NAME, bytes: buildDemoElevationTiff() }, { dataDir, actorId: null });
-  // The demo grid is deterministic, so it usually reuses its own file; anything else goes.
-  for (const { samples_file } of previous) await removeSamplesFileIfUnused(knex, dataDir, samples_file);
+  // The demo grid is deterministic, so it usually reuses its own file; every other samples file goes.
+  await removeOrphanSampleFiles(knex, dataDir);
 }

@@ -6,6 +6,8 @@ export const DATA_DIR = process.env.DATA_DIR ? resolve(process.env.DATA_DIR) : r
 // Seeds and the app read DATA_DIR too: make the resolved folder theirs.
 process.env.DATA_DIR = DATA_DIR;
 export const PG_DIR = resolve(DATA_DIR, 'pg');
+/** Where `npm run backup` writes (outside DATA_DIR by default, so deleting .data keeps them). */
+export const BACKUP_DIR = process.env.BACKUP_DIR ? resolve(process.env.BACKUP_DIR) : resolve(ROOT, 'backups');
 export const PG_PORT = Number(process.env.PG_PORT || 54329);
 export const HOST = process.env.HOST || '127.0.0.1';
 export const PORT = Number(process.env.PORT || 4321);

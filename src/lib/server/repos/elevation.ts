@@ -9,7 +9,7 @@
 // against its checksum when it is loaded. A file is written before its row and removed after its
 // last row is gone, so a crash can leave an unreferenced file behind, never a row without samples.
 import { createHash } from 'node:crypto';
-import { mkdir, readFile, rename, rm, writeFile } from 'node:fs/promises';
+import { mkdir, readFile, readdir, rename, rm, stat, writeFile } from 'node:fs/promises';
 import { endianness } from 'node:os';
 import { join } from 'node:path';
 import type { Tx } from '../db';
@@ -292,6 +292,32 @@ export async function removeSamplesFileIfUnused(db: Tx, dataDir: string, file: s
   const used = await db('elevation_grids').where({ samples_file: file }).first('id');
   if (used) return;
   await rm(join(dataDir, SAMPLES_FOLDER, file), { force: true });
+}
+
+/** Partly written samples files older than this are left over from a crash. */
+const STALE_PART_MS = 60 * 60 * 1000;
+
+/**
+ * Removes samples files that no grid refers to: left behind when the app stopped between a
+ * delete's commit and the file's removal, or by an interrupted upload. Returns the names removed.
+ */
+export async function removeOrphanSampleFiles(db: Tx, dataDir: string, now = Date.now()): Promise<string[]> {
+  const folder = join(dataDir, SAMPLES_FOLDER);
+  let names: string[];
+  try {
+    names = await readdir(folder);
+  } catch {
+    return [];
+  }
+  const used = new Set<string>(await db('elevation_grids').pluck('samples_file'));
+  const removed: string[] = [];
+  for (const name of names) {
+    if (used.has(name)) continue;
+    if (name.endsWith('.part') && now - (await stat(join(folder, name))).mtimeMs < STALE_PART_MS) continue; // an upload in progress
+    await rm(join(folder, name), { force: true });
+    removed.push(name);
+  }
+  return removed.sort();
 }
 
 // In-process cache of loaded samples, keyed by their checksum and bounded by size (least recently
