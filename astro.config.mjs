@@ -25,9 +25,14 @@ export default defineConfig({
       DATA_DIR: envField.string({ context: 'server', access: 'secret', optional: true }),
       MAIL_DIR: envField.string({ context: 'server', access: 'secret', optional: true }),
       PUBLIC_ORIGIN: envField.string({ context: 'server', access: 'secret', optional: true }),
+      S3_ENDPOINT: envField.string({ context: 'server', access: 'secret', optional: true }),
+      S3_BUCKET: envField.string({ context: 'server', access: 'secret', optional: true }),
+      S3_REGION: envField.string({ context: 'server', access: 'secret', optional: true }),
+      S3_ACCESS_KEY_ID: envField.string({ context: 'server', access: 'secret', optional: true }),
+      S3_SECRET_ACCESS_KEY: envField.string({ context: 'server', access: 'secret', optional: true }),
     },
   },
   vite: {
-    ssr: { external: ['@node-rs/argon2', 'pg', 'knex'] },
+    ssr: { external: ['@node-rs/argon2', 'pg', 'knex', 'sharp', 'busboy', '@aws-sdk/client-s3'] },
   },
 });

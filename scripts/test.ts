@@ -12,11 +12,13 @@ import { runSeeds } from './lib/seed-runner';
 import { buildIfChanged } from './lib/build';
 import { startServer, waitForHttp } from './lib/server-process';
 import { startMailCatcher } from './lib/mail-catcher';
+import { startFakeS3, type FakeS3 } from './lib/fake-s3';
 import { ROOT, log } from './lib/project';
 
 const PG_PORT = Number(process.env.TEST_PG_PORT || 54339);
 const APP_PORT = Number(process.env.TEST_APP_PORT || 4329);
 const SMTP_PORT = Number(process.env.TEST_SMTP_PORT || 2535);
+const S3_PORT = Number(process.env.TEST_S3_PORT || 4569);
 
 interface Tally {
   passed: number;
@@ -54,6 +56,7 @@ async function main() {
   chmodSync(work, 0o755); // the postgres system user must reach the cluster folder inside
   const clusterDir = join(work, 'pg');
   let server: ChildProcess | null = null;
+  let fakeS3: FakeS3 | null = null;
   const tally: Tally = await runLint();
   try {
     ensureChromium();
@@ -69,11 +72,13 @@ async function main() {
     buildIfChanged();
     const mailDir = join(work, 'mail');
     const smtpUrl = await startMailCatcher({ port: SMTP_PORT, dir: mailDir });
+    log(`fake S3 on 127.0.0.1:${S3_PORT}`);
+    fakeS3 = await startFakeS3({ port: S3_PORT, dir: join(work, 's3') });
     const appUrl = `http://127.0.0.1:${APP_PORT}`;
     server = startServer({ host: '127.0.0.1', port: APP_PORT, stdio: 'ignore', env: { DATABASE_URL: e2eUrl, SMTP_URL: smtpUrl, DATA_DIR: join(work, 'data'), MAIL_DIR: mailDir } });
     await waitForHttp(`${appUrl}/api/health`);
 
-    const env = { DATABASE_URL: testUrl, APP_URL: appUrl, E2E_DATABASE_URL: e2eUrl, MAIL_DIR: mailDir, SMTP_URL: smtpUrl, DATA_DIR: join(work, 'data-int') };
+    const env = { DATABASE_URL: testUrl, APP_URL: appUrl, E2E_DATABASE_URL: e2eUrl, MAIL_DIR: mailDir, SMTP_URL: smtpUrl, DATA_DIR: join(work, 'data-int'), S3_TEST_ENDPOINT: fakeS3.endpoint };
     const unit = await runVitest('unit + integration', [], env, join(work, 'vitest.json'));
     const browser = await runVitest('browser', ['--config', 'vitest.e2e.config.ts'], env, join(work, 'vitest-e2e.json'));
     tally.passed += unit.passed + browser.passed;
@@ -83,6 +88,7 @@ async function main() {
     tally.failed += 1;
   } finally {
     server?.kill('SIGTERM');
+    await fakeS3?.close().catch(() => undefined);
     try {
       destroyCluster(clusterDir);
     } catch (err) {

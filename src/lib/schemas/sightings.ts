@@ -2,7 +2,7 @@
 // the phone and the endpoint; the JSON shapes are what the API returns.
 import { z } from 'zod';
 import { getMeasurementRange, type MeasurementKind } from '../domain/measurements';
-import { AzimuthSchema, ChannelSchema, LatSchema, LonSchema, OperatorIdSchema, PciSchema, TechSchema, checkRadio, type OperatorRefJson, type Tech } from './masts';
+import { AzimuthSchema, BboxSchema, ChannelSchema, LatSchema, LonSchema, OperatorIdSchema, PciSchema, TechSchema, checkRadio, type OperatorRefJson, type Tech } from './masts';
 import { enumOf, idParam, numberField, optionalText, pageParams } from './params';
 
 export const SIGHTING_STATUSES = ['pending', 'approved', 'merged', 'rejected'] as const;
@@ -243,3 +243,10 @@ export interface MastSurveyJson {
   last_observed_at: string | null;
   photos: Array<SightingPhotoJson & { sighting_id: string }>;
 }
+
+export const PHOTO_VARIANTS = ['display', 'thumb', 'original'] as const;
+export type PhotoVariant = (typeof PHOTO_VARIANTS)[number];
+
+export const PhotoParamsSchema = z.object({ id: idParam, variant: enumOf(PHOTO_VARIANTS) });
+
+export const PendingSightingQuerySchema = z.object({ bbox: BboxSchema.optional() });

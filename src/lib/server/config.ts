@@ -1,5 +1,17 @@
 // App configuration, read through astro:env (declared in astro.config.mjs).
-import { DATABASE_URL, SMTP_URL, MAIL_FROM, DATA_DIR, MAIL_DIR, PUBLIC_ORIGIN } from 'astro:env/server';
+import {
+  DATABASE_URL,
+  SMTP_URL,
+  MAIL_FROM,
+  DATA_DIR,
+  MAIL_DIR,
+  PUBLIC_ORIGIN,
+  S3_ENDPOINT,
+  S3_BUCKET,
+  S3_REGION,
+  S3_ACCESS_KEY_ID,
+  S3_SECRET_ACCESS_KEY,
+} from 'astro:env/server';
 
 export const config = {
   databaseUrl: DATABASE_URL,
@@ -9,4 +21,12 @@ export const config = {
   /** Where the local SMTP catcher keeps messages (the admin mailbox reads them). */
   mailDir: MAIL_DIR ?? `${DATA_DIR ?? '.data'}/mail`,
   publicOrigin: PUBLIC_ORIGIN,
+  /** S3-compatible storage for uploaded files; used when endpoint, bucket and keys are all set. */
+  s3: {
+    endpoint: S3_ENDPOINT,
+    bucket: S3_BUCKET,
+    region: S3_REGION,
+    accessKeyId: S3_ACCESS_KEY_ID,
+    secretAccessKey: S3_SECRET_ACCESS_KEY,
+  },
 };

@@ -1,0 +1,17 @@
+import { getDb } from '../../../lib/server/db';
+import { handler, json, parseWith, requireUser } from '../../../lib/server/http';
+import { NotFoundError } from '../../../lib/server/errors';
+import { findSighting, sightingJson } from '../../../lib/server/repos/sightings';
+import { SightingIdParamSchema } from '../../../lib/schemas/sightings';
+import { can } from '../../../lib/domain/roles';
+
+/** One sighting: its author sees their own, reviewers and admins every one; for others it does not exist. */
+export const GET = handler(async ({ locals, params }) => {
+  const user = requireUser(locals);
+  const { id } = parseWith(SightingIdParamSchema, params);
+  const reviewer = can(user.role, 'sightings:review');
+  if (!reviewer && !can(user.role, 'sightings:submit')) throw new NotFoundError('Sighting not found');
+  const sighting = await findSighting(getDb(), id);
+  if (!reviewer && sighting.author.id !== user.id) throw new NotFoundError('Sighting not found');
+  return json(sightingJson(sighting, { withOriginals: reviewer }));
+});
