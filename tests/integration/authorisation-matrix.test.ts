@@ -28,6 +28,7 @@ const PLAN_VIEWERS: readonly Role[] = ['admin', 'planner', 'surveyor'];
 const PLAN_WRITERS: readonly Role[] = ['admin', 'planner'];
 const CHECK_RECORDERS: readonly Role[] = ['admin', 'planner', 'surveyor'];
 const MAST_EDITORS: readonly Role[] = ['admin', 'reviewer'];
+const REVIEWERS: readonly Role[] = ['admin', 'reviewer'];
 const NONE = 999_999_999; // an id no demo row has
 
 /** Route file (relative to src/pages) → exported method → what to request and who may. */
@@ -162,6 +163,8 @@ const ACCESS: Record<string, Partial<Record<Method, Rule | Rule[]>>> = {
     PATCH: { path: `/api/regions/${NONE}`, who: ADMIN },
     DELETE: { path: `/api/regions/${NONE}`, who: ADMIN, status: 404 },
   },
+  'api/review/sightings.ts': { GET: { path: '/api/review/sightings', who: REVIEWERS, status: 200 } },
+  'api/sightings/[id]/decision.ts': { POST: { path: `/api/sightings/${NONE}/decision`, who: REVIEWERS } },
   'api/search/index.ts': { GET: { path: '/api/search?q=mast', who: SIGNED_IN, status: 200 } },
   'api/shortlist/index.ts': { GET: { path: '/api/shortlist?lat=0&lon=0', who: SIGNED_IN } },
   'api/tiles/[layer]/[z]/[x]/[y].mvt.ts': {
