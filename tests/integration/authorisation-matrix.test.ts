@@ -29,6 +29,7 @@ const PLAN_WRITERS: readonly Role[] = ['admin', 'planner'];
 const CHECK_RECORDERS: readonly Role[] = ['admin', 'planner', 'surveyor'];
 const MAST_EDITORS: readonly Role[] = ['admin', 'reviewer'];
 const REVIEWERS: readonly Role[] = ['admin', 'reviewer'];
+const SUBMITTERS: readonly Role[] = ['admin', 'surveyor', 'contributor'];
 const NONE = 999_999_999; // an id no demo row has
 
 /** Route file (relative to src/pages) → exported method → what to request and who may. */
@@ -130,6 +131,7 @@ const ACCESS: Record<string, Partial<Record<Method, Rule | Rule[]>>> = {
     PATCH: { path: `/api/masts/${NONE}`, who: MAST_EDITORS },
     DELETE: { path: `/api/masts/${NONE}`, who: MAST_EDITORS, status: 404 },
   },
+  'api/masts/[id]/surveys.ts': { GET: { path: '/api/masts/1/surveys', who: SIGNED_IN, status: 200 } },
   'api/masts/[id]/cells.ts': {
     GET: { path: '/api/masts/1/cells', who: SIGNED_IN, status: 200 },
     POST: { path: `/api/masts/${NONE}/cells`, who: MAST_EDITORS },
@@ -164,6 +166,22 @@ const ACCESS: Record<string, Partial<Record<Method, Rule | Rule[]>>> = {
     DELETE: { path: `/api/regions/${NONE}`, who: ADMIN, status: 404 },
   },
   'api/review/sightings.ts': { GET: { path: '/api/review/sightings', who: REVIEWERS, status: 200 } },
+  'api/sightings/index.ts': {
+    GET: [
+      { path: '/api/sightings?mine=1', who: SUBMITTERS, status: 200 },
+      { path: '/api/sightings', who: REVIEWERS, status: 200 },
+    ],
+    POST: { path: '/api/sightings', who: SUBMITTERS },
+  },
+  // Someone else's sighting does not exist for those who may not review it.
+  'api/sightings/[id].ts': { GET: { path: `/api/sightings/${NONE}`, who: SIGNED_IN, status: 404 } },
+  'api/sightings/pending.ts': { GET: { path: '/api/sightings/pending', who: SIGNED_IN, status: 200 } },
+  'api/sightings/photos/[id]/[variant].ts': {
+    GET: [
+      { path: `/api/sightings/photos/${NONE}/thumb`, who: SIGNED_IN, status: 404 },
+      { path: `/api/sightings/photos/${NONE}/original`, who: REVIEWERS, status: 404 },
+    ],
+  },
   'api/sightings/[id]/decision.ts': { POST: { path: `/api/sightings/${NONE}/decision`, who: REVIEWERS } },
   'api/search/index.ts': { GET: { path: '/api/search?q=mast', who: SIGNED_IN, status: 200 } },
   'api/shortlist/index.ts': { GET: { path: '/api/shortlist?lat=0&lon=0', who: SIGNED_IN } },
