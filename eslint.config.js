@@ -54,6 +54,8 @@ export default tseslint.config(
       ...react.configs.flat.recommended.rules,
       ...react.configs.flat['jsx-runtime'].rules,
       'react/prop-types': 'off',
+      // Apostrophes and quotes are ordinary text in JSX; a stray > or } is the mistake worth catching.
+      'react/no-unescaped-entities': ['error', { forbid: ['>', '}'] }],
       'react-hooks/rules-of-hooks': 'error',
       'react-hooks/exhaustive-deps': 'error',
     },
