@@ -132,7 +132,7 @@ export async function seed(knex: Knex): Promise<void> {
         customerId: customer.id,
         cellId: isEnquiry ? null : String(chosen!.cell_id),
         ...(isEnquiry && i % 2 === 0 ? { antennaId: null, cableId: null, cableM: null, mountHeightM: null } : kit),
-        figures: isEnquiry ? {} : (chosen as unknown as Record<string, unknown>),
+        figures: isEnquiry ? {} : chosen!,
         scheduledFor: null,
         notes: isEnquiry ? null : `Aim at ${chosen!.mast.name}, ${chosen!.operator.name} ${chosen!.band} PCI ${chosen!.pci}.`,
         state: isEnquiry ? 'enquiry' : 'planned',

@@ -1,6 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import {
   CoordinateParseError,
+  CoordinateRangeError,
   formatDecimal,
   formatDms,
   parseCoordinates,
@@ -66,6 +67,27 @@ describe('parseCoordinates', () => {
   ])('rejects %j', (input, message) => {
     expect(() => parseCoordinates(input)).toThrow(CoordinateParseError);
     expect(() => parseCoordinates(input)).toThrow(message);
+  });
+
+  it.each([
+    ['-47,21 -128,52', -47.21, -128.52],
+    ['-47,21; -128,52', -47.21, -128.52],
+    ['47,5N 128,25W', 47.5, -128.25],
+  ])('reads decimal commas in %j', (input, lat, lon) => {
+    expect(parseCoordinates(input)).toEqual({ lat, lon });
+  });
+
+  it('keeps a lone comma as the separator of whole degrees', () => {
+    expect(parseCoordinates('52,1')).toEqual({ lat: 52, lon: 1 });
+  });
+
+  it.each([
+    ['95, 10', /Latitude 95 is outside −90 … 90/],
+    ['10, 200', /Longitude 200 is outside −180 … 180/],
+  ])('tells an out-of-range position %j apart from text that is not coordinates', (input, message) => {
+    expect(() => parseCoordinates(input)).toThrow(CoordinateRangeError);
+    expect(() => parseCoordinates(input)).toThrow(message);
+    expect(() => parseCoordinates('Mill Farm')).not.toThrow(CoordinateRangeError);
   });
 
   it('returns null from tryParseCoordinates for bad input', () => {

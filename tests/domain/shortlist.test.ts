@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { evaluateCandidate, getCalibration, rankShortlist, DEFAULT_EXCESS_LOSS_DB, type CandidateCell, type Kit, type ShortlistSettings } from '../../src/lib/domain/shortlist';
+import { assessLinkQuality, evaluateCandidate, getRankScore, rankShortlist, DEFAULT_EXCESS_LOSS_DB, type CandidateCell, type Kit, type ShortlistSettings } from '../../src/lib/domain/shortlist';
+import { shrinkCalibration } from '../../src/lib/domain/calibration';
 import { getDestination, getDistanceM } from '../../src/lib/domain/geodesy';
 import { getFreeSpacePathLossDb } from '../../src/lib/domain/link-budget';
 import type { ProfileSample } from '../../src/lib/domain/terrain';
@@ -99,8 +100,9 @@ describe('shortlist', () => {
   });
 
   it('applies calibration and the preferred operator to the rank', () => {
-    const calibrated = evaluateCandidate(cell('N', northMast, 180), { profile: ridge(6000), calibration: { offsetDb: 18, readingsUsed: 12 } }, settings);
-    expect(calibrated.predictedRsrpDbm - north.predictedRsrpDbm).toBeCloseTo(18, 9);
+    const calibrated = evaluateCandidate(cell('N', northMast, 180), { profile: ridge(6000), calibration: shrinkCalibration({ count: 12, medianDb: 18.5, spreadDb: 2 }) }, settings);
+    expect(calibrated.predictedRsrpDbm - north.predictedRsrpDbm).toBeCloseTo(calibrated.calibration!.offsetDb, 9);
+    expect(calibrated.calibration!.offsetDb).toBeGreaterThan(18);
     const preferNorth = { ...settings, preferredOperatorId: '2' };
     const n2 = evaluateCandidate(cell('N', northMast, 180, { operatorId: '2' }), { profile: ridge(6000), calibration: null }, { ...preferNorth, operatorPreferenceDb: 40 });
     const e2 = evaluateCandidate(cell('E', eastMast, 270, { antennaHeightM: 45 }), { profile: flat(11_000), calibration: null }, preferNorth);
@@ -114,14 +116,49 @@ describe('shortlist', () => {
   });
 });
 
-describe('getCalibration', () => {
-  it('takes the median residual and counts the readings', () => {
-    expect(getCalibration([3, -1, 10, 2])).toEqual({ offsetDb: 2.5, readingsUsed: 4 });
-    expect(getCalibration([5])).toEqual({ offsetDb: 5, readingsUsed: 1 });
-    expect(getCalibration([])).toBeNull();
+describe('SINR, throughput and the rank score', () => {
+  // Two sectors of one mast 220 m north, both on the customer's channel: the customer sits on their edge.
+  const nearMast = getDestination(customer, 220, 0);
+  const edgeA = cell('A', nearMast, 150, { pci: 1 });
+  const edgeB = cell('B', nearMast, 210, { pci: 2 });
+  // A clean sector 3 km east on another channel of the same operator.
+  const farMast = getDestination(customer, 3000, 90);
+  const clean = cell('C', farMast, 270, { channel: 1300, dlMhz: 1815, band: 'B3', pci: 3, bandwidthMhz: 20 });
+  const entries = [edgeA, edgeB, clean].map((c) => evaluateCandidate(c, { profile: null, calibration: null }, settings));
+  const assessed = assessLinkQuality(entries, { sinr: { neighbourLoad: 1 } });
+
+  it('counts only the same operator\'s cells on the same channel as interference', () => {
+    const [a, b, c] = assessed;
+    expect(a!.interferers).toBe(1);
+    expect(b!.interferers).toBe(1);
+    expect(c!.interferers).toBe(0);
+    // Equal-strength co-channel sectors at full load: SINR ≈ 0 dB (noise is far below −60 dBm).
+    expect(a!.sinrDb).toBeCloseTo(a!.predictedRsrpDbm - b!.predictedRsrpDbm, 1);
+    expect(a!.warnings.join(' ')).toMatch(/Sector edge/);
+    expect(c!.warnings.join(' ')).not.toMatch(/Sector edge/);
   });
 
-  it('clamps extreme shifts', () => {
-    expect(getCalibration([45, 50, 60])!.offsetDb).toBe(20);
+  it('ranks the clean sector 3 km away above the sector edge 220 m from the mast', () => {
+    const [a, , c] = assessed;
+    expect(a!.predictedRsrpDbm).toBeGreaterThan(c!.predictedRsrpDbm);
+    expect(rankShortlist(assessed)[0]!.cell.cellId).toBe('C');
+    expect(c!.expectedThroughputMbps!).toBeGreaterThan(a!.expectedThroughputMbps!);
+  });
+
+  it('scores RSRP up to −80 dBm plus SINR within the Annex A range, plus the preference', () => {
+    expect(getRankScore(-70, 10)).toBe(-80 + 10);
+    expect(getRankScore(-95, 30)).toBeCloseTo(-95 + 22.05, 2);
+    expect(getRankScore(-95, -30)).toBe(-95 - 10);
+    expect(getRankScore(-95, 5, 6)).toBe(-84);
+  });
+
+  it('warns when the feeder loses more than the antenna gains and when the kit is worse than today', () => {
+    const stubOnFeeder: Kit = { ...kit, antenna: { ...kit.antenna, name: 'Stub', gainTable: [{ freqMhz: 700, gainDbi: 2 }, { freqMhz: 2700, gainDbi: 2 }] }, cableM: 25 };
+    const e = evaluateCandidate(cell('E', eastMast, 270), { profile: null, calibration: null }, { ...settings, kit: stubOnFeeder });
+    // 25 m × 0.35 dB/m + 2 × 0.15 dB = 9.05 dB > 2 dBi (common-practice cable figure)
+    expect(e.warnings.join(' ')).toMatch(/loses 9\.1 dB .* more than Stub gains/);
+    expect(e.expectedGainDb!).toBeLessThan(0);
+    expect(e.warnings.join(' ')).toMatch(/less than Stub: the install would make the signal worse/);
   });
 });
+

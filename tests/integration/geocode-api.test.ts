@@ -92,6 +92,18 @@ describe('geocode API', () => {
     expect(res.body.total).toBe(2);
   });
 
+  it('answers 400 for coordinates out of range instead of searching addresses for them', async () => {
+    const res = await search('95, 10');
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields.q[0]).toMatch(/Latitude 95 is outside/);
+  });
+
+  it('reads decimal commas', async () => {
+    const res = await search('-47,2105 -128,5203');
+    expect(res.status).toBe(200);
+    expect(res.body.items[0]).toMatchObject({ lat: -47.2105, lon: -128.5203, kind: 'coordinates' });
+  });
+
   it('accepts degrees-minutes-seconds with hemisphere letters', async () => {
     const res = await search(`52°12'19.1"N 0°7'18.5"W`);
     expect(res.body.items).toHaveLength(1);

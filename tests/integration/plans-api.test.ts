@@ -25,13 +25,15 @@ async function fixture(): Promise<Fixture> {
     .insert({ name: 'Panel', kind: 'directional', ports: 2, horizontal_beamwidth_deg: 40, gain_table: JSON.stringify([{ freq_mhz: 800, gain_dbi: 7.5 }]) })
     .returning('id');
   const [cable] = await db('cables').insert({ name: 'Feeder', loss_table: JSON.stringify([{ freq_mhz: 800, loss_db_per_m: 0.12 }]) }).returning('id');
+  const [stub] = await db('antennas')
+    .insert({ name: 'Router stub', kind: 'stub', ports: 1, horizontal_beamwidth_deg: 360, gain_table: JSON.stringify([{ freq_mhz: 800, gain_dbi: 2 }]) })
+    .returning('id');
   const [cust] = await db('customers')
-    .insert({ name: 'Hester Quillan', address_label: 'Alder Farm', geom: db.raw('ST_SetSRID(ST_MakePoint(-128.52, -47.21), 4326)') })
+    .insert({ name: 'Hester Quillan', address_label: 'Alder Farm', geom: db.raw('ST_SetSRID(ST_MakePoint(-128.52, -47.21), 4326)'), current_antenna_id: stub.id })
     .returning('id');
   return { customerId: String(cust.id), cellId: String(cell.id), antennaId: String(ant.id), cableId: String(cable.id) };
 }
 
-const FIGURES = { predicted_rsrp_dbm: -95.4, expected_gain_db: 9.5, distance_m: 12_240, bearing_true_deg: 357.2, elevation_deg: 0.4 };
 
 describe('plans API', () => {
   let planner: SessionUser;
@@ -73,11 +75,12 @@ describe('plans API', () => {
     expect(check.body.created_by).toBe(surveyor.id);
   });
 
-  it('creates an enquiry, and a planned plan with the cell, kit and figures the planner page sends', async () => {
+  it('creates an enquiry, and a planned plan with the cell and kit and the figures the server predicts for them', async () => {
     const enquiry = await call(createPlan, { user: planner, json: { customer_id: Number(f.customerId), notes: 'Phoned in' } });
     expect(enquiry.status).toBe(201);
     expect(enquiry.body).toMatchObject({ state: 'enquiry', next_states: ['planned'], cell: null, figures: {}, row_version: 1, created_by_name: planner.name });
-    const planned = await call(createPlan, { user: planner, json: { customer_id: f.customerId, ...kit(), figures: FIGURES, state: 'planned' } });
+    // Figures sent by a client are not taken: the server computes them.
+    const planned = await call(createPlan, { user: planner, json: { customer_id: f.customerId, ...kit(), figures: { predicted_rsrp_dbm: -40 }, state: 'planned' } });
     expect(planned.status).toBe(201);
     expect(planned.body).toMatchObject({
       customer_id: f.customerId,
@@ -90,9 +93,19 @@ describe('plans API', () => {
       cable_name: 'Feeder',
       cable_m: 12,
       mount_height_m: 7,
-      figures: FIGURES,
+      figures: {
+        cell_id: f.cellId,
+        customer_position: { lat: -47.21, lon: -128.52 },
+        kit: { antenna_id: f.antennaId, cable_id: f.cableId, cable_m: 12, mount_height_m: 7 },
+        // 7.5 dBi panel − 12 m × 0.12 dB/m − 2 connectors × 0.15 dB (catalogue default) − 2 dBi stub
+        expected_gain_db: 3.8,
+      },
       scheduled_for: null,
     });
+    expect(planned.body.figures.predicted_rsrp_dbm).not.toBe(-40);
+    expect(planned.body.figures.predicted_rsrp_dbm).toBeCloseTo(planned.body.figures.budget.reduce((s: number, t: { db: number }) => s + t.db, 0), 0);
+    expect(planned.body.figures).toHaveProperty('sinr_db');
+    expect(planned.body.figures).toHaveProperty('expected_throughput_mbps');
     const audit = await testDb()('audit_log').where({ entity: 'plan', entity_id: planned.body.id }).first();
     expect(audit).toMatchObject({ action: 'create', user_id: planner.id });
   });
@@ -106,16 +119,51 @@ describe('plans API', () => {
   it('rejects bad input with 400 and fields, including unknown references', async () => {
     const res = await call(createPlan, {
       user: planner,
-      json: { customer_id: 'x', cable_m: -1, mount_height_m: 500, figures: [1], scheduled_for: '2027-02-30', state: 'verified' },
+      json: { customer_id: 'x', cable_m: -1, mount_height_m: 500, scheduled_for: '2027-02-30', state: 'verified' },
     });
     expect(res.status).toBe(400);
-    expect(Object.keys(res.body.error.fields).sort()).toEqual(['cable_m', 'customer_id', 'figures', 'mount_height_m', 'scheduled_for', 'state']);
+    expect(Object.keys(res.body.error.fields).sort()).toEqual(['cable_m', 'customer_id', 'mount_height_m', 'scheduled_for', 'state']);
     const refs = await call(createPlan, { user: planner, json: { customer_id: '9999', cell_id: '9999', antenna_id: '9999', cable_id: '9999' } });
     expect(refs.status).toBe(400);
     expect(Object.keys(refs.body.error.fields).sort()).toEqual(['antenna_id', 'cable_id', 'cell_id', 'customer_id']);
-    const huge = await call(createPlan, { user: planner, json: { customer_id: f.customerId, figures: { blob: 'x'.repeat(30_000) } } });
-    expect(huge.status).toBe(400);
+    const nobody = await call(createPlan, { user: planner, json: { state: 'enquiry' } });
+    expect(nobody.body.error.fields.customer_id).toEqual(['Choose a customer or enter a new one']);
     expect(await testDb()('plans').count('* as n').first()).toEqual({ n: '0' });
+  });
+
+  it('saves a new customer with the plan in one transaction: a failed save leaves no customer behind', async () => {
+    const newCustomer = { name: 'Orla Fenwick', address_label: 'Fen End', lat: -47.25, lon: -128.55 };
+    const count = async () => Number((await testDb()('customers').count('* as n').first())!.n);
+    const before = await count();
+    for (let attempt = 0; attempt < 2; attempt++) {
+      // Planned without a mount height: refused (422) after the customer row would have been written.
+      const failed = await call(createPlan, { user: planner, json: { customer: newCustomer, ...kit(), mount_height_m: null, state: 'planned' } });
+      expect(failed.status).toBe(422);
+      expect(failed.body.error.fields.mount_height_m).toEqual(['Enter the mount height']);
+    }
+    expect(await count()).toBe(before);
+    const saved = await call(createPlan, { user: planner, json: { customer: newCustomer, ...kit(), state: 'planned' } });
+    expect(saved.status).toBe(201);
+    expect(saved.body.customer_name).toBe('Orla Fenwick');
+    expect(saved.body.figures.customer_position).toEqual({ lat: -47.25, lon: -128.55 });
+    expect(await count()).toBe(before + 1);
+    const both = await call(createPlan, { user: planner, json: { customer: newCustomer, customer_id: f.customerId } });
+    expect(both.status).toBe(400);
+    expect(both.body.error.fields.customer).toBeDefined();
+    const bad = await call(createPlan, { user: planner, json: { customer: { ...newCustomer, name: '' } } });
+    expect(bad.status).toBe(400);
+    expect(Object.keys(bad.body.error.fields)).toEqual(['customer.name']);
+  });
+
+  it('recomputes the figures when the kit changes', async () => {
+    const made = await call(createPlan, { user: planner, json: { customer_id: f.customerId, ...kit(), state: 'planned' } });
+    const higher = await patch(made.body.id, { mount_height_m: 9, cable_m: 20 });
+    expect(higher.status).toBe(200);
+    expect(higher.body.figures.kit).toEqual({ antenna_id: f.antennaId, cable_id: f.cableId, cable_m: 20, mount_height_m: 9 });
+    // 8 m more cable at 0.12 dB/m
+    expect(higher.body.figures.expected_gain_db).toBeCloseTo(made.body.figures.expected_gain_db - 0.96, 1);
+    const notes = await patch(made.body.id, { notes: 'Gate code 1234' });
+    expect(notes.body.figures).toEqual(higher.body.figures);
   });
 
   it('lists plans by customer and state', async () => {
@@ -146,7 +194,7 @@ describe('plans API', () => {
     expect(unready.body.error.code).toBe('UNPROCESSABLE_CONTENT');
     expect(unready.body.error.fields.cell_id).toEqual(['Choose the cell to aim at']);
 
-    const planned = await patch(id, { ...kit(), figures: FIGURES, state: 'planned' });
+    const planned = await patch(id, { ...kit(), state: 'planned' });
     expect(planned.status).toBe(200);
     expect(planned.body).toMatchObject({ state: 'planned', row_version: 2 });
 
@@ -201,8 +249,9 @@ describe('plans API', () => {
   });
 
   it('records before and after checks and reports measured gain per PCI against the prediction', async () => {
-    const made = await call(createPlan, { user: planner, json: { customer_id: f.customerId, ...kit(), figures: FIGURES, state: 'planned', scheduled_for: '2027-03-04' } });
+    const made = await call(createPlan, { user: planner, json: { customer_id: f.customerId, ...kit(), state: 'planned', scheduled_for: '2027-03-04' } });
     const id = made.body.id;
+    const predicted = made.body.figures;
     const before = await call(addCheck, {
       user: planner,
       params: { id },
@@ -247,7 +296,8 @@ describe('plans API', () => {
     expect(detail.body.result).toEqual({
       before_check_id: before.body.id,
       after_check_id: expect.any(String),
-      predicted_rsrp_dbm: -95.4,
+      predicted_rsrp_dbm: predicted.predicted_rsrp_dbm,
+      expected_throughput_mbps: predicted.expected_throughput_mbps,
       gains: [
         {
           pci: 101,
@@ -257,8 +307,8 @@ describe('plans API', () => {
           before_rsrp_dbm: -110,
           after_rsrp_dbm: -99,
           measured_gain_db: 11,
-          predicted_gain_db: 9.5,
-          difference_db: 1.5,
+          predicted_gain_db: predicted.expected_gain_db,
+          difference_db: expect.closeTo(11 - predicted.expected_gain_db, 1),
           before_sinr_db: 2,
           after_sinr_db: 12,
           sinr_change_db: 10,
@@ -270,6 +320,16 @@ describe('plans API', () => {
     });
     const list = await call(listChecks, { user: planner, params: { id } });
     expect(list.body.total).toBe(2);
+  });
+
+  it('refuses an LTE PCI above 503 on an LTE plan (3GPP TS 36.211 §6.11), naming the reading', async () => {
+    const made = await call(createPlan, { user: planner, json: { customer_id: f.customerId, ...kit(), state: 'planned' } });
+    const res = await call(addCheck, { user: planner, params: { id: made.body.id }, json: { phase: 'before', readings: [{ pci: 101, rsrp_dbm: -100 }, { pci: 999, rsrp_dbm: -100 }] } });
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields).toEqual({ 'readings.1.pci': ['LTE PCI must be 0–503'] });
+    expect(await testDb()('install_checks').count('* as n').first()).toEqual({ n: '0' });
+    const ok = await call(addCheck, { user: planner, params: { id: made.body.id }, json: { phase: 'before', readings: [{ pci: 503, rsrp_dbm: -100 }] } });
+    expect(ok.status).toBe(201);
   });
 
   it('rejects bad check input with 400 and fields', async () => {

@@ -141,7 +141,7 @@ describe('GET /api/shortlist', () => {
     expect(gap).toBe(diff < 6);
   });
 
-  it('shifts a cell by the median residual of its nearby readings', async () => {
+  it('shifts a cell toward the median residual of its nearby readings, shrunk by their number', async () => {
     const before = (await ask(base())).body.items.find((i: { cell_id: string }) => i.cell_id === ids.east);
     const db = testDb();
     // Readings 1 km west of the customer, reported 12 dB stronger than any model would say.
@@ -162,8 +162,51 @@ describe('GET /api/shortlist', () => {
     const after = (await ask(base())).body.items.find((i: { cell_id: string }) => i.cell_id === ids.east);
     expect(after.calibration.readings_used).toBe(3);
     expect(after.calibration.residual_db).toBeGreaterThan(0);
+    // Three readings agreeing within 3 dB: w = 64 / (64 + (π/2)·9/3) = 0.931 of the median is applied.
+    expect(after.calibration.weight).toBeCloseTo(0.93, 2);
+    // (and never more than the ±20 dB cap)
+    expect(after.calibration.residual_db).toBeCloseTo(Math.min(20, after.calibration.median_residual_db * 0.931), 0);
+    expect(['high', 'medium', 'low']).toContain(after.calibration.confidence);
     expect(after.predicted_rsrp_dbm - before.predicted_rsrp_dbm).toBeCloseTo(after.calibration.residual_db, 0);
     await db('readings').delete();
+  });
+
+  it('answers for a customer at a mast\'s own position, with a warning instead of a failure', async () => {
+    const res = await ask(`lat=${east.lat}&lon=${east.lon}&height_m=10&antenna_id=${ids.panel}&date=2026-06-01`);
+    expect(res.status).toBe(200);
+    const e = res.body.items.find((i: { cell_id: string }) => i.cell_id === ids.east);
+    expect(e.distance_m).toBeLessThan(2);
+    expect(e.warnings.join(' ')).toMatch(/at the mast/);
+  });
+
+  it('lists only the SIM operator\'s cells when asked, and marks the preferred operator', async () => {
+    const res = await ask(`${base()}&sim_operator=${ids.op1}&operator=${ids.op1}`);
+    expect(res.status).toBe(200);
+    expect(res.body.required_operator_id).toBe(ids.op1);
+    expect(res.body.items.map((i: { cell_id: string }) => i.cell_id)).toEqual([ids.north]);
+    expect(res.body.items[0].preferred).toBe(true);
+    const plain = await ask(base());
+    expect(plain.body.items.every((i: { preferred: boolean }) => !i.preferred)).toBe(true);
+  });
+
+  it('gives SINR, expected throughput and the rank score of each candidate', async () => {
+    const res = await ask(base());
+    for (const item of res.body.items) {
+      // One cell per operator here: no co-channel neighbours, so SINR is the signal over kT₀B + 7 dB per 15 kHz (−125.2 dBm).
+      expect(item.interferers).toBe(0);
+      expect(item.sinr_db).toBeCloseTo(Math.min(item.predicted_rsrp_dbm + 125.215, 999), 0);
+      expect(item.expected_throughput_mbps).toBeGreaterThanOrEqual(0);
+      expect(item.bandwidth_mhz).toBe(10);
+      expect(item.warnings.join(' ')).toMatch(/bandwidth unknown/);
+    }
+    expect(res.body.warnings).toEqual([]);
+  });
+
+  it('warns about a position outside every elevation grid', async () => {
+    const res = await ask(`lat=-46.5&lon=-128.5&height_m=10&antenna_id=${ids.panel}&radius_m=80000&date=2026-06-01`);
+    expect(res.status).toBe(200);
+    expect(res.body.customer_ground_m).toBeNull();
+    expect(res.body.warnings.join(' ')).toMatch(/No elevation grid covers this position/);
   });
 
   it.each([

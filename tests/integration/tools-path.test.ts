@@ -56,6 +56,7 @@ describe('GET /api/tools/path', () => {
     ['from=52,-1&to=52.1,-1&h2_m=-0.5', 'h2_m'],
     ['from=52,-1&to=52.1,-1&date=2026-13-45', 'date'],
     ['from=52,-1&to=52.1,-1&date=2040-01-01', 'date'],
+    ['from=52,-1&to=52,-1&freq_mhz=806', 'to'],
   ])('answers 400 with fields for %s', async (qs, field) => {
     const res = await ask(qs);
     expect(res.status).toBe(400);

@@ -6,49 +6,12 @@ import type { GeocodeMatchJson } from '../schemas/addresses';
 import type { OperatorRefJson } from '../schemas/masts';
 import type { CustomerJson } from '../schemas/customers';
 import type { PlanJson } from '../schemas/plans';
+import type { GradeJson, ShortlistItemJson, ShortlistJson, TerrainStatusJson } from '../schemas/shortlist';
 
-export type Grade = 'excellent' | 'good' | 'fair' | 'poor' | 'unusable';
-export type TerrainStatus = 'clear' | 'fresnel' | 'obstructed' | 'unknown';
-
-export interface ShortlistItem {
-  rank: number;
-  cell_id: string;
-  mast: { id: string; name: string; lat: number; lon: number; ground_m: number | null };
-  operator: { id: string; name: string; colour: string | null };
-  tech: string;
-  band: string;
-  channel: number;
-  freq_mhz: number;
-  pci: number | null;
-  sector_azimuth_deg: number | null;
-  antenna_height_m: number | null;
-  distance_m: number;
-  bearing_true_deg: number;
-  bearing_magnetic_deg: number;
-  declination_deg: number;
-  bearing_from_mast_deg: number;
-  sector_offset_deg: number | null;
-  elevation_deg: number;
-  terrain: { status: TerrainStatus; worst_clearance_m: number | null; worst_distance_m: number | null; diffraction_loss_db: number };
-  path_loss_db: number;
-  predicted_rsrp_dbm: number;
-  expected_gain_db: number | null;
-  grade: Grade;
-  calibration: { readings_used: number; residual_db: number } | null;
-  budget: { key: string; label: string; db: number }[];
-  warnings: string[];
-}
-
-export interface Shortlist {
-  lat: number;
-  lon: number;
-  radius_m: number;
-  customer_ground_m: number | null;
-  kit: { antenna: { id: string; name: string }; cable: { id: string; name: string } | null; cable_m: number; height_m: number };
-  current_antenna: { id: string; name: string } | null;
-  items: ShortlistItem[];
-  total: number;
-}
+export type Grade = GradeJson;
+export type TerrainStatus = TerrainStatusJson;
+export type ShortlistItem = ShortlistItemJson;
+export type Shortlist = ShortlistJson;
 
 export type AntennaOption = Pick<AntennaJson, 'id' | 'name' | 'kind' | 'ports' | 'horizontal_beamwidth_deg'>;
 export type CableOption = Pick<CableJson, 'id' | 'name' | 'connector_loss_db' | 'connectors'>;
@@ -63,6 +26,7 @@ export interface ShortlistParams {
   cable_id: string;
   cable_m: string;
   operator: string;
+  sim_operator: string;
   current_antenna_id: string;
 }
 
@@ -87,17 +51,18 @@ export const plannerApi = {
 export type SavedPlan = Pick<PlanJson, 'id' | 'customer_id' | 'state'>;
 export type SavedCustomer = Pick<CustomerJson, 'id' | 'name'>;
 
+export interface NewPlanBody {
+  customer_id?: string;
+  /** A new customer, saved in the same transaction as the plan. */
+  customer?: { name: string; address_label: string; lat: number; lon: number; current_antenna_id?: string | null };
+  cell_id: string;
+  antenna_id: string;
+  cable_id: string | null;
+  cable_m: number | null;
+  mount_height_m: number;
+  state: 'planned';
+}
+
 export const planSaveApi = {
-  createCustomer: (input: { name: string; address_label: string; lat: number; lon: number; current_antenna_id?: string | null }) =>
-    request<SavedCustomer>('POST', '/api/customers', input),
-  createPlan: (input: {
-    customer_id: string;
-    cell_id: string;
-    antenna_id: string;
-    cable_id: string | null;
-    cable_m: number | null;
-    mount_height_m: number;
-    figures: Record<string, unknown>;
-    state: 'planned';
-  }) => request<SavedPlan>('POST', '/api/plans', input),
+  createPlan: (input: NewPlanBody) => request<SavedPlan>('POST', '/api/plans', input),
 };

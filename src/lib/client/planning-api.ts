@@ -106,7 +106,6 @@ export interface PlanBody {
   cable_id?: string | null;
   cable_m?: number | null;
   mount_height_m?: number | null;
-  figures?: Record<string, unknown>;
   scheduled_for?: string | null;
   notes?: string | null;
   state?: 'enquiry' | 'planned';

@@ -2,7 +2,7 @@
  * Coordinates typed or pasted by a person: decimal degrees, hemisphere letters, degrees–minutes(–seconds).
  * Accepted, e.g.: "52.1, -1.2" · "52.1N 1.2W" · "N52.1 W1.2" · `52°12'19.1"N 0°7'18.5"E` ·
  * "52 12 19.1 N, 0 7 18.5 E" · "52°12.318'N 0°7.308'E" · "geo:52.1,-1.2".
- * Without hemisphere letters the order is latitude, longitude.
+ * "-47,21 -128,52" (decimal commas). Without hemisphere letters the order is latitude, longitude.
  */
 import type { LatLon } from './geodesy';
 
@@ -10,6 +10,14 @@ export class CoordinateParseError extends Error {
   constructor(message: string) {
     super(message);
     this.name = 'CoordinateParseError';
+  }
+}
+
+/** The text is a position, but one that cannot exist (latitude beyond ±90°, longitude beyond ±180°). */
+export class CoordinateRangeError extends CoordinateParseError {
+  constructor(message: string) {
+    super(message);
+    this.name = 'CoordinateRangeError';
   }
 }
 
@@ -37,7 +45,18 @@ function normaliseInput(input: string): string {
     .replace(/[′’‘´`]/g, "'")
     .replace(/[″“”]/g, '"')
     .replace(/[º˚]/g, '°')
-    .replace(/[−–]/g, '-');
+    .replace(/[−–]/g, '-')
+    .replace(/^(.*)$/, readDecimalCommas);
+}
+
+/**
+ * "-47,21 -128,52": decimal commas, as many locales write them. Only when there are no points and
+ * exactly two numbers with a comma inside them; a lone comma ("52,1") stays the separator.
+ */
+function readDecimalCommas(text: string): string {
+  if (text.includes('.')) return text;
+  const inside = text.match(/\d,\d/g) ?? [];
+  return inside.length === 2 ? text.replace(/(\d),(\d)/g, '$1.$2') : text;
 }
 
 function tokenise(text: string): Token[] {
@@ -147,8 +166,8 @@ export function parseCoordinates(input: string): LatLon {
   if (first.axis === 'lon' || second.axis === 'lat') [lat, lon] = [second.value, first.value];
   else [lat, lon] = [first.value, second.value];
 
-  if (Math.abs(lat) > 90) throw new CoordinateParseError(`Latitude ${lat} is outside −90 … 90`);
-  if (Math.abs(lon) > 180) throw new CoordinateParseError(`Longitude ${lon} is outside −180 … 180`);
+  if (Math.abs(lat) > 90) throw new CoordinateRangeError(`Latitude ${lat} is outside −90 … 90`);
+  if (Math.abs(lon) > 180) throw new CoordinateRangeError(`Longitude ${lon} is outside −180 … 180`);
   return { lat: lat + 0, lon: lon + 0 };
 }
 

@@ -254,3 +254,20 @@ export function getWorstGrade(grades: SignalGrade[]): SignalGrade | null {
   if (grades.length === 0) return null;
   return grades.reduce((worst, grade) => (SIGNAL_GRADES.indexOf(grade) > SIGNAL_GRADES.indexOf(worst) ? grade : worst));
 }
+
+/**
+ * Physical cell identities: LTE 0…503 = 3·N_ID(1) + N_ID(2) (3GPP TS 36.211 §6.11); NR 0…1007
+ * (TS 38.211 §7.4.2.1). Other technologies have no PCI.
+ */
+export function getPciRange(tech: string): { min: number; max: number } | null {
+  if (tech === 'lte') return { min: 0, max: 503 };
+  if (tech === 'nr') return { min: 0, max: 1007 };
+  return null;
+}
+
+/** A message for a PCI outside its technology's range, or null when it fits. */
+export function getPciProblem(tech: string, pci: number): string | null {
+  const range = getPciRange(tech);
+  if (!range || (pci >= range.min && pci <= range.max)) return null;
+  return `${tech === 'lte' ? 'LTE' : 'NR'} PCI must be ${range.min}–${range.max}`;
+}

@@ -56,7 +56,7 @@ export function summarisePath(input: PathInput): PathSummary {
   const toGround = input.profile?.at(-1)?.groundM ?? input.toGroundM ?? 0;
   const half = distanceM / 2;
   const terrain =
-    input.profile && input.profile.length >= 2 && input.freqMhz
+    input.profile && input.profile.length >= 2 && input.freqMhz && distanceM > 0
       ? analysePathProfile({ samples: input.profile, txHeightM: input.fromHeightM, rxHeightM: input.toHeightM, freqMhz: input.freqMhz, k })
       : null;
   return {

@@ -2,7 +2,8 @@
 // the JSON the API returns.
 import { z } from 'zod';
 import { PLAN_STATES, type PlanState } from '../domain/plan-state';
-import { RowVersionSchema } from './customers';
+import { CustomerInputSchema, RowVersionSchema } from './customers';
+import type { ShortlistItemJson } from './shortlist';
 import { IdRefSchema, enumOf, hasChange, numberField as num, optionalText, pageParams } from './params';
 
 const stateEnum = enumOf(PLAN_STATES);
@@ -15,12 +16,6 @@ const date = z
   .refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)) && new Date(`${s}T00:00:00Z`).toISOString().startsWith(s), 'Not a real date')
   .nullable();
 
-/** The figures the planner saw when choosing (shortlist row, budget terms): kept as given. */
-export const FIGURES_MAX_CHARS = 20_000;
-const figures = z
-  .record(z.unknown(), { invalid_type_error: 'Figures must be an object' })
-  .refine((f) => JSON.stringify(f).length <= FIGURES_MAX_CHARS, `Figures must be under ${FIGURES_MAX_CHARS} characters of JSON`);
-
 /** The chosen cell and kit and the visit date: the same fields in a new plan and in a change. */
 const kitFields = {
   cell_id: ref.optional(),
@@ -28,26 +23,31 @@ const kitFields = {
   cable_id: ref.optional(),
   cable_m: cableM.nullable().optional(),
   mount_height_m: mountHeightM.nullable().optional(),
-  figures: figures.optional(),
   scheduled_for: date.optional(),
 };
 
 export const PlanInputSchema = z
   .object({
-    customer_id: IdRefSchema,
+    // An existing customer, or a new one saved in the same transaction as the plan.
+    customer_id: IdRefSchema.optional(),
+    customer: CustomerInputSchema.optional(),
     ...kitFields,
     notes: optionalText(4000),
     // A plan starts as an enquiry, or as planned when the planner saves a chosen cell and kit.
     state: z.enum(['enquiry', 'planned'], { errorMap: () => ({ message: 'A new plan starts as enquiry or planned' }) }).default('enquiry'),
   })
+  .superRefine((v, ctx) => {
+    if (!v.customer_id && !v.customer) ctx.addIssue({ code: 'custom', path: ['customer_id'], message: 'Choose a customer or enter a new one' });
+    if (v.customer_id && v.customer) ctx.addIssue({ code: 'custom', path: ['customer'], message: 'Give an existing customer or a new one, not both' });
+  })
   .transform((v) => ({
-    customerId: v.customer_id,
+    customerId: v.customer_id ?? null,
+    newCustomer: v.customer ?? null,
     cellId: v.cell_id ?? null,
     antennaId: v.antenna_id ?? null,
     cableId: v.cable_id ?? null,
     cableM: v.cable_m ?? null,
     mountHeightM: v.mount_height_m ?? null,
-    figures: v.figures ?? {},
     scheduledFor: v.scheduled_for ?? null,
     notes: v.notes,
     state: v.state as PlanState,
@@ -70,7 +70,6 @@ export const PlanChangeSchema = z
     cableId: v.cable_id,
     cableM: v.cable_m,
     mountHeightM: v.mount_height_m,
-    figures: v.figures,
     scheduledFor: v.scheduled_for,
     notes: v.notes,
     state: v.state,
@@ -131,6 +130,21 @@ export type InstallCheckInput = z.output<typeof InstallCheckInputSchema>;
 
 // --- JSON the API returns ---------------------------------------------------------------
 
+/**
+ * What the server predicted for the plan's cell and kit when they were last saved: the shortlist
+ * row of that cell, the position and the kit it was computed for. Empty for a plan without a cell.
+ */
+export interface PlanFiguresJson extends ShortlistItemJson {
+  customer_position?: { lat: number; lon: number };
+  kit?: { antenna_id: string | null; cable_id: string | null; cable_m: number | null; mount_height_m: number | null };
+  computed_at?: string;
+}
+export type PlanFiguresFieldJson = PlanFiguresJson | Record<string, never>;
+
+export function hasFigures(f: PlanFiguresFieldJson | null | undefined): f is PlanFiguresJson {
+  return !!f && typeof (f as PlanFiguresJson).predicted_rsrp_dbm === 'number';
+}
+
 export interface PlanCellJson {
   id: string;
   mast_id: string;
@@ -162,7 +176,7 @@ export interface PlanJson {
   cable_name: string | null;
   cable_m: number | null;
   mount_height_m: number | null;
-  figures: Record<string, unknown>;
+  figures: PlanFiguresFieldJson;
   scheduled_for: string | null;
   notes: string | null;
   created_by: string | null;
@@ -214,6 +228,8 @@ export interface PlanResultJson {
   after_check_id: string | null;
   /** RSRP the planner predicted with the chosen kit (figures.predicted_rsrp_dbm). */
   predicted_rsrp_dbm: number | null;
+  /** Downlink rate the planner expected (figures.expected_throughput_mbps), to compare with the speed tests. */
+  expected_throughput_mbps: number | null;
   gains: MeasuredGainJson[];
   speed_before: SpeedSummaryJson;
   speed_after: SpeedSummaryJson;

@@ -67,5 +67,66 @@ export const PathQuerySchema = z.object({
     .refine((n) => n > 0 && n <= 10, 'k must be between 0 and 10')
     .optional(),
   date: modelDateParam.optional(),
+}).superRefine((v, ctx) => {
+  if (v.from && v.to && v.from.lat === v.to.lat && v.from.lon === v.to.lon) {
+    ctx.addIssue({ code: 'custom', path: ['to'], message: 'The two ends are the same point: move one of them' });
+  }
 });
 export type PathQuery = z.infer<typeof PathQuerySchema>;
+
+// --- JSON the API returns -------------------------------------------------------------------
+
+export interface ChannelJson {
+  tech: string;
+  channel: number;
+  band: string;
+  duplex: 'FDD' | 'TDD' | 'SDL';
+  direction: 'DL' | 'UL' | 'both';
+  dl_channel: number;
+  dl_mhz: number;
+  ul_channel: number | null;
+  ul_mhz: number | null;
+  alternative_bands: string[];
+  notes: string[];
+}
+
+export interface FrequencyJson {
+  tech: string;
+  freq_mhz: number;
+  ambiguous: boolean;
+  items: { band: string; channel: number; direction: 'DL' | 'UL' | 'both'; exact: boolean }[];
+  total: number;
+}
+
+export interface ProfilePointJson {
+  distance_m: number;
+  ground_m: number;
+  los_m: number;
+  fresnel_m: number;
+  bulge_m: number;
+  clearance_m: number;
+}
+
+export interface PathJson {
+  distance_m: number;
+  bearing_true_deg: number;
+  bearing_magnetic_deg: number;
+  declination_deg: number;
+  declination_date: string;
+  reverse_bearing_true_deg: number;
+  elevation_deg: number;
+  fspl_db: number | null;
+  fresnel_radius_mid_m: number | null;
+  earth_bulge_mid_m: number;
+  radio_horizon_km: number;
+  k: number;
+  terrain: null | {
+    status: 'clear' | 'fresnel' | 'obstructed';
+    worst_clearance_m: number | null;
+    worst_distance_m: number | null;
+    nu: number | null;
+    diffraction_loss_db: number;
+    profile: ProfilePointJson[];
+  };
+  terrain_note?: string;
+}

@@ -6,9 +6,6 @@ import { evaluatePlannedCell } from './shortlist-service';
 import { getElevationProfile } from './elevation-service';
 import type { ShortlistEntry } from '../domain/shortlist';
 
-/** Mount height when the plan does not record one — common practice, no source. */
-export const DEFAULT_MOUNT_HEIGHT_M = 6;
-
 export interface AimSheet {
   plan: Plan;
   customer: Customer;
@@ -20,16 +17,17 @@ export async function getAimSheet(planId: string, date: Date): Promise<AimSheet>
   const db = getDb();
   const plan = await findPlan(db, planId);
   const customer = await findCustomer(db, plan.customerId);
-  const entry = plan.cellId
+  // The same inputs as the plan's saved figures (plan-service.ts): no defaults fill a missing kit.
+  const entry = plan.cellId && plan.antennaId && plan.mountHeightM !== null
     ? await evaluatePlannedCell(
         db,
         plan.cellId,
         {
           at: { lat: customer.lat, lon: customer.lon },
-          heightM: plan.mountHeightM ?? DEFAULT_MOUNT_HEIGHT_M,
-          antennaId: plan.antennaId ?? undefined,
+          heightM: plan.mountHeightM,
+          antennaId: plan.antennaId,
           cableId: plan.cableId ?? undefined,
-          cableM: plan.cableM ?? 0,
+          cableM: plan.cableId ? (plan.cableM ?? 0) : 0,
           currentAntennaId: customer.currentAntennaId ?? undefined,
           date,
         },

@@ -2,7 +2,8 @@
 // could be plugged in later without touching the endpoint or the planner page.
 import type { Knex } from 'knex';
 import { findNearbyAddresses, searchGazetteer } from './repos/addresses';
-import { formatDecimal, tryParseCoordinates } from '../domain/coords';
+import { CoordinateParseError, CoordinateRangeError, formatDecimal, parseCoordinates } from '../domain/coords';
+import { ValidationError } from './errors';
 import type { GeocodeMatchJson } from '../schemas/addresses';
 
 export type GeocodeMatch = GeocodeMatchJson;
@@ -37,11 +38,18 @@ export function createGazetteerGeocoder(db: Knex): Geocoder {
 
 /**
  * Geocodes what a planner typed: coordinates (decimal or degrees-minutes-seconds) come back
- * as the first match, followed by known addresses near them; anything else is an address
- * search.
+ * as the first match, followed by known addresses near them; coordinates out of range are a
+ * validation error; anything else is an address search.
  */
 export async function geocode(geocoder: Geocoder, q: string, limit: number): Promise<GeocodeMatch[]> {
-  const point = tryParseCoordinates(q);
+  let point = null;
+  try {
+    point = parseCoordinates(q);
+  } catch (err) {
+    // A position that cannot exist is a typing slip, not an address to search for.
+    if (err instanceof CoordinateRangeError) throw new ValidationError(err.message, { q: [err.message] });
+    if (!(err instanceof CoordinateParseError)) throw err;
+  }
   if (point) {
     const here: GeocodeMatch = { label: formatDecimal(point, 4), postcode: null, lat: point.lat, lon: point.lon, score: 1, kind: 'coordinates' };
     const near = limit > 1 && geocoder.nearby ? await geocoder.nearby(point.lat, point.lon, limit - 1) : [];

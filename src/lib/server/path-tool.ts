@@ -1,6 +1,6 @@
 // The path calculator: domain figures plus the terrain profile where elevation data covers the path.
 import { summarisePath, type PathSummary } from '../domain/path-summary';
-import type { PathQuery } from '../schemas/tools';
+import type { PathJson, PathQuery } from '../schemas/tools';
 import type { ElevationProfile } from '../domain/elevation-grid';
 import type { ProfileSample } from '../domain/terrain';
 import { getElevationProfile } from './elevation-service';
@@ -43,7 +43,7 @@ export async function calculatePath(q: PathQuery, now: Date): Promise<PathToolRe
 const r = (n: number, d: number) => Math.round(n * 10 ** d) / 10 ** d;
 
 /** API shape: snake_case with units in the names. */
-export function toPathResponse({ summary: s, date, terrainNote }: PathToolResult) {
+export function toPathResponse({ summary: s, date, terrainNote }: PathToolResult): PathJson {
   return {
     distance_m: r(s.distanceM, 1),
     bearing_true_deg: r(s.bearingTrueDeg, 3),

@@ -8,14 +8,15 @@ import { analysePathProfile } from '../domain/terrain';
 import {
   DEFAULT_SEARCH_RADIUS_M,
   DEFAULT_MAST_ANTENNA_HEIGHT_M,
+  assessLinkQuality,
   evaluateCandidate,
-  getCalibration,
   modelCellAt,
   rankShortlist,
   type CandidateCell,
   type Kit,
   type ShortlistEntry,
 } from '../domain/shortlist';
+import { shrinkCalibration, summariseResiduals, type Calibration, type ResidualSummary } from '../domain/calibration';
 import { findCandidateCell, listCandidateCells, listNearbyReadings, type CellReading } from './repos/candidates';
 import { getDataVersion } from './data-version';
 import { ValidationError } from './errors';
@@ -39,6 +40,8 @@ export interface ShortlistRequest {
   cableM: number;
   currentAntennaId?: string;
   preferredOperatorId?: string;
+  /** Only this operator's cells (the customer's SIM), a hard filter. */
+  requiredOperatorId?: string;
   radiusM?: number;
   date: Date;
 }
@@ -50,11 +53,13 @@ export interface ShortlistResult {
   customerGroundM: number | null;
   radiusM: number;
   candidatesConsidered: number;
+  /** About the position itself (at sea, outside every elevation grid). */
+  warnings: string[];
 }
 
 function toKit(antenna: Antenna, cable: Cable | null, cableM: number, mountHeightM: number): Kit {
   return {
-    antenna: { id: antenna.id, name: antenna.name, gainTable: antenna.gainTable, horizontalBeamwidthDeg: antenna.horizontalBeamwidthDeg },
+    antenna: { id: antenna.id, name: antenna.name, gainTable: antenna.gainTable, horizontalBeamwidthDeg: antenna.horizontalBeamwidthDeg, ports: antenna.ports },
     cable: cable && { id: cable.id, name: cable.name, lossTable: cable.lossTable, connectorLossDb: cable.connectorLossDb, connectors: cable.connectors },
     cableM: cable ? cableM : 0,
     mountHeightM,
@@ -63,7 +68,7 @@ function toKit(antenna: Antenna, cable: Cable | null, cableM: number, mountHeigh
 
 /** Samples for the terrain analysis, or null unless elevation data covers the whole path. */
 function toSamples(profile: ElevationProfile | null): ProfileSample[] | null {
-  if (!profile || !profile.coverage.complete) return null;
+  if (!profile || !profile.coverage.complete || !(profile.distanceM > 0)) return null;
   return profile.points.map((p) => ({ distanceM: p.distanceM, groundM: p.groundM as number }));
 }
 
@@ -93,15 +98,17 @@ export async function computeResidualDb(
 }
 
 /**
- * Calibration of each cell from its readings nearest the customer. Residuals stored by the residual
- * job are read as they are; readings it has not reached yet (or whose basis is stale) are computed here.
+ * Residual summaries (count, median, spread of measured − modelled) of each cell's readings nearest
+ * the customer: the one place that aggregates readings for calibration (the shrinkage rule is domain
+ * code). Residuals stored by the residual job are read as they are; readings it has not reached yet
+ * (or whose basis is stale) are computed here.
  */
-async function calibrate(
+async function summariseCellResiduals(
   db: Tx,
   cells: CandidateCell[],
   at: LatLon,
   profileFor: ProfileProvider,
-): Promise<Map<string, ReturnType<typeof getCalibration>>> {
+): Promise<Map<string, ResidualSummary | null>> {
   const [readings, basis] = await Promise.all([
     listNearbyReadings(db, cells.map((c) => c.cellId), at, CALIBRATION_RADIUS_M, CALIBRATION_READINGS_PER_CELL),
     getResidualBasis(db),
@@ -115,7 +122,12 @@ async function calibrate(
     list.push(residual);
     residuals.set(r.cellId, list);
   }
-  return new Map(cells.map((c) => [c.cellId, getCalibration(residuals.get(c.cellId) ?? [])]));
+  return new Map(cells.map((c) => [c.cellId, summariseResiduals(residuals.get(c.cellId) ?? [])]));
+}
+
+async function calibrate(db: Tx, cells: CandidateCell[], at: LatLon, profileFor: ProfileProvider): Promise<Map<string, Calibration | null>> {
+  const summaries = await summariseCellResiduals(db, cells, at, profileFor);
+  return new Map(cells.map((c) => [c.cellId, shrinkCalibration(summaries.get(c.cellId) ?? null)]));
 }
 
 async function resolveKits(db: Tx, req: Pick<ShortlistRequest, 'antennaId' | 'cableId' | 'cableM' | 'heightM' | 'currentAntennaId'>) {
@@ -131,22 +143,36 @@ async function resolveKits(db: Tx, req: Pick<ShortlistRequest, 'antennaId' | 'ca
 export async function buildShortlist(db: Tx, req: ShortlistRequest, profileFor: ProfileProvider): Promise<ShortlistResult> {
   const { kit, currentKit } = await resolveKits(db, req);
   const radiusM = req.radiusM ?? DEFAULT_SEARCH_RADIUS_M;
-  const cells = await listCandidateCells(db, { at: req.at, radiusM, limit: MAX_CANDIDATES });
+  const cells = await listCandidateCells(db, { at: req.at, radiusM, limit: MAX_CANDIDATES, operatorId: req.requiredOperatorId });
   return evaluateCells(db, cells, req, kit, currentKit, radiusM, profileFor);
 }
 
-/** The figures of one chosen cell for a customer and kit (aim sheet, plan checks); null without a frequency. */
+/**
+ * The figures of one chosen cell for a customer and kit (plan figures, aim sheet), with the same
+ * operator's co-channel cells nearby counted for its SINR; null without a frequency.
+ */
 export async function evaluatePlannedCell(
   db: Tx,
   cellId: string,
-  req: Omit<ShortlistRequest, 'radiusM' | 'preferredOperatorId'>,
+  req: Omit<ShortlistRequest, 'radiusM' | 'preferredOperatorId' | 'requiredOperatorId'>,
   profileFor: ProfileProvider,
 ): Promise<ShortlistResult['entries'][number] | null> {
   const cell = await findCandidateCell(db, cellId);
   if (!cell) return null;
   const { kit, currentKit } = await resolveKits(db, req);
-  const result = await evaluateCells(db, [cell], req, kit, currentKit, 0, profileFor);
-  return result.entries[0] ?? null;
+  const nearby = await listCandidateCells(db, { at: req.at, radiusM: DEFAULT_SEARCH_RADIUS_M, limit: MAX_CANDIDATES, operatorId: cell.operatorId });
+  const neighbours = nearby.filter((c) => c.cellId !== cell.cellId && c.tech === cell.tech && c.channel === cell.channel);
+  const result = await evaluateCells(db, [cell, ...neighbours], req, kit, currentKit, 0, profileFor);
+  return result.entries.find((e) => e.cell.cellId === cell.cellId) ?? null;
+}
+
+/** Below this ground height (m above sea level) a position is probably offshore. */
+const SEA_LEVEL_M = 0;
+
+function getPositionWarnings(groundM: number | null): string[] {
+  if (groundM === null) return ['No elevation grid covers this position: terrain, clearance and tilt are not checked'];
+  if (groundM <= SEA_LEVEL_M) return [`The ground here is ${groundM.toFixed(0)} m above sea level: the position may be at sea, check it`];
+  return [];
 }
 
 async function evaluateCells(
@@ -159,15 +185,18 @@ async function evaluateCells(
   profileFor: ProfileProvider,
 ): Promise<ShortlistResult> {
   const calibration = await calibrate(db, cells, req.at, profileFor);
-  const profiles = new Map<string, ProfileSample[] | null>();
+  const profiles = new Map<string, ElevationProfile | null>();
   for (const cell of cells) {
-    if (!profiles.has(cell.mastId)) profiles.set(cell.mastId, toSamples(await profileFor(req.at, cell.mastPosition, { maxSamples: 400 })));
+    if (!profiles.has(cell.mastId)) profiles.set(cell.mastId, await profileFor(req.at, cell.mastPosition, { maxSamples: 400 }));
   }
-  const customerGroundM = [...profiles.values()].find((p) => p)?.[0]?.groundM ?? null;
+  const customerGroundM = [...profiles.values()].find((p) => p?.points[0]?.groundM != null)?.points[0]?.groundM
+    ?? (await profileFor(req.at, req.at, { maxSamples: 2 }))?.points[0]?.groundM
+    ?? null;
   const settings = { customer: req.at, customerGroundM, date: req.date, kit, currentKit, preferredOperatorId: req.preferredOperatorId ?? null };
-  const entries = cells.map((cell) => ({
-    ...evaluateCandidate(cell, { profile: profiles.get(cell.mastId) ?? null, calibration: calibration.get(cell.cellId) ?? null }, settings),
+  const evaluated = cells.map((cell) => ({
+    ...evaluateCandidate(cell, { profile: toSamples(profiles.get(cell.mastId) ?? null), calibration: calibration.get(cell.cellId) ?? null }, settings),
     operatorColour: cell.operatorColour,
   }));
-  return { entries: rankShortlist(entries) as ShortlistResult['entries'], kit, currentKit, customerGroundM, radiusM, candidatesConsidered: cells.length };
+  const entries = rankShortlist(assessLinkQuality(evaluated, { ports: kit.antenna.ports })) as ShortlistResult['entries'];
+  return { entries, kit, currentKit, customerGroundM, radiusM, candidatesConsidered: cells.length, warnings: getPositionWarnings(customerGroundM) };
 }

@@ -27,7 +27,7 @@ function selectCandidates(db: Tx) {
     .join('operators as o', 'o.id', 'c.operator_id')
     .select(
       'c.id', 'c.mast_id', 'c.operator_id', 'c.tech', 'c.band', 'c.channel', 'c.dl_mhz', 'c.pci', 'c.sector_azimuth_deg',
-      'c.antenna_height_m', 'c.rs_power_dbm', 'm.name as mast_name', 'm.ground_elevation_m', 'm.structure_height_m',
+      'c.antenna_height_m', 'c.rs_power_dbm', 'c.bandwidth_mhz', 'm.name as mast_name', 'm.ground_elevation_m', 'm.structure_height_m',
       'o.name as operator_name', 'o.colour as operator_colour',
       db.raw('ST_Y(m.geom) as lat'), db.raw('ST_X(m.geom) as lon'),
     );
@@ -53,6 +53,7 @@ function toCandidate(r: any): CandidateRow {
     // Without a recorded antenna height, the structure's height is the best guess.
     antennaHeightM: r.antenna_height_m ?? r.structure_height_m ?? null,
     rsPowerDbm: r.rs_power_dbm,
+    bandwidthMhz: r.bandwidth_mhz == null ? null : Number(r.bandwidth_mhz),
   };
 }
 

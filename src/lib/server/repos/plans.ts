@@ -25,10 +25,13 @@ import type {
   PlanDetailJson,
   PlanInput,
   PlanJson,
+  PlanFiguresFieldJson,
   PlanListQuery,
   SpeedSummaryJson,
 } from '../../schemas/plans';
+import { hasFigures } from '../../schemas/plans';
 import { AppError, ConflictError, NotFoundError, ValidationError } from '../errors';
+import { getPciProblem } from '../../domain/measurements';
 import { recordAudit } from './audit';
 
 export interface PlanCell {
@@ -60,7 +63,7 @@ export interface Plan {
   cableName: string | null;
   cableM: number | null;
   mountHeightM: number | null;
-  figures: Record<string, unknown>;
+  figures: PlanFiguresFieldJson;
   scheduledFor: string | null;
   notes: string | null;
   createdBy: string | null;
@@ -88,6 +91,7 @@ export interface PlanResult {
   beforeCheckId: string | null;
   afterCheckId: string | null;
   predictedRsrpDbm: number | null;
+  expectedThroughputMbps: number | null;
   gains: MeasuredGain[];
   speedBefore: SpeedSummary;
   speedAfter: SpeedSummary;
@@ -241,6 +245,7 @@ export function planDetailJson(p: PlanDetail): PlanDetailJson {
       before_check_id: p.result.beforeCheckId,
       after_check_id: p.result.afterCheckId,
       predicted_rsrp_dbm: p.result.predictedRsrpDbm,
+      expected_throughput_mbps: p.result.expectedThroughputMbps,
       gains: p.result.gains.map((g) => ({
         pci: g.pci,
         channel: g.channel,
@@ -319,14 +324,16 @@ export function getPlanResult(plan: Plan, checks: readonly InstallCheck[]): Plan
   const latest = (phase: CheckPhase) => [...checks].reverse().find((c) => c.phase === phase) ?? null;
   const before = latest('before');
   const after = latest('after');
-  const expected = finite(plan.figures.expected_gain_db);
-  const pci = plan.cell?.pci ?? finite(plan.figures.pci);
-  const channel = plan.cell?.channel ?? finite(plan.figures.channel);
+  const figures = hasFigures(plan.figures) ? plan.figures : null;
+  const expected = finite(figures?.expected_gain_db);
+  const pci = plan.cell?.pci ?? finite(figures?.pci);
+  const channel = plan.cell?.channel ?? finite(figures?.channel);
   const predicted: PredictedGain[] = expected !== null && pci !== null ? [{ pci, channel, gainDb: expected }] : [];
   return {
     beforeCheckId: before?.id ?? null,
     afterCheckId: after?.id ?? null,
-    predictedRsrpDbm: finite(plan.figures.predicted_rsrp_dbm),
+    predictedRsrpDbm: finite(figures?.predicted_rsrp_dbm),
+    expectedThroughputMbps: finite(figures?.expected_throughput_mbps),
     gains: getMeasuredGains(before?.readings ?? [], after?.readings ?? [], predicted),
     speedBefore: summariseSpeedTests(before?.speedTests ?? []),
     speedAfter: summariseSpeedTests(after?.speedTests ?? []),
@@ -373,7 +380,10 @@ async function countAfterChecks(db: Tx, planId: string): Promise<number> {
 
 const incomplete = (message: string, fields: Record<string, string[]>) => new AppError('UNPROCESSABLE_CONTENT', message, fields);
 
-export async function createPlan(db: Tx, input: PlanInput, actorId: string): Promise<Plan> {
+/** A plan to insert: the parsed input for an existing customer, with the figures the server computed. */
+export type NewPlan = Omit<PlanInput, 'customerId' | 'newCustomer'> & { customerId: string; figures: PlanFiguresFieldJson };
+
+export async function createPlan(db: Tx, input: NewPlan, actorId: string): Promise<Plan> {
   await assertReferences(db, input);
   const missing = getMissingFacts(input.state, { ...input, afterCheckCount: 0 });
   if (Object.keys(missing).length) throw incomplete(`The plan is not ready to be ${input.state}`, missing);
@@ -413,7 +423,7 @@ const SNAKE: Record<(typeof KIT_FIELDS)[number], string> = {
  * Edits a plan and moves it between states. A forbidden step is a conflict (409); a step the
  * plan is not ready for is unprocessable (422) with the missing fields.
  */
-export async function updatePlan(db: Tx, id: string, change: PlanChange, actorId: string): Promise<Plan> {
+export async function updatePlan(db: Tx, id: string, change: PlanChange & { figures?: PlanFiguresFieldJson }, actorId: string): Promise<Plan> {
   const locked = await db('plans').where({ id }).forUpdate().first('row_version');
   if (!locked) throw new NotFoundError('Plan not found');
   if (change.rowVersion !== undefined && change.rowVersion !== locked.row_version) {
@@ -422,7 +432,8 @@ export async function updatePlan(db: Tx, id: string, change: PlanChange, actorId
   const before = await findPlan(db, id);
   const to = change.state ?? before.state;
 
-  const kitChanges = KIT_FIELDS.filter((k) => change[k] !== undefined && JSON.stringify(change[k]) !== JSON.stringify(before[k]));
+  // Figures follow the kit (the server computes them), so only the kit fields themselves are named.
+  const kitChanges = KIT_FIELDS.filter((k) => k !== 'figures' && change[k] !== undefined && JSON.stringify(change[k]) !== JSON.stringify(before[k]));
   if (kitChanges.length && isKitLocked(before.state) && isKitLocked(to)) {
     const fields = Object.fromEntries(kitChanges.map((k) => [SNAKE[k], ['Fixed once installed; move the plan back to scheduled to change it']]));
     throw incomplete(`The cell and kit of an ${before.state} plan are fixed`, fields);
@@ -473,6 +484,17 @@ export async function addInstallCheck(db: Tx, planId: string, input: InstallChec
   if (!locked) throw new NotFoundError('Plan not found');
   const problem = getCheckPhaseProblem(locked.state, input.phase);
   if (problem) throw incomplete(problem, { phase: [problem] });
+  // Readings are of the plan's technology: an LTE plan's PCIs are 0–503.
+  const cell = await db('plans as p').join('cells as c', 'c.id', 'p.cell_id').where('p.id', planId).first('c.tech');
+  if (cell) {
+    const fields = Object.fromEntries(
+      input.readings.flatMap((r, i) => {
+        const message = getPciProblem(cell.tech, r.pci);
+        return message ? [[`readings.${i}.pci`, [message]]] : [];
+      }),
+    );
+    if (Object.keys(fields).length) throw new ValidationError('Some readings need attention', fields);
+  }
   const [row] = await db('install_checks')
     .insert({ plan_id: planId, phase: input.phase, taken_at: input.takenAt ?? now, notes: input.notes, created_by: actorId })
     .returning('id');

@@ -2,7 +2,9 @@ import { getDb } from '../../../lib/server/db';
 import { handler, json, parseBody, parseWith, requirePermission, requireUser } from '../../../lib/server/http';
 import { ForbiddenError } from '../../../lib/server/errors';
 import { canViewPlans } from '../../../lib/domain/plan-state';
-import { findPlanDetail, planDetailJson, updatePlan } from '../../../lib/server/repos/plans';
+import { findPlanDetail, planDetailJson } from '../../../lib/server/repos/plans';
+import { changePlan } from '../../../lib/server/plan-service';
+import { getElevationProfile } from '../../../lib/server/elevation-service';
 import { PlanChangeSchema } from '../../../lib/schemas/plans';
 import { syncInstallReadings } from '../../../lib/server/repos/install-feedback';
 import { IdParamSchema } from '../../../lib/schemas/params';
@@ -19,7 +21,7 @@ export const PATCH = handler(async ({ locals, params, request }) => {
   const { id } = parseWith(IdParamSchema, params);
   const change = await parseBody(PlanChangeSchema, request);
   await getDb().transaction(async (trx) => {
-    await updatePlan(trx, id, change, actor.id);
+    await changePlan(trx, id, change, actor.id, new Date(), getElevationProfile);
     if (change.state !== undefined) await syncInstallReadings(trx, id);
   });
   return json(planDetailJson(await findPlanDetail(getDb(), id)));

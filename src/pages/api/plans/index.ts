@@ -2,7 +2,9 @@ import { getDb } from '../../../lib/server/db';
 import { handler, json, parseBody, parseQuery, requirePermission, requireUser } from '../../../lib/server/http';
 import { ForbiddenError } from '../../../lib/server/errors';
 import { canViewPlans } from '../../../lib/domain/plan-state';
-import { createPlan, listPlans, planJson } from '../../../lib/server/repos/plans';
+import { listPlans, planJson } from '../../../lib/server/repos/plans';
+import { savePlan } from '../../../lib/server/plan-service';
+import { getElevationProfile } from '../../../lib/server/elevation-service';
 import { PlanInputSchema, PlanListQuerySchema } from '../../../lib/schemas/plans';
 
 export const GET = handler(async ({ locals, url }) => {
@@ -15,6 +17,7 @@ export const GET = handler(async ({ locals, url }) => {
 export const POST = handler(async ({ locals, request }) => {
   const actor = requirePermission(locals, 'plans:write');
   const input = await parseBody(PlanInputSchema, request);
-  const plan = await getDb().transaction((trx) => createPlan(trx, input, actor.id));
+  // A new customer and the plan are one transaction: a failed save leaves neither behind.
+  const plan = await getDb().transaction((trx) => savePlan(trx, input, actor.id, new Date(), getElevationProfile));
   return json(planJson(plan), 201);
 });

@@ -24,10 +24,11 @@ export const GET = handler(async ({ locals, url }) => {
       cableM: q.cable_m,
       currentAntennaId: q.current_antenna_id,
       preferredOperatorId: q.operator,
+      requiredOperatorId: q.sim_operator,
       radiusM: q.radius_m,
       date: q.date ?? new Date(),
     },
     profileFor,
   );
-  return json(shortlistJson(result, at));
+  return json(shortlistJson(result, at, q.sim_operator ?? null));
 });

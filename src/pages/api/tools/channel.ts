@@ -1,5 +1,5 @@
 import { handler, json, parseQuery, requirePermission } from '../../../lib/server/http';
-import { ChannelQuerySchema } from '../../../lib/schemas/tools';
+import { ChannelQuerySchema, type ChannelJson, type FrequencyJson } from '../../../lib/schemas/tools';
 import { ChannelError, findChannelsForFrequency, lookupChannel } from '../../../lib/domain/channels';
 import { ValidationError } from '../../../lib/server/errors';
 
@@ -14,17 +14,18 @@ export const GET = handler(({ locals, url }) => {
         freq_mhz: [`${q.freq_mhz} MHz is in no known ${q.tech.toUpperCase()} band`],
       });
     }
-    return json({
+    const body: FrequencyJson = {
       tech: q.tech,
       freq_mhz: q.freq_mhz,
       ambiguous: new Set(items.map((i) => i.band)).size > 1,
       items: items.map((i) => ({ band: i.band, channel: i.channel, direction: i.direction, exact: i.exact })),
       total: items.length,
-    });
+    };
+    return json(body);
   }
   try {
     const info = lookupChannel(q.tech, q.channel!, { band: q.band });
-    return json({
+    const body: ChannelJson = {
       tech: info.tech,
       channel: info.channel,
       band: info.band,
@@ -36,7 +37,8 @@ export const GET = handler(({ locals, url }) => {
       ul_mhz: info.ulMhz,
       alternative_bands: info.alternativeBands,
       notes: info.notes,
-    });
+    };
+    return json(body);
   } catch (err) {
     if (err instanceof ChannelError) {
       throw new ValidationError(err.message, { [err.code === 'UNKNOWN_BAND' ? 'band' : 'channel']: [err.message] });
