@@ -5,7 +5,7 @@ import { getViteConfig } from 'astro/config';
 // Browser tests live in tests/e2e and run with vitest.e2e.config.ts against the built app.
 export default getViteConfig({
   test: {
-    include: ['tests/domain/**/*.test.ts', 'tests/tooling/**/*.test.ts', 'tests/integration/**/*.test.ts'],
+    include: ['tests/domain/**/*.test.ts', 'tests/client/**/*.test.ts', 'tests/tooling/**/*.test.ts', 'tests/integration/**/*.test.ts'],
     environment: 'node',
     testTimeout: 30_000,
     hookTimeout: 60_000,

@@ -1,6 +1,7 @@
 import { useCallback, useEffect, useState, type ReactNode } from 'react';
 import { ApiError, type FieldErrors } from '../../lib/client/api';
 import { customersApi, plansApi, type CustomerJson, type HistoryEntryJson, type PlanDetailJson } from '../../lib/client/planning-api';
+import { hasFigures } from '../../lib/schemas/plans';
 import { PLAN_STATES, PLAN_STATE_LABELS, isKitLocked, type PlanState } from '../../lib/domain/plan-state';
 import InstallCheckForm from './InstallCheckForm';
 import CustomerForm from './CustomerForm';
@@ -50,8 +51,7 @@ function PlanCard({ plan, canWrite, canRecord, onChanged }: { plan: PlanDetailJs
   const [date, setDate] = useState(plan.scheduled_for ?? '');
   const [problem, setProblem] = useState<{ message: string; fields: FieldErrors } | null>(null);
   const [busy, setBusy] = useState(false);
-  const f = plan.figures as Record<string, unknown>;
-  const terrain = (f.terrain as { status?: string } | undefined)?.status;
+  const f = hasFigures(plan.figures) ? plan.figures : null;
   const rank = (s: PlanState) => PLAN_STATES.indexOf(s);
 
   async function move(to: PlanState) {
@@ -106,15 +106,16 @@ function PlanCard({ plan, canWrite, canRecord, onChanged }: { plan: PlanDetailJs
             ['Install date', plan.scheduled_for ?? '—'],
           ]}
         />
-        {Object.keys(f).length > 0 ? (
+        {f ? (
           <Facts
             items={[
-              ['Predicted RSRP', `${fmt(f.predicted_rsrp_dbm, 1, 'dBm')}${typeof f.grade === 'string' ? ` (${f.grade})` : ''}`],
+              ['Predicted RSRP', `${fmt(f.predicted_rsrp_dbm, 1, 'dBm')} (${f.grade})`],
+              ['SINR', f.sinr_db == null ? '—' : `${fmt(f.sinr_db, 1, 'dB')}${f.expected_throughput_mbps != null ? ` · up to ${fmt(f.expected_throughput_mbps, 0, 'Mbit/s')}` : ''}`],
               ['Expected gain', fmt(f.expected_gain_db, 1, 'dB')],
-              ['Distance', typeof f.distance_m === 'number' ? `${(f.distance_m / 1000).toFixed(2)} km` : '—'],
+              ['Distance', `${(f.distance_m / 1000).toFixed(2)} km`],
               ['Bearing', `${fmt(f.bearing_true_deg, 1, '° true')} · ${fmt(f.bearing_magnetic_deg, 1, '° magnetic')}`],
-              ['Elevation', fmt(f.elevation_deg, 2, '°')],
-              ['Terrain', terrain ? (TERRAIN_LABELS[terrain] ?? terrain) : '—'],
+              ['Elevation', fmt(f.elevation_deg, 1, '°')],
+              ['Terrain', TERRAIN_LABELS[f.terrain.status] ?? f.terrain.status],
             ]}
           />
         ) : (
@@ -218,6 +219,12 @@ function CheckResult({ plan }: { plan: PlanDetailJson }) {
       </div>
       <p className="text-sm">
         <span className="text-ink-600">Speed before:</span> {speed(r.speed_before)} · <span className="text-ink-600">after:</span> {speed(r.speed_after)}
+        {r.expected_throughput_mbps !== null && (
+          <span data-testid="speed-vs-expected">
+            {' '}· <span className="text-ink-600">expected up to</span> {r.expected_throughput_mbps.toFixed(0)} Mbit/s
+            {r.speed_after.down_mbps !== null && ` (measured ${Math.round((100 * r.speed_after.down_mbps) / Math.max(0.1, r.expected_throughput_mbps))} % of it; the cell is shared, so less is normal at busy times)`}
+          </span>
+        )}
       </p>
     </section>
   );

@@ -5,12 +5,16 @@ import { useDebounced } from '../tools/useDebounced';
 
 interface Props {
   onPick: (m: GeocodeMatch) => void;
+  /** Text to show when the position was set elsewhere (a map click, a shared link). */
+  text?: string | null;
 }
 
 /** Address or coordinates (decimal or DMS) → a position. Arrow keys and Enter work in the list. */
-export default function AddressSearch({ onPick }: Props) {
-  const [q, setQ] = useState('');
+export default function AddressSearch({ onPick, text }: Props) {
+  const [q, setQ] = useState(text ?? '');
   const [items, setItems] = useState<GeocodeMatch[]>([]);
+  // The query the listed suggestions answer: Enter before they catch up searches what was typed.
+  const [itemsFor, setItemsFor] = useState('');
   const [error, setError] = useState<string | null>(null);
   const [active, setActive] = useState(0);
   const [open, setOpen] = useState(false);
@@ -18,8 +22,15 @@ export default function AddressSearch({ onPick }: Props) {
   const listId = useId();
 
   useEffect(() => {
+    if (text == null) return;
+    setQ(text);
+    setOpen(false);
+  }, [text]);
+
+  useEffect(() => {
     if (settled.length < 2) {
       setItems([]);
+      setItemsFor('');
       setError(null);
       return;
     }
@@ -28,10 +39,11 @@ export default function AddressSearch({ onPick }: Props) {
       (r) => {
         if (!live) return;
         setItems(r.items);
+        setItemsFor(settled);
         setActive(0);
         setError(r.items.length ? null : 'No address matches. Try a postcode, or type coordinates like -47.21, -128.52.');
       },
-      (e: unknown) => live && (setItems([]), setError(e instanceof ApiError ? e.message : 'Search failed')),
+      (e: unknown) => live && (setItems([]), setItemsFor(settled), setError(e instanceof ApiError ? e.message : 'Search failed')),
     );
     return () => {
       live = false;
@@ -43,6 +55,19 @@ export default function AddressSearch({ onPick }: Props) {
     setQ(m.label);
     setOpen(false);
   };
+
+  /** Enter on text the suggestions do not answer yet (a paste): search it now and take its best match. */
+  async function pickTyped(typed: string) {
+    try {
+      const r = await plannerApi.geocode(typed);
+      setItems(r.items);
+      setItemsFor(typed);
+      if (r.items[0]) pick(r.items[0]);
+      else setError('No address matches. Try a postcode, or type coordinates like -47.21, -128.52.');
+    } catch (e) {
+      setError(e instanceof ApiError ? e.message : 'Search failed');
+    }
+  }
 
   return (
     <div className="relative">
@@ -65,13 +90,19 @@ export default function AddressSearch({ onPick }: Props) {
         onKeyDown={(e) => {
           if (e.key === 'ArrowDown') setActive((a) => Math.min(a + 1, items.length - 1));
           else if (e.key === 'ArrowUp') setActive((a) => Math.max(a - 1, 0));
-          else if (e.key === 'Enter' && items[active]) {
-            e.preventDefault();
-            pick(items[active]);
+          else if (e.key === 'Enter') {
+            const typed = q.trim();
+            if (typed.length >= 2 && typed !== itemsFor) {
+              e.preventDefault();
+              void pickTyped(typed);
+            } else if (items[active]) {
+              e.preventDefault();
+              pick(items[active]);
+            }
           } else if (e.key === 'Escape') setOpen(false);
         }}
       />
-      {error && <p className="mt-1 text-xs text-ink-600" role="status">{error}</p>}
+      {error && <p className="mt-1 text-xs text-ink-700" role="status" data-testid="address-error">{error}</p>}
       {open && items.length > 0 && (
         <ul id={listId} role="listbox" className="absolute z-20 mt-1 max-h-72 w-full overflow-auto rounded-md border border-ink-200 bg-white shadow-lg">
           {items.map((m, i) => (

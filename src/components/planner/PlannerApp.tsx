@@ -1,4 +1,4 @@
-import { useEffect, useMemo, useState } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import { ApiError } from '../../lib/client/api';
 import type { PathResult } from '../../lib/client/tools-api';
 import {
@@ -11,12 +11,13 @@ import {
   type ShortlistItem,
 } from '../../lib/client/planner-api';
 import type { LatLon } from '../../lib/domain/geodesy';
+import { checkKitForm, chooseSelection, readMetres, readPlannerUrl, writePlannerUrl, type KitForm } from '../../lib/client/planner-state';
 import { useDebounced } from '../tools/useDebounced';
 import AddressSearch from './AddressSearch';
 import PlannerMap from './PlannerMap';
 import ShortlistTable from './ShortlistTable';
 import TerrainChart from './TerrainChart';
-import { GradeBadge, TERRAIN_LABELS } from './grades';
+import { GradeBadge, TERRAIN_LABELS, describeConfidence } from './grades';
 
 export interface PlannerCustomer {
   id: string;
@@ -25,6 +26,8 @@ export interface PlannerCustomer {
   lat: number | null;
   lon: number | null;
   currentAntennaId: string | null;
+  /** The customer's SIM operator, if known: the shortlist lists only its cells. */
+  currentOperatorId?: string | null;
 }
 
 interface Props {
@@ -32,26 +35,27 @@ interface Props {
   canSave: boolean;
 }
 
-interface KitForm {
-  antennaId: string;
-  cableId: string;
-  cableM: string;
-  heightM: string;
-  operator: string;
-}
+const positionKey = (p: LatLon | null) => (p ? `${p.lat.toFixed(6)},${p.lon.toFixed(6)}` : '');
 
 export default function PlannerApp({ customer, canSave }: Props) {
-  const [position, setPosition] = useState<LatLon | null>(customer?.lat != null && customer.lon != null ? { lat: customer.lat, lon: customer.lon } : null);
+  // A shared or reloaded link restores position, kit and the selected cell; a customer's own position wins.
+  const fromUrl = useMemo(() => readPlannerUrl(window.location.search), []);
+  const [position, setPosition] = useState<LatLon | null>(customer?.lat != null && customer.lon != null ? { lat: customer.lat, lon: customer.lon } : fromUrl.position);
   const [addressLabel, setAddressLabel] = useState<string | null>(customer?.addressLabel ?? null);
+  const [typedLabel, setTypedLabel] = useState<string | null>(position && !customer ? `${position.lat.toFixed(5)}, ${position.lon.toFixed(5)}` : null);
   const [antennas, setAntennas] = useState<AntennaOption[]>([]);
   const [cables, setCables] = useState<CableOption[]>([]);
   const [operators, setOperators] = useState<OperatorOption[]>([]);
-  const [kit, setKit] = useState<KitForm>({ antennaId: '', cableId: '', cableM: '10', heightM: '6', operator: '' });
+  const [kit, setKit] = useState<KitForm>({ antennaId: '', cableId: '', cableM: '10', heightM: '6', operator: '', simOperator: customer?.currentOperatorId ?? '', ...fromUrl.kit });
   const [shortlist, setShortlist] = useState<Shortlist | null>(null);
   const [loading, setLoading] = useState(false);
   const [error, setError] = useState<{ message: string; fields: Record<string, string[]> } | null>(null);
-  const [selected, setSelected] = useState<string | null>(null);
+  const [selected, setSelected] = useState<string | null>(fromUrl.cellId);
   const [profile, setProfile] = useState<PathResult | null>(null);
+  const wantedCell = useRef<string | null>(fromUrl.cellId);
+  const shortlistAt = useRef<string>('');
+  const kitErrors = checkKitForm(kit);
+  const kitValid = Object.keys(kitErrors).length === 0;
 
   useEffect(() => {
     Promise.all([plannerApi.antennas(), plannerApi.cables(), plannerApi.operators()]).then(
@@ -60,26 +64,70 @@ export default function PlannerApp({ customer, canSave }: Props) {
         setCables(c.items);
         setOperators(o.items);
         const directional = a.items.find((x) => x.kind === 'directional') ?? a.items[0];
-        setKit((k) => ({ ...k, antennaId: directional?.id ?? '', cableId: c.items[0]?.id ?? '' }));
+        setKit((k) => ({
+          ...k,
+          antennaId: k.antennaId && a.items.some((x) => x.id === k.antennaId) ? k.antennaId : (directional?.id ?? ''),
+          cableId: fromUrl.kit.cableId !== undefined ? k.cableId : (c.items[0]?.id ?? ''),
+        }));
       },
       (e: unknown) => setError({ message: e instanceof ApiError ? e.message : 'Could not load the catalogue', fields: {} }),
     );
   }, []);
 
-  const request = useDebounced(position && kit.antennaId ? JSON.stringify({ ...position, ...kit }) : null, 300);
+  // The URL follows the planner: a new position is a new history entry (Back returns to the last one).
+  const lastUrlPosition = useRef(positionKey(position));
+  useEffect(() => {
+    const search = writePlannerUrl(window.location.search, { position: customer ? null : position, kit, cellId: selected });
+    const url = `${window.location.pathname}${search}`;
+    if (url === `${window.location.pathname}${window.location.search}`) return;
+    if (positionKey(position) !== lastUrlPosition.current) window.history.pushState(null, '', url);
+    else window.history.replaceState(null, '', url);
+    lastUrlPosition.current = positionKey(position);
+  }, [position, kit, selected]);
+  useEffect(() => {
+    const onPop = () => {
+      const back = readPlannerUrl(window.location.search);
+      lastUrlPosition.current = positionKey(back.position);
+      if (!customer) {
+        setPosition(back.position);
+        setTypedLabel(back.position ? `${back.position.lat.toFixed(5)}, ${back.position.lon.toFixed(5)}` : '');
+      }
+      setKit((k) => ({ ...k, ...back.kit }));
+      wantedCell.current = back.cellId;
+      setSelected(back.cellId);
+    };
+    window.addEventListener('popstate', onPop);
+    return () => window.removeEventListener('popstate', onPop);
+  }, []);
+
+  const request = useDebounced(position && kit.antennaId && kitValid ? JSON.stringify({ ...position, ...kit }) : null, 300);
   useEffect(() => {
     if (!request) return;
     const p = JSON.parse(request) as LatLon & KitForm;
     let live = true;
     setLoading(true);
     plannerApi
-      .shortlist({ lat: p.lat, lon: p.lon, height_m: p.heightM, antenna_id: p.antennaId, cable_id: p.cableId, cable_m: p.cableM, operator: p.operator, current_antenna_id: customer?.currentAntennaId ?? '' })
+      .shortlist({
+        lat: p.lat,
+        lon: p.lon,
+        height_m: String(readMetres(p.heightM)),
+        antenna_id: p.antennaId,
+        cable_id: p.cableId,
+        cable_m: p.cableId ? String(readMetres(p.cableM)) : '0',
+        operator: p.operator,
+        sim_operator: p.simOperator,
+        current_antenna_id: customer?.currentAntennaId ?? '',
+      })
       .then(
         (s) => {
           if (!live) return;
+          const at = positionKey(p);
+          const samePosition = shortlistAt.current === at;
+          shortlistAt.current = at;
           setShortlist(s);
           setError(null);
-          setSelected((cur) => (cur && s.items.some((i) => i.cell_id === cur) ? cur : (s.items[0]?.cell_id ?? null)));
+          setSelected((cur) => chooseSelection(s.items, cur, { samePosition, wanted: wantedCell.current }));
+          wantedCell.current = null;
         },
         (e: unknown) => live && setError(e instanceof ApiError ? { message: e.message, fields: e.fields } : { message: 'Could not build the shortlist', fields: {} }),
       )
@@ -93,17 +141,17 @@ export default function PlannerApp({ customer, canSave }: Props) {
 
   useEffect(() => {
     setProfile(null);
-    if (!chosen || !position) return;
+    if (!chosen || !position || !kitValid) return;
     let live = true;
-    plannerApi.profile(position, chosen, kit.heightM).then((p) => live && setProfile(p), () => live && setProfile(null));
+    plannerApi.profile(position, chosen, String(readMetres(kit.heightM))).then((p) => live && setProfile(p), () => live && setProfile(null));
     return () => {
       live = false;
     };
     // Keyed on the cell and the position's values: a new object for the same place asks nothing new.
     // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [chosen?.cell_id, position?.lat, position?.lon, kit.heightM]);
+  }, [chosen?.cell_id, position?.lat, position?.lon, kit.heightM, kitValid]);
 
-  const fieldError = (k: string) => error?.fields[k]?.[0];
+  const fieldError = (k: 'height_m' | 'cable_m') => kitErrors[k] ?? error?.fields[k]?.[0];
   const setK = (patch: Partial<KitForm>) => setKit((k) => ({ ...k, ...patch }));
 
   return (
@@ -113,6 +161,7 @@ export default function PlannerApp({ customer, canSave }: Props) {
           <h2 id="where-heading">Where</h2>
           {customer && <p className="text-sm">Planning for <a className="font-semibold underline" href={`/customers/${customer.id}`}>{customer.name}</a></p>}
           <AddressSearch
+            text={typedLabel}
             onPick={(m) => {
               setPosition({ lat: m.lat, lon: m.lon });
               setAddressLabel(m.kind === 'address' ? m.label : null);
@@ -140,19 +189,26 @@ export default function PlannerApp({ customer, canSave }: Props) {
             </div>
             <div>
               <label htmlFor="kit-length" className="field-label">Cable length (m)</label>
-              <input id="kit-length" className="field-input" inputMode="decimal" value={kit.cableM} onChange={(e) => setK({ cableM: e.target.value })} aria-invalid={!!fieldError('cable_m')} />
-              {fieldError('cable_m') && <p className="field-error">{fieldError('cable_m')}</p>}
+              <input id="kit-length" className="field-input" inputMode="decimal" value={kit.cableM} disabled={!kit.cableId} required={!!kit.cableId} onChange={(e) => setK({ cableM: e.target.value })} aria-invalid={!!fieldError('cable_m')} aria-describedby={fieldError('cable_m') ? 'kit-length-error' : undefined} />
+              {fieldError('cable_m') && <p id="kit-length-error" className="field-error">{fieldError('cable_m')}</p>}
             </div>
             <div>
               <label htmlFor="kit-height" className="field-label">Mount height (m)</label>
-              <input id="kit-height" className="field-input" inputMode="decimal" value={kit.heightM} onChange={(e) => setK({ heightM: e.target.value })} aria-invalid={!!fieldError('height_m')} />
-              {fieldError('height_m') && <p className="field-error">{fieldError('height_m')}</p>}
+              <input id="kit-height" className="field-input" inputMode="decimal" value={kit.heightM} required onChange={(e) => setK({ heightM: e.target.value })} aria-invalid={!!fieldError('height_m')} aria-describedby={fieldError('height_m') ? 'kit-height-error' : undefined} />
+              {fieldError('height_m') && <p id="kit-height-error" className="field-error">{fieldError('height_m')}</p>}
             </div>
             <div className="col-span-2">
               <label htmlFor="kit-operator" className="field-label">Preferred operator</label>
               <select id="kit-operator" className="field-input" value={kit.operator} onChange={(e) => setK({ operator: e.target.value })}>
                 <option value="">No preference</option>
                 {operators.map((o) => <option key={o.id} value={o.id}>{o.name}</option>)}
+              </select>
+            </div>
+            <div className="col-span-2">
+              <label htmlFor="kit-sim" className="field-label">Customer's SIM operator</label>
+              <select id="kit-sim" className="field-input" value={kit.simOperator} onChange={(e) => setK({ simOperator: e.target.value })}>
+                <option value="">Any operator</option>
+                {operators.map((o) => <option key={o.id} value={o.id}>{o.name} only</option>)}
               </select>
             </div>
           </div>
@@ -168,15 +224,21 @@ export default function PlannerApp({ customer, canSave }: Props) {
             onPickPosition={(p) => {
               setPosition(p);
               setAddressLabel(null);
+              setTypedLabel(`${p.lat.toFixed(5)}, ${p.lon.toFixed(5)}`);
             }}
             onSelect={setSelected}
           />
         </div>
         {error && <p role="alert" className="rounded-md border border-alarm-100 bg-alarm-50 px-3 py-2 text-sm text-alarm-700">{error.message}</p>}
+        {shortlist && shortlist.warnings.length > 0 && (
+          <ul className="rounded-md border border-ember-100 bg-ember-50 px-3 py-2 text-sm text-ember-700" data-testid="position-warnings">
+            {shortlist.warnings.map((w) => <li key={w}>{w}</li>)}
+          </ul>
+        )}
         <section className="card min-w-0" aria-labelledby="shortlist-heading" aria-busy={loading}>
           <div className="mb-2 flex flex-wrap items-baseline gap-2">
             <h2 id="shortlist-heading">Shortlist</h2>
-            {shortlist && <span className="text-sm text-ink-600">{shortlist.total} cells within {(shortlist.radius_m / 1000).toFixed(0)} km · {shortlist.kit.antenna.name}{shortlist.kit.cable ? `, ${shortlist.kit.cable_m} m ${shortlist.kit.cable.name}` : ''}{shortlist.current_antenna ? ` · gain vs ${shortlist.current_antenna.name}` : ''}</span>}
+            {shortlist && <span className="text-sm text-ink-600">{shortlist.total} cells within {(shortlist.radius_m / 1000).toFixed(0)} km · {shortlist.kit.antenna.name}{shortlist.kit.cable ? `, ${shortlist.kit.cable_m} m ${shortlist.kit.cable.name}` : ''}{shortlist.current_antenna ? ` · gain vs ${shortlist.current_antenna.name}` : ''}{shortlist.required_operator_id ? ` · ${operators.find((o) => o.id === shortlist.required_operator_id)?.name ?? 'one operator'} only` : ''} · ranked by RSRP and SINR</span>}
             {loading && <span className="text-sm text-ink-500" role="status">Calculating…</span>}
           </div>
           {shortlist ? <ShortlistTable items={shortlist.items} selectedCellId={selected} onSelect={setSelected} /> : <p className="text-sm text-ink-600">The ranked candidates appear here once a position is set.</p>}
@@ -213,10 +275,14 @@ function CandidateDetail(props: {
     <section className="card min-w-0" aria-labelledby="candidate-heading" data-testid="candidate-detail">
       <div className="flex flex-wrap items-baseline gap-2">
         <h2 id="candidate-heading">{item.mast.name}: {item.operator.name} {item.tech.toUpperCase()} {item.band}</h2>
-        <GradeBadge grade={item.grade} />
+        <GradeBadge grade={item.grade} prefix="RSRP" />
+        {item.sinr_grade && <GradeBadge grade={item.sinr_grade} prefix="SINR" />}
       </div>
       <p className="mt-1 text-sm text-ink-700" data-testid="candidate-aim">
-        Aim {item.bearing_true_deg.toFixed(1)}° true / {item.bearing_magnetic_deg.toFixed(1)}° magnetic · tilt {item.elevation_deg >= 0 ? 'up' : 'down'} {Math.abs(item.elevation_deg).toFixed(2)}° · {(item.distance_m / 1000).toFixed(2)} km · {item.tech.toUpperCase()} {item.band} ch {item.channel} ({item.freq_mhz.toFixed(1)} MHz) PCI {item.pci ?? '—'}
+        Aim {item.bearing_true_deg.toFixed(1)}° true / {item.bearing_magnetic_deg.toFixed(1)}° magnetic · tilt {item.elevation_deg >= 0 ? 'up' : 'down'} {Math.abs(item.elevation_deg).toFixed(1)}° · {item.distance_m >= 1000 ? `${(item.distance_m / 1000).toFixed(2)} km` : `${item.distance_m.toFixed(0)} m`} · {item.tech.toUpperCase()} {item.band} ch {item.channel} ({item.freq_mhz.toFixed(1)} MHz) PCI {item.pci ?? '—'}
+      </p>
+      <p className="mt-1 text-sm text-ink-700" data-testid="candidate-quality">
+        SINR {item.sinr_db === null ? '—' : `${item.sinr_db.toFixed(1)} dB`} ({item.interferers} co-channel cell{item.interferers === 1 ? '' : 's'} counted) · expected up to {item.expected_throughput_mbps === null ? '—' : `${item.expected_throughput_mbps.toFixed(0)} Mbit/s`} on {item.bandwidth_mhz} MHz, shared with other users · {describeConfidence(item.calibration)}
       </p>
       <div className="mt-3 grid gap-4 xl:grid-cols-[1fr_18rem]">
         <div className="min-w-0">
@@ -233,7 +299,7 @@ function CandidateDetail(props: {
               <tr><td className="py-1 pr-2 font-semibold">Predicted RSRP</td><td className="py-1 text-right font-semibold tabular-nums">{item.predicted_rsrp_dbm.toFixed(1)} dBm</td></tr>
             </tbody>
           </table>
-          <p className="mt-2 text-xs text-ink-600">Terrain: {TERRAIN_LABELS[item.terrain.status]}. {item.calibration ? `Calibrated by ${item.calibration.readings_used} readings (median residual ${item.calibration.residual_db} dB).` : 'No readings of this cell nearby: model only.'}</p>
+          <p className="mt-2 text-xs text-ink-600">Terrain: {TERRAIN_LABELS[item.terrain.status]}. {item.calibration ? `Readings nearby: ${item.calibration.readings_used}, median residual ${item.calibration.median_residual_db} dB, ${Math.round(item.calibration.weight * 100)} % of it applied (${item.calibration.residual_db > 0 ? '+' : ''}${item.calibration.residual_db} dB).` : 'No readings of this cell nearby: model only.'}</p>
           {item.warnings.length > 0 && <ul className="mt-2 list-disc pl-4 text-xs text-ember-700">{item.warnings.map((w) => <li key={w}>{w}</li>)}</ul>}
         </div>
       </div>
@@ -242,24 +308,35 @@ function CandidateDetail(props: {
   );
 }
 
+/** The server's message plus its field problems, in words a planner reads. */
+function describeSaveError(error: { message: string; fields: Record<string, string[]> }): string {
+  const details = Object.values(error.fields).flat();
+  return details.length ? `${error.message}: ${details.join('; ')}` : error.message;
+}
+
 function SavePlan({ item, customer, addressLabel, position, kit }: { item: ShortlistItem; customer: PlannerCustomer | null; addressLabel: string | null; position: LatLon; kit: KitForm }) {
+  const kitValid = Object.keys(checkKitForm(kit)).length === 0;
   const [name, setName] = useState('');
   const [busy, setBusy] = useState(false);
   const [error, setError] = useState<{ message: string; fields: Record<string, string[]> } | null>(null);
+  const nameError = error?.fields['customer.name']?.[0];
 
   async function save() {
     setBusy(true);
     setError(null);
     try {
-      const customerId = customer?.id ?? (await planSaveApi.createCustomer({ name: name.trim(), address_label: addressLabel ?? `${position.lat.toFixed(5)}, ${position.lon.toFixed(5)}`, lat: position.lat, lon: position.lon })).id;
+      const who = customer
+        ? { customer_id: customer.id }
+        : { customer: { name: name.trim(), address_label: addressLabel ?? `${position.lat.toFixed(5)}, ${position.lon.toFixed(5)}`, lat: position.lat, lon: position.lon } };
+      // One request: the new customer and the plan are saved together or not at all, and the server
+      // computes the plan's figures from the same kit the shortlist used.
       const plan = await planSaveApi.createPlan({
-        customer_id: customerId,
+        ...who,
         cell_id: item.cell_id,
         antenna_id: kit.antennaId,
         cable_id: kit.cableId || null,
-        cable_m: kit.cableId ? Number(kit.cableM) : null,
-        mount_height_m: Number(kit.heightM),
-        figures: { ...item, customer_position: position },
+        cable_m: kit.cableId ? readMetres(kit.cableM) : null,
+        mount_height_m: readMetres(kit.heightM),
         state: 'planned',
       });
       window.location.assign(`/plans/${plan.id}/sheet`);
@@ -280,12 +357,12 @@ function SavePlan({ item, customer, addressLabel, position, kit }: { item: Short
       {!customer && (
         <div className="min-w-56 flex-1">
           <label htmlFor="plan-customer-name" className="field-label">New customer’s name</label>
-          <input id="plan-customer-name" className="field-input" value={name} onChange={(e) => setName(e.target.value)} aria-invalid={!!error?.fields.name} required />
-          {error?.fields.name && <p className="field-error">{error.fields.name[0]}</p>}
+          <input id="plan-customer-name" className="field-input" value={name} onChange={(e) => setName(e.target.value)} aria-invalid={!!nameError} required />
+          {nameError && <p className="field-error">{nameError}</p>}
         </div>
       )}
-      <button type="submit" className="btn-primary" disabled={busy || (!customer && !name.trim())}>{busy ? 'Saving…' : 'Save plan and open the aim sheet'}</button>
-      {error && !error.fields.name && <p role="alert" className="field-error w-full">{error.message}</p>}
+      <button type="submit" className="btn-primary" disabled={busy || !kitValid || (!customer && !name.trim())}>{busy ? 'Saving…' : 'Save plan and open the aim sheet'}</button>
+      {error && !nameError && <p role="alert" className="field-error w-full">{describeSaveError(error)}</p>}
     </form>
   );
 }

@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import type { ShortlistItem } from '../../lib/client/planner-api';
 import { SortableTable, type Column } from '../ui/SortableTable';
-import { GradeBadge, TERRAIN_LABELS } from './grades';
+import { GradeBadge, TERRAIN_LABELS, describeConfidence } from './grades';
 
 interface Props {
   items: ShortlistItem[];
@@ -31,6 +31,7 @@ export default function ShortlistTable({ items, selectedCellId, onSelect }: Prop
             <span className="mr-1 inline-block h-2 w-2 rounded-full" style={{ background: i.operator.colour ?? '#476785' }} aria-hidden="true" />
             {i.operator.name} · {i.tech.toUpperCase()} {i.band} · ch {i.channel} · PCI {i.pci ?? '—'}
           </span>
+          {i.preferred && <span className="ml-1 rounded bg-ink-100 px-1 text-xs font-semibold text-ink-800" data-testid="preferred">preferred</span>}
         </button>
       ),
     },
@@ -42,7 +43,7 @@ export default function ShortlistTable({ items, selectedCellId, onSelect }: Prop
       render: (i) => <span className="tabular-nums">{i.bearing_true_deg.toFixed(0)} / {i.bearing_magnetic_deg.toFixed(0)}</span>,
       className: 'text-right',
     },
-    { key: 'elev', label: 'Tilt °', sortValue: (i) => i.elevation_deg, render: (i) => <span className="tabular-nums">{i.elevation_deg.toFixed(2)}</span>, className: 'hidden text-right sm:table-cell' },
+    { key: 'elev', label: 'Tilt °', sortValue: (i) => i.elevation_deg, render: (i) => <span className="tabular-nums">{i.elevation_deg.toFixed(1)}</span>, className: 'hidden text-right sm:table-cell' },
     { key: 'terrain', label: 'Terrain', sortValue: (i) => i.terrain.diffraction_loss_db, render: (i) => TERRAIN_LABELS[i.terrain.status] },
     {
       key: 'rsrp',
@@ -57,6 +58,18 @@ export default function ShortlistTable({ items, selectedCellId, onSelect }: Prop
       className: 'text-right',
     },
     {
+      key: 'sinr',
+      label: 'SINR dB · Mbit/s',
+      sortValue: (i) => i.sinr_db,
+      render: (i) => (
+        <span className="tabular-nums" data-testid="sinr" title={i.interferers ? `${i.interferers} co-channel cell${i.interferers === 1 ? '' : 's'} of ${i.operator.name} counted` : 'no co-channel cell nearby'}>
+          {i.sinr_db === null ? '—' : i.sinr_db.toFixed(0)}
+          <span className="text-ink-600"> · {i.expected_throughput_mbps === null ? '—' : i.expected_throughput_mbps.toFixed(0)}</span>
+        </span>
+      ),
+      className: 'text-right',
+    },
+    {
       key: 'gain',
       label: 'Gain dB',
       sortValue: (i) => i.expected_gain_db,
@@ -65,9 +78,9 @@ export default function ShortlistTable({ items, selectedCellId, onSelect }: Prop
     },
     {
       key: 'cal',
-      label: 'Readings',
-      sortValue: (i) => i.calibration?.readings_used ?? 0,
-      render: (i) => (i.calibration ? <span title={`median residual ${i.calibration.residual_db} dB`}>{i.calibration.readings_used}</span> : '—'),
+      label: 'Confidence',
+      sortValue: (i) => -(i.calibration?.uncertainty_db ?? 8),
+      render: (i) => <span title={describeConfidence(i.calibration)}>{i.calibration ? `${i.calibration.confidence} (${i.calibration.readings_used})` : 'model'}</span>,
       className: 'hidden text-right sm:table-cell',
     },
   ];

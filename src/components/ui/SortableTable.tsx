@@ -19,7 +19,7 @@ interface Props<T> {
   rowClassName?: (row: T) => string | undefined;
 }
 
-/** A table whose headers sort by click or keyboard. */
+/** A table whose headers sort by click or keyboard; below 640 px each row is a card (global.css `.stack`). */
 export function SortableTable<T>({ rows, columns, rowKey, initialSort, empty, caption, rowClassName }: Props<T>) {
   const [sort, setSort] = useState(initialSort ?? null);
   const sorted = useMemo(() => {
@@ -41,7 +41,7 @@ export function SortableTable<T>({ rows, columns, rowKey, initialSort, empty, ca
 
   return (
     <div className="overflow-x-auto">
-      <table className="data-table">
+      <table className="data-table stack">
         {caption && <caption className="sr-only">{caption}</caption>}
         <thead>
           <tr>
@@ -68,7 +68,7 @@ export function SortableTable<T>({ rows, columns, rowKey, initialSort, empty, ca
             sorted.map((row) => (
               <tr key={rowKey(row)} className={rowClassName?.(row)}>
                 {columns.map((c) => (
-                  <td key={c.key} className={c.className}>{c.render(row)}</td>
+                  <td key={c.key} className={c.className} data-label={c.label}>{c.render(row)}</td>
                 ))}
               </tr>
             ))
