@@ -27,7 +27,30 @@ interface Props {
 }
 
 const blankReading = (channel: number | null, pci: number | null): ReadingRow => ({ pci: pci === null ? '' : String(pci), channel: channel === null ? '' : String(channel), rsrp: '', rsrq: '', sinr: '' });
-const num = (s: string) => (s.trim() === '' ? null : Number(s));
+const NUMBER = /^[+-]?\d+([.,]\d+)?$/;
+const num = (s: string) => (s.trim() === '' ? null : Number(s.trim().replace(',', '.').replace('−', '-')));
+
+/** Field errors for anything typed that is not a number, so nothing is dropped without a word. */
+function findTypingErrors(readings: ReadingRow[], speeds: SpeedRow[]): FieldErrors {
+  const fields: FieldErrors = {};
+  const check = (key: string, label: string, text: string) => {
+    const t = text.trim().replace('−', '-');
+    if (t !== '' && !NUMBER.test(t)) fields[key] = [`${label} must be a number`];
+  };
+  readings.forEach((r, i) => {
+    check(`readings.${i}.pci`, 'PCI', r.pci);
+    check(`readings.${i}.channel`, 'Channel', r.channel);
+    check(`readings.${i}.rsrp_dbm`, 'RSRP', r.rsrp);
+    check(`readings.${i}.rsrq_db`, 'RSRQ', r.rsrq);
+    check(`readings.${i}.sinr_db`, 'SINR', r.sinr);
+  });
+  speeds.forEach((t, i) => {
+    check(`speed_tests.${i}.down_mbps`, 'Download', t.down);
+    check(`speed_tests.${i}.up_mbps`, 'Upload', t.up);
+    check(`speed_tests.${i}.latency_ms`, 'Latency', t.latency);
+  });
+  return fields;
+}
 
 /** Before/after readings per PCI and speed tests, typed from the router's status page on site. */
 export default function InstallCheckForm({ planId, defaultChannel, defaultPci, phases, onSaved }: Props) {
@@ -44,13 +67,18 @@ export default function InstallCheckForm({ planId, defaultChannel, defaultPci, p
 
   async function submit(e: FormEvent) {
     e.preventDefault();
+    const typing = findTypingErrors(readings, speeds);
+    if (Object.keys(typing).length) {
+      setErrors({ message: 'Some values are not numbers', fields: typing });
+      return;
+    }
     setBusy(true);
     setErrors(null);
     const body: InstallCheckBody = {
       phase,
       notes: notes.trim() || null,
       readings: readings
-        .filter((r) => r.pci.trim() || r.rsrp.trim())
+        .filter((r) => r.pci.trim() || r.rsrp.trim() || r.rsrq.trim() || r.sinr.trim())
         .map((r) => ({ pci: num(r.pci) as number, channel: num(r.channel), rsrp_dbm: num(r.rsrp) as number, rsrq_db: num(r.rsrq), sinr_db: num(r.sinr) })),
       speed_tests: speeds
         .filter((s) => s.down.trim() || s.up.trim())
@@ -73,8 +101,8 @@ export default function InstallCheckForm({ planId, defaultChannel, defaultPci, p
   const cell = (label: string, key: string, value: string, onChange: (v: string) => void, width = 'w-20') => (
     <label className="text-xs">
       <span className="block text-ink-600">{label}</span>
-      <input className={`field-input ${width} py-1`} inputMode="decimal" value={value} onChange={(e) => onChange(e.target.value)} aria-invalid={!!err(key)} aria-label={label} />
-      {err(key) && <span className="field-error block">{err(key)}</span>}
+      <input className={`field-input ${width} py-1`} inputMode="decimal" value={value} onChange={(e) => onChange(e.target.value)} aria-invalid={!!err(key)} aria-label={label} data-field={key} />
+      {err(key) && <span className="field-error block" data-testid={`error-${key}`}>{err(key)}</span>}
     </label>
   );
 
