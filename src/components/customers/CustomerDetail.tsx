@@ -301,7 +301,7 @@ export default function CustomerDetail({ customerId, canWrite, canRecord }: Prop
           </div>
           {customer.erased_at && (
             <p role="note" className="mb-3 rounded bg-ink-50 p-2 text-sm text-ink-700">
-              Personal data erased on the customer's request on {new Date(customer.erased_at).toLocaleDateString()}. The position is kept only to about 11 km.
+              Personal data erased on the customer’s request on {new Date(customer.erased_at).toLocaleDateString()}. The position is kept only to about 11 km.
             </p>
           )}
           {editing ? (

@@ -72,7 +72,7 @@ export default function PlannerApp({ customer, canSave }: Props) {
       },
       (e: unknown) => setError({ message: e instanceof ApiError ? e.message : 'Could not load the catalogue', fields: {} }),
     );
-  }, []);
+  }, [fromUrl.kit.cableId]);
 
   // The URL follows the planner: a new position is a new history entry (Back returns to the last one).
   const lastUrlPosition = useRef(positionKey(position));
@@ -83,7 +83,7 @@ export default function PlannerApp({ customer, canSave }: Props) {
     if (positionKey(position) !== lastUrlPosition.current) window.history.pushState(null, '', url);
     else window.history.replaceState(null, '', url);
     lastUrlPosition.current = positionKey(position);
-  }, [position, kit, selected]);
+  }, [position, kit, selected, customer]);
   useEffect(() => {
     const onPop = () => {
       const back = readPlannerUrl(window.location.search);
@@ -98,7 +98,7 @@ export default function PlannerApp({ customer, canSave }: Props) {
     };
     window.addEventListener('popstate', onPop);
     return () => window.removeEventListener('popstate', onPop);
-  }, []);
+  }, [customer]);
 
   const request = useDebounced(position && kit.antennaId && kitValid ? JSON.stringify({ ...position, ...kit }) : null, 300);
   useEffect(() => {
@@ -205,7 +205,7 @@ export default function PlannerApp({ customer, canSave }: Props) {
               </select>
             </div>
             <div className="col-span-2">
-              <label htmlFor="kit-sim" className="field-label">Customer's SIM operator</label>
+              <label htmlFor="kit-sim" className="field-label">Customer’s SIM operator</label>
               <select id="kit-sim" className="field-input" value={kit.simOperator} onChange={(e) => setK({ simOperator: e.target.value })}>
                 <option value="">Any operator</option>
                 {operators.map((o) => <option key={o.id} value={o.id}>{o.name} only</option>)}
