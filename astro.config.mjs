@@ -20,6 +20,7 @@ export default defineConfig({
   env: {
     schema: {
       DATABASE_URL: envField.string({ context: 'server', access: 'secret', optional: true }),
+      DATABASE_READ_URL: envField.string({ context: 'server', access: 'secret', optional: true }),
       SMTP_URL: envField.string({ context: 'server', access: 'secret', optional: true }),
       MAIL_FROM: envField.string({ context: 'server', access: 'secret', optional: true, default: 'Bearline <noreply@bearline.invalid>' }),
       DATA_DIR: envField.string({ context: 'server', access: 'secret', optional: true }),

@@ -1,6 +1,7 @@
 // App configuration, read through astro:env (declared in astro.config.mjs).
 import {
   DATABASE_URL,
+  DATABASE_READ_URL,
   SMTP_URL,
   MAIL_FROM,
   DATA_DIR,
@@ -15,6 +16,8 @@ import {
 
 export const config = {
   databaseUrl: DATABASE_URL,
+  /** A hot standby for lagging reads (see getReadDb); unset means the one database. */
+  databaseReadUrl: DATABASE_READ_URL,
   smtpUrl: SMTP_URL ?? 'smtp://127.0.0.1:2525',
   mailFrom: MAIL_FROM ?? 'Bearline <noreply@bearline.invalid>',
   dataDir: DATA_DIR ?? '.data',

@@ -16,4 +16,17 @@ export function getDb(): Knex {
   return instance;
 }
 
+let readInstance: Knex | null = null;
+
+/**
+ * The pool for reads that may lag a moment behind writes (tiles, the map list, the shortlist, address
+ * search): a streaming-replication standby when DATABASE_READ_URL is set, otherwise the one database.
+ * Anything that writes, or must see its own write at once, uses getDb().
+ */
+export function getReadDb(): Knex {
+  if (!config.databaseReadUrl) return getDb();
+  if (!readInstance) readInstance = knexFactory({ client: 'pg', connection: config.databaseReadUrl, pool: { min: 0, max: 10 } });
+  return readInstance;
+}
+
 export type Tx = Knex | Knex.Transaction;

@@ -1,4 +1,4 @@
-import { getDb } from '../../../lib/server/db';
+import { getReadDb } from '../../../lib/server/db';
 import { handler, json, parseQuery, requirePermission } from '../../../lib/server/http';
 import { createGazetteerGeocoder, geocode } from '../../../lib/server/geocoder';
 import { GeocodeQuerySchema } from '../../../lib/schemas/addresses';
@@ -7,6 +7,6 @@ import { GeocodeQuerySchema } from '../../../lib/schemas/addresses';
 export const GET = handler(async ({ locals, url }) => {
   requirePermission(locals, 'map:view');
   const { q, limit } = parseQuery(GeocodeQuerySchema, url);
-  const items = await geocode(createGazetteerGeocoder(getDb()), q, limit);
+  const items = await geocode(createGazetteerGeocoder(getReadDb()), q, limit);
   return json({ items, total: items.length });
 });

@@ -1,4 +1,4 @@
-import { getDb } from '../../../lib/server/db';
+import { getDb, getReadDb } from '../../../lib/server/db';
 import { handler, json, parseBody, parseQuery, requirePermission } from '../../../lib/server/http';
 import { createMast, listMasts, mastFeatureCollectionJson, mastJson } from '../../../lib/server/repos/masts';
 import { MastInputSchema, MastListQuerySchema } from '../../../lib/schemas/masts';
@@ -7,7 +7,7 @@ import { MastInputSchema, MastListQuerySchema } from '../../../lib/schemas/masts
 export const GET = handler(async ({ locals, url }) => {
   requirePermission(locals, 'map:view');
   const query = parseQuery(MastListQuerySchema, url);
-  const list = await listMasts(getDb(), query);
+  const list = await listMasts(getReadDb(), query);
   return json(mastFeatureCollectionJson(list), 200, { 'Content-Type': 'application/geo+json; charset=utf-8' });
 });
 

@@ -1,4 +1,4 @@
-import { getDb } from '../../../lib/server/db';
+import { getReadDb } from '../../../lib/server/db';
 import { handler, json, parseQuery, requirePermission } from '../../../lib/server/http';
 import { ShortlistQuerySchema } from '../../../lib/schemas/shortlist';
 import { buildShortlist } from '../../../lib/server/shortlist-service';
@@ -15,7 +15,7 @@ export const GET = handler(async ({ locals, url }) => {
   // Calibration readings lie within the radius too, so one box serves every profile.
   const profileFor = await getAreaProfileSampler(getSearchBox(at, q.radius_m ?? DEFAULT_SEARCH_RADIUS_M));
   const result = await buildShortlist(
-    getDb(),
+    getReadDb(),
     {
       at,
       heightM: q.height_m,

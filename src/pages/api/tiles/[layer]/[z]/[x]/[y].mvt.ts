@@ -1,4 +1,4 @@
-import { getDb } from '../../../../../../lib/server/db';
+import { getReadDb } from '../../../../../../lib/server/db';
 import { getDataVersion } from '../../../../../../lib/server/data-version';
 import { handler, parseQuery, parseWith, requirePermission } from '../../../../../../lib/server/http';
 import { getBasemapTile, getMastsTile } from '../../../../../../lib/server/repos/tiles';
@@ -44,7 +44,7 @@ function tileResponse(tile: CachedTile, cacheControl: string, request: Request):
 export const GET = handler(async ({ locals, params, url, request }) => {
   if (params.layer === 'masts') requirePermission(locals, 'map:view');
   const tile = parseWith(TileParamsSchema, params);
-  const db = getDb();
+  const db = getReadDb();
   const filter = tile.layer === 'masts' ? parseQuery(MastFilterSchema, url) : null;
   const version = await getDataVersion(db, tile.layer === 'masts' ? 'masts' : 'basemap');
   const key = `${tile.layer}/${version}/${tile.z}/${tile.x}/${tile.y}${filter ? `?${JSON.stringify(filter)}` : ''}`;
