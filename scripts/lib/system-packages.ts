@@ -45,6 +45,14 @@ export function ensurePostgres(): string {
   return bin;
 }
 
+/** nginx from Debian (the light build: proxy and cache are all the scaling rehearsal needs). */
+export function ensureNginx(): string {
+  const bin = '/usr/sbin/nginx';
+  if (!existsSync(bin)) aptInstall(['nginx-light']);
+  if (!existsSync(bin)) throw new Error('nginx could not be installed');
+  return bin;
+}
+
 export const CHROMIUM_PATH = '/usr/bin/chromium';
 
 export function ensureChromium(): string {

@@ -1,0 +1,12 @@
+import { defineConfig } from 'vitest/config';
+
+// The scaling rehearsal (npm run test:scale): starts nginx, two app instances, a primary and a hot
+// standby, so it takes a few minutes and stays out of `npm test`.
+export default defineConfig({
+  test: {
+    include: ['tests/scale/**/*.test.ts'],
+    environment: 'node',
+    testTimeout: 300_000,
+    hookTimeout: 900_000,
+  },
+});
