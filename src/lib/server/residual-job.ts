@@ -16,6 +16,8 @@ export interface ResidualJobOptions {
   batchSize?: number;
   /** Stop after this many batches (the background loop does a little at a time). */
   maxBatches?: number;
+  /** Only readings inside this box (west, south, east, north), e.g. to bring one area up to date first. */
+  box?: readonly [number, number, number, number];
 }
 
 interface TodoRow {
@@ -59,9 +61,10 @@ export async function refreshResiduals(db: Knex, options: ResidualJobOptions): P
       `SELECT id, cell_id, ST_Y(geom) AS lat, ST_X(geom) AS lon, rsrp_dbm, antenna_gain_dbi, height_m
          FROM readings
         WHERE residual_basis IS NULL AND cell_id IS NOT NULL AND rsrp_dbm IS NOT NULL
+          ${options.box ? 'AND geom && ST_MakeEnvelope(?, ?, ?, ?, 4326)' : ''}
         ORDER BY cell_id, id
         LIMIT ?`,
-      [batchSize],
+      [...(options.box ?? []), batchSize],
     );
     if (rows.length === 0) break;
     const cells = new Map((await listCandidateCellsByIds(db, [...new Set(rows.map((r) => String(r.cell_id)))])).map((c) => [c.cellId, c]));
