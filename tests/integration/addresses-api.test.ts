@@ -166,4 +166,24 @@ describe('addresses API', () => {
     expect(bad.status).toBe(400);
     expect(bad.body.error.fields.limit).toBeDefined();
   });
+
+  it('pages by keyset: each next cursor continues in label order, the last page has none', async () => {
+    const admin = asSessionUser(await makeUser('admin'));
+    const rows = Array.from({ length: 7 }, (_, i) => `${String.fromCharCode(71 - i)} Keyset Lane,KS${i},-47.2,-128.5`);
+    await call(importAddresses, { user: admin, ...multipart(`label,postcode,lat,lon\n${rows.join('\n')}`) });
+    const seen: string[] = [];
+    let url = '/api/addresses?q=keyset&limit=3';
+    for (let page = 0; page < 5; page++) {
+      const res = await call(listAddresses, { user: admin, url });
+      expect(res.status).toBe(200);
+      expect(res.body).toMatchObject({ total: 7, total_exact: true });
+      seen.push(...res.body.items.map((a: { label: string }) => a.label));
+      if (!res.body.next) break;
+      url = `/api/addresses?q=keyset&limit=3&after=${res.body.next}`;
+    }
+    expect(seen).toEqual(['A Keyset Lane', 'B Keyset Lane', 'C Keyset Lane', 'D Keyset Lane', 'E Keyset Lane', 'F Keyset Lane', 'G Keyset Lane']);
+    const bad = await call(listAddresses, { user: admin, url: '/api/addresses?after=bm90LWEtY3Vyc29y' });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields.after).toBeDefined();
+  });
 });

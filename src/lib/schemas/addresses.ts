@@ -133,6 +133,12 @@ export type GeocodeQuery = z.output<typeof GeocodeQuerySchema>;
 export const AddressListQuerySchema = z.object({
   q: searchParam,
   ...pageParams,
+  /** Keyset paging: the `next` of the previous page (rows after it in label, id order); replaces offset. */
+  after: z
+    .string()
+    .max(400, 'Not a page cursor')
+    .regex(/^[A-Za-z0-9_-]+$/, 'Not a page cursor')
+    .optional(),
 });
 export type AddressListQuery = z.output<typeof AddressListQuerySchema>;
 

@@ -2,6 +2,7 @@
 import type { Tx } from '../db';
 import type { AddressJson, AddressRow } from '../../schemas/addresses';
 import { recordAudit } from './audit';
+import { ValidationError } from '../errors';
 import { escapeLike } from './masts';
 
 export interface Address {
@@ -42,19 +43,53 @@ export function addressJson(a: Address): AddressJson {
   return { id: a.id, label: a.label, postcode: a.postcode, lat: a.lat, lon: a.lon, source: a.source, updated_at: a.updatedAt.toISOString() };
 }
 
+/** Above this many rows the unfiltered list reports the planner's estimate instead of counting. */
+const EXACT_COUNT_BELOW = 10_000;
+
+function encodeCursor(label: string, id: string): string {
+  return Buffer.from(JSON.stringify([label, id])).toString('base64url');
+}
+
+function decodeCursor(cursor: string): [string, string] {
+  try {
+    const v: unknown = JSON.parse(Buffer.from(cursor, 'base64url').toString('utf8'));
+    if (Array.isArray(v) && v.length === 2 && typeof v[0] === 'string' && /^\d+$/.test(String(v[1]))) return [v[0], String(v[1])];
+  } catch {
+    // falls through to the error below
+  }
+  throw new ValidationError('Not a page cursor', { after: ['Not a page cursor: use the next value of the previous page'] });
+}
+
+/**
+ * A page of the gazetteer in (label, id) order, read along the (label, id) index: by offset, or by
+ * keyset after a cursor (`next`, present while more rows follow), which costs the same on the last
+ * page as on the first. `total` is exact for searches (counted up to 10,000 and flagged beyond) and
+ * for small tables; the whole of a large gazetteer is the planner's estimate (`total_exact` false).
+ */
 export async function listAddresses(
   db: Tx,
-  query: { q?: string; limit: number; offset: number },
-): Promise<{ items: Address[]; total: number }> {
+  query: { q?: string; limit: number; offset: number; after?: string },
+): Promise<{ items: Address[]; total: number; totalExact: boolean; next: string | null }> {
   const base = db('addresses');
   if (query.q) base.whereRaw('search_text ILIKE ?', [`%${escapeLike(query.q)}%`]);
-  const [{ count }] = await base.clone().count<{ count: string }[]>('* as count');
-  const rows = await base
-    .select<AddressRowDb[]>([...COLUMNS, db.raw('ST_Y(geom) AS lat'), db.raw('ST_X(geom) AS lon')])
-    .orderBy([{ column: 'label' }, { column: 'id' }])
-    .limit(query.limit)
-    .offset(query.offset);
-  return { items: rows.map(toAddress), total: Number(count) };
+  const page = base.clone().select<AddressRowDb[]>([...COLUMNS, db.raw('ST_Y(geom) AS lat'), db.raw('ST_X(geom) AS lon')]);
+  if (query.after) page.whereRaw('(label, id) > (?, ?)', decodeCursor(query.after));
+  else page.offset(query.offset);
+  const rows = await page.orderBy([{ column: 'label' }, { column: 'id' }]).limit(query.limit + 1);
+  let total: number;
+  let totalExact = true;
+  const estimate = query.q ? -1 : Number((await db.raw("SELECT reltuples::bigint AS n FROM pg_class WHERE oid = 'addresses'::regclass")).rows[0]?.n ?? -1);
+  if (estimate >= EXACT_COUNT_BELOW) {
+    total = estimate;
+    totalExact = false;
+  } else {
+    const { rows: counted } = await db.raw('SELECT count(*) AS n FROM (?) c', [base.clone().select(db.raw('1')).limit(EXACT_COUNT_BELOW + 1)]);
+    total = Number(counted[0].n);
+    totalExact = total <= EXACT_COUNT_BELOW;
+  }
+  const items = rows.slice(0, query.limit).map(toAddress);
+  const last = items[items.length - 1];
+  return { items, total, totalExact, next: rows.length > query.limit && last ? encodeCursor(last.label, last.id) : null };
 }
 
 export interface ImportSummary {
