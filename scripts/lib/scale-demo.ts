@@ -2,7 +2,7 @@
 // by streaming replication, two app instances (each reads through the standby, writes to the primary)
 // and nginx in front of them, balancing, retrying an idempotent request on the other instance when
 // one fails, and caching the public basemap tiles. Ports: SCALE_PORT_BASE (default 9162) and up.
-import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
+import { spawnSync, type ChildProcess } from 'node:child_process';
 import { chownSync, existsSync, mkdirSync, rmSync, writeFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { startCluster, databaseUrl } from './pg-cluster';
@@ -11,7 +11,7 @@ import { migrateLatest } from './migrate-runner';
 import { isDatabaseEmpty, runSeeds } from './seed-runner';
 import { buildIfChanged } from './build';
 import { startServer, waitForHttp } from './server-process';
-import { DATA_DIR, ROOT, log } from './project';
+import { DATA_DIR, log } from './project';
 
 export interface ScaleDemoPorts {
   primary: number;
