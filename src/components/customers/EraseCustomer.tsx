@@ -36,9 +36,9 @@ export default function EraseCustomer({ customerId, customerName, onErased }: Pr
   }
   return (
     <div role="alertdialog" aria-labelledby="erase-heading" aria-describedby="erase-what" className="w-full rounded border border-alarm-500 bg-alarm-50 p-3 text-sm">
-      <h3 id="erase-heading" className="font-semibold text-alarm-700">Erase {customerName}'s personal data?</h3>
+      <h3 id="erase-heading" className="font-semibold text-alarm-700">Erase the personal data of {customerName}?</h3>
       <p id="erase-what" className="mt-1 text-ink-700">
-        For a customer's request to be forgotten. Their name, phone, e-mail, address, notes and exact position are removed, here and in
+        For a customer’s request to be forgotten. Their name, phone, e-mail, address, notes and exact position are removed, here and in
         the history; plan figures that would locate the home (distance, bearings) and readings from their install go too. Plans keep
         their state, cell, kit and radio figures. This cannot be undone.
       </p>
