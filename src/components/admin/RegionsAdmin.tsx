@@ -4,7 +4,11 @@ import { SortableTable, type Column } from '../ui/SortableTable';
 
 type Rings = number[][][];
 
+/** The outline thumbnails are a few dozen pixels: a zoom-6 simplification is plenty. */
+const OUTLINE_PREVIEW_ZOOM = 6;
+
 /** Outer and inner rings of a Polygon or MultiPolygon, if the value is one. */
+
 function ringsOf(geometry: unknown): Rings | null {
   const g = geometry as { type?: string; coordinates?: unknown } | null;
   if (!g || !Array.isArray(g.coordinates)) return null;
@@ -70,6 +74,7 @@ function findCandidates(doc: unknown, fileName: string): Candidate[] {
   return [];
 }
 
+/** A GeoJSON file may hold several features and more than the one region sent: read up to 10 MB. */
 const MAX_FILE_BYTES = 10 * 1024 * 1024;
 
 export default function RegionsAdmin() {
@@ -86,7 +91,7 @@ export default function RegionsAdmin() {
   const fileRef = useRef<HTMLInputElement>(null);
 
   useEffect(() => {
-    regionsApi.list().then((r) => setRegions(r.items), (e: ApiError) => setLoadError(e.message));
+    regionsApi.list(OUTLINE_PREVIEW_ZOOM).then((r) => setRegions(r.items), (e: ApiError) => setLoadError(e.message));
   }, []);
 
   const chosen = candidates[choice];
@@ -160,6 +165,7 @@ export default function RegionsAdmin() {
     { key: 'shape', label: 'Outline', render: (r) => <PolygonPreview geometry={r.geometry} size={44} /> },
     { key: 'name', label: 'Name', sortValue: (r) => r.name.toLowerCase(), render: (r) => <span className="font-semibold">{r.name}</span> },
     { key: 'area', label: 'Area', sortValue: (r) => r.area_km2, render: (r) => `${r.area_km2.toFixed(1)} km²`, className: 'text-right whitespace-nowrap' },
+    { key: 'vertices', label: 'Vertices', sortValue: (r) => r.vertex_count, render: (r) => r.vertex_count.toLocaleString('en'), className: 'text-right' },
     { key: 'updated', label: 'Updated', sortValue: (r) => r.updated_at, render: (r) => new Date(r.updated_at).toLocaleDateString() },
     {
       key: 'actions',

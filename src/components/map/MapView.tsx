@@ -79,13 +79,13 @@ function readSavedView(): InitialView | null {
 
 function boundsOf(regions: readonly RegionJson[]): [number, number, number, number] | null {
   let box: [number, number, number, number] | null = null;
-  for (const r of regions)
-    for (const poly of r.geometry.coordinates)
-      for (const ring of poly)
-        for (const [lon, lat] of ring)
-          box = box ? [Math.min(box[0], lon), Math.min(box[1], lat), Math.max(box[2], lon), Math.max(box[3], lat)] : [lon, lat, lon, lat];
+  for (const { bbox: [w, s, e, n] } of regions) box = box ? [Math.min(box[0], w), Math.min(box[1], s), Math.max(box[2], e), Math.max(box[3], n)] : [w, s, e, n];
   return box;
 }
+
+/** Region outlines are drawn simplified to a pixel at this zoom (about 15 m): finer than the map
+ * shows them at a region's scale, and a few kilobytes however detailed the imported outline. */
+const REGION_OUTLINE_ZOOM = 10;
 
 /** A region asked for in the address (?region=ID), else the saved view, else all regions, else the world. */
 function chooseInitialView(regions: readonly RegionJson[], regionId: string | null): InitialView {
@@ -178,7 +178,7 @@ export default function MapView({ canEditMasts }: Props) {
   }, []);
 
   useEffect(() => {
-    const regionList = regionsApi.list().then((r) => r.items, () => [] as RegionJson[]);
+    const regionList = regionsApi.list(REGION_OUTLINE_ZOOM).then((r) => r.items, () => [] as RegionJson[]);
     Promise.all([loadLabelFonts(), mapApi.style<StyleSpecification>(), operatorsApi.list(), regionList]).then(
       ([, s, ops, regionItems]) => {
         setStyle(rebaseStyle(s, window.location.origin));

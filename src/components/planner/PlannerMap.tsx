@@ -3,7 +3,6 @@ import { useEffect, useMemo, useRef, useState } from 'react';
 import Map, { Layer, NavigationControl, ScaleControl, Source, type MapRef } from 'react-map-gl/maplibre';
 import type { Map as MaplibreMap, StyleSpecification } from 'maplibre-gl';
 import type { FeatureCollection } from 'geojson';
-import { bbox } from '@turf/turf';
 import { LABEL_FONTS, buildBasemapStyle } from '../map/map-style';
 import { getBearingLine, type LatLon } from '../../lib/domain/geodesy';
 import { regionsApi } from '../../lib/client/api';
@@ -35,10 +34,15 @@ export default function PlannerMap({ position, items, selectedCellId, onPickPosi
 
   useEffect(() => {
     loadLabelFonts().then(() => setStyle(buildBasemapStyle(window.location.origin)));
-    regionsApi.list().then(
+    // Only the regions' extent is needed: their bboxes, with the coarsest outlines.
+    regionsApi.list(0).then(
       (r) => {
-        const fc: FeatureCollection = { type: 'FeatureCollection', features: r.items.map((g) => ({ type: 'Feature', properties: {}, geometry: g.geometry })) };
-        setBounds(r.items.length ? (bbox(fc) as [number, number, number, number]) : [-180, -60, 180, 75]);
+        const boxes = r.items.map((g) => g.bbox);
+        setBounds(
+          boxes.length
+            ? [Math.min(...boxes.map((b) => b[0])), Math.min(...boxes.map((b) => b[1])), Math.max(...boxes.map((b) => b[2])), Math.max(...boxes.map((b) => b[3]))]
+            : [-180, -60, 180, 75],
+        );
       },
       () => setBounds([-180, -60, 180, 75]),
     );

@@ -115,7 +115,8 @@ export const mastsApi = {
 };
 
 export const regionsApi = {
-  list: () => get<List<RegionJson>>('/api/regions'),
+  /** Outlines simplified to one pixel at `zoom` (never in full). */
+  list: (zoom: number) => get<List<RegionJson>>(`/api/regions?zoom=${zoom}`),
   create: (input: { name: string; geometry: unknown }) => request<RegionJson>('POST', '/api/regions', input),
   update: (id: string, change: { name?: string; geometry?: unknown }) => request<RegionJson>('PATCH', `/api/regions/${id}`, change),
   remove: (id: string) => request<void>('DELETE', `/api/regions/${id}`),

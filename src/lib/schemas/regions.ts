@@ -1,10 +1,12 @@
 // Regions: named polygons, imported as GeoJSON (RFC 7946). Shape checks here; the database checks
 // validity (self-intersections and the like) with ST_IsValid.
 import { z } from 'zod';
-import { requiredText } from './params';
+import { intParam, requiredText } from './params';
+import { DEFAULT_OUTLINE_ZOOM, MAX_OUTLINE_ZOOM, MAX_REGION_VERTICES, countVertices } from '../domain/region-outline';
 
-/** Largest region request body: the admin page reads GeoJSON files of up to 10 MB. */
-export const REGION_BODY_MAX_BYTES = 10 * 1024 * 1024;
+/** Largest region request body: room for MAX_REGION_VERTICES positions written out in full
+ * (about 40 bytes each), refused while it streams in beyond that. */
+export const REGION_BODY_MAX_BYTES = 4 * 1024 * 1024;
 
 const position = z
   .array(z.number({ invalid_type_error: 'Coordinates must be numbers' }).finite(), { invalid_type_error: 'A position is [lon, lat]' })
@@ -33,10 +35,17 @@ const MultiPolygonSchema = z.object({
 
 export type PolygonGeometry = z.output<typeof PolygonSchema> | z.output<typeof MultiPolygonSchema>;
 
-const GeometrySchema = z.discriminatedUnion('type', [PolygonSchema, MultiPolygonSchema], {
-  errorMap: (issue, ctx) =>
-    issue.code === 'invalid_union_discriminator' ? { message: 'Give a GeoJSON Polygon or MultiPolygon (or a Feature with one)' } : { message: ctx.defaultError },
-});
+const GeometrySchema = z
+  .discriminatedUnion('type', [PolygonSchema, MultiPolygonSchema], {
+    errorMap: (issue, ctx) =>
+      issue.code === 'invalid_union_discriminator' ? { message: 'Give a GeoJSON Polygon or MultiPolygon (or a Feature with one)' } : { message: ctx.defaultError },
+  })
+  .superRefine((g, ctx) => {
+    const n = countVertices(g);
+    if (n > MAX_REGION_VERTICES) {
+      ctx.addIssue({ code: 'custom', message: `The outline has ${n} vertices; at most ${MAX_REGION_VERTICES} (simplify it first)` });
+    }
+  });
 
 /** A Polygon or MultiPolygon, bare or wrapped in a Feature. */
 export const RegionGeometrySchema = z.preprocess(
@@ -54,10 +63,20 @@ export const RegionChangeSchema = z
   .refine((v) => v.name !== undefined || v.geometry !== undefined, { message: 'Nothing to change' });
 export type RegionChange = z.output<typeof RegionChangeSchema>;
 
+/** `?zoom=`: the outline simplified to one pixel at that zoom (lists default to zoom 8; one region
+ * without `zoom` comes in full). */
+export const RegionOutlineQuerySchema = z.object({ zoom: intParam('Zoom', 0, MAX_OUTLINE_ZOOM, -1).transform((z) => (z < 0 ? undefined : z)) });
+export const RegionListQuerySchema = z.object({ zoom: intParam('Zoom', 0, MAX_OUTLINE_ZOOM, DEFAULT_OUTLINE_ZOOM) });
+
 export interface RegionJson {
   id: string;
   name: string;
+  /** The outline: simplified to `simplified_for_zoom` when that is set, else in full. */
   geometry: { type: 'MultiPolygon'; coordinates: number[][][][] };
+  simplified_for_zoom: number | null;
+  /** Of the full outline: [west, south, east, north] and its number of vertices. */
+  bbox: [number, number, number, number];
+  vertex_count: number;
   area_km2: number;
   created_at: string;
   updated_at: string;

@@ -3,11 +3,15 @@ import type { Tx } from '../db';
 import type { PolygonGeometry, RegionChange, RegionInput, RegionJson } from '../../schemas/regions';
 import { ConflictError, NotFoundError, ValidationError } from '../errors';
 import { recordAudit } from './audit';
+import { getPixelToleranceDeg } from '../../domain/region-outline';
 
 export interface Region {
   id: string;
   name: string;
   geometry: RegionJson['geometry'];
+  simplifiedForZoom: number | null;
+  bbox: RegionJson['bbox'];
+  vertexCount: number;
   areaKm2: number;
   createdAt: Date;
   updatedAt: Date;
@@ -17,16 +21,24 @@ interface RegionRow {
   id: string;
   name: string;
   geometry: RegionJson['geometry'];
+  west: number;
+  south: number;
+  east: number;
+  north: number;
+  vertex_count: number;
   area_km2: number;
   created_at: Date;
   updated_at: Date;
 }
 
-function toRegion(r: RegionRow): Region {
+function toRegion(r: RegionRow, zoom: number | undefined): Region {
   return {
     id: String(r.id),
     name: r.name,
     geometry: r.geometry,
+    simplifiedForZoom: zoom ?? null,
+    bbox: [r.west, r.south, r.east, r.north],
+    vertexCount: Number(r.vertex_count),
     areaKm2: Math.round(r.area_km2 * 100) / 100,
     createdAt: r.created_at,
     updatedAt: r.updated_at,
@@ -38,32 +50,44 @@ export function regionJson(r: Region): RegionJson {
     id: r.id,
     name: r.name,
     geometry: r.geometry,
+    simplified_for_zoom: r.simplifiedForZoom,
+    bbox: r.bbox,
+    vertex_count: r.vertexCount,
     area_km2: r.areaKm2,
     created_at: r.createdAt.toISOString(),
     updated_at: r.updatedAt.toISOString(),
   };
 }
 
-function selectRegions(db: Tx) {
+/** Regions with their outline in full, or simplified to one pixel at `zoom` (topology kept, so
+ * rings neither vanish into lines nor cross). */
+function selectRegions(db: Tx, zoom: number | undefined) {
+  const outline =
+    zoom === undefined
+      ? db.raw('ST_AsGeoJSON(geom, 7)::json AS geometry')
+      : db.raw('ST_AsGeoJSON(ST_Multi(ST_SimplifyPreserveTopology(geom, ?)), 7)::json AS geometry', [getPixelToleranceDeg(zoom)]);
   return db('regions').select(
     'id',
     'name',
     'created_at',
     'updated_at',
-    db.raw('ST_AsGeoJSON(geom, 7)::json AS geometry'),
+    outline,
+    db.raw('ST_XMin(geom) AS west, ST_YMin(geom) AS south, ST_XMax(geom) AS east, ST_YMax(geom) AS north'),
+    db.raw('ST_NPoints(geom) AS vertex_count'),
     db.raw('ST_Area(geom::geography) / 1e6 AS area_km2'),
   );
 }
 
-export async function listRegions(db: Tx): Promise<Region[]> {
-  const rows: RegionRow[] = await selectRegions(db).orderBy('name');
-  return rows.map(toRegion);
+/** Every region, outlines simplified for `zoom` (a list never carries full outlines). */
+export async function listRegions(db: Tx, zoom: number): Promise<Region[]> {
+  const rows: RegionRow[] = await selectRegions(db, zoom).orderBy('name');
+  return rows.map((r) => toRegion(r, zoom));
 }
 
-export async function findRegion(db: Tx, id: string): Promise<Region> {
-  const row: RegionRow | undefined = await selectRegions(db).where({ id }).first();
+export async function findRegion(db: Tx, id: string, zoom?: number): Promise<Region> {
+  const row: RegionRow | undefined = await selectRegions(db, zoom).where({ id }).first();
   if (!row) throw new NotFoundError('Region not found');
-  return toRegion(row);
+  return toRegion(row, zoom);
 }
 
 function geometrySql(db: Tx, geometry: PolygonGeometry) {

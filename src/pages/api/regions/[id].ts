@@ -1,13 +1,15 @@
 import { getDb } from '../../../lib/server/db';
-import { handler, json, parseBody, parseWith, requirePermission } from '../../../lib/server/http';
+import { handler, json, parseBody, parseQuery, parseWith, requirePermission } from '../../../lib/server/http';
 import { deleteRegion, findRegion, regionJson, updateRegion } from '../../../lib/server/repos/regions';
-import { REGION_BODY_MAX_BYTES, RegionChangeSchema } from '../../../lib/schemas/regions';
+import { REGION_BODY_MAX_BYTES, RegionChangeSchema, RegionOutlineQuerySchema } from '../../../lib/schemas/regions';
 import { IdParamSchema } from '../../../lib/schemas/params';
 
-export const GET = handler(async ({ locals, params }) => {
+/** One region, its outline in full or simplified to one pixel at `?zoom=`. */
+export const GET = handler(async ({ locals, params, url }) => {
   requirePermission(locals, 'map:view');
   const { id } = parseWith(IdParamSchema, params);
-  return json(regionJson(await findRegion(getDb(), id)));
+  const { zoom } = parseQuery(RegionOutlineQuerySchema, url);
+  return json(regionJson(await findRegion(getDb(), id, zoom)));
 });
 
 export const PATCH = handler(async ({ locals, params, request }) => {

@@ -1,11 +1,13 @@
 import { getDb } from '../../../lib/server/db';
-import { handler, json, parseBody, requirePermission } from '../../../lib/server/http';
+import { handler, json, parseBody, parseQuery, requirePermission } from '../../../lib/server/http';
 import { createRegion, listRegions, regionJson } from '../../../lib/server/repos/regions';
-import { REGION_BODY_MAX_BYTES, RegionInputSchema } from '../../../lib/schemas/regions';
+import { REGION_BODY_MAX_BYTES, RegionInputSchema, RegionListQuerySchema } from '../../../lib/schemas/regions';
 
-export const GET = handler(async ({ locals }) => {
+/** Every region with its outline simplified to one pixel at `?zoom=` (default 8) and its bbox. */
+export const GET = handler(async ({ locals, url }) => {
   requirePermission(locals, 'map:view');
-  const items = (await listRegions(getDb())).map(regionJson);
+  const { zoom } = parseQuery(RegionListQuerySchema, url);
+  const items = (await listRegions(getDb(), zoom)).map(regionJson);
   return json({ items, total: items.length });
 });
 
