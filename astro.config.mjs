@@ -31,6 +31,8 @@ export default defineConfig({
       S3_REGION: envField.string({ context: 'server', access: 'secret', optional: true }),
       S3_ACCESS_KEY_ID: envField.string({ context: 'server', access: 'secret', optional: true }),
       S3_SECRET_ACCESS_KEY: envField.string({ context: 'server', access: 'secret', optional: true }),
+      DB_CONNECT_TIMEOUT_MS: envField.number({ context: 'server', access: 'secret', optional: true, int: true, gt: 0 }),
+      DB_STATEMENT_TIMEOUT_MS: envField.number({ context: 'server', access: 'secret', optional: true, int: true, gt: 0 }),
     },
   },
   vite: {

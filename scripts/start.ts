@@ -1,4 +1,4 @@
-// npm start: database → migrate → demo scenario when empty → build when changed → serve.
+// npm start: database → migrate → demo scenario when empty → build when changed → serve (restarted if it dies).
 import { ensureDatabase } from './lib/database';
 import { migrateLatest, withKnex } from './lib/migrate-runner';
 import { removeOrphanSampleFiles } from '../src/lib/server/repos/elevation';
@@ -6,6 +6,7 @@ import { isDatabaseEmpty, runSeeds } from './lib/seed-runner';
 import { buildIfChanged } from './lib/build';
 import { startServer, waitForHttp } from './lib/server-process';
 import { startMailCatcher } from './lib/mail-catcher';
+import { supervise } from './lib/supervise';
 import { DATA_DIR, HOST, PORT, SMTP_PORT, log } from './lib/project';
 
 async function main() {
@@ -21,11 +22,11 @@ async function main() {
   buildIfChanged();
   const mailDir = `${DATA_DIR}/mail`;
   const smtpUrl = process.env.SMTP_URL ?? (await startMailCatcher({ port: SMTP_PORT, dir: mailDir }));
-  const server = startServer({ host: HOST, port: PORT, env: { DATABASE_URL: databaseUrl, SMTP_URL: smtpUrl, DATA_DIR, MAIL_DIR: mailDir } });
-  const stop = () => server.kill('SIGTERM');
-  process.on('SIGINT', stop);
-  process.on('SIGTERM', stop);
-  server.on('exit', (code) => process.exit(code ?? 0));
+  // The server is restarted if it dies (scripts/lib/supervise.ts).
+  const server = supervise(() => startServer({ host: HOST, port: PORT, env: { DATABASE_URL: databaseUrl, SMTP_URL: smtpUrl, DATA_DIR, MAIL_DIR: mailDir } }), log);
+  process.on('SIGINT', () => server.stop());
+  process.on('SIGTERM', () => server.stop());
+  server.done.then((code) => process.exit(code));
   await waitForHttp(`http://${HOST}:${PORT}/api/health`);
   log(`Bearline is running on http://${HOST}:${PORT}  (Ctrl+C stops the app; \`npm run stop\` stops the database)`);
 }

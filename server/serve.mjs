@@ -10,12 +10,15 @@ import { availableParallelism } from 'node:os';
 import { extname, join, resolve, sep } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import compression from 'compression';
+import { parseTrustedProxies, refuseMethod, resolveClientAddress, REFUSED_METHODS } from './forwarded.mjs';
 
 const ROOT = resolve(fileURLToPath(new URL('..', import.meta.url)));
 const DIST = resolve(process.env.BEARLINE_DIST ?? join(ROOT, 'dist'));
 const CLIENT = join(DIST, 'client');
 const HOST = process.env.HOST ?? '127.0.0.1';
 const PORT = Number(process.env.PORT ?? 4321);
+// X-Forwarded-For is believed only from these proxies; otherwise the socket's peer is the client.
+const TRUSTED = parseTrustedProxies(process.env.TRUSTED_PROXIES ?? '');
 const WORKERS = Math.max(1, Number(process.env.WEB_CONCURRENCY) || availableParallelism());
 /** How long a stopping worker lets open requests finish. */
 const DRAIN_MS = 10_000;
@@ -73,6 +76,9 @@ function startWorker() {
       filter: (req, res) => !res.getHeader('Content-Encoding') && compression.filter(req, res),
     });
     const server = http.createServer((req, res) => {
+      if (REFUSED_METHODS.has(req.method ?? '')) return refuseMethod(req, res);
+      // What Astro reports as the client address (sign-in throttling) is decided here, never by the client.
+      req.headers['x-forwarded-for'] = resolveClientAddress(req.socket.remoteAddress, req.headers['x-forwarded-for'], TRUSTED);
       if (req.method === 'GET' || req.method === 'HEAD') {
         const path = (req.url ?? '/').split('?')[0];
         const file = precompressed.get(path);

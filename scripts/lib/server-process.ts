@@ -8,13 +8,22 @@ export interface ServerOptions {
   port: number;
   env: Record<string, string>;
   stdio?: 'inherit' | 'ignore' | 'pipe';
+  /** Build folder (default dist). */
+  distDir?: string;
 }
 
 export function startServer(opts: ServerOptions): ChildProcess {
   return spawn(process.execPath, [resolve(ROOT, 'server/serve.mjs')], {
     cwd: ROOT,
     stdio: opts.stdio ?? 'inherit',
-    env: { ...process.env, ...opts.env, HOST: opts.host, PORT: String(opts.port), ASTRO_TELEMETRY_DISABLED: '1' },
+    env: {
+      ...process.env,
+      ...opts.env,
+      BEARLINE_DIST: resolve(ROOT, opts.distDir ?? process.env.BEARLINE_DIST ?? 'dist'),
+      HOST: opts.host,
+      PORT: String(opts.port),
+      ASTRO_TELEMETRY_DISABLED: '1',
+    },
   });
 }
 

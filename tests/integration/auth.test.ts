@@ -1,7 +1,7 @@
 import { beforeEach, describe, expect, it } from 'vitest';
 import { POST as login } from '../../src/pages/api/auth/login';
 import { GET as me } from '../../src/pages/api/me';
-import { lucia, THROTTLE_LIMIT } from '../../src/lib/server/auth';
+import { lucia } from '../../src/lib/server/auth';
 import { updateUser } from '../../src/lib/server/repos/users';
 import { call } from '../helpers/endpoint';
 import { testDb, truncateAll } from '../helpers/db';
@@ -41,18 +41,6 @@ describe('sign-in', () => {
     expect(res.body.error.message).toMatch(/disabled/);
   });
 
-  it(`throttles after ${THROTTLE_LIMIT} failures per e-mail with 429 and Retry-After`, async () => {
-    await makeUser('planner', { email: 'slow@example.test' });
-    for (let i = 0; i < THROTTLE_LIMIT; i++) {
-      const r = await call(login, { json: { email: 'slow@example.test', password: 'wrong-password' } });
-      expect(r.status).toBe(401);
-    }
-    const blocked = await call(login, { json: { email: 'slow@example.test', password: TEST_PASSWORD } });
-    expect(blocked.status).toBe(429);
-    expect(blocked.body.error.code).toBe('TOO_MANY_REQUESTS');
-    expect(Number(blocked.headers.get('retry-after'))).toBeGreaterThan(0);
-  });
-
   it('rejects malformed input with 400 and fields', async () => {
     const res = await call(login, { json: { email: 'not-an-email', password: '' } });
     expect(res.status).toBe(400);
@@ -69,7 +57,7 @@ describe('sign-in', () => {
     await makeUser('reviewer', { email: 'r@example.test' });
     const bad = await call(login, { form: { email: 'r@example.test', password: 'nope-nope', next: '/admin/users' } });
     expect(bad.status).toBe(303);
-    expect(bad.headers.get('location')).toContain('error=Wrong');
+    expect(bad.headers.get('location')).toBe('/login?error=credentials&next=%2Fadmin%2Fusers');
     const good = await call(login, { form: { email: 'r@example.test', password: TEST_PASSWORD, next: '/admin/users' } });
     expect(good.status).toBe(303);
     expect(good.headers.get('location')).toBe('/admin/users');

@@ -3,8 +3,10 @@ import { Lucia, TimeSpan } from 'lucia';
 import { getDb } from './db';
 import { KnexSessionAdapter } from './session-adapter';
 import { findUserForLogin, type User } from './repos/users';
-import { verifyPassword } from './password';
-import { TooManyRequestsError, UnauthorizedError } from './errors';
+import { randomBytes } from 'node:crypto';
+import { hashPassword, verifyPassword } from './password';
+import { normaliseEmail } from '../schemas/auth';
+import { AccountDisabledError, TooManyRequestsError, UnauthorizedError } from './errors';
 import type { Role } from '../domain/roles';
 
 export const SESSION_DAYS = 14;
@@ -41,38 +43,66 @@ export function setSessionCookie(cookies: CookieJar, url: URL, sessionId: string
   cookies.set(cookie.name, cookie.value, { ...cookie.attributes, secure: url.protocol === 'https:' });
 }
 
-// Throttle: at most this many failed sign-ins per e-mail and per IP in the window.
-export const THROTTLE_LIMIT = 10;
+// Throttling of failed sign-ins (kept in login_failures, so it holds across app servers):
+// - per account: the first ACCOUNT_FREE_FAILURES failures in the window cost nothing; after
+//   that each attempt must wait 1 s, 2 s, 4 s … up to ACCOUNT_MAX_DELAY_S since the last
+//   failure. The right password still gets in once the (short) wait is over: nobody can lock
+//   a user out by failing on purpose.
+// - per client address: at most IP_FAILURE_LIMIT failures in the window over all accounts
+//   (password spraying), then 429 until the oldest leaves the window.
+// Addresses are the socket peer, or X-Forwarded-For from TRUSTED_PROXIES only (server/serve.mjs).
 export const THROTTLE_WINDOW_MIN = 15;
+export const ACCOUNT_FREE_FAILURES = 3;
+export const ACCOUNT_MAX_DELAY_S = 60;
+export const IP_FAILURE_LIMIT = 30;
+
+/** Seconds an account must wait after `failures` failed sign-ins in the window (0: none). */
+export function accountDelaySeconds(failures: number): number {
+  if (failures <= ACCOUNT_FREE_FAILURES) return 0;
+  return Math.min(ACCOUNT_MAX_DELAY_S, 2 ** (failures - ACCOUNT_FREE_FAILURES - 1));
+}
 
 async function assertNotThrottled(email: string, ip: string): Promise<void> {
   const db = getDb();
-  const since = new Date(Date.now() - THROTTLE_WINDOW_MIN * 60_000);
+  const now = Date.now();
+  const since = new Date(now - THROTTLE_WINDOW_MIN * 60_000);
   const [byEmail, byIp] = await Promise.all([
-    db('login_failures').whereRaw('lower(email) = lower(?)', [email]).andWhere('at', '>', since).count<{ count: string }[]>('* as count').min('at as first').first(),
+    db('login_failures').where({ email }).andWhere('at', '>', since).count<{ count: string }[]>('* as count').max('at as last').first(),
     db('login_failures').where({ ip }).andWhere('at', '>', since).count<{ count: string }[]>('* as count').min('at as first').first(),
   ]);
-  for (const row of [byEmail, byIp]) {
-    if (Number(row?.count ?? 0) >= THROTTLE_LIMIT) {
-      const first = new Date((row as unknown as { first: Date }).first).getTime();
-      const retryAfter = Math.max(1, Math.ceil((first + THROTTLE_WINDOW_MIN * 60_000 - Date.now()) / 1000));
-      throw new TooManyRequestsError(`Too many failed sign-ins. Try again in ${Math.ceil(retryAfter / 60)} minutes.`, retryAfter);
-    }
+  const ipRow = byIp as unknown as { count: string; first: Date | null } | undefined;
+  if (Number(ipRow?.count ?? 0) >= IP_FAILURE_LIMIT && ipRow?.first) {
+    const retryAfter = Math.max(1, Math.ceil((new Date(ipRow.first).getTime() + THROTTLE_WINDOW_MIN * 60_000 - now) / 1000));
+    throw new TooManyRequestsError(`Too many failed sign-ins from your address. Try again in ${Math.ceil(retryAfter / 60)} minutes.`, retryAfter);
+  }
+  const emailRow = byEmail as unknown as { count: string; last: Date | null } | undefined;
+  const delay = accountDelaySeconds(Number(emailRow?.count ?? 0));
+  if (delay > 0 && emailRow?.last) {
+    const retryAfter = Math.ceil((new Date(emailRow.last).getTime() + delay * 1000 - now) / 1000);
+    if (retryAfter > 0) throw new TooManyRequestsError(`Too many failed sign-ins. Try again in ${retryAfter} seconds.`, retryAfter);
   }
 }
 
+// Unknown e-mails are checked against this, so they take as long as a wrong password.
+let dummyHash: Promise<string> | null = null;
+function getDummyHash(): Promise<string> {
+  dummyHash ??= hashPassword(randomBytes(18).toString('base64'));
+  return dummyHash;
+}
+
 /** Checks the credentials; returns the user or throws 401/429 with one message for every failure. */
-export async function authenticate(email: string, password: string, ip: string): Promise<User> {
+export async function authenticate(rawEmail: string, password: string, ip: string): Promise<User> {
+  const email = normaliseEmail(rawEmail);
   await assertNotThrottled(email, ip);
   const user = await findUserForLogin(getDb(), email);
-  const ok = user !== null && (await verifyPassword(user.passwordHash, password));
+  const ok = user !== null ? await verifyPassword(user.passwordHash, password) : (await verifyPassword(await getDummyHash(), password)) && false;
   if (!user || !ok || user.disabledAt) {
-    await getDb()('login_failures').insert({ email: email.toLowerCase(), ip });
+    await getDb()('login_failures').insert({ email, ip });
     // Disabled accounts get their own message only after a correct password.
-    if (user && ok && user.disabledAt) throw new UnauthorizedError('This account is disabled. Ask an admin to enable it.');
+    if (user && ok && user.disabledAt) throw new AccountDisabledError();
     throw new UnauthorizedError('Wrong e-mail or password');
   }
-  await getDb()('login_failures').whereRaw('lower(email) = lower(?)', [email]).delete();
+  await getDb()('login_failures').where({ email }).delete();
   const { passwordHash: _omit, ...plain } = user;
   return plain;
 }

@@ -12,6 +12,8 @@ import {
   S3_REGION,
   S3_ACCESS_KEY_ID,
   S3_SECRET_ACCESS_KEY,
+  DB_CONNECT_TIMEOUT_MS,
+  DB_STATEMENT_TIMEOUT_MS,
 } from 'astro:env/server';
 
 export const config = {
@@ -32,4 +34,6 @@ export const config = {
     accessKeyId: S3_ACCESS_KEY_ID,
     secretAccessKey: S3_SECRET_ACCESS_KEY,
   },
+  /** Milliseconds to connect to PostgreSQL, and for one statement to finish. */
+  dbTimeouts: { connectMs: DB_CONNECT_TIMEOUT_MS ?? 5_000, statementMs: DB_STATEMENT_TIMEOUT_MS ?? 30_000 },
 };

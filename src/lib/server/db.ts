@@ -11,7 +11,24 @@ let instance: Knex | null = null;
 export function getDb(): Knex {
   if (!instance) {
     if (!config.databaseUrl) throw new Error('DATABASE_URL is not set');
-    instance = knexFactory({ client: 'pg', connection: config.databaseUrl, pool: { min: 0, max: 10 } });
+    const { connectMs, statementMs } = config.dbTimeouts;
+    instance = knexFactory({
+      client: 'pg',
+      connection: {
+        connectionString: config.databaseUrl,
+        // A database that accepts the TCP connection but never answers (frozen) fails here.
+        connectionTimeoutMillis: connectMs,
+        // The server cancels a statement after this; the client gives up a little later in case
+        // the server itself is stuck. Long imports raise it with SET LOCAL statement_timeout.
+        statement_timeout: statementMs,
+        query_timeout: statementMs + 5_000,
+        idle_in_transaction_session_timeout: statementMs * 2,
+        keepAlive: true,
+      },
+      // Waiting for a free connection from the pool (all busy, or the database unreachable).
+      acquireConnectionTimeout: connectMs + 2_000,
+      pool: { min: 0, max: 10, createTimeoutMillis: connectMs + 1_000 },
+    });
   }
   return instance;
 }

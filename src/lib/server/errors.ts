@@ -53,6 +53,12 @@ export class UnauthorizedError extends AppError {
     super('UNAUTHORIZED', message);
   }
 }
+/** A disabled account that gave the right password. */
+export class AccountDisabledError extends UnauthorizedError {
+  constructor() {
+    super('This account is disabled. Ask an admin to enable it.');
+  }
+}
 export class ForbiddenError extends AppError {
   constructor(message = 'Your role does not allow this') {
     super('FORBIDDEN', message);

@@ -1,6 +1,7 @@
 import type { APIRoute } from 'astro';
 import { authenticate, lucia, setSessionCookie } from '../../../lib/server/auth';
-import { LoginSchema, safeNextPath } from '../../../lib/schemas/auth';
+import { LoginSchema, safeNextPath, type LoginErrorCode } from '../../../lib/schemas/auth';
+import { AccountDisabledError, type AppError } from '../../../lib/server/errors';
 import { asAppError, clientIp, errorResponse, json, parseWith, readBody } from '../../../lib/server/http';
 
 // Accepts JSON (islands, API clients) or a plain form post (works without JavaScript).
@@ -18,8 +19,25 @@ export const POST: APIRoute = async (ctx) => {
     return json({ user: { id: user.id, email: user.email, name: user.name, role: user.role } });
   } catch (err) {
     if (!isForm) return errorResponse(err);
-    const { message, fields } = asAppError(err);
-    const detail = fields ? Object.values(fields).flat().join('. ') : message;
-    return ctx.redirect(`/login?error=${encodeURIComponent(detail)}&next=${encodeURIComponent(next)}`, 303);
+    return ctx.redirect(`/login?error=${loginErrorCode(asAppError(err))}&next=${encodeURIComponent(next)}`, 303);
   }
 };
+
+/** The sign-in page shows messages by code only, so a link cannot put words on it. */
+function loginErrorCode(err: AppError): LoginErrorCode {
+  if (err instanceof AccountDisabledError) return 'disabled';
+  switch (err.code) {
+    case 'UNAUTHORIZED':
+      return 'credentials';
+    case 'TOO_MANY_REQUESTS':
+      return 'throttled';
+    case 'BAD_REQUEST':
+    case 'PAYLOAD_TOO_LARGE':
+    case 'UNSUPPORTED_MEDIA_TYPE':
+      return 'invalid';
+    case 'SERVICE_UNAVAILABLE':
+      return 'unavailable';
+    default:
+      return 'failed';
+  }
+}
