@@ -16,3 +16,10 @@ export async function truncateAll(): Promise<void> {
   );
   if (rows.length) await db.raw(`TRUNCATE ${rows.map((r) => `"${r.tablename}"`).join(', ')} RESTART IDENTITY CASCADE`);
 }
+
+/** The row_version a row has now (1 when there is no such row), for PATCH bodies in tests. */
+export async function currentRowVersion(table: 'plans' | 'customers' | 'cells' | 'masts', id: string): Promise<number> {
+  if (!/^\d+$/.test(id)) return 1;
+  const row = await testDb()(table).where({ id }).first('row_version');
+  return row ? Number(row.row_version) : 1;
+}

@@ -138,7 +138,7 @@ describe('customers API', () => {
     const stale = await call(patchCustomer, { method: 'PATCH', user: planner, params: { id }, json: { notes: 'gate code 1234', row_version: 1 } });
     expect(stale.status).toBe(409);
     expect(stale.body.error.message).toMatch(/Someone else changed this customer/);
-    const half = await call(patchCustomer, { method: 'PATCH', user: planner, params: { id }, json: { lat: 1 } });
+    const half = await call(patchCustomer, { method: 'PATCH', user: planner, params: { id }, json: { lat: 1, row_version: 2 } });
     expect(half.status).toBe(400);
     expect(half.body.error.fields.lon).toEqual(['Give latitude and longitude together']);
     const nothing = await call(patchCustomer, { method: 'PATCH', user: planner, params: { id }, json: { row_version: 2 } });
@@ -150,7 +150,7 @@ describe('customers API', () => {
 
   it('answers 404 for an unknown customer and 400 for a malformed id', async () => {
     expect((await call(getCustomer, { user: planner, params: { id: '999999' } })).status).toBe(404);
-    expect((await call(patchCustomer, { method: 'PATCH', user: planner, params: { id: '999999' }, json: { notes: 'x' } })).status).toBe(404);
+    expect((await call(patchCustomer, { method: 'PATCH', user: planner, params: { id: '999999' }, json: { notes: 'x', row_version: 1 } })).status).toBe(404);
     expect((await call(getHistory, { user: planner, params: { id: '999999' } })).status).toBe(404);
     expect((await call(getCustomer, { user: planner, params: { id: 'x1' } })).status).toBe(400);
   });
@@ -158,9 +158,9 @@ describe('customers API', () => {
   it('keeps a history of the customer and their plans, newest first, with changed fields', async () => {
     const made = await call(createCustomer, { user: planner, json: ALDER });
     const id = made.body.id;
-    await call(patchCustomer, { method: 'PATCH', user: planner, params: { id }, json: { notes: 'Dog on site' } });
+    await call(patchCustomer, { method: 'PATCH', user: planner, params: { id }, json: { notes: 'Dog on site', row_version: 1 } });
     const plan = await call(createPlan, { user: planner, json: { customer_id: id, notes: 'Wants a quote' } });
-    await call(patchPlan, { method: 'PATCH', user: planner, params: { id: plan.body.id }, json: { notes: 'Quote sent' } });
+    await call(patchPlan, { method: 'PATCH', user: planner, params: { id: plan.body.id }, json: { notes: 'Quote sent', row_version: 1 } });
     // Another customer's changes stay out.
     await call(createCustomer, { user: planner, json: { ...ALDER, name: 'Someone else' } });
     const res = await call(getHistory, { user: planner, params: { id } });

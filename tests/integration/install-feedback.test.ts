@@ -6,7 +6,7 @@ import { POST as addCheck } from '../../src/pages/api/plans/[id]/checks';
 import { GET as shortlist } from '../../src/pages/api/shortlist/index';
 import { getFreeSpacePathLossDb } from '../../src/lib/domain/link-budget';
 import { call } from '../helpers/endpoint';
-import { testDb, truncateAll } from '../helpers/db';
+import { currentRowVersion, testDb, truncateAll } from '../helpers/db';
 import { asSessionUser, makeUser } from '../helpers/factories';
 import type { SessionUser } from '../../src/lib/server/session-user';
 
@@ -36,7 +36,8 @@ async function verifiedPlan(afterRsrp: number) {
     json: { customer_id: ids.customer, cell_id: ids.cell, antenna_id: ids.antenna, cable_id: ids.cable, cable_m: 10, mount_height_m: 7, state: 'planned' },
   });
   const id = plan.body.id;
-  const patch = (json: unknown) => call(patchPlan, { method: 'PATCH', user: planner, params: { id }, json });
+  const patch = async (json: object) =>
+    call(patchPlan, { method: 'PATCH', user: planner, params: { id }, json: { row_version: await currentRowVersion('plans', id), ...json } });
   expect((await patch({ state: 'scheduled', scheduled_for: '2027-03-01' })).status).toBe(200);
   await call(addCheck, { user: planner, params: { id }, json: { phase: 'before', readings: [{ pci: 101, channel: 6300, rsrp_dbm: afterRsrp - 6 }] } });
   expect((await patch({ state: 'installed' })).status).toBe(200);

@@ -334,14 +334,14 @@ describe('cells API', () => {
   });
 
   it('updates a cell and checks the whole cell again; a new channel re-derives the band', async () => {
-    const moved = await call(patchCell, { method: 'PATCH', user: admin, params: { id: f.hillB20 }, json: { channel: 3050 } });
+    const moved = await call(patchCell, { method: 'PATCH', user: admin, params: { id: f.hillB20 }, json: { channel: 3050, row_version: 1 } });
     expect(moved.status).toBe(200);
     // EARFCN 3050 → B7, 2650.0 MHz (3GPP TS 36.101 Table 5.7.3-1).
     expect(moved.body).toMatchObject({ band: 'B7', channel: 3050, dl_mhz: 2650, pci: 101 });
-    const bad = await call(patchCell, { method: 'PATCH', user: admin, params: { id: f.hillB20 }, json: { band: 'B20' } });
+    const bad = await call(patchCell, { method: 'PATCH', user: admin, params: { id: f.hillB20 }, json: { band: 'B20', row_version: 2 } });
     expect(bad.status).toBe(400);
     expect(bad.body.error.fields.channel).toBeDefined();
-    const cleared = await call(patchCell, { method: 'PATCH', user: admin, params: { id: f.hillB20 }, json: { pci: null } });
+    const cleared = await call(patchCell, { method: 'PATCH', user: admin, params: { id: f.hillB20 }, json: { pci: null, row_version: 2 } });
     expect(cleared.body.pci).toBeNull();
     expect((await call(getCell, { user: admin, params: { id: f.hillB20 } })).body.band).toBe('B7');
   });

@@ -3,7 +3,7 @@ import { GET as listPlans, POST as createPlan } from '../../src/pages/api/plans/
 import { GET as getPlan, PATCH as patchPlan } from '../../src/pages/api/plans/[id]';
 import { GET as listChecks, POST as addCheck } from '../../src/pages/api/plans/[id]/checks';
 import { call } from '../helpers/endpoint';
-import { testDb, truncateAll } from '../helpers/db';
+import { currentRowVersion, testDb, truncateAll } from '../helpers/db';
 import { asSessionUser, makeUser } from '../helpers/factories';
 import type { SessionUser } from '../../src/lib/server/session-user';
 
@@ -39,7 +39,9 @@ describe('plans API', () => {
   let planner: SessionUser;
   let f: Fixture;
   const kit = () => ({ cell_id: f.cellId, antenna_id: f.antennaId, cable_id: f.cableId, cable_m: 12, mount_height_m: 7 });
-  const patch = (id: string, json: unknown, user = planner) => call(patchPlan, { method: 'PATCH', user, params: { id }, json });
+  // Sends the plan's current row_version unless the test gives one.
+  const patch = async (id: string, json: object, user = planner) =>
+    call(patchPlan, { method: 'PATCH', user, params: { id }, json: { row_version: await currentRowVersion('plans', id), ...json } });
 
   beforeEach(async () => {
     await truncateAll();

@@ -91,7 +91,7 @@ export const customersApi = {
     get<List<CustomerJson>>(`/api/customers?${qs(p)}`),
   get: (id: string) => get<CustomerJson>(`/api/customers/${id}`),
   create: (body: CustomerBody) => request<CustomerJson>('POST', '/api/customers', body),
-  update: (id: string, body: Partial<CustomerBody> & { row_version?: number }) => request<CustomerJson>('PATCH', `/api/customers/${id}`, body),
+  update: (id: string, body: Partial<CustomerBody> & { row_version: number }) => request<CustomerJson>('PATCH', `/api/customers/${id}`, body),
   history: (id: string) => get<List<HistoryEntryJson>>(`/api/customers/${id}/history`),
   /** Erases the customer's personal data on their request (planner/admin). */
   erase: (id: string) => request<CustomerErasureJson>('POST', `/api/customers/${id}/erasure`),
@@ -111,7 +111,7 @@ export interface PlanBody {
   state?: 'enquiry' | 'planned';
 }
 
-export type PlanChangeBody = Partial<Omit<PlanBody, 'customer_id' | 'state'>> & { state?: PlanState; row_version?: number };
+export type PlanChangeBody = Partial<Omit<PlanBody, 'customer_id' | 'state'>> & { state?: PlanState; row_version: number };
 
 export interface InstallCheckBody {
   phase: CheckPhase;

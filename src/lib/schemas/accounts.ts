@@ -2,6 +2,7 @@
 // password from a mailed link. Shared by the endpoints and the forms.
 import { z } from 'zod';
 import { PASSWORD_MIN } from './users';
+import { passwordProblem } from '../domain/password-rules';
 import type { TokenPurpose } from '../domain/account-tokens';
 
 export const EmailSchema = z
@@ -13,8 +14,12 @@ export const EmailSchema = z
 
 export const NewPasswordSchema = z
   .string({ required_error: 'Choose a password', invalid_type_error: 'Choose a password' })
-  .min(PASSWORD_MIN, `At least ${PASSWORD_MIN} characters`)
-  .max(200, 'At most 200 characters');
+  .max(200, 'At most 200 characters')
+  // Length (at least PASSWORD_MIN), blank padding and the commonest choices.
+  .superRefine((p, ctx) => {
+    const problem = passwordProblem(p);
+    if (problem) ctx.addIssue({ code: 'custom', message: problem });
+  });
 
 /** The token of a mailed link: 32 random bytes in base64url. */
 export const TokenSchema = z

@@ -27,7 +27,7 @@ const postcode = z
 const lat = num('Latitude').min(-90, 'Latitude must be between -90 and 90').max(90, 'Latitude must be between -90 and 90');
 const lon = num('Longitude').min(-180, 'Longitude must be between -180 and 180').max(180, 'Longitude must be between -180 and 180');
 const ref = IdRefSchema.nullish().transform((v) => v ?? null);
-export const RowVersionSchema = num('row_version').int('row_version must be a whole number').min(1, 'row_version starts at 1');
+export const RowVersionSchema = num('row_version').int('row_version must be a whole number').min(1, 'row_version starts at 1').max(2_147_483_647, 'row_version is too large');
 
 export const CustomerInputSchema = z
   .object({
@@ -68,7 +68,8 @@ export const CustomerChangeSchema = z
     current_operator_id: IdRefSchema.nullable().optional(),
     current_antenna_id: IdRefSchema.nullable().optional(),
     notes: optionalText(4000).optional(),
-    row_version: RowVersionSchema.optional(),
+    /** Required: the version the change was made from; a stale one is refused with 409. */
+    row_version: RowVersionSchema,
   })
   .superRefine((v, ctx) => {
     if ((v.lat === undefined) !== (v.lon === undefined)) {

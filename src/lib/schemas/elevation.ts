@@ -1,12 +1,12 @@
 // Elevation data: request schemas (shared by endpoints and the admin page) and the JSON the API returns.
 import { z } from 'zod';
+import { numberParam } from './params';
 
+// Query-string numbers in decimal only: blank is missing, not 0; `0x10` is not 16.
 const coordinate = (label: string, limit: number) =>
-  z.coerce
-    .number({ required_error: `${label} is required`, invalid_type_error: `${label} must be a number` })
-    .finite(`${label} must be a number`)
-    .min(-limit, `${label} must be between −${limit} and ${limit}`)
-    .max(limit, `${label} must be between −${limit} and ${limit}`);
+  numberParam(label).pipe(
+    z.number().min(-limit, `${label} must be between −${limit} and ${limit}`).max(limit, `${label} must be between −${limit} and ${limit}`),
+  );
 
 export const ElevationSampleQuerySchema = z.object({
   lat: coordinate('Latitude', 90),

@@ -2,7 +2,7 @@
 // shapes the API returns. Channel and PCI checks use the 3GPP tables in lib/domain/channels.ts.
 import { z } from 'zod';
 import { getBand, isChannelInBand, isKnownBand, lookupChannel, type RadioTech } from '../domain/channels';
-import { enumOf, hasAnyField, hasChange, numberField, optionalText, requiredText } from './params';
+import { ID_PATTERN, INT4_MAX, dateTimeField, enumOf, hasAnyField, hasChange, intParam, numberField, optionalText, requiredText, textField } from './params';
 
 export const MAST_STATUSES = ['active', 'planned', 'decommissioned'] as const;
 export type MastStatus = (typeof MAST_STATUSES)[number];
@@ -131,20 +131,20 @@ export const MastListQuerySchema = z
   .object({
     ...filterFields,
     bbox: BboxSchema.optional(),
-    limit: z.coerce
-      .number({ invalid_type_error: 'Limit must be a number' })
-      .int('Limit must be a whole number')
-      .min(1, 'Limit must be at least 1')
-      .max(MAST_LIST_LIMIT, `Limit must be at most ${MAST_LIST_LIMIT}`)
-      .default(MAST_LIST_LIMIT),
+    limit: intParam('Limit', 1, MAST_LIST_LIMIT, MAST_LIST_LIMIT),
   })
   .transform((q) => ({ bbox: q.bbox, limit: q.limit, ...toFilter(q) }));
 export type MastListQuery = z.output<typeof MastListQuerySchema>;
 
-export const RowVersionSchema = num('Row version').int('Row version must be a whole number').min(1, 'Row version must be at least 1');
+export const RowVersionSchema = num('Row version').int('Row version must be a whole number').min(1, 'Row version must be at least 1').max(INT4_MAX, 'Row version is too large');
 
 export const MastDeleteQuerySchema = z.object({
-  row_version: z.coerce.number({ invalid_type_error: 'Row version must be a number' }).pipe(RowVersionSchema).optional(),
+  row_version: z
+    .string()
+    .regex(/^[1-9]\d{0,9}$/, 'Row version must be a whole number')
+    .transform(Number)
+    .pipe(RowVersionSchema)
+    .optional(),
 });
 
 // --- Mast input ------------------------------------------------------------------------------
@@ -215,23 +215,24 @@ export type MastChange = z.output<typeof MastChangeSchema>;
 // --- Cell input ------------------------------------------------------------------------------
 
 export const OperatorIdSchema = z
-  .union([z.number().int().positive(), z.string().regex(/^\d{1,18}$/)], {
+  .union([z.number().int().positive().max(Number.MAX_SAFE_INTEGER), z.string().regex(ID_PATTERN)], {
     errorMap: () => ({ message: 'Choose an operator' }),
   })
   .transform(String);
-export const ChannelSchema = num('Channel').int('Channel must be a whole number').min(0, 'Channel cannot be negative');
-export const PciSchema = num('PCI').int('PCI must be a whole number').min(0, 'PCI cannot be negative').nullish();
+export const ChannelSchema = num('Channel').int('Channel must be a whole number').min(0, 'Channel cannot be negative').max(INT4_MAX, 'Channel is too large');
+export const PciSchema = num('PCI').int('PCI must be a whole number').min(0, 'PCI cannot be negative').max(INT4_MAX, 'PCI is too large').nullish();
 const cellIdentity = num('Cell identity').int('Cell identity must be a whole number').min(0, 'Cannot be negative').max(2 ** 36 - 1, 'At most 36 bits').nullish();
 export const AzimuthSchema = num('Azimuth').min(0, 'Azimuth must be 0–359°').lt(360, 'Azimuth must be 0–359°').nullish();
 const antennaHeight = num('Antenna height').min(0, 'Cannot be negative').max(700, 'At most 700 m').nullish();
 const bandwidth = num('Bandwidth').gt(0, 'Bandwidth must be above 0').max(400, 'At most 400 MHz').nullish();
 const rsPower = num('RS power').min(-20, 'RS power must be at least −20 dBm').max(60, 'RS power must be at most 60 dBm');
-const lastObserved = z.coerce.date({ errorMap: () => ({ message: 'Give a date and time (ISO 8601)' }) }).nullish();
+// Dates already read from the database come back through here when a change is merged.
+const lastObserved = z.preprocess((v) => (v instanceof Date ? v.toISOString() : v), dateTimeField).nullish();
 
 const cellFields = {
   operator_id: OperatorIdSchema,
   tech: TechSchema,
-  band: z.string().trim().max(20, 'At most 20 characters').nullish(),
+  band: textField(20).nullish(),
   channel: ChannelSchema,
   pci: PciSchema,
   cell_identity: cellIdentity,
@@ -331,8 +332,10 @@ export const CellChangeSchema = z
     tech: TechSchema.optional(),
     channel: ChannelSchema.optional(),
     rs_power_dbm: rsPower.optional(),
+    /** The version the change was made from; a stale one is refused with 409. */
+    row_version: RowVersionSchema,
   })
-  .refine(hasAnyField, { message: 'Nothing to change' });
+  .refine(hasChange, { message: 'Nothing to change' });
 export type CellChange = z.output<typeof CellChangeSchema>;
 
 // --- JSON the API returns ----------------------------------------------------------------------
@@ -386,6 +389,7 @@ export interface CellJson {
   bandwidth_mhz: number | null;
   rs_power_dbm: number;
   last_observed_at: string | null;
+  row_version: number;
   created_at: string;
   updated_at: string;
 }
@@ -444,7 +448,7 @@ export interface SearchHitJson {
 
 export const SearchQuerySchema = z.object({
   q: z.string({ required_error: 'Type something to search for' }).trim().min(1, 'Type something to search for').max(100, 'At most 100 characters'),
-  limit: z.coerce.number().int().min(1).max(50).default(10),
+  limit: intParam('limit', 1, 50, 10),
 });
 
 // --- Tiles ----------------------------------------------------------------------------------------

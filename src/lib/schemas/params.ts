@@ -2,15 +2,79 @@
 // the common body fields.
 import { z } from 'zod';
 
+// --- Shared field set: every text, number and date that reaches the database goes through one of
+// these, so that no value PostgreSQL cannot hold (NUL bytes, integers beyond int4, dates outside
+// its range) gets past the schema.
+
+/** PostgreSQL `integer` (int4) range. */
+export const INT4_MIN = -2_147_483_648;
+export const INT4_MAX = 2_147_483_647;
+/** Years a date may have: anything else is a typing slip (0000, 9999, 275760). */
+export const YEAR_MIN = 1900;
+export const YEAR_MAX = 2200;
+
+// eslint-disable-next-line no-control-regex
+const CONTROL = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/;
+/** True when text holds NUL or other control characters (tab, newline and carriage return are fine). */
+export const hasControlChars = (s: string) => CONTROL.test(s);
+const NO_CONTROL = 'Remove control characters (such as NUL) from the text';
+
+/** Decimal notation only: no hex (`0x10`), binary, `Infinity` or blank. */
+const DECIMAL = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
+
+/** `YYYY-MM-DD` naming a day that exists, in YEAR_MIN–YEAR_MAX. */
+export function isRealDate(text: string): boolean {
+  const m = /^(\d{4})-(\d{2})-(\d{2})$/.exec(text);
+  if (!m) return false;
+  const [y, mo, d] = [Number(m[1]), Number(m[2]), Number(m[3])];
+  if (y < YEAR_MIN || y > YEAR_MAX) return false;
+  const t = new Date(Date.UTC(y, mo - 1, d));
+  return t.getUTCFullYear() === y && t.getUTCMonth() === mo - 1 && t.getUTCDate() === d;
+}
+
+/** A calendar date `YYYY-MM-DD` (kept as text). */
+export const dateField = z
+  .string({ invalid_type_error: 'Use the form YYYY-MM-DD' })
+  .trim()
+  .regex(/^\d{4}-\d{2}-\d{2}$/, 'Use the form YYYY-MM-DD')
+  .refine((s) => Number(s.slice(0, 4)) >= YEAR_MIN && Number(s.slice(0, 4)) <= YEAR_MAX, `The year must be between ${YEAR_MIN} and ${YEAR_MAX}`)
+  .refine(isRealDate, 'Not a real date');
+
+/** An ISO 8601 date and time with its offset (`2027-03-01T10:30:00Z`), as a Date. */
+export const dateTimeField = z
+  .string({ invalid_type_error: 'Use an ISO date and time, e.g. 2027-03-01T10:30:00Z' })
+  .trim()
+  .datetime({ offset: true, message: 'Use an ISO date and time, e.g. 2027-03-01T10:30:00Z' })
+  .refine((s) => isRealDate(s.slice(0, 10)), `Not a real date, or a year outside ${YEAR_MIN}–${YEAR_MAX}`)
+  .transform((s) => new Date(s));
+
+/** A whole JSON number within int4 unless narrower bounds are given. */
+export const intField = (label: string, min = INT4_MIN, max = INT4_MAX) =>
+  z
+    .number({ required_error: `${label} is required`, invalid_type_error: `${label} must be a number` })
+    .int(`${label} must be a whole number`)
+    .min(min, `${label} must be at least ${min}`)
+    .max(max, `${label} must be at most ${max}`);
+
+/** Plain text: trimmed, at most `max` characters, no control characters. */
+export const textField = (max: number) =>
+  z
+    .string({ invalid_type_error: 'Must be text' })
+    .trim()
+    .max(max, `At most ${max} characters`)
+    .refine((s) => !hasControlChars(s), NO_CONTROL);
+
 export const numberParam = (label: string) =>
   z
     .string({ required_error: `${label} is required` })
     .trim()
     .min(1, `${label} is required`)
-    .refine((s) => Number.isFinite(Number(s)), `${label} must be a number`)
+    .refine((s) => DECIMAL.test(s) && Number.isFinite(Number(s)), `${label} must be a number`)
     .transform(Number);
 
-export const idParam = z.string().regex(/^\d{1,18}$/, 'Not a valid id');
+/** A database id: digits without leading zeros (`01` is not `1`). */
+export const ID_PATTERN = /^[1-9]\d{0,17}$/;
+export const idParam = z.string().regex(ID_PATTERN, 'Not a valid id');
 
 /** The `[id]` of a route. */
 export const IdParamSchema = z.object({ id: idParam });
@@ -20,7 +84,7 @@ export const intParam = (label: string, min: number, max: number, fallback: numb
   z
     .string()
     .trim()
-    .regex(/^\d+$/, `${label} must be a whole number`)
+    .regex(/^\d{1,15}$/, `${label} must be a whole number`)
     .transform(Number)
     .refine((n) => n >= min && n <= max, `${label} must be between ${min} and ${max}`)
     .optional()
@@ -33,13 +97,13 @@ export const pageParams = {
 };
 
 /** Optional search text of a list; blank means no search. */
-export const searchParam = z.string().trim().max(200, 'At most 200 characters').optional().transform((s) => s || undefined);
+export const searchParam = textField(200).optional().transform((s) => s || undefined);
 
 /** A calendar date inside the magnetic model's validity (WMM2025: 2025–2029). */
 export const modelDateParam = z
   .string()
   .regex(/^\d{4}-\d{2}-\d{2}$/, 'Date must be YYYY-MM-DD')
-  .refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)), 'Not a real date')
+  .refine(isRealDate, 'Not a real date')
   .transform((s) => new Date(`${s}T00:00:00Z`))
   .refine((d) => d.getUTCFullYear() >= 2025 && d.getUTCFullYear() <= 2029, 'The magnetic model covers 2025–2029');
 
@@ -55,7 +119,12 @@ export const numberField = (label: string, finiteMessage?: string) =>
 
 /** Required text, trimmed. */
 export const requiredText = (max: number) =>
-  z.string({ required_error: 'Required', invalid_type_error: 'Required' }).trim().min(1, 'Required').max(max, `At most ${max} characters`);
+  z
+    .string({ required_error: 'Required', invalid_type_error: 'Required' })
+    .trim()
+    .min(1, 'Required')
+    .max(max, `At most ${max} characters`)
+    .refine((s) => !hasControlChars(s), NO_CONTROL);
 
 /** Optional free text: blank becomes null. */
 export const optionalText = (max: number) =>
@@ -63,12 +132,13 @@ export const optionalText = (max: number) =>
     .string({ invalid_type_error: 'Must be text' })
     .trim()
     .max(max, `At most ${max} characters`)
+    .refine((s) => !hasControlChars(s), NO_CONTROL)
     .nullish()
     .transform((s) => (s ? s : null));
 
 /** A database id given as a string ("12") or a number (12). */
 export const IdRefSchema = z
-  .union([z.string().trim().regex(/^\d{1,18}$/, 'Not a valid id'), z.number().int().positive().max(Number.MAX_SAFE_INTEGER)], {
+  .union([z.string().trim().regex(ID_PATTERN, 'Not a valid id'), z.number().int().positive().max(Number.MAX_SAFE_INTEGER)], {
     errorMap: () => ({ message: 'Not a valid id' }),
   })
   .transform(String);

@@ -4,17 +4,13 @@ import { z } from 'zod';
 import { PLAN_STATES, type PlanState } from '../domain/plan-state';
 import { CustomerInputSchema, RowVersionSchema } from './customers';
 import type { ShortlistItemJson } from './shortlist';
-import { IdRefSchema, enumOf, hasChange, numberField as num, optionalText, pageParams } from './params';
+import { IdRefSchema, dateField, dateTimeField, enumOf, hasChange, numberField as num, optionalText, pageParams } from './params';
 
 const stateEnum = enumOf(PLAN_STATES);
 const ref = IdRefSchema.nullable();
 const cableM = num('Cable length').min(0, 'Cable length cannot be negative').max(200, 'Cable length must be at most 200 m');
 const mountHeightM = num('Mount height').min(0, 'Mount height cannot be negative').max(100, 'Mount height must be at most 100 m');
-const date = z
-  .string()
-  .regex(/^\d{4}-\d{2}-\d{2}$/, 'Use the form YYYY-MM-DD')
-  .refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)) && new Date(`${s}T00:00:00Z`).toISOString().startsWith(s), 'Not a real date')
-  .nullable();
+const date = dateField.nullable();
 
 /** The chosen cell and kit and the visit date: the same fields in a new plan and in a change. */
 const kitFields = {
@@ -59,7 +55,8 @@ export const PlanChangeSchema = z
     ...kitFields,
     notes: optionalText(4000).optional(),
     state: stateEnum.optional(),
-    row_version: RowVersionSchema.optional(),
+    /** Required: the version the change was made from; a stale one is refused with 409. */
+    row_version: RowVersionSchema,
   })
   .superRefine((v, ctx) => {
     if (!hasChange(v)) ctx.addIssue({ code: 'custom', path: [], message: 'Nothing to change' });
@@ -109,7 +106,7 @@ const SpeedTestSchema = z.object({
 export const InstallCheckInputSchema = z
   .object({
     phase: z.enum(CHECK_PHASES, { errorMap: () => ({ message: 'Choose before or after' }) }),
-    taken_at: z.string().datetime({ offset: true, message: 'Use an ISO date and time, e.g. 2027-03-01T10:30:00Z' }).optional(),
+    taken_at: dateTimeField.optional(),
     notes: optionalText(2000),
     readings: z.array(CheckReadingSchema).max(64, 'At most 64 readings').default([]),
     speed_tests: z.array(SpeedTestSchema).max(20, 'At most 20 speed tests').default([]),
@@ -121,7 +118,7 @@ export const InstallCheckInputSchema = z
   })
   .transform((v) => ({
     phase: v.phase,
-    takenAt: v.taken_at ? new Date(v.taken_at) : null,
+    takenAt: v.taken_at ?? null,
     notes: v.notes,
     readings: v.readings.map((r) => ({ pci: r.pci, channel: r.channel, rsrpDbm: r.rsrp_dbm, rsrqDb: r.rsrq_db, sinrDb: r.sinr_db })),
     speedTests: v.speed_tests.map((t) => ({ downMbps: t.down_mbps, upMbps: t.up_mbps, latencyMs: t.latency_ms })),

@@ -15,7 +15,19 @@ const position = z
   .superRefine((p, ctx) => {
     if (p[0]! < -180 || p[0]! > 180) ctx.addIssue({ code: 'custom', message: `Longitude ${p[0]} is outside −180…180` });
     if (p[1]! < -90 || p[1]! > 90) ctx.addIssue({ code: 'custom', message: `Latitude ${p[1]} is outside −90…90` });
-  });
+  })
+  // A height (third value, RFC 7946 §3.1.1) is allowed in the file but not kept: regions are 2D.
+  .transform((p): [number, number] => [p[0]!, p[1]!]);
+
+function lonSpan(ring: readonly (readonly number[])[]): number {
+  let min = Infinity;
+  let max = -Infinity;
+  for (const p of ring) {
+    min = Math.min(min, p[0]!);
+    max = Math.max(max, p[0]!);
+  }
+  return ring.length ? max - min : 0;
+}
 
 const ring = z
   .array(position, { invalid_type_error: 'A ring is a list of positions' })
@@ -23,6 +35,11 @@ const ring = z
   .max(100_000, 'At most 100000 positions per ring')
   .refine((r) => r.length < 4 || (r[0]![0] === r[r.length - 1]![0] && r[0]![1] === r[r.length - 1]![1]), {
     message: 'A ring must end where it starts',
+  })
+  // RFC 7946 §3.1.9: a shape crossing 180° must be cut in two there; a ring spanning more than
+  // half the globe is almost always one drawn the wrong way round the antimeridian.
+  .refine((r) => lonSpan(r) <= 180, {
+    message: 'The ring spans more than 180° of longitude: cut a region that crosses the antimeridian into two polygons',
   });
 
 const polygonCoords = z.array(ring, { invalid_type_error: 'A polygon is a list of rings' }).min(1, 'A polygon needs an outer ring');

@@ -1,10 +1,11 @@
 import { z } from 'zod';
 import { ROLES } from '../domain/roles';
 import { enumOf } from './params';
+import { PASSWORD_MIN_LENGTH } from '../domain/password-rules';
 
 export const RoleSchema = enumOf(ROLES);
 
-export const PASSWORD_MIN = 10;
+export const PASSWORD_MIN = PASSWORD_MIN_LENGTH;
 
 /** An invitation: the person chooses their own password from the link mailed to them. */
 export const NewUserSchema = z.object({

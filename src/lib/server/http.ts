@@ -59,7 +59,22 @@ export function handler(fn: (ctx: APIContext) => Promise<Response> | Response): 
   };
 }
 
+/** Paths of the strings in `data` that hold a NUL byte (PostgreSQL text cannot store one). */
+function nulPaths(data: unknown, path: string[] = [], out: string[] = [], depth = 0): string[] {
+  if (typeof data === 'string') {
+    if (data.includes('\u0000')) out.push(path.length ? path.join('.') : '_');
+  } else if (data && typeof data === 'object' && depth < 32 && out.length < 20) {
+    for (const [k, v] of Object.entries(data)) nulPaths(v, [...path, k], out, depth + 1);
+  }
+  return out;
+}
+
+/** Parses with a zod schema: 400 with fields on failure. Text with NUL bytes is refused first, whatever the schema. */
 export function parseWith<T>(schema: ZodType<T, ZodTypeDef, unknown>, data: unknown): T {
+  const nul = nulPaths(data);
+  if (nul.length) {
+    throw new ValidationError('Some fields need attention', Object.fromEntries(nul.map((p) => [p, ['Remove NUL characters from the text']])));
+  }
   const result = schema.safeParse(data);
   if (!result.success) throw validationFromZod(result.error);
   return result.data;

@@ -2,7 +2,7 @@
 // channel tables (CellInputSchema) and audited.
 import type { Tx } from '../db';
 import { CellInputSchema, type CellChange, type CellInput, type CellJson, type Tech } from '../../schemas/masts';
-import { NotFoundError, ValidationError } from '../errors';
+import { ConflictError, NotFoundError, ValidationError } from '../errors';
 import { recordAudit } from './audit';
 import { assertNoPlansUseCells, unlinkReadingsOfCells } from './cell-dependents';
 
@@ -21,6 +21,7 @@ export interface Cell {
   bandwidthMhz: number | null;
   rsPowerDbm: number;
   lastObservedAt: Date | null;
+  rowVersion: number;
   createdAt: Date;
   updatedAt: Date;
 }
@@ -42,6 +43,7 @@ interface CellRow {
   bandwidth_mhz: number | null;
   rs_power_dbm: number;
   last_observed_at: Date | null;
+  row_version: number;
   created_at: Date;
   updated_at: Date;
 }
@@ -62,6 +64,7 @@ function toCell(r: CellRow): Cell {
     bandwidthMhz: r.bandwidth_mhz,
     rsPowerDbm: r.rs_power_dbm,
     lastObservedAt: r.last_observed_at,
+    rowVersion: r.row_version,
     createdAt: r.created_at,
     updatedAt: r.updated_at,
   };
@@ -83,6 +86,7 @@ export function cellJson(c: Cell): CellJson {
     bandwidth_mhz: c.bandwidthMhz,
     rs_power_dbm: c.rsPowerDbm,
     last_observed_at: c.lastObservedAt ? c.lastObservedAt.toISOString() : null,
+    row_version: c.rowVersion,
     created_at: c.createdAt.toISOString(),
     updated_at: c.updatedAt.toISOString(),
   };
@@ -175,9 +179,12 @@ export async function updateCell(db: Tx, id: string, change: CellChange, actorId
     last_observed_at: change.last_observed_at !== undefined ? change.last_observed_at : before.lastObservedAt,
   });
   if (merged.operatorId !== before.operator.id) await assertOperatorExists(db, merged.operatorId);
-  await db('cells')
-    .where({ id })
-    .update({ ...toRow(merged), updated_at: db.fn.now() });
+  const updated = await db('cells')
+    .where({ id, row_version: change.row_version })
+    .update({ ...toRow(merged), updated_at: db.fn.now(), row_version: db.raw('row_version + 1') });
+  if (updated === 0) {
+    throw new ConflictError(`Someone else changed this cell (now version ${before.rowVersion}); reload it and make your change again`);
+  }
   const after = await findCell(db, id);
   await recordAudit(db, { userId: actorId, action: 'update', entity: 'cell', entityId: id, before: auditView(before), after: auditView(after) });
   return after;

@@ -77,8 +77,16 @@ async function assertCodeFree(db: Tx, mcc: string, mnc: string, exceptId?: strin
   if (await q.first('id')) throw new ConflictError(`An operator with MCC ${mcc} and MNC ${mnc} already exists`);
 }
 
+// The unique index operators_name_unique answers for two creates at the same moment (409 via http.ts).
+async function assertNameFree(db: Tx, name: string, exceptId?: string): Promise<void> {
+  const q = db('operators').whereRaw('lower(name) = lower(?)', [name]);
+  if (exceptId) q.whereNot('id', exceptId);
+  if (await q.first('id')) throw new ConflictError(`An operator named ${name} already exists`);
+}
+
 export async function createOperator(db: Tx, input: OperatorInput, actorId: string | null): Promise<Operator> {
   await assertCodeFree(db, input.mcc, input.mnc);
+  await assertNameFree(db, input.name);
   const used: string[] = (await db('operators').select('colour')).map((r: { colour: string }) => r.colour);
   const [row] = await db('operators')
     .insert({ name: input.name, mcc: input.mcc, mnc: input.mnc, colour: input.colour ?? pickDefaultColour(used) })
@@ -93,6 +101,7 @@ export async function updateOperator(db: Tx, id: string, change: OperatorChange,
   const mcc = change.mcc ?? before.mcc;
   const mnc = change.mnc ?? before.mnc;
   if (mcc !== before.mcc || mnc !== before.mnc) await assertCodeFree(db, mcc, mnc, id);
+  if (change.name !== undefined && change.name !== before.name) await assertNameFree(db, change.name, id);
   const patch: Record<string, unknown> = { updated_at: db.fn.now() };
   if (change.name !== undefined) patch.name = change.name;
   if (change.mcc !== undefined) patch.mcc = change.mcc;
