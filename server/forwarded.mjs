@@ -10,7 +10,10 @@ import { BlockList, isIP } from 'node:net';
  */
 export function parseTrustedProxies(text) {
   const list = new BlockList();
-  for (const raw of text.split(',').map((s) => s.trim()).filter(Boolean)) {
+  for (const raw of text
+    .split(',')
+    .map((s) => s.trim())
+    .filter(Boolean)) {
     const [address, bits] = raw.split('/');
     const family = isIP(address);
     if (family === 0) throw new Error(`TRUSTED_PROXIES: "${raw}" is not an IP address or CIDR range`);

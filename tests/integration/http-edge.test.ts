@@ -21,19 +21,16 @@ function sendChunked(path: string, headers: Record<string, string>, totalBytes: 
   return new Promise((resolve, reject) => {
     let sent = 0;
     let answered = false;
-    const req = httpRequest(
-      { host: url.hostname, port: url.port, path: url.pathname, method: 'POST', headers: { origin: APP_URL, ...headers } },
-      (res) => {
-        answered = true;
-        let body = '';
-        res.setEncoding('utf8');
-        res.on('data', (d) => (body += d));
-        res.on('end', () => {
-          req.destroy();
-          resolve({ status: res.statusCode ?? 0, headers: res.headers, body, sent });
-        });
-      },
-    );
+    const req = httpRequest({ host: url.hostname, port: url.port, path: url.pathname, method: 'POST', headers: { origin: APP_URL, ...headers } }, (res) => {
+      answered = true;
+      let body = '';
+      res.setEncoding('utf8');
+      res.on('data', (d) => (body += d));
+      res.on('end', () => {
+        req.destroy();
+        resolve({ status: res.statusCode ?? 0, headers: res.headers, body, sent });
+      });
+    });
     req.on('error', (err) => (answered ? undefined : reject(err)));
     const pump = () => {
       while (!answered && sent < totalBytes) {

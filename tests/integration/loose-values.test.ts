@@ -95,7 +95,21 @@ describe('endpoints with bad values', () => {
     expect(q.status).toBe(400);
     const nested = await call(createRegion, {
       user: admin,
-      json: { name: 'Ok', geometry: { type: 'Polygon', coordinates: [[[0, 0], [1, 0], [1, 1], [0, 0]]], note: 'x\u0000' } },
+      json: {
+        name: 'Ok',
+        geometry: {
+          type: 'Polygon',
+          coordinates: [
+            [
+              [0, 0],
+              [1, 0],
+              [1, 1],
+              [0, 0],
+            ],
+          ],
+          note: 'x\u0000',
+        },
+      },
     });
     expect(nested.status).toBe(400);
   });
@@ -128,13 +142,40 @@ describe('endpoints with bad values', () => {
   it('keeps regions 2D and refuses one drawn across the antimeridian', async () => {
     const flat = await call(createRegion, {
       user: admin,
-      json: { name: 'With heights', geometry: { type: 'Polygon', coordinates: [[[10, 10, 5], [11, 10, 5], [11, 11, 7], [10, 10, 5]]] } },
+      json: {
+        name: 'With heights',
+        geometry: {
+          type: 'Polygon',
+          coordinates: [
+            [
+              [10, 10, 5],
+              [11, 10, 5],
+              [11, 11, 7],
+              [10, 10, 5],
+            ],
+          ],
+        },
+      },
     });
     expect(flat.status).toBe(201);
     expect(flat.body.geometry.coordinates[0][0][0]).toEqual([10, 10]);
     const wrapped = await call(createRegion, {
       user: admin,
-      json: { name: 'Dateline', geometry: { type: 'Polygon', coordinates: [[[179, 0], [-179, 0], [-179, 1], [179, 1], [179, 0]]] } },
+      json: {
+        name: 'Dateline',
+        geometry: {
+          type: 'Polygon',
+          coordinates: [
+            [
+              [179, 0],
+              [-179, 0],
+              [-179, 1],
+              [179, 1],
+              [179, 0],
+            ],
+          ],
+        },
+      },
     });
     expect(wrapped.status).toBe(400);
     expect(JSON.stringify(wrapped.body.error.fields)).toMatch(/antimeridian/);

@@ -81,7 +81,9 @@ describe('JSON and form bodies (shared parseBody)', () => {
     expect(ok.name.length).toBe(name.length);
 
     const bigger = JSON.stringify({ name: 'y'.repeat(2 * JSON_BODY_MAX_BYTES) });
-    const refused = await rejection(parseBody(schema, new Request('http://x/', { method: 'POST', body: bigger, headers: { 'content-type': 'application/json' } })));
+    const refused = await rejection(
+      parseBody(schema, new Request('http://x/', { method: 'POST', body: bigger, headers: { 'content-type': 'application/json' } })),
+    );
     expect(refused.code).toBe('PAYLOAD_TOO_LARGE');
     const raised = await parseBody(schema, new Request('http://x/', { method: 'POST', body: bigger, headers: { 'content-type': 'application/json' } }), {
       maxBytes: 3 * JSON_BODY_MAX_BYTES,
@@ -107,7 +109,7 @@ describe('limitedStream / readLimitedBytes for raw uploads', () => {
     expect(new TextDecoder().decode(await readLimitedBytes(req, 1024))).toBe('label,postcode,lat,lon\n');
   });
 
-  it('errors the stream with a 413 once the limit is passed, with the route\'s own message', async () => {
+  it("errors the stream with a 413 once the limit is passed, with the route's own message", async () => {
     const { stream, counter } = endlessBody(100 * 1024 * 1024);
     const limited = limitedStream(streamedRequest(stream, {}), 256 * 1024, () => new AppError('PAYLOAD_TOO_LARGE', 'Split the file'));
     const reader = limited.getReader();
@@ -205,7 +207,9 @@ describe('readMultipart (busboy) for file uploads', () => {
       readMultipartFiles(new Request('http://x/', { method: 'POST', body: 'x', headers: { 'content-type': 'multipart/form-data' } }), { maxFileBytes: 100 }),
     );
     expect(noBoundary.code).toBe('BAD_REQUEST');
-    const other = await rejection(readMultipartFiles(new Request('http://x/', { method: 'POST', body: 'x', headers: { 'content-type': 'text/plain' } }), { maxFileBytes: 100 }));
+    const other = await rejection(
+      readMultipartFiles(new Request('http://x/', { method: 'POST', body: 'x', headers: { 'content-type': 'text/plain' } }), { maxFileBytes: 100 }),
+    );
     expect(other.code).toBe('UNSUPPORTED_MEDIA_TYPE');
   });
 

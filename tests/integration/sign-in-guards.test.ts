@@ -2,13 +2,7 @@
 // per-address limits, e-mail normalisation, the unknown-e-mail path, and where `next` may lead.
 import { beforeEach, describe, expect, it } from 'vitest';
 import { POST as login } from '../../src/pages/api/auth/login';
-import {
-  ACCOUNT_FREE_FAILURES,
-  ACCOUNT_MAX_DELAY_S,
-  IP_FAILURE_LIMIT,
-  accountDelaySeconds,
-  authenticate,
-} from '../../src/lib/server/auth';
+import { ACCOUNT_FREE_FAILURES, ACCOUNT_MAX_DELAY_S, IP_FAILURE_LIMIT, accountDelaySeconds, authenticate } from '../../src/lib/server/auth';
 import { AppError } from '../../src/lib/server/errors';
 import { LOGIN_ERRORS, loginErrorMessage, safeNextPath } from '../../src/lib/schemas/auth';
 import { call } from '../helpers/endpoint';

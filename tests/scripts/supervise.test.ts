@@ -20,7 +20,11 @@ describe('supervise', () => {
   it('gives up on a server that crashes right after every start', async () => {
     const logs: string[] = [];
     // A generous minimum uptime: starting node is slow on a busy machine.
-    const sup = supervise(() => spawn(process.execPath, ['-e', 'process.exit(3)'], { stdio: 'ignore' }), (m) => logs.push(m), { ...policy, minUptimeMs: 20_000 });
+    const sup = supervise(
+      () => spawn(process.execPath, ['-e', 'process.exit(3)'], { stdio: 'ignore' }),
+      (m) => logs.push(m),
+      { ...policy, minUptimeMs: 20_000 },
+    );
     expect(await sup.done).toBe(1);
     expect(sup.starts()).toBe(3);
     expect(logs.at(-1)).toMatch(/not restarting/);
@@ -29,7 +33,11 @@ describe('supervise', () => {
   it('restarts a server that dies after running a while, and stops it on request', async () => {
     const logs: string[] = [];
     // Runs 1.2 s (longer than minUptimeMs), then crashes.
-    const sup = supervise(() => spawn(process.execPath, ['-e', 'setTimeout(() => process.exit(1), 1200)'], { stdio: 'ignore' }), (m) => logs.push(m), policy);
+    const sup = supervise(
+      () => spawn(process.execPath, ['-e', 'setTimeout(() => process.exit(1), 1200)'], { stdio: 'ignore' }),
+      (m) => logs.push(m),
+      policy,
+    );
     while (sup.starts() < 3) await new Promise((r) => setTimeout(r, 100));
     sup.stop();
     expect(await sup.done).toBe(0);

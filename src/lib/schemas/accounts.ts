@@ -1,7 +1,6 @@
 // Accounts by e-mail: sign-up, confirming the address, asking for a reset and setting a
 // password from a mailed link. Shared by the endpoints and the forms.
 import { z } from 'zod';
-import { PASSWORD_MIN } from './users';
 import { passwordProblem } from '../domain/password-rules';
 import type { TokenPurpose } from '../domain/account-tokens';
 
@@ -15,7 +14,7 @@ export const EmailSchema = z
 export const NewPasswordSchema = z
   .string({ required_error: 'Choose a password', invalid_type_error: 'Choose a password' })
   .max(200, 'At most 200 characters')
-  // Length (at least PASSWORD_MIN), blank padding and the commonest choices.
+  // Length (at least PASSWORD_MIN of users.ts), blank padding and the commonest choices.
   .superRefine((p, ctx) => {
     const problem = passwordProblem(p);
     if (problem) ctx.addIssue({ code: 'custom', message: problem });

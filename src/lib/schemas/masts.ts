@@ -2,7 +2,7 @@
 // shapes the API returns. Channel and PCI checks use the 3GPP tables in lib/domain/channels.ts.
 import { z } from 'zod';
 import { getBand, isChannelInBand, isKnownBand, lookupChannel, type RadioTech } from '../domain/channels';
-import { ID_PATTERN, INT4_MAX, dateTimeField, enumOf, hasAnyField, hasChange, intParam, numberField, optionalText, requiredText, textField } from './params';
+import { ID_PATTERN, INT4_MAX, dateTimeField, enumOf, hasChange, intParam, numberField, optionalText, requiredText, textField } from './params';
 
 export const MAST_STATUSES = ['active', 'planned', 'decommissioned'] as const;
 export type MastStatus = (typeof MAST_STATUSES)[number];
@@ -336,7 +336,8 @@ export const CellChangeSchema = z
     row_version: RowVersionSchema,
   })
   .refine(hasChange, { message: 'Nothing to change' });
-export type CellChange = z.output<typeof CellChangeSchema>;
+/** The API always sends row_version; code inside the server (review merges) may leave it out. */
+export type CellChange = Omit<z.output<typeof CellChangeSchema>, 'row_version'> & { row_version?: number };
 
 // --- JSON the API returns ----------------------------------------------------------------------
 

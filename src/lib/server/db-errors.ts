@@ -36,7 +36,10 @@ export function isDatabaseUnavailable(err: unknown): boolean {
 function duplicateKey(detail: string): { column: string; value: string } | null {
   const m = /^Key \((.+?)\)=\((.*)\) already exists/.exec(detail);
   if (!m) return null;
-  const column = m[1]!.replace(/^\w+\((.*)\)$/, '$1').split(',')[0]!.trim();
+  const column = m[1]!
+    .replace(/^\w+\((.*)\)$/, '$1')
+    .split(',')[0]!
+    .trim();
   return { column, value: m[2]! };
 }
 

@@ -16,7 +16,8 @@ export async function allowedApiMethods(routePattern: string | undefined): Promi
   if (key) {
     const mod = await API_MODULES[key]!();
     methods = Object.keys(mod).filter((name) => /^[A-Z]+$/.test(name) && typeof mod[name] === 'function');
-    if (methods.includes('ALL')) methods = null; // answers every method itself
+    if (methods.includes('ALL'))
+      methods = null; // answers every method itself
     else if (methods.includes('GET') && !methods.includes('HEAD')) methods.push('HEAD');
   }
   cache.set(routePattern, methods);

@@ -39,11 +39,7 @@ export function assertContentLength(request: Request, maxBytes: number, tooLarge
  * The request body as a stream that fails with 413 as soon as more than `maxBytes` have passed
  * (the declared Content-Length is checked before anything is read). Pipe it into a parser.
  */
-export function limitedStream(
-  request: Request,
-  maxBytes: number,
-  tooLarge: () => AppError = () => bodyTooLarge(maxBytes),
-): ReadableStream<Uint8Array> {
+export function limitedStream(request: Request, maxBytes: number, tooLarge: () => AppError = () => bodyTooLarge(maxBytes)): ReadableStream<Uint8Array> {
   assertContentLength(request, maxBytes, tooLarge);
   const source = request.body;
   if (!source) return new ReadableStream({ start: (c) => c.close() });
@@ -77,11 +73,7 @@ export function limitedStream(
 }
 
 /** The whole body as bytes, at most `maxBytes` (413 beyond, without reading further). */
-export async function readLimitedBytes(
-  request: Request,
-  maxBytes: number,
-  tooLarge: () => AppError = () => bodyTooLarge(maxBytes),
-): Promise<Uint8Array> {
+export async function readLimitedBytes(request: Request, maxBytes: number, tooLarge: () => AppError = () => bodyTooLarge(maxBytes)): Promise<Uint8Array> {
   const reader = limitedStream(request, maxBytes, tooLarge).getReader();
   const chunks: Uint8Array[] = [];
   let total = 0;
@@ -158,7 +150,10 @@ export interface BufferedFile {
 export function cleanFileName(name: string | undefined): string {
   const base = (name ?? '').split(/[\\/]/).pop() ?? '';
   // eslint-disable-next-line no-control-regex
-  const clean = base.replace(/[\u0000-\u001f\u007f]/g, '').trim().slice(0, 200);
+  const clean = base
+    .replace(/[\u0000-\u001f\u007f]/g, '')
+    .trim()
+    .slice(0, 200);
   return clean || 'upload';
 }
 
@@ -184,8 +179,7 @@ export async function readMultipart<T>(
   const maxFields = limits.maxFields ?? 20;
   const maxFieldBytes = limits.maxFieldBytes ?? 64 * 1024;
   const maxTotal = limits.maxTotalBytes ?? limits.maxFileBytes * Math.max(1, maxFiles) + MULTIPART_OVERHEAD_BYTES;
-  const fileTooLarge = () =>
-    new PayloadTooLargeError(limits.fileTooLargeMessage ?? `The file is larger than ${formatBytes(limits.maxFileBytes)}`);
+  const fileTooLarge = () => new PayloadTooLargeError(limits.fileTooLargeMessage ?? `The file is larger than ${formatBytes(limits.maxFileBytes)}`);
 
   let parser: busboy.Busboy;
   try {
@@ -256,10 +250,7 @@ export async function streamToBytes(stream: Readable): Promise<Uint8Array> {
 }
 
 /** readMultipart for small uploads that are parsed whole: every file buffered, each ≤ maxFileBytes. */
-export async function readMultipartFiles(
-  request: Request,
-  limits: MultipartLimits,
-): Promise<{ fields: Record<string, string>; files: BufferedFile[] }> {
+export async function readMultipartFiles(request: Request, limits: MultipartLimits): Promise<{ fields: Record<string, string>; files: BufferedFile[] }> {
   return readMultipart(request, limits, async (file) => ({
     field: file.field,
     fileName: file.fileName,

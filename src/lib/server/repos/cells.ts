@@ -180,7 +180,7 @@ export async function updateCell(db: Tx, id: string, change: CellChange, actorId
   });
   if (merged.operatorId !== before.operator.id) await assertOperatorExists(db, merged.operatorId);
   const updated = await db('cells')
-    .where({ id, row_version: change.row_version })
+    .where(change.row_version === undefined ? { id } : { id, row_version: change.row_version })
     .update({ ...toRow(merged), updated_at: db.fn.now(), row_version: db.raw('row_version + 1') });
   if (updated === 0) {
     throw new ConflictError(`Someone else changed this cell (now version ${before.rowVersion}); reload it and make your change again`);
