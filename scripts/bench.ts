@@ -441,7 +441,7 @@ async function measureDemoShortlist(url: string) {
       process.env.DATA_DIR = DEMO_DATA;
       await runSeeds(demoUrl);
     }
-    const server = startServer({ host: '127.0.0.1', port: DEMO_PORT, stdio: 'ignore', env: { DATABASE_URL: demoUrl, DATA_DIR: DEMO_DATA, SMTP_URL: 'smtp://127.0.0.1:9' } });
+    const server = startServer({ host: '127.0.0.1', port: DEMO_PORT, stdio: 'ignore', env: { DATABASE_URL: demoUrl, DATA_DIR: DEMO_DATA, SMTP_URL: 'smtp://127.0.0.1:9', RESIDUAL_JOB: 'off' } });
     try {
       await waitForHttp(`http://127.0.0.1:${DEMO_PORT}/api/health`);
       const cookie = await login(DEMO_PORT, 'planner@demo.bearline.test');
@@ -503,7 +503,7 @@ async function main() {
   const centre = await townOne(db);
 
   buildIfChanged();
-  const server: ChildProcess = startServer({ host: '127.0.0.1', port: APP_PORT, stdio: 'ignore', env: { DATABASE_URL: url, DATA_DIR: BENCH_DATA, SMTP_URL: 'smtp://127.0.0.1:9', WEB_CONCURRENCY: '2' } });
+  const server: ChildProcess = startServer({ host: '127.0.0.1', port: APP_PORT, stdio: 'ignore', env: { DATABASE_URL: url, DATA_DIR: BENCH_DATA, SMTP_URL: 'smtp://127.0.0.1:9', WEB_CONCURRENCY: '2', RESIDUAL_JOB: 'off' } });
   try {
     await waitForHttp(`http://127.0.0.1:${APP_PORT}/api/health`);
     const startRss = serverRssMb(server.pid!);
