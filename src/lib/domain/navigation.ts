@@ -10,6 +10,7 @@ export interface NavItem {
 export const NAV_ITEMS: readonly NavItem[] = [
   { href: '/map', label: 'Map', permission: 'map:view' },
   { href: '/plan', label: 'Plan', permission: 'plans:write' },
+  { href: '/review', label: 'Review', permission: 'sightings:review' },
   { href: '/tools', label: 'Tools', permission: 'tools:use' },
   { href: '/admin/operators', label: 'Operators', permission: 'reference:manage' },
   { href: '/admin/regions', label: 'Regions', permission: 'reference:manage' },
