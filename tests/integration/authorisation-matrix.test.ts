@@ -45,6 +45,7 @@ const ACCESS: Record<string, Partial<Record<Method, Rule | Rule[]>>> = {
   'forgot.astro': { GET: { path: '/forgot', who: 'public', status: 200 } },
   'reset.astro': { GET: { path: '/reset', who: 'public', status: 400 } },
   'map.astro': { GET: { path: '/map', who: SIGNED_IN } },
+  'review.astro': { GET: { path: '/review', who: REVIEWERS, status: 200 } },
   'plan.astro': {
     GET: [
       { path: '/plan', who: SIGNED_IN },

@@ -8,6 +8,7 @@ import ReviewMap from './ReviewMap';
 import CellsSideBySide from './CellsSideBySide';
 
 const fmtDate = (iso: string) => new Date(iso).toLocaleString(undefined, { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' });
+const count = (n: number, one: string) => `${n} ${one}${n === 1 ? '' : 's'}`;
 const fmtDistance = (m: number) => (m < 10 ? `${m.toFixed(1)} m` : `${Math.round(m)} m`);
 const POSITION_FROM: Record<string, string> = { photo: "the photo's GPS tags", device: "the phone's location", map: 'a click on the map' };
 
@@ -70,9 +71,9 @@ function DecisionForm({ item, candidate, onDecided, onStale }: DecisionFormProps
       const who = item.sighting.author.name;
       onDecided(
         r.sighting.status === 'approved'
-          ? `Approved: new mast "${r.mast?.name}" with ${r.added_cells} cells. ${who} gets an e-mail.`
+          ? `Approved: new mast "${r.mast?.name}" with ${count(r.added_cells, 'cell')}. ${who} gets an e-mail.`
           : r.sighting.status === 'merged'
-            ? `Merged into "${r.mast?.name}": ${r.added_cells} new cells, ${r.observed_cells} confirmed. ${who} gets an e-mail.`
+            ? `Merged into "${r.mast?.name}": ${count(r.added_cells, 'new cell')}, ${r.observed_cells} confirmed. ${who} gets an e-mail.`
             : `Rejected. ${who} gets an e-mail with your reason.`,
       );
     } catch (err) {
@@ -193,7 +194,7 @@ function SightingDetail({ item, radiusM, onDecided, onStale }: { item: ReviewIte
                   <span className="flex h-6 w-6 shrink-0 items-center justify-center rounded-full bg-ink-600 text-xs font-bold text-white">{i + 1}</span>
                   <span className="min-w-0 flex-1">
                     <span className="block truncate font-semibold">{c.mast.name}</span>
-                    <span className="text-ink-600">{fmtDistance(c.distance_m)} away · {c.cells.length} cells</span>
+                    <span className="text-ink-600">{fmtDistance(c.distance_m)} away · {count(c.cells.length, 'cell')}</span>
                   </span>
                   <span className={`shrink-0 rounded px-2 py-0.5 text-xs font-semibold ${c.shared_cells ? 'bg-moss-100 text-moss-700' : 'bg-ink-100 text-ink-600'}`}>
                     {c.shared_cells} shared
@@ -290,6 +291,7 @@ export default function ReviewQueue() {
                   <li key={i.sighting.id}>
                     <button
                       type="button"
+                      data-testid={`queue-item-${i.sighting.id}`}
                       aria-current={i.sighting.id === selected ? 'true' : undefined}
                       onClick={() => setSelected(i.sighting.id)}
                       className={`flex min-h-11 w-full flex-col gap-0.5 rounded px-2 py-2 text-left text-sm ${i.sighting.id === selected ? 'bg-ink-100' : 'hover:bg-ink-50'}`}
@@ -302,7 +304,7 @@ export default function ReviewQueue() {
                         {i.sighting.author.name} · <SubmitterRecord r={i.submitter} />
                       </span>
                       <span className="text-xs text-ink-600">
-                        {i.sighting.cells.length} cells · {i.sighting.photos.length} photos ·{' '}
+                        {count(i.sighting.cells.length, 'cell')} · {count(i.sighting.photos.length, 'photo')} ·{' '}
                         {best ? `${i.candidates.length} mast${i.candidates.length === 1 ? '' : 's'} near, ${best.shared_cells} shared at ${fmtDistance(best.distance_m)}` : 'no mast near'}
                       </span>
                     </button>
