@@ -98,9 +98,9 @@ describe('reviewer journey on a phone', () => {
     await planner.fill('#plan-address', 'Sorrel Farm');
     await planner.getByRole('option').first().waitFor();
     await planner.keyboard.press('Enter');
-    const rows = planner.locator('table tbody tr');
-    await rows.first().waitFor();
-    await expect(planner.locator('table tbody').innerText()).resolves.toContain(MAST_NAME);
+    const shortlist = planner.getByRole('table', { name: 'Shortlist' });
+    await shortlist.locator('tbody tr').first().waitFor();
+    await expect(shortlist.innerText()).resolves.toContain(MAST_NAME);
     await planner.screenshot({ path: 'test-results/review-shortlist-phone.png', fullPage: true });
 
     expect(errors).toEqual([]);
