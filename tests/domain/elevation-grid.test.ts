@@ -7,6 +7,7 @@ import {
   assertValidGrid,
   getGridSpacingDeg,
   getGridSpacingM,
+  getGridSpacingMetres,
   getGridStats,
   getProfileCoverage,
   getSamplePosition,
@@ -137,6 +138,15 @@ describe('grid checks and statistics', () => {
   it('measures spacing in metres on the mean sphere, east–west at the latitude nearest the equator', () => {
     // 1° × 1° at 50…52° N: east–west spacing is cos(50°) of a degree.
     expect(getGridSpacingM(POINT_GRID)).toBeCloseTo(METRES_PER_DEGREE * Math.cos((50 * Math.PI) / 180), 3);
+  });
+
+  it('gives both spacings, so a 3″ grid at 47° S reads about 63 m east–west by 93 m north–south', () => {
+    const grid = { west: -129, south: -48, east: -128, north: -47, width: 1201, height: 1201, registration: 'point' as const };
+    const { eastWestM, northSouthM } = getGridSpacingMetres(grid);
+    // 3″ = 1/1200°: north–south 111 195 m/° ÷ 1200 = 92.66 m; east–west × cos 47° = 63.19 m (mean sphere)
+    expect(northSouthM).toBeCloseTo(92.66, 1);
+    expect(eastWestM).toBeCloseTo(63.19, 1);
+    expect(getGridSpacingM(grid)).toBeCloseTo(eastWestM, 9);
   });
 });
 

@@ -71,7 +71,7 @@ describe('addresses API', () => {
     const admin = asSessionUser(await makeUser('admin'));
     const res = await call(importAddresses, { user: admin, ...multipart(GOOD) });
     expect(res.status).toBe(200);
-    expect(res.body).toEqual({ rows: 3, inserted: 3, updated: 0 });
+    expect(res.body).toEqual({ rows: 3, inserted: 3, updated: 0, unchanged: 0 });
     const rows = await testDb()('addresses').orderBy('label').select('label', 'postcode', testDb().raw('ST_Y(geom) AS lat'), testDb().raw('ST_X(geom) AS lon'));
     expect(rows).toEqual([
       { label: '3 Quay Row', postcode: null, lat: -47.25, lon: -128.6 },
@@ -84,6 +84,15 @@ describe('addresses API', () => {
     expect(audit.after.sha256).toMatch(/^[0-9a-f]{64}$/);
   });
 
+  it('reports an identical re-import as unchanged, not moved', async () => {
+    const admin = asSessionUser(await makeUser('admin'));
+    await call(importAddresses, { user: admin, ...multipart(GOOD) });
+    const before = await testDb()('addresses').orderBy('id').select('id', 'updated_at');
+    const again = await call(importAddresses, { user: admin, ...multipart(GOOD) });
+    expect(again.body).toEqual({ rows: 3, inserted: 0, updated: 0, unchanged: 3 });
+    expect(await testDb()('addresses').orderBy('id').select('id', 'updated_at')).toEqual(before);
+  });
+
   it('imports a text/csv body and moves known addresses instead of duplicating them', async () => {
     const admin = asSessionUser(await makeUser('admin'));
     await call(importAddresses, { user: admin, body: GOOD, headers: { 'content-type': 'text/csv' } });
@@ -92,7 +101,7 @@ describe('addresses API', () => {
       body: 'label,postcode,lat,lon\nalder farm,KV32PL,-47.3,-128.7\nNew Barn,KV9 1AA,-47.4,-128.8',
       headers: { 'content-type': 'text/csv; charset=utf-8' },
     });
-    expect(again.body).toEqual({ rows: 2, inserted: 1, updated: 1 });
+    expect(again.body).toEqual({ rows: 2, inserted: 1, updated: 1, unchanged: 0 });
     expect(await count()).toBe(4);
     const moved = await testDb()('addresses').where({ postcode: 'KV32PL' }).first(testDb().raw('ST_Y(geom) AS lat'), 'label');
     expect(moved).toEqual({ lat: -47.3, label: 'alder farm' });

@@ -1,5 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { GET as path } from '../../src/pages/api/tools/path';
+import { GET as channel } from '../../src/pages/api/tools/channel';
 import { call } from '../helpers/endpoint';
 import { truncateAll } from '../helpers/db';
 import { makeUser, asSessionUser } from '../helpers/factories';
@@ -43,6 +44,14 @@ describe('GET /api/tools/path', () => {
     expect(res.body.declination_date).toBe(new Date().toISOString().slice(0, 10));
     expect(res.body.fspl_db).toBeNull();
     expect(res.body.radio_horizon_km).toBe(0);
+  });
+
+  it('words its problems for people, not with parameter names or library phrases', async () => {
+    const res = await ask('from=52,-1&to=52.1,-1&h1_m=-3&h2_m=5000');
+    expect(res.body.error.fields.h1_m).toEqual(['Customer antenna height cannot be negative']);
+    expect(res.body.error.fields.h2_m).toEqual(['Mast antenna height above 1000 m is not an antenna height']);
+    const band = await call(channel, { url: `/api/tools/channel?tech=lte&channel=6300&band=${'B'.repeat(12)}`, user });
+    expect(band.body.error.fields.band).toEqual(['A band name is at most 10 characters']);
   });
 
   it.each([

@@ -114,7 +114,7 @@ export default function AddressesAdmin() {
               <p className="font-semibold" role={outcome.kind === 'done' ? undefined : 'alert'}>{outcome.message}</p>
               {outcome.summary && (
                 <p className="mt-1">
-                  {outcome.summary.rows} rows: {outcome.summary.inserted} new, {outcome.summary.updated} moved to a new position.
+                  {outcome.summary.rows} rows: {outcome.summary.inserted} new, {outcome.summary.updated} changed or moved, {outcome.summary.unchanged} unchanged.
                 </p>
               )}
               {outcome.lines && outcome.lines.length > 0 && (

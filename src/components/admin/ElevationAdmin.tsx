@@ -22,7 +22,10 @@ function Resolution({ g }: { g: ElevationGridJson }) {
   return (
     <span className="whitespace-nowrap">
       {lon === lat ? fmtArcsec(lon) : `${fmtArcsec(lon)} × ${fmtArcsec(lat)}`}
-      <span className="text-ink-500"> · ≈{Math.round(g.resolution_m)} m</span>
+      <span className="text-ink-600">
+        {' '}
+        · ≈{Math.round(g.resolution_ew_m) === Math.round(g.resolution_ns_m) ? `${Math.round(g.resolution_ns_m)} m` : `${Math.round(g.resolution_ew_m)} m E–W × ${Math.round(g.resolution_ns_m)} m N–S`}
+      </span>
     </span>
   );
 }
@@ -68,6 +71,14 @@ function PointCheck() {
     e.preventDefault();
     setFieldErrors({});
     setAnswer(null);
+    // An empty box is not 0°: ask for both numbers instead of checking the point 0, 0.
+    const missing: FieldErrors = {};
+    if (lat.trim() === '' || !Number.isFinite(Number(lat))) missing.lat = [lat.trim() === '' ? 'Enter a latitude' : 'Latitude must be a number'];
+    if (lon.trim() === '' || !Number.isFinite(Number(lon))) missing.lon = [lon.trim() === '' ? 'Enter a longitude' : 'Longitude must be a number'];
+    if (Object.keys(missing).length) {
+      setFieldErrors(missing);
+      return;
+    }
     try {
       const r = await elevationApi.sample(Number(lat), Number(lon));
       setAnswer(r.height_m === null ? 'No elevation data at this point' : `${r.height_m.toFixed(1)} m above sea level`);

@@ -29,7 +29,7 @@ export function PlanSteps({ state }: { state: PlanState }) {
           <span
             className={[
               'rounded px-1.5 py-0.5',
-              i < at ? 'bg-moss-50 text-moss-700' : i === at ? 'bg-ink-700 font-semibold text-white' : 'bg-ink-50 text-ink-400',
+              i < at ? 'bg-moss-50 text-moss-700' : i === at ? 'bg-ink-700 font-semibold text-white' : 'bg-ink-50 text-ink-600',
             ].join(' ')}
           >
             {i < at ? '✓ ' : ''}

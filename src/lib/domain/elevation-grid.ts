@@ -69,10 +69,15 @@ export function getGridSpacingDeg(grid: GridFrame): { lonDeg: number; latDeg: nu
  * taken at the grid's latitude nearest the equator (where it is widest).
  */
 export function getGridSpacingM(grid: GridFrame): number {
+  const { eastWestM, northSouthM } = getGridSpacingMetres(grid);
+  return Math.min(northSouthM, eastWestM);
+}
+
+/** Both spacings on the ground: north–south, and east–west at the latitude nearest the equator. */
+export function getGridSpacingMetres(grid: GridFrame): { eastWestM: number; northSouthM: number } {
   const { lonDeg, latDeg } = getGridSpacingDeg(grid);
   const widestLat = grid.south <= 0 && grid.north >= 0 ? 0 : Math.min(Math.abs(grid.south), Math.abs(grid.north));
-  const lonM = lonDeg * METRES_PER_DEGREE * Math.cos((widestLat * Math.PI) / 180);
-  return Math.min(latDeg * METRES_PER_DEGREE, lonM);
+  return { eastWestM: lonDeg * METRES_PER_DEGREE * Math.cos((widestLat * Math.PI) / 180), northSouthM: latDeg * METRES_PER_DEGREE };
 }
 
 /** Position of the sample at (row, col): the lattice node, or the cell centre for `area` grids. */

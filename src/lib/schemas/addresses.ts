@@ -167,5 +167,8 @@ export interface AddressJson {
 export interface AddressImportJson {
   rows: number;
   inserted: number;
+  /** Known addresses whose label, postcode or position changed. */
   updated: number;
+  /** Known addresses the file repeats exactly. */
+  unchanged: number;
 }

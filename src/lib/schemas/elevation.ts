@@ -35,6 +35,9 @@ export interface ElevationGridJson {
   resolution_arcsec: { lon: number; lat: number };
   /** Finer of the two spacings on the ground, metres. */
   resolution_m: number;
+  /** East–west spacing at the latitude nearest the equator, and north–south spacing, metres. */
+  resolution_ew_m: number;
+  resolution_ns_m: number;
   sample_type: 'int16' | 'float32';
   nodata: number | null;
   nodata_count: number;

@@ -64,6 +64,44 @@ export const textField = (max: number) =>
     .max(max, `At most ${max} characters`)
     .refine((s) => !hasControlChars(s), NO_CONTROL);
 
+/**
+ * Plain words for the checks a schema leaves unworded, instead of the library's own
+ * ("String must contain at most 120 character(s)"). Set once for every schema.
+ */
+export const plainErrorMap: z.ZodErrorMap = (issue, ctx) => {
+  switch (issue.code) {
+    case z.ZodIssueCode.invalid_type:
+      if (issue.received === 'undefined' || issue.received === 'null') return { message: 'Required' };
+      if (issue.expected === 'number') return { message: 'Must be a number' };
+      if (issue.expected === 'string') return { message: 'Must be text' };
+      if (issue.expected === 'array') return { message: 'Must be a list' };
+      if (issue.expected === 'object') return { message: 'Must be an object' };
+      return { message: `Must be ${issue.expected}` };
+    case z.ZodIssueCode.too_big:
+      if (issue.type === 'string') return { message: `At most ${issue.maximum} characters` };
+      if (issue.type === 'array') return { message: `At most ${issue.maximum} items` };
+      if (issue.type === 'number') return { message: `At most ${issue.maximum}` };
+      break;
+    case z.ZodIssueCode.too_small:
+      if (issue.type === 'string') return { message: Number(issue.minimum) <= 1 ? 'Required' : `At least ${issue.minimum} characters` };
+      if (issue.type === 'array') return { message: `At least ${issue.minimum} items` };
+      if (issue.type === 'number') return { message: `At least ${issue.minimum}` };
+      break;
+    case z.ZodIssueCode.invalid_string:
+      if (issue.validation === 'email') return { message: 'Enter a valid e-mail address' };
+      if (issue.validation === 'url') return { message: 'Enter a valid web address' };
+      return { message: 'Not in the expected form' };
+    case z.ZodIssueCode.not_finite:
+      return { message: 'Must be a finite number' };
+    case z.ZodIssueCode.unrecognized_keys:
+      return { message: `Unknown field${issue.keys.length === 1 ? '' : 's'}: ${issue.keys.join(', ')}` };
+    default:
+      break;
+  }
+  return { message: ctx.defaultError };
+};
+z.setErrorMap(plainErrorMap);
+
 export const numberParam = (label: string) =>
   z
     .string({ required_error: `${label} is required` })

@@ -13,7 +13,7 @@ export const ChannelQuerySchema = z
       .refine((n) => Number.isInteger(n) && n >= 0, 'Channel must be a whole number ≥ 0')
       .optional(),
     freq_mhz: numberParam('Frequency').refine((n) => n > 0, 'Frequency must be above 0 MHz').optional(),
-    band: z.string().trim().min(1).max(10).optional(),
+    band: z.string().trim().min(1, 'Name a band, e.g. B20 or n78').max(10, 'A band name is at most 10 characters').optional(),
   })
   .superRefine((v, ctx) => {
     if (v.channel === undefined && v.freq_mhz === undefined) {
@@ -61,9 +61,9 @@ export const PathQuerySchema = z.object({
   freq_mhz: numberParam('Frequency')
     .refine((n) => n >= 30 && n <= 100_000, 'Frequency must be between 30 and 100000 MHz')
     .optional(),
-  h1_m: height('h1_m'),
-  h2_m: height('h2_m'),
-  k: numberParam('k')
+  h1_m: height('Customer antenna height'),
+  h2_m: height('Mast antenna height'),
+  k: numberParam('Earth radius factor k')
     .refine((n) => n > 0 && n <= 10, 'k must be between 0 and 10')
     .optional(),
   date: modelDateParam.optional(),

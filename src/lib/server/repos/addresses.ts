@@ -96,12 +96,15 @@ export interface ImportSummary {
   rows: number;
   inserted: number;
   updated: number;
+  /** Known addresses the file repeats exactly: left as they were. */
+  unchanged: number;
 }
 
 const BATCH = 1000;
 
 /**
- * Adds the rows, or moves an address already known by the same label and postcode. The
+ * Adds the rows, or moves an address already known by the same label and postcode (one the file
+ * repeats exactly is left alone and counted as unchanged). The
  * caller opens the transaction, so a failed import leaves the gazetteer as it was.
  */
 export async function importAddresses(
@@ -111,6 +114,7 @@ export async function importAddresses(
   actorId: string | null,
 ): Promise<ImportSummary> {
   let inserted = 0;
+  let written = 0;
   for (let i = 0; i < rows.length; i += BATCH) {
     const batch = rows.slice(i, i + BATCH);
     const { rows: result } = await db.raw<{ rows: { inserted: boolean }[] }>(
@@ -120,6 +124,9 @@ export async function importAddresses(
        ON CONFLICT (match_key) DO UPDATE
          SET label = EXCLUDED.label, postcode = EXCLUDED.postcode, geom = EXCLUDED.geom,
              source = EXCLUDED.source, updated_at = now()
+         WHERE addresses.label IS DISTINCT FROM EXCLUDED.label
+            OR addresses.postcode IS DISTINCT FROM EXCLUDED.postcode
+            OR NOT ST_Equals(addresses.geom, EXCLUDED.geom)
        RETURNING (xmax = 0) AS inserted`,
       [
         meta.source ?? 'import',
@@ -131,8 +138,9 @@ export async function importAddresses(
       ],
     );
     inserted += result.filter((r) => r.inserted).length;
+    written += result.length;
   }
-  const summary = { rows: rows.length, inserted, updated: rows.length - inserted };
+  const summary = { rows: rows.length, inserted, updated: written - inserted, unchanged: rows.length - written };
   await recordAudit(db, {
     userId: actorId,
     action: 'import',

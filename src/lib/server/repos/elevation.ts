@@ -16,6 +16,7 @@ import type { Tx } from '../db';
 import {
   getGridSpacingDeg,
   getGridSpacingM,
+  getGridSpacingMetres,
   type ElevationGrid,
   type ElevationSamples,
   type GridRegistration,
@@ -240,6 +241,8 @@ export function elevationGridJson(r: ElevationGridRecord): ElevationGridJson {
     registration: r.registration,
     resolution_arcsec: { lon: round(spacing.lonDeg * 3600, 4), lat: round(spacing.latDeg * 3600, 4) },
     resolution_m: round(getGridSpacingM(r), 1),
+    resolution_ew_m: round(getGridSpacingMetres(r).eastWestM, 1),
+    resolution_ns_m: round(getGridSpacingMetres(r).northSouthM, 1),
     sample_type: r.sampleType,
     nodata: r.nodata,
     nodata_count: r.nodataCount,
