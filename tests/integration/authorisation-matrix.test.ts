@@ -64,6 +64,8 @@ const ACCESS: Record<string, Partial<Record<Method, Rule | Rule[]>>> = {
   'admin/operators.astro': { GET: { path: '/admin/operators', who: ADMIN } },
   'admin/regions.astro': { GET: { path: '/admin/regions', who: ADMIN } },
   'admin/users.astro': { GET: { path: '/admin/users', who: ADMIN } },
+  'sightings/index.astro': { GET: { path: '/sightings', who: SUBMITTERS } },
+  'sightings/new.astro': { GET: { path: '/sightings/new', who: SUBMITTERS } },
 
   // API
   'api/[...path].ts': { ALL: { path: '/api/no/such/route', who: 'public', status: 404, send: 'GET' } },
@@ -172,10 +174,11 @@ const ACCESS: Record<string, Partial<Record<Method, Rule | Rule[]>>> = {
       { path: '/api/sightings?mine=1', who: SUBMITTERS, status: 200 },
       { path: '/api/sightings', who: REVIEWERS, status: 200 },
     ],
-    POST: { path: '/api/sightings', who: SUBMITTERS },
+    // A JSON body instead of the multipart form: past the guard it is 415.
+    POST: { path: '/api/sightings', who: SUBMITTERS, status: 415 },
   },
-  // Someone else's sighting does not exist for those who may not review it.
-  'api/sightings/[id].ts': { GET: { path: `/api/sightings/${NONE}`, who: SIGNED_IN, status: 404 } },
+  // Someone else's sighting does not exist for those who submit or review; other roles are refused.
+  'api/sightings/[id].ts': { GET: { path: `/api/sightings/${NONE}`, who: [...REVIEWERS, 'surveyor', 'contributor'], status: 404 } },
   'api/sightings/pending.ts': { GET: { path: '/api/sightings/pending', who: SIGNED_IN, status: 200 } },
   'api/sightings/photos/[id]/[variant].ts': {
     GET: [

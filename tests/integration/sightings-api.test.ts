@@ -198,7 +198,7 @@ describe('sightings API', () => {
     it.each(ROLES)('GET /api/sightings/:id of someone else\'s sighting as %s', async (role) => {
       const created = await submit(otherSurveyor, form(sightingBody()));
       const res = await call(getRoute, { params: { id: created.body.id }, user: users[role] });
-      expect(res.status).toBe(reviewers.includes(role) ? 200 : 404);
+      expect(res.status).toBe(reviewers.includes(role) ? 200 : submitters.includes(role) ? 404 : 403);
     });
 
     it.each(ROLES)('GET /api/sightings/pending as %s shows others\' sightings only to reviewers', async (role) => {

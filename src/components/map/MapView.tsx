@@ -3,6 +3,7 @@ import { useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState } fr
 import Map, {
   Layer,
   NavigationControl,
+  Popup,
   ScaleControl,
   Source,
   useMap,
@@ -13,6 +14,8 @@ import Map, {
 import type { Map as MaplibreMap, StyleSpecification } from 'maplibre-gl';
 import type { FeatureCollection } from 'geojson';
 import { ApiError, mapApi, mastsApi, operatorsApi, regionsApi, type RegionJson, type SearchHitJson } from '../../lib/client/api';
+import { sightingsApi } from '../../lib/client/sightings-api';
+import type { PendingSightingCollectionJson } from '../../lib/schemas/sightings';
 import { loadLabelFonts } from './label-fonts';
 import {
   MAST_CLUSTER_COUNT_LAYER,
@@ -30,6 +33,9 @@ import {
   buildMastFilter,
   isFiltering,
   mastSource,
+  PENDING_SOURCE_ID,
+  PENDING_SYMBOL_LAYER,
+  PENDING_SYMBOL_LAYER_ID,
   selectedMastLayer,
   type MastFilterState,
 } from './layers';
@@ -165,6 +171,8 @@ export default function MapView({ canEditMasts }: Props) {
   const [bands, setBands] = useState<string[]>([]);
   const [selectedId, setSelectedId] = useState<string | null>(null);
   const [hovering, setHovering] = useState(false);
+  const [pending, setPending] = useState<PendingSightingCollectionJson>({ type: 'FeatureCollection', features: [] });
+  const [pendingPick, setPendingPick] = useState<PendingSightingCollectionJson['features'][number] | null>(null);
   const isPhone = useIsPhone();
   const [filtersOpen, setFiltersOpen] = useState(false);
   const origin = typeof window !== 'undefined' ? window.location.origin : '';
@@ -188,6 +196,10 @@ export default function MapView({ canEditMasts }: Props) {
       },
       (e: unknown) => setLoadError(e instanceof ApiError ? e.message : 'The map could not be loaded'),
     );
+  }, []);
+
+  useEffect(() => {
+    sightingsApi.pending().then(setPending, () => undefined);
   }, []);
 
   // A link such as /map?mast=12 opens that mast.
@@ -252,6 +264,12 @@ export default function MapView({ canEditMasts }: Props) {
         map?.easeTo({ center: cluster.geometry.coordinates as [number, number], zoom: Math.min(map.getZoom() + 2, 14), duration: 400, essential: false });
         return;
       }
+      const sighting = e.features?.find((x) => x.layer.id === PENDING_SYMBOL_LAYER_ID);
+      if (sighting) {
+        setPendingPick(pending.features.find((p) => p.properties.id === String(sighting.properties?.id)) ?? null);
+        return;
+      }
+      setPendingPick(null);
       const f = e.features?.find((x) => x.layer.id === MAST_SYMBOL_LAYER_ID);
       if (f?.properties?.id === undefined) return;
       setSelectedId(String(f.properties.id));
@@ -262,7 +280,7 @@ export default function MapView({ canEditMasts }: Props) {
       const covered = isPhone ? e.point.y > rect.height * 0.4 : e.point.x > rect.width + 2 * dx - 24;
       if (covered) map.easeTo({ center: f.geometry.coordinates as [number, number], offset: [dx, dy], duration: 400, essential: false });
     },
-    [isPhone, panelOffset],
+    [isPhone, panelOffset, pending],
   );
 
   const onPick = useCallback(
@@ -298,7 +316,7 @@ export default function MapView({ canEditMasts }: Props) {
           ref={setMapRef}
           initialViewState={{ ...initialView, fitBoundsOptions: { padding: isPhone ? 24 : { top: 70, bottom: 30, left: 270, right: 60 } } }}
           mapStyle={style}
-          interactiveLayerIds={[MAST_SYMBOL_LAYER_ID, MAST_CLUSTER_LAYER_ID]}
+          interactiveLayerIds={[PENDING_SYMBOL_LAYER_ID, MAST_SYMBOL_LAYER_ID, MAST_CLUSTER_LAYER_ID]}
           cursor={hovering ? 'pointer' : 'grab'}
           onMouseEnter={() => setHovering(true)}
           onMouseLeave={() => setHovering(false)}
@@ -326,6 +344,28 @@ export default function MapView({ canEditMasts }: Props) {
             <Layer {...MAST_CLUSTER_LAYER} />
             <Layer {...MAST_CLUSTER_COUNT_LAYER} />
           </Source>
+          <Source id={PENDING_SOURCE_ID} type="geojson" data={pending}>
+            <Layer {...PENDING_SYMBOL_LAYER} />
+          </Source>
+          {pendingPick && (
+            <Popup
+              longitude={pendingPick.geometry.coordinates[0]}
+              latitude={pendingPick.geometry.coordinates[1]}
+              anchor="bottom"
+              offset={18}
+              onClose={() => setPendingPick(null)}
+              closeOnClick={false}
+            >
+              <div className="space-y-1 pr-4 text-sm text-ink-900" data-testid="pending-popup">
+                <p className="font-semibold">Pending sighting</p>
+                <p>
+                  {pendingPick.properties.structure_type.replace('_', ' ')} · seen {new Date(pendingPick.properties.observed_at).toLocaleDateString()}
+                </p>
+                <p>by {pendingPick.properties.mine ? 'you' : pendingPick.properties.author_name}</p>
+                <p className="text-xs text-ink-600">Waiting for a reviewer; only reviewers and its author see it.</p>
+              </div>
+            </Popup>
+          )}
         </Map>
       )}
 

@@ -5,6 +5,7 @@ import { SortableTable, type Column } from '../ui/SortableTable';
 import { MAST_STATUS_LABELS, mastIconDataUrl, type OperatorMark } from './mast-icons';
 import { TECH_LABELS } from './MapFilters';
 import MastEditForm from './MastEditForm';
+import MastSurveys from './MastSurveys';
 
 interface Props {
   mastId: string;
@@ -214,6 +215,8 @@ export default function MastPanel({ mastId, operators, canEdit, onClose, onChang
                 <SortableTable rows={mast.recent_readings} columns={readingColumns} rowKey={(r) => r.id} initialSort={{ key: 'time', dir: 'desc' }} caption={`Recent readings for ${mast.name}`} />
               )}
             </section>
+
+            <MastSurveys mastId={mast.id} />
 
             {canEdit && (
               <div className="flex flex-wrap gap-2 border-t border-ink-100 pt-3">

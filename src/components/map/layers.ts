@@ -8,7 +8,7 @@ import type {
   VectorSourceSpecification,
 } from 'maplibre-gl';
 import { LABEL_FONTS, tilePathTemplate } from './map-style';
-import { MAST_ICON_EXPRESSION, MAST_STATUSES, type MastStatus } from './mast-icons';
+import { MAST_ICON_EXPRESSION, MAST_STATUSES, SIGHTING_ICON_ID, type MastStatus } from './mast-icons';
 
 export const MAST_SOURCE_ID = 'masts';
 export const MAST_SOURCE_LAYER = 'masts';
@@ -194,5 +194,23 @@ export const REGION_LABEL_LAYER: Omit<SymbolLayerSpecification, 'source'> = {
     'text-opacity': ['interpolate', ['linear'], ['zoom'], 8, 0.75, 11, 0.75, 12, 0],
     'text-halo-color': 'rgba(255,255,255,0.7)',
     'text-halo-width': 1.2,
+  },
+};
+
+export const PENDING_SOURCE_ID = 'pending-sightings';
+export const PENDING_SYMBOL_LAYER_ID = 'pending-sightings-symbol';
+
+/**
+ * Pending sightings in the mark reserved for them, always drawn (never hidden behind masts): the
+ * server sends only those the viewer may see (reviewers and admins all, others their own).
+ */
+export const PENDING_SYMBOL_LAYER: Omit<SymbolLayerSpecification, 'source'> = {
+  id: PENDING_SYMBOL_LAYER_ID,
+  type: 'symbol',
+  layout: {
+    'icon-image': SIGHTING_ICON_ID,
+    'icon-size': ['interpolate', ['linear'], ['zoom'], 7, 0.6, 10, 0.9, 14, 1.1],
+    'icon-allow-overlap': true,
+    'icon-ignore-placement': true,
   },
 };

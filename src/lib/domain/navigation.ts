@@ -12,6 +12,7 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { href: '/plan', label: 'Plan', permission: 'plans:write' },
   { href: '/review', label: 'Review', permission: 'sightings:review' },
   { href: '/tools', label: 'Tools', permission: 'tools:use' },
+  { href: '/sightings', label: 'Sightings', permission: 'sightings:submit' },
   { href: '/admin/operators', label: 'Operators', permission: 'reference:manage' },
   { href: '/admin/regions', label: 'Regions', permission: 'reference:manage' },
   { href: '/admin/users', label: 'Users', permission: 'users:manage' },

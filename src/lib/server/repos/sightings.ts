@@ -420,6 +420,19 @@ export async function listMastSurveys(db: Tx, mastId: string): Promise<MastSurve
   return { surveyors, lastObservedAt: surveyors[0]?.lastObservedAt ?? null, photos: photos.map(toPhoto) };
 }
 
+/** Where a new sighting's map opens: the author's last sighting, else the middle of the masts, else 0, 0. */
+export async function findSurveyStartPoint(db: Tx, authorId: string): Promise<{ lat: number; lon: number }> {
+  const last = (await db('sightings')
+    .where({ author_id: authorId })
+    .orderBy('created_at', 'desc')
+    .first(db.raw('ST_Y(geom::geometry) AS lat'), db.raw('ST_X(geom::geometry) AS lon'))) as { lat: number; lon: number } | undefined;
+  if (last) return last;
+  const centre = (await db('masts').first(db.raw('ST_Y(ST_Centroid(ST_Collect(geom))) AS lat'), db.raw('ST_X(ST_Centroid(ST_Collect(geom))) AS lon'))) as
+    | { lat: number | null; lon: number | null }
+    | undefined;
+  return centre?.lat != null && centre.lon != null ? { lat: centre.lat, lon: centre.lon } : { lat: 0, lon: 0 };
+}
+
 // --- JSON ------------------------------------------------------------------------------------------
 
 export const PHOTO_URL_PREFIX = '/api/sightings/photos';

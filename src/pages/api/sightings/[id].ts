@@ -1,16 +1,16 @@
 import { getDb } from '../../../lib/server/db';
 import { handler, json, parseWith, requireUser } from '../../../lib/server/http';
-import { NotFoundError } from '../../../lib/server/errors';
+import { ForbiddenError, NotFoundError } from '../../../lib/server/errors';
 import { findSighting, sightingJson } from '../../../lib/server/repos/sightings';
 import { SightingIdParamSchema } from '../../../lib/schemas/sightings';
 import { can } from '../../../lib/domain/roles';
 
-/** One sighting: its author sees their own, reviewers and admins every one; for others it does not exist. */
+/** One sighting: reviewers and admins see every one, those who submit sightings their own (others' do not exist for them). */
 export const GET = handler(async ({ locals, params }) => {
   const user = requireUser(locals);
   const { id } = parseWith(SightingIdParamSchema, params);
   const reviewer = can(user.role, 'sightings:review');
-  if (!reviewer && !can(user.role, 'sightings:submit')) throw new NotFoundError('Sighting not found');
+  if (!reviewer && !can(user.role, 'sightings:submit')) throw new ForbiddenError();
   const sighting = await findSighting(getDb(), id);
   if (!reviewer && sighting.author.id !== user.id) throw new NotFoundError('Sighting not found');
   return json(sightingJson(sighting, { withOriginals: reviewer }));

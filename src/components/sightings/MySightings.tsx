@@ -1,0 +1,86 @@
+// The signed-in person's sightings and what became of them, with those still on this device.
+import { useCallback, useEffect, useState } from 'react';
+import { keepFlushing } from '../../lib/client/sighting-outbox';
+import { sightingsApi } from '../../lib/client/sightings-api';
+import { SIGHTING_STATUS_LABELS, type SightingJson, type SightingStatus } from '../../lib/schemas/sightings';
+import OutboxList from './OutboxList';
+
+const TONE: Record<SightingStatus, string> = {
+  pending: 'bg-ember-100 text-ember-700',
+  approved: 'bg-moss-100 text-moss-700',
+  merged: 'bg-moss-100 text-moss-700',
+  rejected: 'bg-alarm-100 text-alarm-700',
+};
+
+const when = (iso: string) => new Date(iso).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+
+export default function MySightings() {
+  const [items, setItems] = useState<SightingJson[] | null>(null);
+  const [error, setError] = useState<string | null>(null);
+
+  const load = useCallback(() => {
+    sightingsApi.mine().then(
+      (r) => {
+        setItems(r.items);
+        setError(null);
+      },
+      (e: Error) => setError(e.message),
+    );
+  }, []);
+
+  useEffect(() => {
+    load();
+    return keepFlushing();
+  }, [load]);
+
+  return (
+    <div className="mx-auto max-w-xl space-y-4">
+      <OutboxList onSent={load} />
+      {error && <p className="rounded-md border border-ember-500 bg-ember-50 p-3 text-ember-700">{error}</p>}
+      {items === null && !error && <p className="text-ink-600">Loading…</p>}
+      {items?.length === 0 && <p className="text-ink-600">No sightings sent yet.</p>}
+      <ul className="space-y-3" aria-label="My sightings">
+        {items?.map((s) => (
+          <li key={s.id} className="card space-y-2" data-testid="my-sighting">
+            <div className="flex flex-wrap items-center justify-between gap-2">
+              <span className={`rounded px-2 py-0.5 text-sm font-semibold ${TONE[s.status]}`}>{SIGHTING_STATUS_LABELS[s.status]}</span>
+              <span className="text-sm text-ink-600">seen {when(s.observed_at)}</span>
+            </div>
+            <p className="text-base text-ink-900">
+              {s.structure_type.replace('_', ' ')}
+              {s.estimated_height_m !== null && <> · about {s.estimated_height_m} m</>} · {s.lat.toFixed(5)}, {s.lon.toFixed(5)}
+            </p>
+            {(s.operators.length > 0 || s.cells.length > 0) && (
+              <p className="text-sm text-ink-700">
+                {s.operators.map((o) => o.name).join(', ')}
+                {s.cells.length > 0 && <> · {s.cells.length} cell{s.cells.length === 1 ? '' : 's'}</>}
+              </p>
+            )}
+            {s.photos.length > 0 && (
+              <div className="flex gap-2">
+                {s.photos.map((p) => (
+                  <img key={p.id} src={p.thumb_url} alt="" loading="lazy" className="h-16 w-16 rounded object-cover" />
+                ))}
+              </div>
+            )}
+            {s.status !== 'pending' && (
+              <p className="text-sm text-ink-700">
+                {s.decided_by ? `${s.decided_by.name}, ` : ''}
+                {s.decided_at ? when(s.decided_at) : ''}
+                {s.mast_id && (
+                  <>
+                    {' · '}
+                    <a className="underline" href={`/map?mast=${s.mast_id}`}>
+                      on the map
+                    </a>
+                  </>
+                )}
+                {s.decision_reason && <span className="block">Reason: {s.decision_reason}</span>}
+              </p>
+            )}
+          </li>
+        ))}
+      </ul>
+    </div>
+  );
+}
