@@ -7,7 +7,7 @@ import sharp from 'sharp';
 import { getDestination } from '../src/lib/domain/geodesy';
 import { SightingInputSchema, type SightingStructureType } from '../src/lib/schemas/sightings';
 import { processPhoto, storePhoto } from '../src/lib/server/photos';
-import { createSighting } from '../src/lib/server/repos/sightings';
+import { createSighting, type NewSightingPhoto } from '../src/lib/server/repos/sightings';
 import { createStorage } from '../src/lib/server/storage';
 import { ROOT } from '../scripts/lib/project';
 
@@ -139,7 +139,7 @@ export async function seed(knex: Knex): Promise<void> {
       notes: s.notes,
       observed_at: s.observedAt,
     });
-    const photos = [];
+    const photos: NewSightingPhoto[] = [];
     for (const n of s.photos) photos.push(await storePhoto(storage, await processPhoto(await drawMastPhoto(n, s.structure)), `demo-${n}.jpg`));
     await knex.transaction(async (trx) => {
       const { sighting } = await createSighting(trx, input, String(author.id), photos);

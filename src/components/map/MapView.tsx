@@ -15,7 +15,7 @@ import type { Map as MaplibreMap, StyleSpecification } from 'maplibre-gl';
 import type { FeatureCollection } from 'geojson';
 import { ApiError, mapApi, mastsApi, operatorsApi, regionsApi, type RegionJson, type SearchHitJson } from '../../lib/client/api';
 import { sightingsApi } from '../../lib/client/sightings-api';
-import type { PendingSightingCollectionJson } from '../../lib/schemas/sightings';
+import { SIGHTING_STRUCTURE_LABELS, type PendingSightingCollectionJson } from '../../lib/schemas/sightings';
 import { loadLabelFonts } from './label-fonts';
 import {
   MAST_CLUSTER_COUNT_LAYER,
@@ -359,7 +359,7 @@ export default function MapView({ canEditMasts }: Props) {
               <div className="space-y-1 pr-4 text-sm text-ink-900" data-testid="pending-popup">
                 <p className="font-semibold">Pending sighting</p>
                 <p>
-                  {pendingPick.properties.structure_type.replace('_', ' ')} · seen {new Date(pendingPick.properties.observed_at).toLocaleDateString()}
+                  {SIGHTING_STRUCTURE_LABELS[pendingPick.properties.structure_type]} · seen {new Date(pendingPick.properties.observed_at).toLocaleDateString()}
                 </p>
                 <p>by {pendingPick.properties.mine ? 'you' : pendingPick.properties.author_name}</p>
                 <p className="text-xs text-ink-600">Waiting for a reviewer; only reviewers and its author see it.</p>

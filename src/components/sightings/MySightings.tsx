@@ -2,7 +2,7 @@
 import { useCallback, useEffect, useState } from 'react';
 import { keepFlushing } from '../../lib/client/sighting-outbox';
 import { sightingsApi } from '../../lib/client/sightings-api';
-import { SIGHTING_STATUS_LABELS, type SightingJson, type SightingStatus } from '../../lib/schemas/sightings';
+import { SIGHTING_STATUS_LABELS, SIGHTING_STRUCTURE_LABELS, type SightingJson, type SightingStatus } from '../../lib/schemas/sightings';
 import OutboxList from './OutboxList';
 
 const TONE: Record<SightingStatus, string> = {
@@ -47,7 +47,7 @@ export default function MySightings() {
               <span className="text-sm text-ink-600">seen {when(s.observed_at)}</span>
             </div>
             <p className="text-base text-ink-900">
-              {s.structure_type.replace('_', ' ')}
+              {SIGHTING_STRUCTURE_LABELS[s.structure_type]}
               {s.estimated_height_m !== null && <> · about {s.estimated_height_m} m</>} · {s.lat.toFixed(5)}, {s.lon.toFixed(5)}
             </p>
             {(s.operators.length > 0 || s.cells.length > 0) && (

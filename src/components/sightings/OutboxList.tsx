@@ -1,5 +1,6 @@
 // Sightings kept on this device until the server has them.
 import { useEffect, useState } from 'react';
+import { SIGHTING_STRUCTURE_LABELS } from '../../lib/schemas/sightings';
 import { flushOutbox, listOutbox, onOutboxChange, removeFromOutbox, saveToOutbox, type OutboxEntry } from '../../lib/client/sighting-outbox';
 
 export default function OutboxList({ onSent }: { onSent?: () => void }) {
@@ -37,7 +38,7 @@ export default function OutboxList({ onSent }: { onSent?: () => void }) {
               <span className={`mr-2 rounded px-2 py-0.5 text-xs font-semibold ${e.state === 'waiting' ? 'bg-ember-100 text-ember-700' : 'bg-alarm-100 text-alarm-700'}`}>
                 {e.state === 'waiting' ? 'Waiting to send' : 'Refused'}
               </span>
-              {e.sighting.structure_type?.replace('_', ' ')} at {Number(e.sighting.lat).toFixed(4)}, {Number(e.sighting.lon).toFixed(4)} · {e.photos.length} photo{e.photos.length === 1 ? '' : 's'}
+              {SIGHTING_STRUCTURE_LABELS[e.sighting.structure_type] ?? 'Sighting'} at {Number(e.sighting.lat).toFixed(4)}, {Number(e.sighting.lon).toFixed(4)} · {e.photos.length} photo{e.photos.length === 1 ? '' : 's'}
               {e.error && <span className="block text-alarm-700">{e.error}</span>}
             </span>
             {e.state === 'refused' ? (

@@ -9,6 +9,7 @@ import { TECHS, type Tech } from '../../lib/schemas/masts';
 import {
   MAX_PHOTO_BYTES,
   MAX_SIGHTING_PHOTOS,
+  SIGHTING_STRUCTURE_LABELS as STRUCTURE_LABELS,
   SIGHTING_STRUCTURE_TYPES,
   SightingInputSchema,
   getReadingRange,
@@ -21,13 +22,6 @@ import type { LatLon } from './PositionMap';
 
 const PositionMap = lazy(() => import('./PositionMap'));
 
-const STRUCTURE_LABELS: Record<SightingStructureType, string> = {
-  lattice_tower: 'Lattice tower',
-  monopole: 'Monopole',
-  rooftop: 'Rooftop',
-  water_tower: 'Water tower',
-  other: 'Other',
-};
 const TECH_LABELS: Record<Tech, string> = { gsm: 'GSM (2G)', umts: 'UMTS (3G)', lte: 'LTE (4G)', nr: 'NR (5G)' };
 const SOURCE_LABELS: Record<PositionSource, string> = { photo: "from the photo's GPS", device: 'from this device', map: 'from the map' };
 
@@ -333,7 +327,7 @@ export default function SightingForm({ fallbackCenter }: { fallbackCenter: LatLo
               {photos.map((p, i) => (
                 <li key={p.key} className="relative">
                   <img src={p.url} alt={`Photo ${i + 1}`} className="aspect-square w-full rounded-md object-cover" />
-                  <div className="mt-1 flex items-center justify-between gap-1 text-xs">
+                  <div className="mt-1 flex flex-col items-start gap-1 text-xs">
                     {p.gps ? (
                       <button type="button" className="text-ink-700 underline" onClick={() => setPosition(p.gps!, 'photo')}>
                         Use its GPS

@@ -17,6 +17,13 @@ export const SIGHTING_STATUS_LABELS: Record<SightingStatus, string> = {
 /** The structures a surveyor chooses from (a subset of the mast structure types). */
 export const SIGHTING_STRUCTURE_TYPES = ['lattice_tower', 'monopole', 'rooftop', 'water_tower', 'other'] as const;
 export type SightingStructureType = (typeof SIGHTING_STRUCTURE_TYPES)[number];
+export const SIGHTING_STRUCTURE_LABELS: Record<SightingStructureType, string> = {
+  lattice_tower: 'Lattice tower',
+  monopole: 'Monopole',
+  rooftop: 'Rooftop',
+  water_tower: 'Water tower',
+  other: 'Other',
+};
 
 /** Where the position came from: a photo's GPS tags, the device's location, or a click on the map. */
 export const POSITION_SOURCES = ['photo', 'device', 'map'] as const;
