@@ -331,16 +331,11 @@ export default function CustomerDetail({ customerId, canWrite, canRecord }: Prop
           )}
           {canWrite && !editing && !customer.erased_at && (
             <div className="mt-3 flex border-t border-ink-100 pt-3">
+              {/* The name is in the page heading too: erasure loads the page again to show the erased record. */}
               <EraseCustomer
                 customerId={customer.id}
                 customerName={customer.name}
-                onErased={async (result) => {
-                  setCustomer(result.customer);
-                  setNotice(`Personal data erased; ${result.plans_anonymised} plan${result.plans_anonymised === 1 ? '' : 's'} kept without it`);
-                  const list = await plansApi.list({ customer_id: customerId, limit: 50 });
-                  setPlans(await Promise.all(list.items.map((p) => plansApi.get(p.id))));
-                  loadHistory();
-                }}
+                onErased={() => window.location.reload()}
               />
             </div>
           )}

@@ -19,7 +19,6 @@ export default function EraseCustomer({ customerId, customerName, onErased }: Pr
     setError(null);
     try {
       onErased(await customersApi.erase(customerId));
-      setConfirming(false);
     } catch (e) {
       setError(e instanceof ApiError ? e.message : 'Could not erase the personal data');
     } finally {
