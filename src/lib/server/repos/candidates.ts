@@ -92,6 +92,11 @@ export interface CellReading {
   residualBasis: string | null;
 }
 
+/** West, east, south, north: the order of the BETWEEN tests below. */
+function boxBounds([west, south, east, north]: [number, number, number, number]): number[] {
+  return [west, east, south, north];
+}
+
 /** Up to `perCell` readings of each cell nearest to a point, within a radius. */
 export async function listNearbyReadings(db: Tx, cellIds: string[], at: LatLon, radiusM: number, perCell: number): Promise<CellReading[]> {
   if (cellIds.length === 0) return [];
@@ -113,13 +118,15 @@ export async function listNearbyReadings(db: Tx, cellIds: string[], at: LatLon, 
          SELECT ST_Y(geom) AS lat, ST_X(geom) AS lon, rsrp_dbm, antenna_gain_dbi, height_m, model_residual_db, residual_basis
            FROM readings
           WHERE cell_id = c.id AND rsrp_dbm IS NOT NULL
-            AND geom && ST_MakeEnvelope(?, ?, ?, ?, 4326)
+            -- Plain comparisons, not &&: a dense area's box holds far more readings than one cell
+            -- has, so the cell's own index must drive the scan, not the geometry index.
+            AND ST_X(geom) BETWEEN ? AND ? AND ST_Y(geom) BETWEEN ? AND ?
           -- ST_Distance rather than <->: the same order, but the planner reads the cell's own
           -- readings by index and sorts them, instead of walking every reading nearest the point.
           ORDER BY ST_Distance(geom, ST_SetSRID(ST_MakePoint(?, ?), 4326))
           LIMIT ?
        ) r`,
-    [cellIds, ...getSearchBox(at, radiusM), at.lon, at.lat, perCell],
+    [cellIds, ...boxBounds(getSearchBox(at, radiusM)), at.lon, at.lat, perCell],
   );
   return rows.map((r) => ({
     cellId: String(r.cell_id),
