@@ -33,6 +33,7 @@ export default defineConfig({
       S3_SECRET_ACCESS_KEY: envField.string({ context: 'server', access: 'secret', optional: true }),
       DB_CONNECT_TIMEOUT_MS: envField.number({ context: 'server', access: 'secret', optional: true, int: true, gt: 0 }),
       DB_STATEMENT_TIMEOUT_MS: envField.number({ context: 'server', access: 'secret', optional: true, int: true, gt: 0 }),
+      IMPORT_MAX_BYTES: envField.number({ context: 'server', access: 'secret', optional: true }),
     },
   },
   vite: {

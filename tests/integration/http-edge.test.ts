@@ -64,7 +64,7 @@ describe('body limits on the running app', () => {
     expect(answer.sent).toBeLessThan(40 * MB);
   });
 
-  it('stops a chunked 200 MB address import soon after its 5 MB limit', async () => {
+  it('stops a chunked 200 MB address import of one endless line soon after the 1 MB line limit', async () => {
     const cookie = await signInCookie('admin');
     const answer = await sendChunked('/api/addresses/import', { 'content-type': 'text/csv', cookie }, 200 * MB, Buffer.alloc(64 * 1024, 0x61));
     expect(answer.status).toBe(413);

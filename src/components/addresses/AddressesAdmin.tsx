@@ -1,7 +1,7 @@
 import { useEffect, useRef, useState, type FormEvent } from 'react';
 import { ApiError } from '../../lib/client/api';
 import { addressesApi, type AddressImportJson, type AddressJson } from '../../lib/client/planning-api';
-import { ADDRESS_IMPORT_MAX_BYTES, MAX_REPORTED_ROW_ERRORS, parseAddressCsv } from '../../lib/schemas/addresses';
+import { ADDRESS_PRECHECK_MAX_BYTES, MAX_REPORTED_ROW_ERRORS, parseAddressCsv } from '../../lib/schemas/addresses';
 
 const PAGE = 25;
 
@@ -46,19 +46,16 @@ export default function AddressesAdmin() {
       return;
     }
     setOutcome(null);
-    if (file.size > ADDRESS_IMPORT_MAX_BYTES) {
-      setOutcome({ kind: 'error', message: `The file is larger than ${ADDRESS_IMPORT_MAX_BYTES / 1024 / 1024} MB; split it and import the parts` });
-      return;
-    }
     setBusy(true);
     try {
-      // The same checks as the server, so problems show before anything is sent.
-      const checked = parseAddressCsv(await file.text());
-      if (checked.fileErrors.length) {
+      // Small files get the server's checks here first, so problems show before anything is sent;
+      // large ones stream straight to the server, which checks them as they arrive.
+      const checked = file.size <= ADDRESS_PRECHECK_MAX_BYTES ? parseAddressCsv(await file.text()) : null;
+      if (checked?.fileErrors.length) {
         setOutcome({ kind: 'rejected', message: checked.fileErrors.join(' ') });
         return;
       }
-      if (checked.errors.length) {
+      if (checked?.errors.length) {
         const n = checked.errors.length;
         setOutcome({
           kind: 'rejected',
@@ -102,7 +99,7 @@ export default function AddressesAdmin() {
               className="block w-full text-sm file:mr-3 file:rounded-md file:border file:border-ink-300 file:bg-white file:px-3 file:py-1.5 file:text-sm file:font-semibold"
               onChange={(e) => setFile(e.target.files?.[0] ?? null)}
             />
-            <p className="mt-1 text-xs text-ink-600">Up to 5 MB. First line: label,postcode,lat,lon</p>
+            <p className="mt-1 text-xs text-ink-600">Any size up to the configured limit (512 MB unless IMPORT_MAX_BYTES says otherwise). First line: label,postcode,lat,lon</p>
           </div>
           <pre className="overflow-x-auto rounded bg-ink-50 p-2 text-xs text-ink-700" aria-label="Example">{`label,postcode,lat,lon
 "Alder Farm, Crake Lane",KLV-9001,-47.2101,-128.5203`}</pre>

@@ -4,7 +4,8 @@ import Papa from 'papaparse';
 import { z } from 'zod';
 import { intParam, pageParams, searchParam } from './params';
 
-export const ADDRESS_IMPORT_MAX_BYTES = 5 * 1024 * 1024;
+/** Files up to this size are checked in the browser before upload; the server checks every file. */
+export const ADDRESS_PRECHECK_MAX_BYTES = 5 * 1024 * 1024;
 export const ADDRESS_CSV_COLUMNS = ['label', 'postcode', 'lat', 'lon'] as const;
 const REQUIRED_COLUMNS = ['label', 'lat', 'lon'] as const;
 /** Beyond this many bad rows the report stops listing them (the count stays exact). */

@@ -14,6 +14,7 @@ import {
   S3_SECRET_ACCESS_KEY,
   DB_CONNECT_TIMEOUT_MS,
   DB_STATEMENT_TIMEOUT_MS,
+  IMPORT_MAX_BYTES,
 } from 'astro:env/server';
 
 export const config = {
@@ -26,6 +27,8 @@ export const config = {
   /** Where the local SMTP catcher keeps messages (the admin mailbox reads them). */
   mailDir: MAIL_DIR ?? `${DATA_DIR ?? '.data'}/mail`,
   publicOrigin: PUBLIC_ORIGIN,
+  /** Largest CSV a gazetteer or readings import accepts, counted while it streams in (default 512 MB). */
+  importMaxBytes: IMPORT_MAX_BYTES ?? 512 * 1024 * 1024,
   /** S3-compatible storage for uploaded files; used when endpoint, bucket and keys are all set. */
   s3: {
     endpoint: S3_ENDPOINT,
