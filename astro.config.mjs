@@ -37,6 +37,6 @@ export default defineConfig({
     },
   },
   vite: {
-    ssr: { external: ['@node-rs/argon2', 'pg', 'knex', 'sharp', 'busboy', '@aws-sdk/client-s3'] },
+    ssr: { external: ['@node-rs/argon2', 'pg', 'knex', 'sharp', 'busboy', '@aws-sdk/client-s3', 'pg-boss', 'pg-copy-streams'] },
   },
 });

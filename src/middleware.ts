@@ -8,6 +8,7 @@ import { config } from './lib/server/config';
 import { getDb } from './lib/server/db';
 import { startResidualJob } from './lib/server/residual-job';
 import { startBackgroundWork } from './lib/server/background';
+import { startJobQueueInBackground } from './lib/server/jobs/runtime';
 import { DATABASE_UNAVAILABLE_MESSAGE, isDatabaseUnavailable } from './lib/server/db-errors';
 import { allowedApiMethods, methodNotAllowed, PAGE_METHODS } from './lib/server/methods';
 import { API_CSP, COMMON_HEADERS, contentSecurityPolicy, inlineScriptHashes, mutable } from './lib/server/security-headers';
@@ -19,6 +20,8 @@ export const onRequest = defineMiddleware(async (context, next) => {
   if (config.databaseUrl) startResidualJob(getDb(), config.dataDir);
   // Tells reviewers that sightings wait (at most hourly each; once per process).
   if (config.databaseUrl) startBackgroundWork(context.url.origin);
+  // The job queue and this instance's workers (imports), once per process.
+  startJobQueueInBackground();
   const api = isApiPath(context.url.pathname);
   const response = await answer(context, next, api);
   return secure(response, api);

@@ -21,6 +21,8 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { href: '/customers', label: 'Customers', permission: 'plans:view' },
   { href: '/admin/catalogue', label: 'Catalogue', permission: 'reference:manage' },
   { href: '/admin/addresses', label: 'Addresses', permission: 'reference:manage' },
+  { href: '/readings/import', label: 'Import readings', permission: 'readings:write' },
+  { href: '/admin/jobs', label: 'Jobs', permission: 'users:manage' },
 ];
 
 export function navigationFor(role: Role): NavItem[] {
