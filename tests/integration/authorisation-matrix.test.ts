@@ -30,6 +30,7 @@ const CHECK_RECORDERS: readonly Role[] = ['admin', 'planner', 'surveyor'];
 const MAST_EDITORS: readonly Role[] = ['admin', 'reviewer'];
 const REVIEWERS: readonly Role[] = ['admin', 'reviewer'];
 const SUBMITTERS: readonly Role[] = ['admin', 'surveyor', 'contributor'];
+const READINGS_WRITERS: readonly Role[] = ['admin', 'surveyor'];
 const NONE = 999_999_999; // an id no demo row has
 
 /** Route file (relative to src/pages) → exported method → what to request and who may. */
@@ -66,6 +67,8 @@ const ACCESS: Record<string, Partial<Record<Method, Rule | Rule[]>>> = {
   'admin/users.astro': { GET: { path: '/admin/users', who: ADMIN } },
   'sightings/index.astro': { GET: { path: '/sightings', who: SUBMITTERS } },
   'sightings/new.astro': { GET: { path: '/sightings/new', who: SUBMITTERS } },
+  'admin/jobs.astro': { GET: { path: '/admin/jobs', who: ADMIN } },
+  'readings/import.astro': { GET: { path: '/readings/import', who: READINGS_WRITERS } },
 
   // API
   'api/[...path].ts': { ALL: { path: '/api/no/such/route', who: 'public', status: 404, send: 'GET' } },
@@ -79,6 +82,10 @@ const ACCESS: Record<string, Partial<Record<Method, Rule | Rule[]>>> = {
   'api/auth/reset.ts': { POST: { path: '/api/auth/reset', who: 'public', status: 400 } },
   'api/addresses/index.ts': { GET: { path: '/api/addresses', who: SIGNED_IN } },
   'api/addresses/import.ts': { POST: { path: '/api/addresses/import', who: ADMIN } },
+  'api/readings/import.ts': { POST: { path: '/api/readings/import', who: READINGS_WRITERS, status: 415 } },
+  'api/readings/sample.csv.ts': { GET: { path: '/api/readings/sample.csv', who: SIGNED_IN } },
+  'api/jobs/index.ts': { GET: { path: '/api/jobs', who: SIGNED_IN } },
+  'api/jobs/[id].ts': { GET: { path: '/api/jobs/00000000-0000-4000-8000-000000000000', who: SIGNED_IN, status: 404 } },
   'api/catalogue/antennas/index.ts': {
     GET: { path: '/api/catalogue/antennas', who: SIGNED_IN },
     POST: { path: '/api/catalogue/antennas', who: ADMIN, status: 400 },

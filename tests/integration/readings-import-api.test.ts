@@ -5,6 +5,7 @@ import { GET as getJob } from '../../src/pages/api/jobs/[id]';
 import { GET as listJobs } from '../../src/pages/api/jobs/index';
 import { stopJobQueue } from '../../src/lib/server/jobs/runtime';
 import { checkReadingCsvHeader } from '../../src/lib/domain/reading-csv';
+import type { JobJson } from '../../src/lib/schemas/jobs';
 import { call } from '../helpers/endpoint';
 import { testDb, truncateAll } from '../helpers/db';
 import { asSessionUser, makeUser } from '../helpers/factories';
@@ -16,7 +17,7 @@ async function countReadings(): Promise<number> {
   return Number((await testDb()('readings').count('* as n').first())!.n);
 }
 
-async function waitForJob(id: string, user: User): Promise<Record<string, any>> {
+async function waitForJob(id: string, user: User): Promise<JobJson> {
   for (let i = 0; i < 240; i++) {
     const res = await call(getJob, { user, params: { id } });
     if (res.body.state === 'completed' || res.body.state === 'failed') return res.body;
