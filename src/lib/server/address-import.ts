@@ -70,12 +70,17 @@ export async function importAddressCsv(trx: Knex.Transaction, input: Readable, m
        SELECT label, postcode, ST_SetSRID(ST_MakePoint(lon, lat), 4326), ? FROM address_import_rows ORDER BY line
        ON CONFLICT (match_key) DO UPDATE
          SET label = EXCLUDED.label, postcode = EXCLUDED.postcode, geom = EXCLUDED.geom, source = EXCLUDED.source, updated_at = now()
+         WHERE addresses.label IS DISTINCT FROM EXCLUDED.label
+            OR addresses.postcode IS DISTINCT FROM EXCLUDED.postcode
+            OR NOT ST_Equals(addresses.geom, EXCLUDED.geom)
        RETURNING (xmax = 0) AS inserted)
      SELECT count(*) FILTER (WHERE inserted) AS inserted, count(*) AS total FROM moved`,
     [meta.source ?? 'import'],
   );
   const inserted = Number(rows[0]?.inserted ?? 0);
-  const summary: ImportSummary = { rows: copied.rows, inserted, updated: copied.rows - inserted };
+  const written = Number(rows[0]?.total ?? 0);
+  // A known address the file repeats exactly is left alone (no row comes back for it).
+  const summary: ImportSummary = { rows: copied.rows, inserted, updated: written - inserted, unchanged: copied.rows - written };
   await recordAudit(trx, {
     userId: meta.actorId,
     action: 'import',
