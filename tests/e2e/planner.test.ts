@@ -35,7 +35,10 @@ describe('planner journey', () => {
     const rsrp = await page.locator('table tbody tr [data-testid=rsrp]').allInnerTexts();
     const values = rsrp.map(Number);
     expect(values.every(Number.isFinite)).toBe(true);
-    expect(values[0]).toBeGreaterThanOrEqual(Math.max(...values.slice(1)) - 6); // rank 1 best up to the operator preference
+    // Ranked by RSRP and SINR: every row shows its SINR and expected throughput.
+    const sinr = await page.locator('table tbody tr [data-testid=sinr]').allInnerTexts();
+    expect(sinr.length).toBe(values.length);
+    expect(sinr.every((t) => /^-?\d+ · \d+$/.test(t.trim()))).toBe(true);
 
     // Pick the second candidate and see its terrain profile and budget.
     await rows.nth(1).locator('button').first().click();
@@ -61,6 +64,68 @@ describe('planner journey', () => {
     await page.pdf({ path: 'test-results/aim-sheet.pdf', format: 'A4', printBackground: true });
     expect(outside).toEqual([]);
     expect(errors).toEqual([]);
+    await page.close();
+  });
+});
+
+describe('planner defects', () => {
+  const open = async (width = 1300) => {
+    const page = await browser.newPage({ viewport: { width, height: 1000 } });
+    await signIn(page, demoEmail('planner'));
+    await page.goto(`${APP_URL}/plan`);
+    return page;
+  };
+  const search = async (page: import('playwright-core').Page, text: string) => {
+    await page.fill('#plan-address', text);
+    await page.getByRole('option').first().waitFor();
+    await page.keyboard.press('Enter');
+  };
+  const heading = (page: import('playwright-core').Page) => page.locator('#candidate-heading').innerText();
+  const firstMast = (page: import('playwright-core').Page) => page.locator('table tbody tr').first().locator('button span').first().innerText();
+
+  it('selects the new #1 after a second address search', async () => {
+    const page = await open();
+    await search(page, 'Harbour Street');
+    await page.locator('table tbody tr').nth(3).waitFor();
+    await page.locator('table tbody tr').nth(2).locator('button').first().click();
+    const picked = await heading(page);
+    const before = await page.locator('[data-testid=plan-position]').innerText();
+    await search(page, 'Mill Farm');
+    await page.waitForFunction((b) => document.querySelector('[data-testid=plan-position]')?.textContent !== b, before);
+    await page.waitForFunction(() => document.querySelector('[aria-busy=true]') === null);
+    await expect(page.locator('table tbody tr').first().locator('button').first().getAttribute('aria-pressed')).resolves.toBe('true');
+    expect(await heading(page)).toContain(await firstMast(page));
+    expect(await heading(page)).not.toBe('');
+    expect(picked).not.toBe('');
+    await page.close();
+  });
+
+  it('asks for a cleared mount height inline and will not save a default', async () => {
+    const page = await open();
+    await search(page, 'Harbour Street');
+    await page.locator('table tbody tr').first().waitFor();
+    await page.fill('#kit-height', '');
+    await expect(page.locator('#kit-height-error').innerText()).resolves.toBe('Enter the mount height');
+    await expect(page.locator('#kit-height').getAttribute('aria-invalid')).resolves.toBe('true');
+    await page.fill('#plan-customer-name', 'Nobody Saved');
+    await expect(page.getByRole('button', { name: /Save plan/ }).isDisabled()).resolves.toBe(true);
+    await page.close();
+  });
+
+  it('takes what was pasted when Enter comes before the suggestions catch up', async () => {
+    const page = await open();
+    await search(page, 'Harbour Street');
+    await page.locator('[data-testid=plan-position]').filter({ hasText: 'Position' }).waitFor();
+    await page.fill('#plan-address', '-47,2105 -128,5203');
+    await page.keyboard.press('Enter');
+    await page.locator('[data-testid=plan-position]').filter({ hasText: '-47.21050, -128.52030' }).waitFor();
+    await page.close();
+  });
+
+  it('names out-of-range coordinates instead of searching addresses for them', async () => {
+    const page = await open();
+    await page.fill('#plan-address', '95, 10');
+    await expect(page.locator('[data-testid=address-error]').innerText()).resolves.toMatch(/Latitude 95 is outside/);
     await page.close();
   });
 });
