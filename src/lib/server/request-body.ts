@@ -149,8 +149,8 @@ export interface BufferedFile {
 /** Strips folders and control characters from a client file name. */
 export function cleanFileName(name: string | undefined): string {
   const base = (name ?? '').split(/[\\/]/).pop() ?? '';
-  // eslint-disable-next-line no-control-regex
   const clean = base
+    // eslint-disable-next-line no-control-regex
     .replace(/[\u0000-\u001f\u007f]/g, '')
     .trim()
     .slice(0, 200);
