@@ -1,7 +1,6 @@
 import { useState, type FormEvent, type ReactNode } from 'react';
 import { ApiError, mastsApi, type FieldErrors, type MastDetailJson } from '../../lib/client/api';
-import { MAST_STATUSES, MastChangeSchema, STRUCTURE_TYPES, STRUCTURE_TYPE_LABELS } from '../../lib/schemas/masts';
-import { MAST_STATUS_LABELS } from './mast-icons';
+import { MAST_STATUSES, MAST_STATUS_LABELS, MastChangeSchema, STRUCTURE_TYPES, STRUCTURE_TYPE_LABELS } from '../../lib/schemas/masts';
 
 interface Props {
   mast: MastDetailJson;

@@ -8,7 +8,8 @@ import type {
   VectorSourceSpecification,
 } from 'maplibre-gl';
 import { LABEL_FONTS, tilePathTemplate } from './map-style';
-import { MAST_ICON_EXPRESSION, MAST_STATUSES, SIGHTING_ICON_ID, type MastStatus } from './mast-icons';
+import { MAST_ICON_EXPRESSION, SIGHTING_ICON_ID } from './mast-icons';
+import { MAST_STATUSES, type MastStatus } from '../../lib/schemas/masts';
 
 export const MAST_SOURCE_ID = 'masts';
 export const MAST_SOURCE_LAYER = 'masts';

@@ -3,13 +3,7 @@
 // position (by its order in the operator list) as well as its admin-set
 // colour, so the mark reads without relying on colour alone.
 
-export type MastStatus = 'active' | 'planned' | 'decommissioned';
-export const MAST_STATUSES: readonly MastStatus[] = ['active', 'planned', 'decommissioned'];
-export const MAST_STATUS_LABELS: Record<MastStatus, string> = {
-  active: 'Active',
-  planned: 'Planned',
-  decommissioned: 'Decommissioned',
-};
+import { MAST_STATUSES, type MastStatus } from '../../lib/schemas/masts';
 
 export interface OperatorMark {
   id: string;

@@ -2,7 +2,7 @@
 // API returns.
 import { z } from 'zod';
 import type { PlanState } from '../domain/plan-state';
-import { IdRefSchema, hasChange, numberField as num, optionalText, pageParams, requiredText, searchParam } from './params';
+import { IdRefSchema, hasChange, numberField as num, optionalText, pageParams, requiredText, RowVersionSchema, searchParam } from './params';
 
 const name = requiredText(120);
 const phone = z
@@ -27,7 +27,6 @@ const postcode = z
 const lat = num('Latitude').min(-90, 'Latitude must be between -90 and 90').max(90, 'Latitude must be between -90 and 90');
 const lon = num('Longitude').min(-180, 'Longitude must be between -180 and 180').max(180, 'Longitude must be between -180 and 180');
 const ref = IdRefSchema.nullish().transform((v) => v ?? null);
-export const RowVersionSchema = num('row_version').int('row_version must be a whole number').min(1, 'row_version starts at 1').max(2_147_483_647, 'row_version is too large');
 
 export const CustomerInputSchema = z
   .object({

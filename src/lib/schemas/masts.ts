@@ -2,10 +2,15 @@
 // shapes the API returns. Channel and PCI checks use the 3GPP tables in lib/domain/channels.ts.
 import { z } from 'zod';
 import { getBand, isChannelInBand, isKnownBand, lookupChannel, type RadioTech } from '../domain/channels';
-import { ID_PATTERN, INT4_MAX, dateTimeField, enumOf, hasChange, intParam, numberField, optionalText, requiredText, textField } from './params';
+import { ID_PATTERN, INT4_MAX, dateTimeField, enumOf, hasChange, intParam, numberField, optionalText, requiredText, RowVersionSchema, textField } from './params';
 
 export const MAST_STATUSES = ['active', 'planned', 'decommissioned'] as const;
 export type MastStatus = (typeof MAST_STATUSES)[number];
+export const MAST_STATUS_LABELS: Record<MastStatus, string> = {
+  active: 'Active',
+  planned: 'Planned',
+  decommissioned: 'Decommissioned',
+};
 
 export const STRUCTURE_TYPES = ['lattice_tower', 'monopole', 'guyed_mast', 'rooftop', 'pole', 'water_tower', 'other'] as const;
 export type StructureType = (typeof STRUCTURE_TYPES)[number];
@@ -79,7 +84,7 @@ const listOf = <T>(item: z.ZodType<T, z.ZodTypeDef, string>, label: string) =>
     return out.length ? out : undefined;
   });
 
-const IdItemSchema = z.string().regex(/^\d{1,18}$/, 'Operator ids are whole numbers');
+const IdItemSchema = z.string().regex(ID_PATTERN, 'Operator ids are whole numbers');
 
 /** Band label as stored: LTE `B20`, NR `n78`, UMTS `I`/`VIII`, GSM `DCS1800` … (channels.ts). */
 export interface BandRef {
@@ -135,8 +140,6 @@ export const MastListQuerySchema = z
   })
   .transform((q) => ({ bbox: q.bbox, limit: q.limit, ...toFilter(q) }));
 export type MastListQuery = z.output<typeof MastListQuerySchema>;
-
-export const RowVersionSchema = num('Row version').int('Row version must be a whole number').min(1, 'Row version must be at least 1').max(INT4_MAX, 'Row version is too large');
 
 export const MastDeleteQuerySchema = z.object({
   row_version: z

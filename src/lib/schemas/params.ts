@@ -110,8 +110,9 @@ export const numberParam = (label: string) =>
     .refine((s) => DECIMAL.test(s) && Number.isFinite(Number(s)), `${label} must be a number`)
     .transform(Number);
 
-/** A database id: digits without leading zeros (`01` is not `1`). */
+/** A database id: digits without leading zeros (`01` is not `1`); pages check route ids with it too. */
 export const ID_PATTERN = /^[1-9]\d{0,17}$/;
+
 export const idParam = z.string().regex(ID_PATTERN, 'Not a valid id');
 
 /** The `[id]` of a route. */
@@ -186,3 +187,9 @@ export const hasAnyField = (v: Record<string, unknown>) => Object.values(v).some
 
 /** For change schemas with optimistic concurrency: true when a field besides `row_version` is given. */
 export const hasChange = (v: Record<string, unknown>) => Object.entries(v).some(([k, x]) => k !== 'row_version' && x !== undefined);
+
+/** The version a change was made against (optimistic concurrency): a whole number from 1. */
+export const RowVersionSchema = numberField('Row version', 'Row version must be a number')
+  .int('Row version must be a whole number')
+  .min(1, 'Row version must be at least 1')
+  .max(INT4_MAX, 'Row version is too large');

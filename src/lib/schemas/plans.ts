@@ -2,9 +2,9 @@
 // the JSON the API returns.
 import { z } from 'zod';
 import { PLAN_STATES, type PlanState } from '../domain/plan-state';
-import { CustomerInputSchema, RowVersionSchema } from './customers';
+import { CustomerInputSchema } from './customers';
 import type { ShortlistItemJson } from './shortlist';
-import { IdRefSchema, dateField, dateTimeField, enumOf, hasChange, numberField as num, optionalText, pageParams } from './params';
+import { ID_PATTERN, IdRefSchema, dateField, dateTimeField, enumOf, hasChange, numberField as num, optionalText, pageParams, RowVersionSchema } from './params';
 
 const stateEnum = enumOf(PLAN_STATES);
 const ref = IdRefSchema.nullable();
@@ -75,7 +75,7 @@ export const PlanChangeSchema = z
 export type PlanChange = Partial<z.output<typeof PlanChangeSchema>>;
 
 export const PlanListQuerySchema = z.object({
-  customer_id: z.string().trim().regex(/^\d{1,18}$/, 'Not a valid id').optional(),
+  customer_id: z.string().trim().regex(ID_PATTERN, 'Not a valid id').optional(),
   state: stateEnum.optional(),
   ...pageParams,
 });
