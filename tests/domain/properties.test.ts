@@ -204,9 +204,9 @@ describe('coordinate properties', () => {
           expect((error as Error).name).toBe('CoordinateParseError');
         }
       }),
-      RUNS,
+      { numRuns: 100 },
     );
-  });
+  }, 120_000);
 });
 
 describe('terrain properties', () => {
