@@ -3,7 +3,7 @@
  * needs, who may see and change plans, and the measured result of an install (before/after
  * readings per PCI against the predicted gain; the prediction is Bearline's own model in shortlist.ts).
  */
-import { can, type Role } from './roles';
+import { can, type Permission, type Role } from './roles';
 
 export const PLAN_STATES = ['enquiry', 'planned', 'scheduled', 'installed', 'verified'] as const;
 export type PlanState = (typeof PLAN_STATES)[number];
@@ -126,8 +126,11 @@ export function canWritePlans(role: Role | null | undefined): boolean {
   return can(role, 'plans:write');
 }
 
+/** Planners record install checks with the plan, surveyors as readings in the field. */
+export const RECORD_CHECKS_PERMISSIONS: readonly Permission[] = ['plans:write', 'readings:write'];
+
 export function canRecordChecks(role: Role | null | undefined): boolean {
-  return can(role, 'plans:write') || can(role, 'readings:write');
+  return RECORD_CHECKS_PERMISSIONS.some((p) => can(role, p));
 }
 
 // --- Measured result of an install -------------------------------------------------------

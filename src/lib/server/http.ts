@@ -120,9 +120,11 @@ export function requireUser(locals: App.Locals): SessionUser {
   return locals.user;
 }
 
-export function requirePermission(locals: App.Locals, permission: Permission): SessionUser {
+/** The signed-in user when their role has `permission` (or, given a list, any one of them). */
+export function requirePermission(locals: App.Locals, permission: Permission | readonly Permission[]): SessionUser {
   const user = requireUser(locals);
-  if (!can(user.role, permission)) throw new ForbiddenError();
+  const wanted: readonly Permission[] = typeof permission === 'string' ? [permission] : permission;
+  if (!wanted.some((p) => can(user.role, p))) throw new ForbiddenError();
   return user;
 }
 

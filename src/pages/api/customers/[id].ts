@@ -1,13 +1,11 @@
 import { getDb } from '../../../lib/server/db';
-import { handler, json, parseBody, parseWith, requirePermission, requireUser } from '../../../lib/server/http';
-import { ForbiddenError } from '../../../lib/server/errors';
-import { canViewPlans } from '../../../lib/domain/plan-state';
+import { handler, json, parseBody, parseWith, requirePermission } from '../../../lib/server/http';
 import { customerJson, findCustomer, updateCustomer } from '../../../lib/server/repos/customers';
 import { CustomerChangeSchema } from '../../../lib/schemas/customers';
 import { IdParamSchema } from '../../../lib/schemas/params';
 
 export const GET = handler(async ({ locals, params }) => {
-  if (!canViewPlans(requireUser(locals).role)) throw new ForbiddenError();
+  requirePermission(locals, 'plans:view');
   const { id } = parseWith(IdParamSchema, params);
   return json(customerJson(await findCustomer(getDb(), id)));
 });

@@ -1,12 +1,10 @@
 import { getDb } from '../../../lib/server/db';
-import { handler, json, parseBody, parseQuery, requirePermission, requireUser } from '../../../lib/server/http';
-import { ForbiddenError } from '../../../lib/server/errors';
-import { canViewPlans } from '../../../lib/domain/plan-state';
+import { handler, json, parseBody, parseQuery, requirePermission } from '../../../lib/server/http';
 import { createCustomer, customerJson, listCustomers } from '../../../lib/server/repos/customers';
 import { CustomerInputSchema, CustomerListQuerySchema } from '../../../lib/schemas/customers';
 
 export const GET = handler(async ({ locals, url }) => {
-  if (!canViewPlans(requireUser(locals).role)) throw new ForbiddenError();
+  requirePermission(locals, 'plans:view');
   const query = parseQuery(CustomerListQuerySchema, url);
   const { items, total } = await listCustomers(getDb(), query);
   return json({ items: items.map(customerJson), total });

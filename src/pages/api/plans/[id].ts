@@ -1,7 +1,5 @@
 import { getDb } from '../../../lib/server/db';
-import { handler, json, parseBody, parseWith, requirePermission, requireUser } from '../../../lib/server/http';
-import { ForbiddenError } from '../../../lib/server/errors';
-import { canViewPlans } from '../../../lib/domain/plan-state';
+import { handler, json, parseBody, parseWith, requirePermission } from '../../../lib/server/http';
 import { findPlanDetail, planDetailJson } from '../../../lib/server/repos/plans';
 import { changePlan } from '../../../lib/server/plan-service';
 import { getElevationProfile } from '../../../lib/server/elevation-service';
@@ -11,7 +9,7 @@ import { IdParamSchema } from '../../../lib/schemas/params';
 
 // The plan with its install checks and the measured result against the prediction.
 export const GET = handler(async ({ locals, params }) => {
-  if (!canViewPlans(requireUser(locals).role)) throw new ForbiddenError();
+  requirePermission(locals, 'plans:view');
   const { id } = parseWith(IdParamSchema, params);
   return json(planDetailJson(await findPlanDetail(getDb(), id)));
 });

@@ -1,14 +1,12 @@
 import { getDb } from '../../../lib/server/db';
-import { handler, json, parseBody, parseQuery, requirePermission, requireUser } from '../../../lib/server/http';
-import { ForbiddenError } from '../../../lib/server/errors';
-import { canViewPlans } from '../../../lib/domain/plan-state';
+import { handler, json, parseBody, parseQuery, requirePermission } from '../../../lib/server/http';
 import { listPlans, planJson } from '../../../lib/server/repos/plans';
 import { savePlan } from '../../../lib/server/plan-service';
 import { getElevationProfile } from '../../../lib/server/elevation-service';
 import { PlanInputSchema, PlanListQuerySchema } from '../../../lib/schemas/plans';
 
 export const GET = handler(async ({ locals, url }) => {
-  if (!canViewPlans(requireUser(locals).role)) throw new ForbiddenError();
+  requirePermission(locals, 'plans:view');
   const query = parseQuery(PlanListQuerySchema, url);
   const { items, total } = await listPlans(getDb(), query);
   return json({ items: items.map(planJson), total });

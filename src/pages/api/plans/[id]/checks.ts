@@ -1,14 +1,13 @@
 import { getDb } from '../../../../lib/server/db';
-import { handler, json, parseBody, parseWith, requireUser } from '../../../../lib/server/http';
-import { ForbiddenError } from '../../../../lib/server/errors';
-import { canRecordChecks, canViewPlans } from '../../../../lib/domain/plan-state';
+import { handler, json, parseBody, parseWith, requirePermission } from '../../../../lib/server/http';
+import { RECORD_CHECKS_PERMISSIONS } from '../../../../lib/domain/plan-state';
 import { addInstallCheck, findPlan, installCheckJson, listInstallChecks } from '../../../../lib/server/repos/plans';
 import { InstallCheckInputSchema } from '../../../../lib/schemas/plans';
 import { syncInstallReadings } from '../../../../lib/server/repos/install-feedback';
 import { IdParamSchema } from '../../../../lib/schemas/params';
 
 export const GET = handler(async ({ locals, params }) => {
-  if (!canViewPlans(requireUser(locals).role)) throw new ForbiddenError();
+  requirePermission(locals, 'plans:view');
   const { id } = parseWith(IdParamSchema, params);
   const db = getDb();
   await findPlan(db, id);
@@ -18,8 +17,7 @@ export const GET = handler(async ({ locals, params }) => {
 
 // Before/after readings per PCI and speed tests, recorded by planners or surveyors at the install.
 export const POST = handler(async ({ locals, params, request }) => {
-  const actor = requireUser(locals);
-  if (!canRecordChecks(actor.role)) throw new ForbiddenError();
+  const actor = requirePermission(locals, RECORD_CHECKS_PERMISSIONS);
   const { id } = parseWith(IdParamSchema, params);
   const input = await parseBody(InstallCheckInputSchema, request);
   const check = await getDb().transaction(async (trx) => {
