@@ -1,8 +1,8 @@
 import { defineMiddleware } from 'astro:middleware';
 import type { APIContext } from 'astro';
-import { AppError, type ErrorCode } from './lib/server/errors';
+import { AppError, ForbiddenError, type ErrorCode } from './lib/server/errors';
 import { lucia, setSessionCookie } from './lib/server/auth';
-import { errorResponse, json } from './lib/server/http';
+import { errorResponse } from './lib/server/http';
 import { isForeignWrite } from './lib/server/origin';
 import { config } from './lib/server/config';
 import { getDb } from './lib/server/db';
@@ -35,7 +35,7 @@ async function answer(context: APIContext, next: () => Promise<Response>, api: b
   if (!api && !pathname.startsWith('/_') && !PAGE_METHODS.includes(method)) return methodNotAllowed(false, PAGE_METHODS);
 
   if (isForeignWrite(context.request, context.url)) {
-    return json({ error: { code: 'FORBIDDEN', message: 'Cross-site request refused' } }, 403);
+    return errorResponse(new ForbiddenError('Cross-site request refused'));
   }
 
   context.locals.user = null;

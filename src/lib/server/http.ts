@@ -30,13 +30,20 @@ export function asAppError(err: unknown): AppError {
   return new AppError('INTERNAL_SERVER_ERROR', 'Something went wrong on the server');
 }
 
+export interface ErrorBody {
+  error: { code: string; message: string; fields?: FieldErrors };
+}
+
+/** The one place the error body {"error": {"code", "message", "fields"}} is built. */
+export function errorBody(err: AppError): ErrorBody {
+  const body: ErrorBody = { error: { code: err.code, message: err.message } };
+  if (err.fields) body.error.fields = err.fields;
+  return body;
+}
+
 export function errorResponse(thrown: unknown): Response {
   const err = asAppError(thrown);
-  const body: { error: { code: string; message: string; fields?: FieldErrors } } = {
-    error: { code: err.code, message: err.message },
-  };
-  if (err.fields) body.error.fields = err.fields;
-  return json(body, STATUS_BY_CODE[err.code], err.headers);
+  return json(errorBody(err), STATUS_BY_CODE[err.code], err.headers);
 }
 
 export function validationFromZod(err: ZodError, message = 'Some fields need attention'): ValidationError {

@@ -1,5 +1,6 @@
 import { checkHealth } from '../../lib/server/health';
-import { json } from '../../lib/server/http';
+import { errorBody, json } from '../../lib/server/http';
+import { AppError } from '../../lib/server/errors';
 
 // Public: load balancers and the start script poll it.
 export const GET = async () => {
@@ -7,6 +8,6 @@ export const GET = async () => {
     return json(await checkHealth());
   } catch (err) {
     console.error('[bearline] health check failed', err instanceof Error ? err.message : err);
-    return json({ ok: false, error: { code: 'SERVICE_UNAVAILABLE', message: 'The database is not reachable' } }, 503);
+    return json({ ok: false, ...errorBody(new AppError('SERVICE_UNAVAILABLE', 'The database is not reachable')) }, 503);
   }
 };
