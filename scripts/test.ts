@@ -1,4 +1,4 @@
-// npm test: lint, then a throwaway PostgreSQL cluster on loopback, unit + integration
+// npm test: lint and format check, then a throwaway PostgreSQL cluster on loopback, unit + integration
 // tests (vitest, real PostgreSQL) and browser tests (Debian's Chromium) against
 // the built app. Ends with one plain line: "N passed, N failed".
 import { chmodSync, mkdtempSync, readFileSync, existsSync, rmSync } from 'node:fs';
@@ -36,19 +36,31 @@ async function runVitest(label: string, args: string[], env: Record<string, stri
   });
   const res = { status: await new Promise<number | null>((resolve) => child.on('exit', (code) => resolve(code))) };
   if (!existsSync(reportFile)) return { passed: 0, failed: 1 }; // the runner itself failed
-  const report = JSON.parse(readFileSync(reportFile, 'utf8')) as { numPassedTests: number; numFailedTests: number; numTotalTestSuites: number; testResults: { status: string }[] };
+  const report = JSON.parse(readFileSync(reportFile, 'utf8')) as {
+    numPassedTests: number;
+    numFailedTests: number;
+    numTotalTestSuites: number;
+    testResults: { status: string }[];
+  };
   const brokenFiles = report.testResults.filter((f) => f.status === 'failed').length;
   const failed = report.numFailedTests + (report.numFailedTests === 0 && res.status !== 0 ? Math.max(1, brokenFiles) : 0);
   return { passed: report.numPassedTests, failed };
 }
 
-/** `npm run lint` counts as one check: passed when ESLint finds no error. */
-async function runLint(): Promise<Tally> {
-  log('lint…');
-  const child = spawn('npm', ['run', '--silent', 'lint'], { cwd: ROOT, stdio: 'inherit' });
+/** An npm script counts as one check: passed when it exits 0. */
+async function runCheck(script: string, failure: string): Promise<Tally> {
+  log(`${script}…`);
+  const child = spawn('npm', ['run', '--silent', script], { cwd: ROOT, stdio: 'inherit' });
   const status = await new Promise<number | null>((resolve) => child.on('exit', (code) => resolve(code)));
-  if (status !== 0) log('lint found errors (npm run lint)');
+  if (status !== 0) log(`${failure} (npm run ${script})`);
   return status === 0 ? { passed: 1, failed: 0 } : { passed: 0, failed: 1 };
+}
+
+/** ESLint (layers, errors) and Prettier (formatting), each one check. */
+async function runStaticChecks(): Promise<Tally> {
+  const lint = await runCheck('lint', 'lint found errors');
+  const format = await runCheck('format:check', 'files are not formatted; run npm run format');
+  return { passed: lint.passed + format.passed, failed: lint.failed + format.failed };
 }
 
 async function main() {
@@ -57,7 +69,7 @@ async function main() {
   const clusterDir = join(work, 'pg');
   let server: ChildProcess | null = null;
   let fakeS3: FakeS3 | null = null;
-  const tally: Tally = await runLint();
+  const tally: Tally = await runStaticChecks();
   try {
     ensureChromium();
     log(`throwaway PostgreSQL on 127.0.0.1:${PG_PORT}`);
@@ -75,10 +87,23 @@ async function main() {
     log(`fake S3 on 127.0.0.1:${S3_PORT}`);
     fakeS3 = await startFakeS3({ port: S3_PORT, dir: join(work, 's3') });
     const appUrl = `http://127.0.0.1:${APP_PORT}`;
-    server = startServer({ host: '127.0.0.1', port: APP_PORT, stdio: 'ignore', env: { DATABASE_URL: e2eUrl, SMTP_URL: smtpUrl, DATA_DIR: join(work, 'data'), MAIL_DIR: mailDir } });
+    server = startServer({
+      host: '127.0.0.1',
+      port: APP_PORT,
+      stdio: 'ignore',
+      env: { DATABASE_URL: e2eUrl, SMTP_URL: smtpUrl, DATA_DIR: join(work, 'data'), MAIL_DIR: mailDir },
+    });
     await waitForHttp(`${appUrl}/api/health`);
 
-    const env = { DATABASE_URL: testUrl, APP_URL: appUrl, E2E_DATABASE_URL: e2eUrl, MAIL_DIR: mailDir, SMTP_URL: smtpUrl, DATA_DIR: join(work, 'data-int'), S3_TEST_ENDPOINT: fakeS3.endpoint };
+    const env = {
+      DATABASE_URL: testUrl,
+      APP_URL: appUrl,
+      E2E_DATABASE_URL: e2eUrl,
+      MAIL_DIR: mailDir,
+      SMTP_URL: smtpUrl,
+      DATA_DIR: join(work, 'data-int'),
+      S3_TEST_ENDPOINT: fakeS3.endpoint,
+    };
     const unit = await runVitest('unit + integration', [], env, join(work, 'vitest.json'));
     const browser = await runVitest('browser', ['--config', 'vitest.e2e.config.ts'], env, join(work, 'vitest-e2e.json'));
     tally.passed += unit.passed + browser.passed;
