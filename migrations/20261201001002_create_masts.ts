@@ -19,11 +19,7 @@ export async function up(knex: Knex): Promise<void> {
     t.timestamp('updated_at', { useTz: true }).notNullable().defaultTo(knex.fn.now());
     t.integer('row_version').notNullable().defaultTo(1);
     t.check("status IN ('active','planned','decommissioned')", [], 'masts_status_check');
-    t.check(
-      "structure_type IN ('lattice_tower','monopole','guyed_mast','rooftop','pole','water_tower','other')",
-      [],
-      'masts_structure_type_check',
-    );
+    t.check("structure_type IN ('lattice_tower','monopole','guyed_mast','rooftop','pole','water_tower','other')", [], 'masts_structure_type_check');
     t.index(['status']);
   });
   await knex.raw('CREATE INDEX masts_geom_idx ON masts USING gist (geom)');

@@ -12,11 +12,9 @@ export async function up(knex: Knex): Promise<void> {
     t.text('source').notNullable().defaultTo('import');
     t.timestamp('created_at', { useTz: true }).notNullable().defaultTo(knex.fn.now());
     t.timestamp('updated_at', { useTz: true }).notNullable().defaultTo(knex.fn.now());
-    t.check("length(label) BETWEEN 1 AND 300", [], 'addresses_label_check');
+    t.check('length(label) BETWEEN 1 AND 300', [], 'addresses_label_check');
   });
-  await knex.raw(
-    "ALTER TABLE addresses ADD COLUMN search_text text GENERATED ALWAYS AS (label || ' ' || coalesce(postcode, '')) STORED",
-  );
+  await knex.raw("ALTER TABLE addresses ADD COLUMN search_text text GENERATED ALWAYS AS (label || ' ' || coalesce(postcode, '')) STORED");
   await knex.raw(
     "ALTER TABLE addresses ADD COLUMN search_tsv tsvector GENERATED ALWAYS AS (to_tsvector('simple', label || ' ' || coalesce(postcode, ''))) STORED",
   );

@@ -94,7 +94,13 @@ async function login(port: number, email: string): Promise<string> {
 
 /** Resident memory of the server: the primary plus its workers, in MB. */
 function serverRssMb(pid: number): number {
-  const pids = [pid, ...spawnSync('ps', ['-o', 'pid=', '--ppid', String(pid)], { encoding: 'utf8' }).stdout.split('\n').map(Number).filter(Boolean)];
+  const pids = [
+    pid,
+    ...spawnSync('ps', ['-o', 'pid=', '--ppid', String(pid)], { encoding: 'utf8' })
+      .stdout.split('\n')
+      .map(Number)
+      .filter(Boolean),
+  ];
   let kbTotal = 0;
   for (const p of pids) {
     try {
@@ -149,7 +155,10 @@ const TILE_ZOOMS = [3, 5, 6, 7, 8, 9, 10, 12, 14];
 
 async function measureTiles(db: ReturnType<typeof connect>, url: string, cookie: string, centre: { lat: number; lon: number }) {
   const bump = () => db.raw("UPDATE data_versions SET version = nextval('data_versions_seq') WHERE name = 'masts'");
-  const lines = ['| zoom | tile | features raw KB | gzip KB | uncached ms (median of 5) | psql raw SQL ms (median of 5) | cached p50 ms | cached p95 ms |', '|---|---|---|---|---|---|---|---|'];
+  const lines = [
+    '| zoom | tile | features raw KB | gzip KB | uncached ms (median of 5) | psql raw SQL ms (median of 5) | cached p50 ms | cached p95 ms |',
+    '|---|---|---|---|---|---|---|---|',
+  ];
   let worstUncached = 0;
   let worstRawKb = 0;
   let worstRatioOk = true;
@@ -182,7 +191,14 @@ async function measureTiles(db: ReturnType<typeof connect>, url: string, cookie:
     cachedP50s.push(pct(cached, 50));
     lines.push(`| ${z} | ${t.x}/${t.y} | ${kb(raw)} | ${kb(gz)} | ${ms(u)} | ${ms(sqlMs)} | ${ms(pct(cached, 50))} | ${ms(pct(cached, 95))} |`);
   }
-  details.push('### Mast tiles at the densest town, per zoom', '', 'Uncached: the data version is raised before each request, so the tile is cut afresh. psql runs the same SQL (`mastsTileQuery`) with `\\timing`, JIT off.', '', ...lines, '');
+  details.push(
+    '### Mast tiles at the densest town, per zoom',
+    '',
+    'Uncached: the data version is raised before each request, so the tile is cut afresh. psql runs the same SQL (`mastsTileQuery`) with `\\timing`, JIT off.',
+    '',
+    ...lines,
+    '',
+  );
   row('2 tiles', 'every tile ≤ 150 ms', `worst uncached ${ms(worstUncached)} ms`, worstUncached <= 150);
   row('2 tiles', 'every tile ≤ 500 KB', `largest ${kb(worstRawKb * 1024)} KB raw`, worstRawKb <= 500);
   row('2 tiles', 'cached tile p50 ≤ 2 ms', `worst p50 ${ms(Math.max(...cachedP50s))} ms`, Math.max(...cachedP50s) <= 2);
@@ -198,7 +214,9 @@ async function shortlistRun(port: number, cookie: string, points: Array<{ lat: n
   const bodies: unknown[] = [];
   for (let pass = 0; pass < passes; pass++) {
     for (const p of points) {
-      const g = await request(port, `/api/shortlist?lat=${p.lat.toFixed(5)}&lon=${p.lon.toFixed(5)}&height_m=8&date=2026-06-01`, { headers: { Cookie: cookie } });
+      const g = await request(port, `/api/shortlist?lat=${p.lat.toFixed(5)}&lon=${p.lon.toFixed(5)}&height_m=8&date=2026-06-01`, {
+        headers: { Cookie: cookie },
+      });
       if (g.status !== 200) throw new Error(`shortlist HTTP ${g.status}: ${bodyOf(g).toString().slice(0, 300)}`);
       times.push(g.ms);
       if (pass === 0) bodies.push(JSON.parse(bodyOf(g).toString()));
@@ -244,7 +262,9 @@ async function measureShortlist(db: ReturnType<typeof connect>, cookie: string, 
 }
 
 async function measureGeocode(db: ReturnType<typeof connect>, cookie: string) {
-  const { rows: sample } = await db.raw<{ rows: Array<{ label: string; postcode: string }> }>('SELECT label, postcode FROM addresses ORDER BY id % 7919, id LIMIT 20');
+  const { rows: sample } = await db.raw<{ rows: Array<{ label: string; postcode: string }> }>(
+    'SELECT label, postcode FROM addresses ORDER BY id % 7919, id LIMIT 20',
+  );
   const queries = sample.flatMap((s) => {
     const [street, town] = s.label.replace(/^\d+ /, '').split(', ');
     return [`${street} ${town}`, s.postcode.toLowerCase(), s.label.split(', ')[0]!];
@@ -255,7 +275,12 @@ async function measureGeocode(db: ReturnType<typeof connect>, cookie: string) {
     if (g.status !== 200) throw new Error(`geocode HTTP ${g.status}`);
     times.push(g.ms);
   }
-  details.push('### Geocode', '', `${queries.length} queries (street + town, postcode, house + street) over ${(await currentCounts(db)).addresses} addresses: p50 ${ms(pct(times, 50))} ms, p95 ${ms(pct(times, 95))} ms.`, '');
+  details.push(
+    '### Geocode',
+    '',
+    `${queries.length} queries (street + town, postcode, house + street) over ${(await currentCounts(db)).addresses} addresses: p50 ${ms(pct(times, 50))} ms, p95 ${ms(pct(times, 95))} ms.`,
+    '',
+  );
   row('5 search', 'geocode over 1M addresses p95 ≤ 50 ms', `p95 ${ms(pct(times, 95))} ms (p50 ${ms(pct(times, 50))})`, pct(times, 95) <= 50);
 }
 
@@ -270,7 +295,8 @@ async function measureMastList(cookie: string, centre: { lat: number; lon: numbe
     const g = await request(APP_PORT, `/api/masts?bbox=${bbox}`, { headers: { Cookie: cookie, 'Accept-Encoding': 'gzip' } });
     const body = JSON.parse(bodyOf(g).toString()) as { features: Array<{ geometry: { coordinates: [number, number] } }>; truncated: boolean };
     const [w, s, e, n] = bbox.split(',').map(Number) as [number, number, number, number];
-    const d = (f: { geometry: { coordinates: [number, number] } }) => Math.hypot(f.geometry.coordinates[0] - (w + e) / 2, f.geometry.coordinates[1] - (s + n) / 2);
+    const d = (f: { geometry: { coordinates: [number, number] } }) =>
+      Math.hypot(f.geometry.coordinates[0] - (w + e) / 2, f.geometry.coordinates[1] - (s + n) / 2);
     const ordered = body.features.every((f, i, a) => i === 0 || d(a[i - 1]!) <= d(f) + 1e-9);
     worst = Math.max(worst, g.ms);
     lines.push(`| ${name} | ${body.features.length} | ${body.truncated} | ${ordered} | ${ms(g.ms)} | ${kb(g.wire.length)} |`);
@@ -283,9 +309,9 @@ function csvOf(n: number, prefix: string, centre: { lat: number; lon: number }, 
   const out: string[] = [forPsql ? '' : 'label,postcode,lat,lon'];
   for (let i = 0; i < n; i++) {
     const lat = (centre.lat + ((i % 1000) - 500) / 10_000).toFixed(6);
-    const lon = (centre.lon + (Math.floor(i / 1000) % 1000 - 500) / 10_000).toFixed(6);
+    const lon = (centre.lon + ((Math.floor(i / 1000) % 1000) - 500) / 10_000).toFixed(6);
     const label = `${i + 1} ${prefix} Row, Benchford`;
-    const pc = `BF${1 + (i % 9)} ${i % 10}${String.fromCharCode(65 + (i % 26))}${String.fromCharCode(65 + ((i / 26) | 0) % 26)}`;
+    const pc = `BF${1 + (i % 9)} ${i % 10}${String.fromCharCode(65 + (i % 26))}${String.fromCharCode(65 + (((i / 26) | 0) % 26))}`;
     out.push(forPsql ? `"${label}",${pc},SRID=4326;POINT(${lon} ${lat}),bench-copy` : `"${label}",${pc},${lat},${lon}`);
   }
   return out.filter((l, i) => i > 0 || !forPsql).join('\n') + '\n';
@@ -319,11 +345,31 @@ async function measureImports(db: ReturnType<typeof connect>, url: string, admin
     '',
   );
   const ok = g.status === 200;
-  row('6 imports', '1M rows ≤ 2 × psql \\copy', ok ? `${ms(g.ms)} ms vs ${ms(copyMs)} ms (${(g.ms / copyMs).toFixed(1)}×)` : `refused: HTTP ${g.status}`, ok ? g.ms <= 2 * copyMs : false, ok ? undefined : 'streaming import is item 6 (another engineer)');
+  row(
+    '6 imports',
+    '1M rows ≤ 2 × psql \\copy',
+    ok ? `${ms(g.ms)} ms vs ${ms(copyMs)} ms (${(g.ms / copyMs).toFixed(1)}×)` : `refused: HTTP ${g.status}`,
+    ok ? g.ms <= 2 * copyMs : false,
+    ok ? undefined : 'streaming import is item 6 (another engineer)',
+  );
   row('6 imports', 'server RSS ≤ 300 MB during the import', `${peak.toFixed(0)} MB (primary + 2 workers)`, peak <= 300);
 }
 
-const PAGES = ['/login', '/', '/map', '/plan', '/tools', '/customers', '/admin', '/admin/users', '/admin/operators', '/admin/addresses', '/admin/catalogue', '/admin/elevation', '/admin/regions'];
+const PAGES = [
+  '/login',
+  '/',
+  '/map',
+  '/plan',
+  '/tools',
+  '/customers',
+  '/admin',
+  '/admin/users',
+  '/admin/operators',
+  '/admin/addresses',
+  '/admin/catalogue',
+  '/admin/elevation',
+  '/admin/regions',
+];
 
 function jsClosure(entry: string, seen: Set<string>): void {
   if (seen.has(entry)) return;
@@ -349,7 +395,9 @@ async function measurePages(cookie: string) {
     const limit = page === '/login' || page === '/' ? 0 : page === '/map' || page === '/plan' ? 450 : 80;
     const ok = gz / 1024 <= limit && g.status === 200;
     if (!ok) allOk = false;
-    lines.push(`| ${page} | ${g.headers['content-encoding'] ?? 'none'} (HTTP ${g.status}) | ${seen.size} | ${kb(gz)} | ≤ ${limit} KB ${ok ? 'met' : 'MISSED'} |`);
+    lines.push(
+      `| ${page} | ${g.headers['content-encoding'] ?? 'none'} (HTTP ${g.status}) | ${seen.size} | ${kb(gz)} | ≤ ${limit} KB ${ok ? 'met' : 'MISSED'} |`,
+    );
   }
   details.push('### Pages: JavaScript per page (static import closure of every script and island, gzip -9) and compression', '', ...lines, '');
   row('7 weight', 'JS per page: / and /login 0, others ≤ 80 KB, /map and /plan ≤ 450 KB', allOk ? 'every page within' : 'see the page table', allOk);
@@ -425,7 +473,13 @@ async function measureLoad(cookie: string, serverPid: number, centre: { lat: num
     '',
   );
   row('4 load', '0 errors', `${errors} (${result.requests.total} requests)`, errors === 0);
-  row('4 load', 'p95 ≤ 1 s', `p97.5 ${result.latency.p97_5} ms (p50 ${result.latency.p50} ms)`, result.latency.p97_5 <= 1000, 'autocannon reports p97.5, an upper bound for p95');
+  row(
+    '4 load',
+    'p95 ≤ 1 s',
+    `p97.5 ${result.latency.p97_5} ms (p50 ${result.latency.p50} ms)`,
+    result.latency.p97_5 <= 1000,
+    'autocannon reports p97.5, an upper bound for p95',
+  );
   row('4 load', 'req/s against the 5 measured before', `${result.requests.average.toFixed(1)} req/s`, result.requests.average > 5);
   row('1 memory', 'server RSS under load', `${peak.toFixed(0)} MB (primary + 2 workers)`, null);
 }
@@ -441,15 +495,27 @@ async function measureDemoShortlist(url: string) {
       process.env.DATA_DIR = DEMO_DATA;
       await runSeeds(demoUrl);
     }
-    const server = startServer({ host: '127.0.0.1', port: DEMO_PORT, stdio: 'ignore', env: { DATABASE_URL: demoUrl, DATA_DIR: DEMO_DATA, SMTP_URL: 'smtp://127.0.0.1:9', RESIDUAL_JOB: 'off' } });
+    const server = startServer({
+      host: '127.0.0.1',
+      port: DEMO_PORT,
+      stdio: 'ignore',
+      env: { DATABASE_URL: demoUrl, DATA_DIR: DEMO_DATA, SMTP_URL: 'smtp://127.0.0.1:9', RESIDUAL_JOB: 'off' },
+    });
     try {
       await waitForHttp(`http://127.0.0.1:${DEMO_PORT}/api/health`);
       const cookie = await login(DEMO_PORT, 'planner@demo.bearline.test');
-      const { rows: customers } = await demo.raw<{ rows: Array<{ lat: number; lon: number }> }>('SELECT ST_Y(geom) AS lat, ST_X(geom) AS lon FROM customers ORDER BY id LIMIT 20');
+      const { rows: customers } = await demo.raw<{ rows: Array<{ lat: number; lon: number }> }>(
+        'SELECT ST_Y(geom) AS lat, ST_X(geom) AS lon FROM customers ORDER BY id LIMIT 20',
+      );
       await shortlistRun(DEMO_PORT, cookie, customers.slice(0, 2), 1); // warm-up
       await refreshResiduals(demo, { dataDir: DEMO_DATA });
       const { times } = await shortlistRun(DEMO_PORT, cookie, customers, 3);
-      row('3 shortlist', 'on the demo p95 ≤ 50 ms', `p95 ${ms(pct(times, 95))} ms (p50 ${ms(pct(times, 50))}, ${times.length} requests at the demo customers)`, pct(times, 95) <= 50);
+      row(
+        '3 shortlist',
+        'on the demo p95 ≤ 50 ms',
+        `p95 ${ms(pct(times, 95))} ms (p50 ${ms(pct(times, 50))}, ${times.length} requests at the demo customers)`,
+        pct(times, 95) <= 50,
+      );
     } finally {
       server.kill('SIGTERM');
     }
@@ -503,7 +569,12 @@ async function main() {
   const centre = await townOne(db);
 
   buildIfChanged();
-  const server: ChildProcess = startServer({ host: '127.0.0.1', port: APP_PORT, stdio: 'ignore', env: { DATABASE_URL: url, DATA_DIR: BENCH_DATA, SMTP_URL: 'smtp://127.0.0.1:9', WEB_CONCURRENCY: '2', RESIDUAL_JOB: 'off' } });
+  const server: ChildProcess = startServer({
+    host: '127.0.0.1',
+    port: APP_PORT,
+    stdio: 'ignore',
+    env: { DATABASE_URL: url, DATA_DIR: BENCH_DATA, SMTP_URL: 'smtp://127.0.0.1:9', WEB_CONCURRENCY: '2', RESIDUAL_JOB: 'off' },
+  });
   try {
     await waitForHttp(`http://127.0.0.1:${APP_PORT}/api/health`);
     const startRss = serverRssMb(server.pid!);

@@ -13,7 +13,9 @@ async function main() {
   await assertOnlyDemoData(url, 'Restoring', process.argv.includes('--force'));
   const manifest = await restoreBackup({ dir, databaseUrl: url, dataDir: DATA_DIR, backupRoot: BACKUP_DIR });
   const applied = await migrateLatest(url);
-  log(`restored the backup of ${manifest.created_at} (${manifest.files.length} files)${applied.length ? `, then applied ${applied.length} newer migration(s)` : ''}`);
+  log(
+    `restored the backup of ${manifest.created_at} (${manifest.files.length} files)${applied.length ? `, then applied ${applied.length} newer migration(s)` : ''}`,
+  );
 }
 
 main().catch((err) => {

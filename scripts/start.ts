@@ -23,7 +23,10 @@ async function main() {
   const mailDir = `${DATA_DIR}/mail`;
   const smtpUrl = process.env.SMTP_URL ?? (await startMailCatcher({ port: SMTP_PORT, dir: mailDir }));
   // The server is restarted if it dies (scripts/lib/supervise.ts).
-  const server = supervise(() => startServer({ host: HOST, port: PORT, env: { DATABASE_URL: databaseUrl, SMTP_URL: smtpUrl, DATA_DIR, MAIL_DIR: mailDir } }), log);
+  const server = supervise(
+    () => startServer({ host: HOST, port: PORT, env: { DATABASE_URL: databaseUrl, SMTP_URL: smtpUrl, DATA_DIR, MAIL_DIR: mailDir } }),
+    log,
+  );
   process.on('SIGINT', () => server.stop());
   process.on('SIGTERM', () => server.stop());
   server.done.then((code) => process.exit(code));

@@ -15,7 +15,15 @@ export const DEMO_ANTENNAS = [
     kind: 'directional',
     ports: 2,
     horizontal_beamwidth_deg: 40,
-    gain: [[700, 7], [800, 7.4], [900, 7.7], [1800, 8.4], [2100, 8.6], [2600, 8.9], [2700, 8.8]] as Row[],
+    gain: [
+      [700, 7],
+      [800, 7.4],
+      [900, 7.7],
+      [1800, 8.4],
+      [2100, 8.6],
+      [2600, 8.9],
+      [2700, 8.8],
+    ] as Row[],
     notes: 'Cross-polarised 2-port panel for 4G MIMO. Wall or pole bracket; two feeders to the router.',
   },
   {
@@ -25,7 +33,15 @@ export const DEMO_ANTENNAS = [
     kind: 'directional',
     ports: 1,
     horizontal_beamwidth_deg: 55,
-    gain: [[700, 7], [900, 7.8], [1800, 8.6], [2100, 8.8], [2600, 9], [3500, 8.8], [3800, 8.5]] as Row[],
+    gain: [
+      [700, 7],
+      [900, 7.8],
+      [1800, 8.6],
+      [2100, 8.8],
+      [2600, 9],
+      [3500, 8.8],
+      [3800, 8.5],
+    ] as Row[],
     notes: 'Single-port, 700–3800 MHz. Pair two at ±45° for MIMO.',
   },
   {
@@ -33,7 +49,13 @@ export const DEMO_ANTENNAS = [
     kind: 'omni',
     ports: 2,
     horizontal_beamwidth_deg: 360,
-    gain: [[700, 3.5], [900, 4], [1800, 4], [2600, 4.2], [3500, 4]] as Row[],
+    gain: [
+      [700, 3.5],
+      [900, 4],
+      [1800, 4],
+      [2600, 4.2],
+      [3500, 4],
+    ] as Row[],
     notes: 'For customers between two masts or where the best cell changes; no aiming.',
   },
   {
@@ -41,7 +63,11 @@ export const DEMO_ANTENNAS = [
     kind: 'stub',
     ports: 2,
     horizontal_beamwidth_deg: 360,
-    gain: [[700, 2], [2700, 2], [3800, 2]] as Row[],
+    gain: [
+      [700, 2],
+      [2700, 2],
+      [3800, 2],
+    ] as Row[],
     notes: "The router's own antennas, used indoors: the 'before' kit for most customers.",
   },
 ] as const;
@@ -51,7 +77,11 @@ const CONNECTOR_NOTE = 'Two connectors (antenna and router end) assumed.';
 export const DEMO_CABLES = [
   { name: 'Feeder 5 mm standard', table: REFERENCE_CABLE_LOSS['RG-58'], notes: `Thin solid-dielectric coax: short runs only. ${CONNECTOR_NOTE}` },
   { name: 'Feeder 6 mm low-loss', table: REFERENCE_CABLE_LOSS['LL-6'], notes: `Foam dielectric, foil and braid. Runs up to about 10 m. ${CONNECTOR_NOTE}` },
-  { name: 'Feeder 10 mm low-loss', table: REFERENCE_CABLE_LOSS['LL-10'], notes: `Foam dielectric, foil and braid; stiff, mind the bend radius. Long runs. ${CONNECTOR_NOTE}` },
+  {
+    name: 'Feeder 10 mm low-loss',
+    table: REFERENCE_CABLE_LOSS['LL-10'],
+    notes: `Foam dielectric, foil and braid; stiff, mind the bend radius. Long runs. ${CONNECTOR_NOTE}`,
+  },
 ];
 
 export async function seed(knex: Knex): Promise<void> {

@@ -83,7 +83,10 @@ export async function seed(knex: Knex): Promise<void> {
         ORDER BY nearest.d DESC, a.id`,
     )
   ).rows;
-  const town = await knex('addresses').whereNot('postcode', 'like', '%-9%').orderBy('id').select('label', 'postcode', knex.raw('ST_Y(geom) AS lat'), knex.raw('ST_X(geom) AS lon'));
+  const town = await knex('addresses')
+    .whereNot('postcode', 'like', '%-9%')
+    .orderBy('id')
+    .select('label', 'postcode', knex.raw('ST_Y(geom) AS lat'), knex.raw('ST_X(geom) AS lon'));
   const picked: typeof rural = [];
   for (const a of rural) {
     if (picked.length === 10) break;
@@ -120,7 +123,14 @@ export async function seed(knex: Knex): Promise<void> {
     const kit = { antennaId: String(panel.id), cableId: String(cable.id), cableM: random.int(6, 18), mountHeightM: random.int(5, 9) };
     const result = await buildShortlist(
       knex,
-      { at: { lat: at.lat, lon: at.lon }, heightM: kit.mountHeightM, ...kit, currentAntennaId: String(stub.id), preferredOperatorId: String(operatorId), date: SHORTLIST_DATE },
+      {
+        at: { lat: at.lat, lon: at.lon },
+        heightM: kit.mountHeightM,
+        ...kit,
+        currentAntennaId: String(stub.id),
+        preferredOperatorId: String(operatorId),
+        date: SHORTLIST_DATE,
+      },
       demoProfile,
     );
     const items = shortlistJson(result, { lat: at.lat, lon: at.lon }).items;
@@ -174,7 +184,12 @@ export async function seed(knex: Knex): Promise<void> {
       surveyorId,
       new Date(`${day}T09:20:00Z`),
     );
-    await updatePlan(knex, plan.id, { state: 'installed', notes: `${plan.notes} Installed at ${kit.mountHeightM} m, ${kit.cableM} m of ${cable.name}.` }, plannerId);
+    await updatePlan(
+      knex,
+      plan.id,
+      { state: 'installed', notes: `${plan.notes} Installed at ${kit.mountHeightM} m, ${kit.cableM} m of ${cable.name}.` },
+      plannerId,
+    );
     if (c.name === 'Edric Hollowmere') continue; // after-install check still to come
 
     // One install beats the prediction, another falls short (a hedge in the way); the rest near it.
@@ -190,7 +205,9 @@ export async function seed(knex: Knex): Promise<void> {
         readings: [
           reading(chosen!.pci, chosen!.channel, afterMain, random.range(8, 16)),
           reading(chosen!.pci, chosen!.channel, round1(afterMain + random.normal(0, 1)), random.range(8, 16)),
-          ...(neighbour && beforeOther !== null ? [reading(neighbour.pci, neighbour.channel, round1(beforeOther + random.normal(-3, 2)), random.range(-6, 0))] : []),
+          ...(neighbour && beforeOther !== null
+            ? [reading(neighbour.pci, neighbour.channel, round1(beforeOther + random.normal(-3, 2)), random.range(-6, 0))]
+            : []),
         ],
         speedTests: [
           { downMbps: round1(random.range(25, 60)), upMbps: round1(random.range(5, 15)), latencyMs: random.int(28, 45) },

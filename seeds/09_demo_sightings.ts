@@ -117,7 +117,9 @@ function storageFromEnv() {
 
 export async function seed(knex: Knex): Promise<void> {
   await knex.raw('TRUNCATE sightings, sighting_operators, sighting_cells, sighting_photos RESTART IDENTITY CASCADE');
-  const masts: Array<{ id: string; lat: number; lon: number }> = await knex('masts').orderBy('id').select('id', knex.raw('ST_Y(geom) AS lat'), knex.raw('ST_X(geom) AS lon'));
+  const masts: Array<{ id: string; lat: number; lon: number }> = await knex('masts')
+    .orderBy('id')
+    .select('id', knex.raw('ST_Y(geom) AS lat'), knex.raw('ST_X(geom) AS lon'));
   const operator: { id: string } | undefined = await knex('operators').orderBy('id').first('id');
   const reviewer: { id: string } | undefined = await knex('users').where({ email: 'reviewer@demo.bearline.test' }).first('id');
   if (masts.length < 20 || !operator || !reviewer) return;
@@ -135,7 +137,15 @@ export async function seed(knex: Knex): Promise<void> {
       structure_type: s.structure,
       estimated_height_m: s.heightM,
       operator_ids: [operator.id],
-      cells: s.cells.map((c) => ({ operator_id: operator.id, tech: c.tech, channel: c.channel, pci: c.pci, rsrp_dbm: c.rsrp, rsrq_db: c.rsrq, sinr_db: c.sinr })),
+      cells: s.cells.map((c) => ({
+        operator_id: operator.id,
+        tech: c.tech,
+        channel: c.channel,
+        pci: c.pci,
+        rsrp_dbm: c.rsrp,
+        rsrq_db: c.rsrq,
+        sinr_db: c.sinr,
+      })),
       notes: s.notes,
       observed_at: s.observedAt,
     });
@@ -146,7 +156,13 @@ export async function seed(knex: Knex): Promise<void> {
       if (s.merged) {
         await trx('sightings')
           .where({ id: sighting.id })
-          .update({ status: 'merged', mast_id: mast.id, decided_by: reviewer.id, decided_at: new Date('2026-11-21T09:00:00Z'), decision_reason: 'Same mast, photos added' });
+          .update({
+            status: 'merged',
+            mast_id: mast.id,
+            decided_by: reviewer.id,
+            decided_at: new Date('2026-11-21T09:00:00Z'),
+            decision_reason: 'Same mast, photos added',
+          });
       }
     });
   }

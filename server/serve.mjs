@@ -50,7 +50,15 @@ function listPrecompressed(dir) {
       else if (!name.endsWith('.br') && !name.endsWith('.gz') && TYPES[extname(name)]) {
         const br = existsSync(`${p}.br`);
         const gz = existsSync(`${p}.gz`);
-        if (br || gz) found.set('/' + p.slice(dir.length + 1).split(sep).join('/'), { path: p, br, gz });
+        if (br || gz)
+          found.set(
+            '/' +
+              p
+                .slice(dir.length + 1)
+                .split(sep)
+                .join('/'),
+            { path: p, br, gz },
+          );
       }
     }
   };

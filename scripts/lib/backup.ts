@@ -79,7 +79,10 @@ export interface BackupOptions {
 
 export async function createBackup(opts: BackupOptions): Promise<{ dir: string; manifest: Manifest }> {
   const bin = ensurePostgres();
-  const stamp = (opts.now ?? new Date()).toISOString().replace(/[-:]/g, '').replace(/\.\d+Z$/, 'Z');
+  const stamp = (opts.now ?? new Date())
+    .toISOString()
+    .replace(/[-:]/g, '')
+    .replace(/\.\d+Z$/, 'Z');
   const dir = resolve(opts.backupRoot, `bearline-${stamp}`);
   if (existsSync(dir)) throw new Error(`${dir} exists already`);
   mkdirSync(dir, { recursive: true });
@@ -159,7 +162,11 @@ export async function restoreBackup(opts: RestoreOptions): Promise<Manifest> {
     });
     run(`${bin}/pg_restore`, ['--no-owner', '--no-privileges', `--use-list=${listFile}`, `--file=${sqlFile}`, join(opts.dir, DUMP_FILE)], 'pg_restore');
     // Dropping the old tables and loading the backup's is one transaction: a failure leaves the old data.
-    run(`${bin}/psql`, ['--single-transaction', '--quiet', '--no-psqlrc', '-v', 'ON_ERROR_STOP=1', `--dbname=${opts.databaseUrl}`, '-f', dropFile, '-f', sqlFile], 'restoring the database');
+    run(
+      `${bin}/psql`,
+      ['--single-transaction', '--quiet', '--no-psqlrc', '-v', 'ON_ERROR_STOP=1', `--dbname=${opts.databaseUrl}`, '-f', dropFile, '-f', sqlFile],
+      'restoring the database',
+    );
   } finally {
     for (const f of [listFile, sqlFile, dropFile]) rmSync(f, { force: true });
   }

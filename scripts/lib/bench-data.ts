@@ -71,7 +71,7 @@ async function withoutIndexes(db: Knex, table: string, fn: () => Promise<void>):
   );
   for (const r of rows) await db.raw(`DROP INDEX ${r.indexname}`);
   await fn();
-  await db.raw('SET maintenance_work_mem = \'256MB\'');
+  await db.raw("SET maintenance_work_mem = '256MB'");
   for (const r of rows) await db.raw(r.indexdef);
 }
 
@@ -87,8 +87,11 @@ export async function generate(db: Knex, scale: number, dataDir: string, log: (m
     { name: 'Bench Mobile West', mcc: '001', mnc: '04', colour: '#9467bd' },
   ]);
   await db.raw('SELECT setseed(0.42)');
-  await timed(`${n.masts} masts`, () =>
-    db.raw(`
+  await timed(
+    `${n.masts} masts`,
+    () =>
+      db.raw(
+        `
       INSERT INTO masts (name, reference, geom, ground_elevation_m, structure_height_m, structure_type, status, source)
       SELECT 'Bench mast ' || i, 'BM-' || i,
         ST_SetSRID(ST_MakePoint(
@@ -97,43 +100,59 @@ export async function generate(db: Knex, scale: number, dataDir: string, log: (m
         100 + random() * 150, 20 + random() * 30,
         (ARRAY['lattice_tower','monopole','guyed_mast','rooftop','pole'])[1 + i % 5],
         CASE WHEN i % 50 = 0 THEN 'planned' WHEN i % 97 = 0 THEN 'decommissioned' ELSE 'active' END, 'bench'
-      FROM generate_series(1, ?) i JOIN (${TOWNS_SQL}) t ON t.id = 1 + (i * 31) % ${TOWN_COUNT}`, [n.masts]), log);
-  await timed(`${n.cells} cells (mast summaries by trigger)`, () =>
-    db.raw(`
+      FROM generate_series(1, ?) i JOIN (${TOWNS_SQL}) t ON t.id = 1 + (i * 31) % ${TOWN_COUNT}`,
+        [n.masts],
+      ),
+    log,
+  );
+  await timed(
+    `${n.cells} cells (mast summaries by trigger)`,
+    () =>
+      db.raw(`
       INSERT INTO cells (mast_id, operator_id, tech, band, channel, dl_mhz, pci, sector_azimuth_deg, antenna_height_m)
       SELECT m.id, 1 + (m.id + g.k) % 4, b.tech, b.band, b.channel, b.dl, (m.id * 5 + g.k) % 504, (g.k * 72) % 360, 20 + g.k * 2
       FROM masts m CROSS JOIN generate_series(0, ${FULL.cellsPerMast - 1}) AS g(k)
       JOIN (VALUES (0, 'lte', 'B20', 6300, 806.0), (1, 'lte', 'B3', 1300, 1815.0), (2, 'lte', 'B7', 3100, 2655.0),
-                   (3, 'nr', 'n78', 641280, 3619.2), (4, 'lte', 'B1', 100, 2120.0)) b(bk, tech, band, channel, dl) ON b.bk = g.k`), log);
-  await timed(`${n.readings} readings (indexes rebuilt after)`, () =>
-    withoutIndexes(db, 'readings', async () => {
-      const { rows } = await db.raw('SELECT min(id) AS lo, max(id) AS hi FROM cells');
-      const step = 20_000;
-      for (let lo = Number(rows[0].lo); lo <= Number(rows[0].hi); lo += step) {
-        await db.raw(
-          `INSERT INTO readings (taken_at, geom, tech, channel, pci, rsrp_dbm, rsrq_db, sinr_db, cell_id, device, source)
+                   (3, 'nr', 'n78', 641280, 3619.2), (4, 'lte', 'B1', 100, 2120.0)) b(bk, tech, band, channel, dl) ON b.bk = g.k`),
+    log,
+  );
+  await timed(
+    `${n.readings} readings (indexes rebuilt after)`,
+    () =>
+      withoutIndexes(db, 'readings', async () => {
+        const { rows } = await db.raw('SELECT min(id) AS lo, max(id) AS hi FROM cells');
+        const step = 20_000;
+        for (let lo = Number(rows[0].lo); lo <= Number(rows[0].hi); lo += step) {
+          await db.raw(
+            `INSERT INTO readings (taken_at, geom, tech, channel, pci, rsrp_dbm, rsrq_db, sinr_db, cell_id, device, source)
            SELECT now() - random() * interval '365 days',
              ST_SetSRID(ST_MakePoint(ST_X(m.geom) + (random() - 0.5) * 0.08, ST_Y(m.geom) + (random() - 0.5) * 0.06), 4326),
              c.tech, c.channel, c.pci, -125 + random() * 55, -15 + random() * 10, -3 + random() * 25, c.id, 'bench phone', 'bench'
            FROM cells c JOIN masts m ON m.id = c.mast_id CROSS JOIN generate_series(1, ${FULL.readingsPerCell})
            WHERE c.id BETWEEN ? AND ?`,
-          [lo, lo + step - 1],
-        );
-      }
-    }), log);
-  await timed(`${n.addresses} addresses`, () =>
-    withoutIndexes(db, 'addresses', async () => {
-      await db.raw(
-        `INSERT INTO addresses (label, postcode, geom, source)
+            [lo, lo + step - 1],
+          );
+        }
+      }),
+    log,
+  );
+  await timed(
+    `${n.addresses} addresses`,
+    () =>
+      withoutIndexes(db, 'addresses', async () => {
+        await db.raw(
+          `INSERT INTO addresses (label, postcode, geom, source)
          SELECT (1 + i % 200) || ' ' ||
            (ARRAY['Mill','Crake','Harrow','Fen','Brook','Ash','Kiln','Tanner','Marsh','Holt','Wick','Thorn','Stone','Bramble','Corrie','Lark','Heron','Otter','Birch','Rowan'])[1 + (i / 200) % 20] || ' ' ||
            (ARRAY['Lane','Road','Street','Close','Way','Row','Drove','Hill'])[1 + (i / 4000) % 8] || ', ' || t.name,
            upper(substr(t.name, 1, 2)) || (1 + (i / 200) % 9) || ' ' || (i % 10) || chr(65 + (i / 7) % 26) || chr(65 + (i / 11) % 26),
            ST_SetSRID(ST_MakePoint(t.lon + (random() - 0.5) * 0.1, t.lat + (random() - 0.5) * 0.07), 4326), 'bench'
          FROM generate_series(0, ? - 1) i JOIN (${TOWNS_SQL}) t ON t.id = 1 + (i / 32000) % ${TOWN_COUNT}`,
-        [n.addresses],
-      );
-    }), log);
+          [n.addresses],
+        );
+      }),
+    log,
+  );
   await timed('elevation grid around town 1', () => importGrid(db, dataDir), log);
   await timed('ANALYZE', () => db.raw('ANALYZE'), log);
 }

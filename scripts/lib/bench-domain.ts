@@ -23,8 +23,25 @@ function bench(name: string, targetUs: number, iterations: number, fn: (i: numbe
 const customer = { lat: -47.2, lon: -128.5 };
 const profile: ProfileSample[] = Array.from({ length: 401 }, (_, i) => ({ distanceM: i * 25, groundM: 100 + 40 * Math.sin(i / 30) }));
 const kit: Kit = {
-  antenna: { id: 'a', name: 'Panel', gainTable: [{ freqMhz: 700, gainDbi: 7 }, { freqMhz: 2700, gainDbi: 9 }], horizontalBeamwidthDeg: 40 },
-  cable: { id: 'c', name: 'Cable', lossTable: [{ freqMhz: 700, dbPerM: 0.1 }, { freqMhz: 2700, dbPerM: 0.25 }], connectorLossDb: 0.15, connectors: 2 },
+  antenna: {
+    id: 'a',
+    name: 'Panel',
+    gainTable: [
+      { freqMhz: 700, gainDbi: 7 },
+      { freqMhz: 2700, gainDbi: 9 },
+    ],
+    horizontalBeamwidthDeg: 40,
+  },
+  cable: {
+    id: 'c',
+    name: 'Cable',
+    lossTable: [
+      { freqMhz: 700, dbPerM: 0.1 },
+      { freqMhz: 2700, dbPerM: 0.25 },
+    ],
+    connectorLossDb: 0.15,
+    connectors: 2,
+  },
   cableM: 10,
   mountHeightM: 6,
 };
@@ -61,11 +78,17 @@ const grid: ElevationGrid = {
 
 export function runDomainBenchmarks(): Result[] {
   return [
-  bench('terrain analysis, 401 samples', 500, 2000, () => analysePathProfile({ samples: profile, txHeightM: 6, rxHeightM: 30, freqMhz: 806 })),
-  bench('elevation profile, 400 samples', 1500, 1000, (i) => sampleElevationProfile([grid], customer, getDestination(customer, 10_000, i % 360), { maxSamples: 400 })),
-  bench('evaluate + rank 60 candidates', 50_000, 50, () =>
-    rankShortlist(cells.map((c) => evaluateCandidate(c, { profile, calibration: null }, { customer, customerGroundM: 100, date: new Date('2026-06-01'), kit, currentKit: null }))),
-  ),
-  bench('channel lookup', 20, 20_000, (i) => lookupChannel('lte', 6150 + (i % 300))),
+    bench('terrain analysis, 401 samples', 500, 2000, () => analysePathProfile({ samples: profile, txHeightM: 6, rxHeightM: 30, freqMhz: 806 })),
+    bench('elevation profile, 400 samples', 1500, 1000, (i) =>
+      sampleElevationProfile([grid], customer, getDestination(customer, 10_000, i % 360), { maxSamples: 400 }),
+    ),
+    bench('evaluate + rank 60 candidates', 50_000, 50, () =>
+      rankShortlist(
+        cells.map((c) =>
+          evaluateCandidate(c, { profile, calibration: null }, { customer, customerGroundM: 100, date: new Date('2026-06-01'), kit, currentKit: null }),
+        ),
+      ),
+    ),
+    bench('channel lookup', 20, 20_000, (i) => lookupChannel('lte', 6150 + (i % 300))),
   ];
 }

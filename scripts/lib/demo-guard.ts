@@ -14,10 +14,20 @@ export async function findNonDemoData(url: string): Promise<string[]> {
   return withKnex(url, async (knex) => {
     if (!(await hasTable(knex, 'users'))) return [];
     const reasons: string[] = [];
-    const count = async (table: string) => (await hasTable(knex, table) ? Number((await knex(table).count<{ count: string }[]>('* as count').first())?.count ?? 0) : 0);
+    const count = async (table: string) =>
+      (await hasTable(knex, table)) ? Number((await knex(table).count<{ count: string }[]>('* as count').first())?.count ?? 0) : 0;
 
-    const others = await knex('users').whereRaw('lower(email) NOT LIKE ?', [`%${DEMO_EMAIL_DOMAIN}`]).orderBy('id').select('email');
-    if (others.length) reasons.push(`${others.length} account(s) that are not demo accounts (${others.slice(0, 3).map((u) => u.email).join(', ')}${others.length > 3 ? ', …' : ''})`);
+    const others = await knex('users')
+      .whereRaw('lower(email) NOT LIKE ?', [`%${DEMO_EMAIL_DOMAIN}`])
+      .orderBy('id')
+      .select('email');
+    if (others.length)
+      reasons.push(
+        `${others.length} account(s) that are not demo accounts (${others
+          .slice(0, 3)
+          .map((u) => u.email)
+          .join(', ')}${others.length > 3 ? ', …' : ''})`,
+      );
 
     const marker = (await hasTable(knex, 'demo_scenario')) ? await knex('demo_scenario').first('loaded_at') : undefined;
     const rows = (await count('users')) + (await count('customers')) + (await count('masts'));

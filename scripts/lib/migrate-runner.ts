@@ -15,7 +15,9 @@ interface MigrationModule {
 
 export const migrationSource: Knex.MigrationSource<string> = {
   async getMigrations() {
-    return readdirSync(MIGRATIONS_DIR).filter((f) => /^\d{14}_[a-z0-9_]+\.ts$/.test(f)).sort();
+    return readdirSync(MIGRATIONS_DIR)
+      .filter((f) => /^\d{14}_[a-z0-9_]+\.ts$/.test(f))
+      .sort();
   },
   getMigrationName(name) {
     return name;

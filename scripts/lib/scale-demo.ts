@@ -70,9 +70,24 @@ function startStandby(bin: string, dir: string, ports: ScaleDemoPorts): void {
     writeFileSync(log, '');
     pgOwn(log);
   }
-  const running = spawnSync(isRoot() ? 'runuser' : `${bin}/pg_ctl`, isRoot() ? ['-u', 'postgres', '--', `${bin}/pg_ctl`, '-D', data, 'status'] : ['-D', data, 'status'], { cwd: '/' });
+  const running = spawnSync(
+    isRoot() ? 'runuser' : `${bin}/pg_ctl`,
+    isRoot() ? ['-u', 'postgres', '--', `${bin}/pg_ctl`, '-D', data, 'status'] : ['-D', data, 'status'],
+    { cwd: '/' },
+  );
   if (running.status === 0) return;
-  asPg(`${bin}/pg_ctl`, ['-D', data, '-l', log, '-o', `-p ${ports.standby} -k ${run} -c listen_addresses=127.0.0.1 -c hot_standby=on`, '-w', '-t', '60', 'start']);
+  asPg(`${bin}/pg_ctl`, [
+    '-D',
+    data,
+    '-l',
+    log,
+    '-o',
+    `-p ${ports.standby} -k ${run} -c listen_addresses=127.0.0.1 -c hot_standby=on`,
+    '-w',
+    '-t',
+    '60',
+    'start',
+  ]);
 }
 
 function stopPg(bin: string, data: string): void {
@@ -143,8 +158,18 @@ export async function startScaleDemo(options: { ports?: ScaleDemoPorts; dir?: st
   log(`primary PostgreSQL on 127.0.0.1:${ports.primary}`);
   const primaryUrl = await startCluster({ dir: join(dir, 'primary'), port: ports.primary, dbName: 'bearline' });
   const primaryRun = join(dir, 'primary', 'run');
-  asPg(`${bin}/psql`, ['-h', primaryRun, '-p', String(ports.primary), '-U', 'postgres', '-d', 'postgres', '-qc',
-    `DO $$ BEGIN IF NOT EXISTS (SELECT 1 FROM pg_roles WHERE rolname = '${REPLICATOR}') THEN CREATE ROLE ${REPLICATOR} REPLICATION LOGIN PASSWORD '${REPLICATOR_PASSWORD}'; END IF; END $$`]);
+  asPg(`${bin}/psql`, [
+    '-h',
+    primaryRun,
+    '-p',
+    String(ports.primary),
+    '-U',
+    'postgres',
+    '-d',
+    'postgres',
+    '-qc',
+    `DO $$ BEGIN IF NOT EXISTS (SELECT 1 FROM pg_roles WHERE rolname = '${REPLICATOR}') THEN CREATE ROLE ${REPLICATOR} REPLICATION LOGIN PASSWORD '${REPLICATOR_PASSWORD}'; END IF; END $$`,
+  ]);
   await migrateLatest(primaryUrl);
   const dataDir = join(dir, 'data');
   if (await isDatabaseEmpty(primaryUrl)) {
@@ -162,7 +187,13 @@ export async function startScaleDemo(options: { ports?: ScaleDemoPorts; dir?: st
       host: '127.0.0.1',
       port: ports.apps[i],
       stdio: options.quiet ? 'ignore' : 'inherit',
-      env: { DATABASE_URL: primaryUrl, DATABASE_READ_URL: standbyUrl, DATA_DIR: dataDir, WEB_CONCURRENCY: '1', SMTP_URL: process.env.SMTP_URL ?? 'smtp://127.0.0.1:9' },
+      env: {
+        DATABASE_URL: primaryUrl,
+        DATABASE_READ_URL: standbyUrl,
+        DATA_DIR: dataDir,
+        WEB_CONCURRENCY: '1',
+        SMTP_URL: process.env.SMTP_URL ?? 'smtp://127.0.0.1:9',
+      },
     });
     await waitForHttp(`http://127.0.0.1:${ports.apps[i]}/api/health`);
   };
@@ -194,4 +225,3 @@ export async function startScaleDemo(options: { ports?: ScaleDemoPorts; dir?: st
     },
   };
 }
-

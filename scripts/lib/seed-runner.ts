@@ -8,7 +8,9 @@ import { withKnex } from './migrate-runner';
 const SEEDS_DIR = resolve(import.meta.dirname, '../../seeds');
 
 export async function runSeeds(url: string): Promise<string[]> {
-  const files = readdirSync(SEEDS_DIR).filter((f) => /^\d{2}_[a-z0-9_]+\.ts$/.test(f)).sort();
+  const files = readdirSync(SEEDS_DIR)
+    .filter((f) => /^\d{2}_[a-z0-9_]+\.ts$/.test(f))
+    .sort();
   await withKnex(url, async (knex) => {
     for (const file of files) {
       const mod = (await import(pathToFileURL(resolve(SEEDS_DIR, file)).href)) as { seed: (k: Knex) => Promise<void> };

@@ -21,9 +21,7 @@ function hasPostgis(binDir: string): boolean {
 let aptUpdated = false;
 function aptInstall(packages: string[]): void {
   if (process.getuid && process.getuid() !== 0) {
-    throw new Error(
-      `Missing system packages: ${packages.join(' ')}. Install them with: sudo apt-get install -y ${packages.join(' ')}`,
-    );
+    throw new Error(`Missing system packages: ${packages.join(' ')}. Install them with: sudo apt-get install -y ${packages.join(' ')}`);
   }
   const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
   if (!aptUpdated) {

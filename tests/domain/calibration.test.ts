@@ -28,7 +28,7 @@ describe('shrinkage rule: w = τ² / (τ² + SE²), SE = √(π/2)·σ/√n, τ 
   it('uses the assumed spread for two readings, which agree too little to measure one', () => {
     // n = 2: SE² = 100.53 / 2 = 50.27; w = 64 / 114.27 = 0.560
     const c = shrinkCalibration({ count: 2, medianDb: -20, spreadDb: 0.5 })!;
-    expect(c.weight).toBeCloseTo(0.560, 3);
+    expect(c.weight).toBeCloseTo(0.56, 3);
     expect(c.offsetDb).toBeCloseTo(-11.2, 1);
   });
 
@@ -49,7 +49,10 @@ describe('shrinkage rule: w = τ² / (τ² + SE²), SE = √(π/2)·σ/√n, τ 
   });
 
   it('floors a measured spread at 3 dB', () => {
-    expect(shrinkCalibration({ count: 5, medianDb: 6, spreadDb: 0 })!.weight).toBeCloseTo(shrinkCalibration({ count: 5, medianDb: 6, spreadDb: 3 })!.weight, 12);
+    expect(shrinkCalibration({ count: 5, medianDb: 6, spreadDb: 0 })!.weight).toBeCloseTo(
+      shrinkCalibration({ count: 5, medianDb: 6, spreadDb: 3 })!.weight,
+      12,
+    );
   });
 
   it('grows toward the median as readings accumulate', () => {

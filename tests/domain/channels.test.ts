@@ -79,8 +79,20 @@ describe('LTE EARFCN', () => {
         { band: 'B26', channel: 27020, direction: 'UL', exact: true },
       ],
     ],
-    [2650, [{ band: 'B7', channel: 3050, direction: 'DL', exact: true }, { band: 'B41', channel: 41190, direction: 'both', exact: true }]],
-    [2595, [{ band: 'B38', channel: 38000, direction: 'both', exact: true }, { band: 'B41', channel: 40640, direction: 'both', exact: true }]],
+    [
+      2650,
+      [
+        { band: 'B7', channel: 3050, direction: 'DL', exact: true },
+        { band: 'B41', channel: 41190, direction: 'both', exact: true },
+      ],
+    ],
+    [
+      2595,
+      [
+        { band: 'B38', channel: 38000, direction: 'both', exact: true },
+        { band: 'B41', channel: 40640, direction: 'both', exact: true },
+      ],
+    ],
   ])('%s MHz → candidates %j', (mhz, expected) => {
     const candidates = findChannelsForFrequency('lte', mhz);
     expect(candidates.map(({ band, channel, direction, exact }) => ({ band, channel, direction, exact }))).toEqual(expected);

@@ -1,12 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import {
-  CoordinateParseError,
-  CoordinateRangeError,
-  formatDecimal,
-  formatDms,
-  parseCoordinates,
-  tryParseCoordinates,
-} from '../../src/lib/domain/coords';
+import { CoordinateParseError, CoordinateRangeError, formatDecimal, formatDms, parseCoordinates, tryParseCoordinates } from '../../src/lib/domain/coords';
 
 const dms = (d: number, m: number, s: number) => d + m / 60 + s / 3600;
 

@@ -1,10 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import {
-  getDeclination,
-  getDeclinationUncertaintyDeg,
-  getGeomagneticField,
-  getMagneticBearing,
-} from '../../src/lib/domain/declination';
+import { getDeclination, getDeclinationUncertaintyDeg, getGeomagneticField, getMagneticBearing } from '../../src/lib/domain/declination';
 
 /** Decimal year → date the way the WMM test harness does it: year + fraction·365 days (geomagnetism/test). */
 function dateFromDecimalYear(decimalYear: number): Date {
@@ -92,12 +87,8 @@ describe('model validity window', () => {
 
   it('treats a missing height as 0 m', () => {
     const date = new Date('2026-01-01T00:00:00Z');
-    expect(getDeclination({ lat: 52.2053, lon: 0.1218, date })).toBe(
-      getDeclination({ lat: 52.2053, lon: 0.1218, heightM: 0, date }),
-    );
-    expect(getDeclination({ lat: 52.2053, lon: 0.1218, heightM: 50_000, date })).not.toBe(
-      getDeclination({ lat: 52.2053, lon: 0.1218, date }),
-    );
+    expect(getDeclination({ lat: 52.2053, lon: 0.1218, date })).toBe(getDeclination({ lat: 52.2053, lon: 0.1218, heightM: 0, date }));
+    expect(getDeclination({ lat: 52.2053, lon: 0.1218, heightM: 50_000, date })).not.toBe(getDeclination({ lat: 52.2053, lon: 0.1218, date }));
   });
 });
 

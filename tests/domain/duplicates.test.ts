@@ -1,7 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import { isSameCell, isSharedCell, pairCells, rankDuplicates, splitForMerge, DUPLICATE_RADIUS_M } from '../../src/lib/domain/duplicates';
 
-const cell = (operatorId: string, channel: number, pci: number | null, tech = 'lte', id = `${operatorId}-${channel}-${pci}`) => ({ id, operatorId, tech, channel, pci });
+const cell = (operatorId: string, channel: number, pci: number | null, tech = 'lte', id = `${operatorId}-${channel}-${pci}`) => ({
+  id,
+  operatorId,
+  tech,
+  channel,
+  pci,
+});
 
 describe('shared cells (same operator + channel + PCI; common practice)', () => {
   it.each([
@@ -54,7 +60,10 @@ describe('rankDuplicates', () => {
   });
 
   it('counts each sighting cell once even when the mast lists it twice', () => {
-    expect(rankDuplicates([cell('1', 6300, 101)], [{ mastId: '1', distanceM: 5, cells: [cell('1', 6300, 101, 'lte', 'a'), cell('1', 6300, 101, 'lte', 'b')] }])[0]!.sharedCells).toBe(1);
+    expect(
+      rankDuplicates([cell('1', 6300, 101)], [{ mastId: '1', distanceM: 5, cells: [cell('1', 6300, 101, 'lte', 'a'), cell('1', 6300, 101, 'lte', 'b')] }])[0]!
+        .sharedCells,
+    ).toBe(1);
   });
 });
 

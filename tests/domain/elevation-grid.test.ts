@@ -262,7 +262,18 @@ describe('sampleElevationProfile', () => {
 
   it('fills a void of the finest grid from a coarser one', () => {
     const holed: ElevationGrid = { ...slope, id: 'holed', nodata: -1, values: slope.values.map((v, i) => (Math.floor(i / n) === 50 ? -1 : v)) };
-    const coarse: ElevationGrid = { id: 'coarse', west: 9, south: 49, east: 11, north: 51, width: 3, height: 3, registration: 'point', nodata: null, values: new Float32Array(9).fill(7) };
+    const coarse: ElevationGrid = {
+      id: 'coarse',
+      west: 9,
+      south: 49,
+      east: 11,
+      north: 51,
+      width: 3,
+      height: 3,
+      registration: 'point',
+      nodata: null,
+      values: new Float32Array(9).fill(7),
+    };
     const along = sampleElevationProfile([coarse, holed], { lat: 50.05, lon: 10.01 }, { lat: 50.05, lon: 10.09 });
     expect(along.coverage.complete).toBe(true);
     for (const q of along.points) expect(q.groundM).toBeCloseTo(7, 9);
@@ -298,7 +309,16 @@ describe('getProfileCoverage', () => {
     [
       'two gaps',
       [null, 2, null, 4, null],
-      { fraction: 0.4, complete: false, firstMissingDistanceM: 0, missingRanges: [{ fromM: 0, toM: 0 }, { fromM: 200, toM: 200 }, { fromM: 400, toM: 400 }] },
+      {
+        fraction: 0.4,
+        complete: false,
+        firstMissingDistanceM: 0,
+        missingRanges: [
+          { fromM: 0, toM: 0 },
+          { fromM: 200, toM: 200 },
+          { fromM: 400, toM: 400 },
+        ],
+      },
     ],
   ])('reports %s', (_label, heights, expected) => {
     const pts = heights.map((groundM, i) => ({ distanceM: i * 100, groundM }));

@@ -34,12 +34,19 @@ describe('anonymised plan figures', () => {
     expect(kept.mast).toEqual({ id: '3', name: 'Test Hill' });
   });
 
-  it.each(['customer_position', 'distance_m', 'bearing_true_deg', 'bearing_magnetic_deg', 'bearing_from_mast_deg', 'elevation_deg', 'path_loss_db', 'terrain', 'budget'])(
-    'drop %s (with the mast position it locates the home)',
-    (key) => {
-      expect(getAnonymisedFigures(FIGURES)).not.toHaveProperty(key);
-    },
-  );
+  it.each([
+    'customer_position',
+    'distance_m',
+    'bearing_true_deg',
+    'bearing_magnetic_deg',
+    'bearing_from_mast_deg',
+    'elevation_deg',
+    'path_loss_db',
+    'terrain',
+    'budget',
+  ])('drop %s (with the mast position it locates the home)', (key) => {
+    expect(getAnonymisedFigures(FIGURES)).not.toHaveProperty(key);
+  });
 
   it('keep nothing of an empty enquiry', () => {
     expect(getAnonymisedFigures({})).toEqual({});
@@ -48,8 +55,14 @@ describe('anonymised plan figures', () => {
 
 describe('coarse position', () => {
   it.each([
-    [{ lat: -47.21234, lon: -128.56789 }, { lat: -47.2, lon: -128.6 }],
-    [{ lat: 51.4778, lon: -0.0014 }, { lat: 51.5, lon: -0 }],
+    [
+      { lat: -47.21234, lon: -128.56789 },
+      { lat: -47.2, lon: -128.6 },
+    ],
+    [
+      { lat: 51.4778, lon: -0.0014 },
+      { lat: 51.5, lon: -0 },
+    ],
   ])('rounds %o to one decimal (about 11 km, common practice)', (at, expected) => {
     const got = getCoarsePosition(at);
     expect(got.lat).toBeCloseTo(expected.lat, 9);
@@ -59,7 +72,17 @@ describe('coarse position', () => {
 
 describe('scrubbed audit values', () => {
   it('null the personal fields of a customer entry and keep the rest', () => {
-    const before = { name: 'Hester Quillan', phone: '+00 1', email: 'h@example.test', address_label: 'Alder Farm', postcode: 'KV3', lat: -47.2, lon: -128.5, notes: 'dog', current_antenna_id: '4' };
+    const before = {
+      name: 'Hester Quillan',
+      phone: '+00 1',
+      email: 'h@example.test',
+      address_label: 'Alder Farm',
+      postcode: 'KV3',
+      lat: -47.2,
+      lon: -128.5,
+      notes: 'dog',
+      current_antenna_id: '4',
+    };
     const scrubbed = getScrubbedAuditValue(before, PERSONAL_CUSTOMER_FIELDS) as Record<string, unknown>;
     for (const f of PERSONAL_CUSTOMER_FIELDS) expect(scrubbed[f]).toBeNull();
     expect(scrubbed.current_antenna_id).toBe('4');

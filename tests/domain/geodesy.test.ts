@@ -85,7 +85,16 @@ const wgs84Cases = [
   { id: 'G9', a: [64.8, 179.7], b: [64.9, -179.8], s12: 26209.39, azi1: 64.599019, back: 245.051618, haversine: 26113.951, sphBearing: 64.5722 },
   { id: 'G10', a: [89.5, 30], b: [89.6, -150], s12: 100524.56, azi1: 0, back: 0, haversine: 100075.572, sphBearing: 0 },
   { id: 'G11', a: [0, 0], b: [0, 1], s12: 111319.491, azi1: 90, back: 270, haversine: 111195.08, sphBearing: 90 },
-  { id: 'G12', a: [51.4778, -0.0015], b: [40.7128, -74.006], s12: 5594596.514, azi1: 288.470473, back: 51.245353, haversine: 5579565.617, sphBearing: 288.4313 },
+  {
+    id: 'G12',
+    a: [51.4778, -0.0015],
+    b: [40.7128, -74.006],
+    s12: 5594596.514,
+    azi1: 288.470473,
+    back: 51.245353,
+    haversine: 5579565.617,
+    sphBearing: 288.4313,
+  },
 ].map((c) => ({ ...c, from: { lat: c.a[0]!, lon: c.a[1]! }, to: { lat: c.b[0]!, lon: c.b[1]! } }));
 
 describe('distance and bearings against the WGS84 check cases', () => {
@@ -146,12 +155,9 @@ describe('Vincenty 1975 Table II lines', () => {
   });
 
   // Vincenty 1975 Table II lines (b), (c): short enough for the spherical bearing to stay within 0.5°
-  it.each(vincentyLines.filter((l) => l.line === 'b' || l.line === 'c'))(
-    'line ($line): initial bearing near the published α1',
-    ({ phi1, phi2, L, alpha1 }) => {
-      expect(bearingGap(getInitialBearing({ lat: phi1, lon: 0 }, { lat: phi2, lon: L }), alpha1)).toBeLessThan(0.5);
-    },
-  );
+  it.each(vincentyLines.filter((l) => l.line === 'b' || l.line === 'c'))('line ($line): initial bearing near the published α1', ({ phi1, phi2, L, alpha1 }) => {
+    expect(bearingGap(getInitialBearing({ lat: phi1, lon: 0 }, { lat: phi2, lon: L }), alpha1)).toBeLessThan(0.5);
+  });
 
   // Vincenty 1975 Table II: the bearing line must be drawable even for the long lines
   it.each(vincentyLines)('line ($line): bearing line starts and ends at the two points', ({ phi1, phi2, L }) => {

@@ -34,7 +34,11 @@ function fullStyle(): StyleSpecification {
       { ...REGION_LABEL_LAYER, source: REGION_SOURCE_ID } as LayerSpecification,
       { ...selectedMastLayer('7'), source: MAST_SOURCE_ID } as LayerSpecification,
       { ...MAST_LABEL_LAYER, source: MAST_SOURCE_ID } as LayerSpecification,
-      { ...MAST_SYMBOL_LAYER, source: MAST_SOURCE_ID, filter: buildMastFilter({ operators: ['1'], techs: ['nr'], bands: ['n78'], statuses: ['active'] }) } as LayerSpecification,
+      {
+        ...MAST_SYMBOL_LAYER,
+        source: MAST_SOURCE_ID,
+        filter: buildMastFilter({ operators: ['1'], techs: ['nr'], bands: ['n78'], statuses: ['active'] }),
+      } as LayerSpecification,
     ],
   };
 }
@@ -69,8 +73,7 @@ describe('mast filter', () => {
   const a = { id: 1, status: 'active', op_ids: '1,3', bands: 'B20,B3,n78', techs: 'lte,nr' };
   const b = { id: 2, status: 'planned', op_ids: '2', bands: 'B1', techs: 'lte' };
   const c = { id: 3, status: 'decommissioned', op_ids: '13', bands: 'B20', techs: 'gsm,lte' };
-  const matches = (f: MastFilterState) =>
-    [a, b, c].filter((p) => featureFilter(buildMastFilter(f)).filter({ zoom: 12 }, mast(p))).map((p) => p.id);
+  const matches = (f: MastFilterState) => [a, b, c].filter((p) => featureFilter(buildMastFilter(f)).filter({ zoom: 12 }, mast(p))).map((p) => p.id);
 
   it.each<[string, Partial<MastFilterState>, number[]]>([
     ['no filter shows every mast', {}, [1, 2, 3]],

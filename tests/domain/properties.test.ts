@@ -3,7 +3,15 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { getDestination, getDistanceM, getInitialBearing, getReverseBearing, normaliseBearing, wrap180 } from '../../src/lib/domain/geodesy';
-import { findChannelsForFrequency, getNrArfcnForFrequency, getNrArfcnFrequencyMhz, listBands, lookupChannel, NR_ARFCN_MAX, type RadioTech } from '../../src/lib/domain/channels';
+import {
+  findChannelsForFrequency,
+  getNrArfcnForFrequency,
+  getNrArfcnFrequencyMhz,
+  listBands,
+  lookupChannel,
+  NR_ARFCN_MAX,
+  type RadioTech,
+} from '../../src/lib/domain/channels';
 import { formatDecimal, formatDms, parseCoordinates } from '../../src/lib/domain/coords';
 import {
   getCableLossPerM,
@@ -38,25 +46,35 @@ describe('geodesy properties', () => {
 
   it('walks out along a bearing and finds the same bearing and distance back (spherical geometry)', () => {
     fc.assert(
-      fc.property(position, fc.double({ min: 10, max: 100_000, noNaN: true }), fc.double({ min: 0, max: 360, maxExcluded: true, noNaN: true }), (from, d, bearing) => {
-        const to = getDestination(from, d, bearing);
-        expect(getDistanceM(from, to)).toBeCloseTo(d, 3);
-        expect(angleDiff(getInitialBearing(from, to), bearing)).toBeLessThan(1e-6);
-      }),
+      fc.property(
+        position,
+        fc.double({ min: 10, max: 100_000, noNaN: true }),
+        fc.double({ min: 0, max: 360, maxExcluded: true, noNaN: true }),
+        (from, d, bearing) => {
+          const to = getDestination(from, d, bearing);
+          expect(getDistanceM(from, to)).toBeCloseTo(d, 3);
+          expect(angleDiff(getInitialBearing(from, to), bearing)).toBeLessThan(1e-6);
+        },
+      ),
       RUNS,
     );
   });
 
   it('the reverse bearing leads from the far end back to the start', () => {
     fc.assert(
-      fc.property(position, fc.double({ min: 10, max: 100_000, noNaN: true }), fc.double({ min: 0, max: 360, maxExcluded: true, noNaN: true }), (from, d, bearing) => {
-        const to = getDestination(from, d, bearing);
-        const back = getDestination(to, d, getReverseBearing(from, to));
-        expect(getDistanceM(back, from)).toBeLessThan(0.01);
-        // On a sphere the reverse bearing differs from forward + 180° only by the meridian convergence,
-        // which is at most Δlon·sin(lat) — small over 100 km below 80°.
-        expect(angleDiff(getReverseBearing(from, to), bearing + 180)).toBeLessThan(6);
-      }),
+      fc.property(
+        position,
+        fc.double({ min: 10, max: 100_000, noNaN: true }),
+        fc.double({ min: 0, max: 360, maxExcluded: true, noNaN: true }),
+        (from, d, bearing) => {
+          const to = getDestination(from, d, bearing);
+          const back = getDestination(to, d, getReverseBearing(from, to));
+          expect(getDistanceM(back, from)).toBeLessThan(0.01);
+          // On a sphere the reverse bearing differs from forward + 180° only by the meridian convergence,
+          // which is at most Δlon·sin(lat) — small over 100 km below 80°.
+          expect(angleDiff(getReverseBearing(from, to), bearing + 180)).toBeLessThan(6);
+        },
+      ),
       RUNS,
     );
   });
@@ -222,9 +240,14 @@ describe('terrain properties', () => {
 
   it('the Fresnel radius is the same from either end (ITU-R P.526 §2)', () => {
     fc.assert(
-      fc.property(fc.double({ min: 1, max: 1e5, noNaN: true }), fc.double({ min: 1, max: 1e5, noNaN: true }), fc.double({ min: 30, max: 1e5, noNaN: true }), (d1, d2, f) => {
-        expect(getFresnelRadiusM(d1, d2, f)).toBeCloseTo(getFresnelRadiusM(d2, d1, f), 9);
-      }),
+      fc.property(
+        fc.double({ min: 1, max: 1e5, noNaN: true }),
+        fc.double({ min: 1, max: 1e5, noNaN: true }),
+        fc.double({ min: 30, max: 1e5, noNaN: true }),
+        (d1, d2, f) => {
+          expect(getFresnelRadiusM(d1, d2, f)).toBeCloseTo(getFresnelRadiusM(d2, d1, f), 9);
+        },
+      ),
       RUNS,
     );
   });
@@ -270,8 +293,20 @@ describe('terrain properties', () => {
   it('gives the same answer whichever end the profile starts from', () => {
     fc.assert(
       fc.property(profile, (p) => {
-        const forward = analysePathProfile({ samples: samplesOf(p.grounds, p.stepM), txHeightM: p.txHeightM, rxHeightM: p.rxHeightM, freqMhz: p.freqMhz, diffractionMethod: p.method });
-        const reversed = analysePathProfile({ samples: samplesOf([...p.grounds].reverse(), p.stepM), txHeightM: p.rxHeightM, rxHeightM: p.txHeightM, freqMhz: p.freqMhz, diffractionMethod: p.method });
+        const forward = analysePathProfile({
+          samples: samplesOf(p.grounds, p.stepM),
+          txHeightM: p.txHeightM,
+          rxHeightM: p.rxHeightM,
+          freqMhz: p.freqMhz,
+          diffractionMethod: p.method,
+        });
+        const reversed = analysePathProfile({
+          samples: samplesOf([...p.grounds].reverse(), p.stepM),
+          txHeightM: p.rxHeightM,
+          rxHeightM: p.txHeightM,
+          freqMhz: p.freqMhz,
+          diffractionMethod: p.method,
+        });
         expect(reversed.diffractionLossDb).toBeCloseTo(forward.diffractionLossDb, 6);
         expect(reversed.classification).toBe(forward.classification);
       }),

@@ -2,14 +2,37 @@ import { describe, expect, it } from 'vitest';
 import { buildSampleReadingCsv, checkReadingCsvHeader, checkReadingCsvRow, READING_CSV_COLUMNS } from '../../src/lib/domain/reading-csv';
 
 const NOW = new Date('2026-12-01T12:00:00Z');
-const base = { time: '2026-11-30T09:15:02Z', lat: '-47.21', lon: '-128.51', tech: 'lte', channel: '6300', pci: '101', rsrp_dbm: '-97', rsrq_db: '-11.5', sinr_db: '8' };
+const base = {
+  time: '2026-11-30T09:15:02Z',
+  lat: '-47.21',
+  lon: '-128.51',
+  tech: 'lte',
+  channel: '6300',
+  pci: '101',
+  rsrp_dbm: '-97',
+  rsrq_db: '-11.5',
+  sinr_db: '8',
+};
 
 describe('survey-log CSV rows', () => {
   it('types a good LTE row', () => {
     const r = checkReadingCsvRow({ ...base, mcc: '001', mnc: '01', height_m: '1.5' }, NOW);
     expect(r).toEqual({
       ok: true,
-      row: expect.objectContaining({ takenAt: new Date('2026-11-30T09:15:02Z'), lat: -47.21, lon: -128.51, tech: 'lte', channel: 6300, pci: 101, rsrpDbm: -97, rsrqDb: -11.5, sinrDb: 8, mcc: '001', mnc: '01', heightM: 1.5 }),
+      row: expect.objectContaining({
+        takenAt: new Date('2026-11-30T09:15:02Z'),
+        lat: -47.21,
+        lon: -128.51,
+        tech: 'lte',
+        channel: 6300,
+        pci: 101,
+        rsrpDbm: -97,
+        rsrqDb: -11.5,
+        sinrDb: 8,
+        mcc: '001',
+        mnc: '01',
+        heightM: 1.5,
+      }),
     });
   });
 

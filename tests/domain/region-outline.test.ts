@@ -17,7 +17,13 @@ describe('pixel tolerance', () => {
 });
 
 describe('vertex count', () => {
-  const square = [[0, 0], [1, 0], [1, 1], [0, 1], [0, 0]];
+  const square = [
+    [0, 0],
+    [1, 0],
+    [1, 1],
+    [0, 1],
+    [0, 0],
+  ];
   it('counts every ring of a polygon, closing positions included', () => {
     expect(countVertices({ type: 'Polygon', coordinates: [square, square.slice(0, 4).concat([[0, 0]])] })).toBe(10);
   });

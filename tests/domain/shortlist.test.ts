@@ -1,5 +1,14 @@
 import { describe, expect, it } from 'vitest';
-import { assessLinkQuality, evaluateCandidate, getRankScore, rankShortlist, DEFAULT_EXCESS_LOSS_DB, type CandidateCell, type Kit, type ShortlistSettings } from '../../src/lib/domain/shortlist';
+import {
+  assessLinkQuality,
+  evaluateCandidate,
+  getRankScore,
+  rankShortlist,
+  DEFAULT_EXCESS_LOSS_DB,
+  type CandidateCell,
+  type Kit,
+  type ShortlistSettings,
+} from '../../src/lib/domain/shortlist';
 import { shrinkCalibration } from '../../src/lib/domain/calibration';
 import { getDestination, getDistanceM } from '../../src/lib/domain/geodesy';
 import { getFreeSpacePathLossDb } from '../../src/lib/domain/link-budget';
@@ -30,19 +39,48 @@ const cell = (id: string, pos: typeof customer, azimuth: number, overrides: Part
   ...overrides,
 });
 
-const flat = (lengthM: number, n = 30): ProfileSample[] =>
-  Array.from({ length: n + 1 }, (_, i) => ({ distanceM: (lengthM * i) / n, groundM: 100 }));
+const flat = (lengthM: number, n = 30): ProfileSample[] => Array.from({ length: n + 1 }, (_, i) => ({ distanceM: (lengthM * i) / n, groundM: 100 }));
 const ridge = (lengthM: number, n = 30): ProfileSample[] =>
   flat(lengthM, n).map((s) => (Math.abs(s.distanceM - lengthM / 2) <= lengthM / n ? { ...s, groundM: 160 } : s));
 
 // Common-practice demo kit: 8 dBi panel, 0.35 dB/m cable, 2 dBi stub for "before".
 const kit: Kit = {
-  antenna: { id: 'a1', name: 'Panel', gainTable: [{ freqMhz: 700, gainDbi: 8 }, { freqMhz: 2700, gainDbi: 8 }], horizontalBeamwidthDeg: 40 },
-  cable: { id: 'c1', name: 'Cable', lossTable: [{ freqMhz: 700, dbPerM: 0.35 }, { freqMhz: 2700, dbPerM: 0.35 }], connectorLossDb: 0.15, connectors: 2 },
+  antenna: {
+    id: 'a1',
+    name: 'Panel',
+    gainTable: [
+      { freqMhz: 700, gainDbi: 8 },
+      { freqMhz: 2700, gainDbi: 8 },
+    ],
+    horizontalBeamwidthDeg: 40,
+  },
+  cable: {
+    id: 'c1',
+    name: 'Cable',
+    lossTable: [
+      { freqMhz: 700, dbPerM: 0.35 },
+      { freqMhz: 2700, dbPerM: 0.35 },
+    ],
+    connectorLossDb: 0.15,
+    connectors: 2,
+  },
   cableM: 10,
   mountHeightM: 10,
 };
-const stub: Kit = { antenna: { id: 'a0', name: 'Stub', gainTable: [{ freqMhz: 700, gainDbi: 2 }, { freqMhz: 2700, gainDbi: 2 }], horizontalBeamwidthDeg: null }, cable: null, cableM: 0, mountHeightM: 2 };
+const stub: Kit = {
+  antenna: {
+    id: 'a0',
+    name: 'Stub',
+    gainTable: [
+      { freqMhz: 700, gainDbi: 2 },
+      { freqMhz: 2700, gainDbi: 2 },
+    ],
+    horizontalBeamwidthDeg: null,
+  },
+  cable: null,
+  cableM: 0,
+  mountHeightM: 2,
+};
 
 const settings: ShortlistSettings = { customer, customerGroundM: 100, date: new Date('2026-06-01T00:00:00Z'), kit, currentKit: stub };
 
@@ -73,7 +111,7 @@ describe('shortlist', () => {
     expect(north.sectorOffsetDeg).toBeCloseTo(0, 3);
     // Turf's east destination follows the great circle, so the bearing back is close to 270°.
     expect(Math.abs(east.bearingTrueDeg - 90)).toBeLessThan(0.1);
-    expect(east.bearingMagneticDeg).toBeCloseTo(((east.bearingTrueDeg - east.declinationDeg) % 360 + 360) % 360, 9);
+    expect(east.bearingMagneticDeg).toBeCloseTo((((east.bearingTrueDeg - east.declinationDeg) % 360) + 360) % 360, 9);
   });
 
   it('sums the link budget of the shortlist model for a clear path', () => {
@@ -100,11 +138,19 @@ describe('shortlist', () => {
   });
 
   it('applies calibration and the preferred operator to the rank', () => {
-    const calibrated = evaluateCandidate(cell('N', northMast, 180), { profile: ridge(6000), calibration: shrinkCalibration({ count: 12, medianDb: 18.5, spreadDb: 2 }) }, settings);
+    const calibrated = evaluateCandidate(
+      cell('N', northMast, 180),
+      { profile: ridge(6000), calibration: shrinkCalibration({ count: 12, medianDb: 18.5, spreadDb: 2 }) },
+      settings,
+    );
     expect(calibrated.predictedRsrpDbm - north.predictedRsrpDbm).toBeCloseTo(calibrated.calibration!.offsetDb, 9);
     expect(calibrated.calibration!.offsetDb).toBeGreaterThan(18);
     const preferNorth = { ...settings, preferredOperatorId: '2' };
-    const n2 = evaluateCandidate(cell('N', northMast, 180, { operatorId: '2' }), { profile: ridge(6000), calibration: null }, { ...preferNorth, operatorPreferenceDb: 40 });
+    const n2 = evaluateCandidate(
+      cell('N', northMast, 180, { operatorId: '2' }),
+      { profile: ridge(6000), calibration: null },
+      { ...preferNorth, operatorPreferenceDb: 40 },
+    );
     const e2 = evaluateCandidate(cell('E', eastMast, 270, { antennaHeightM: 45 }), { profile: flat(11_000), calibration: null }, preferNorth);
     expect(rankShortlist([e2, n2])[0].cell.cellId).toBe('N');
   });
@@ -127,7 +173,7 @@ describe('SINR, throughput and the rank score', () => {
   const entries = [edgeA, edgeB, clean].map((c) => evaluateCandidate(c, { profile: null, calibration: null }, settings));
   const assessed = assessLinkQuality(entries, { sinr: { neighbourLoad: 1 } });
 
-  it('counts only the same operator\'s cells on the same channel as interference', () => {
+  it("counts only the same operator's cells on the same channel as interference", () => {
     const [a, b, c] = assessed;
     expect(a!.interferers).toBe(1);
     expect(b!.interferers).toBe(1);
@@ -153,7 +199,18 @@ describe('SINR, throughput and the rank score', () => {
   });
 
   it('warns when the feeder loses more than the antenna gains and when the kit is worse than today', () => {
-    const stubOnFeeder: Kit = { ...kit, antenna: { ...kit.antenna, name: 'Stub', gainTable: [{ freqMhz: 700, gainDbi: 2 }, { freqMhz: 2700, gainDbi: 2 }] }, cableM: 25 };
+    const stubOnFeeder: Kit = {
+      ...kit,
+      antenna: {
+        ...kit.antenna,
+        name: 'Stub',
+        gainTable: [
+          { freqMhz: 700, gainDbi: 2 },
+          { freqMhz: 2700, gainDbi: 2 },
+        ],
+      },
+      cableM: 25,
+    };
     const e = evaluateCandidate(cell('E', eastMast, 270), { profile: null, calibration: null }, { ...settings, kit: stubOnFeeder });
     // 25 m × 0.35 dB/m + 2 × 0.15 dB = 9.05 dB > 2 dBi (common-practice cable figure)
     expect(e.warnings.join(' ')).toMatch(/loses 9\.1 dB .* more than Stub gains/);
@@ -161,4 +218,3 @@ describe('SINR, throughput and the rank score', () => {
     expect(e.warnings.join(' ')).toMatch(/less than Stub: the install would make the signal worse/);
   });
 });
-

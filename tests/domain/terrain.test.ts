@@ -250,10 +250,7 @@ describe('analysePathProfile', () => {
     expect(single.edges.map((e) => e.distanceM)).toEqual([3000]);
     expect(single.diffractionLossDb).toBeCloseTo(getKnifeEdgeLossDb(main), 9);
     expect(deygout.edges.map((e) => e.distanceM)).toEqual([1000, 3000, 7000]);
-    expect(deygout.diffractionLossDb).toBeCloseTo(
-      getKnifeEdgeLossDb(main) + getKnifeEdgeLossDb(right) + getKnifeEdgeLossDb(left),
-      9,
-    );
+    expect(deygout.diffractionLossDb).toBeCloseTo(getKnifeEdgeLossDb(main) + getKnifeEdgeLossDb(right) + getKnifeEdgeLossDb(left), 9);
     expect(deygout.diffractionLossDb).toBeGreaterThan(single.diffractionLossDb);
   });
 
@@ -274,9 +271,27 @@ describe('analysePathProfile', () => {
 
   it.each([
     [[{ distanceM: 0, groundM: 0 }], /at least two/],
-    [[{ distanceM: 10, groundM: 0 }, { distanceM: 20, groundM: 0 }], /distance 0/],
-    [[{ distanceM: 0, groundM: 0 }, { distanceM: 0, groundM: 0 }], /must increase/],
-    [[{ distanceM: 0, groundM: 0 }, { distanceM: 10, groundM: Number.NaN }], /ground height/],
+    [
+      [
+        { distanceM: 10, groundM: 0 },
+        { distanceM: 20, groundM: 0 },
+      ],
+      /distance 0/,
+    ],
+    [
+      [
+        { distanceM: 0, groundM: 0 },
+        { distanceM: 0, groundM: 0 },
+      ],
+      /must increase/,
+    ],
+    [
+      [
+        { distanceM: 0, groundM: 0 },
+        { distanceM: 10, groundM: Number.NaN },
+      ],
+      /ground height/,
+    ],
   ])('rejects a malformed profile %#', (samples, message) => {
     expect(() => analysePathProfile({ samples, txHeightM: 5, rxHeightM: 30, freqMhz: 800 })).toThrow(message);
   });

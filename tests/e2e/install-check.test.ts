@@ -44,7 +44,12 @@ describe('install checks', () => {
     const form = page.locator("form[aria-label='Record an install check']");
     await form.getByLabel('RSRP dBm').fill('-20');
     await form.getByRole('button', { name: 'Save after check' }).click();
-    await expect(form.locator('.field-error', { hasText: /RSRP must be between/ }).first().innerText()).resolves.toMatch(/−156 and −31 dBm/);
+    await expect(
+      form
+        .locator('.field-error', { hasText: /RSRP must be between/ })
+        .first()
+        .innerText(),
+    ).resolves.toMatch(/−156 and −31 dBm/);
     await page.close();
   });
 

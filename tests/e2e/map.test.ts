@@ -82,7 +82,9 @@ async function renderedMasts(page: Page): Promise<RenderedMast[]> {
         id,
         name: String(p.name),
         status: String(p.status),
-        opIds: String(p.op_ids ?? '').split(',').filter(Boolean),
+        opIds: String(p.op_ids ?? '')
+          .split(',')
+          .filter(Boolean),
         x: rect.left + pt.x,
         y: rect.top + pt.y,
       });
@@ -196,7 +198,10 @@ describe('mast map', () => {
       const before = await page.evaluate(() => window.bearlineMap!.getZoom());
       await page.keyboard.press('/');
       await page.keyboard.type(label.slice(0, 5));
-      await page.getByRole('option', { name: new RegExp(label) }).first().waitFor();
+      await page
+        .getByRole('option', { name: new RegExp(label) })
+        .first()
+        .waitFor();
       await page.keyboard.press('ArrowDown');
       await page.keyboard.press('ArrowUp');
       await page.keyboard.press('Enter');

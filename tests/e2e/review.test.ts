@@ -18,13 +18,15 @@ afterAll(async () => {
 });
 
 // About 700 m north-east of Sorrel Farm (Quarrendale), where the demo map has no mast within 4 km.
-const SITE = { lat: -47.0960, lon: -128.4880 };
+const SITE = { lat: -47.096, lon: -128.488 };
 const MAST_NAME = `Quarren Lane monopole ${Date.now().toString(36)}`;
 
 async function submitSighting(cookie: string): Promise<string> {
   const ops = await (await appFetch('/api/operators', { cookie })).json();
   const operator = ops.items[0];
-  const photo = await sharp({ create: { width: 96, height: 64, channels: 3, background: { r: 120, g: 140, b: 160 } } }).jpeg().toBuffer();
+  const photo = await sharp({ create: { width: 96, height: 64, channels: 3, background: { r: 120, g: 140, b: 160 } } })
+    .jpeg()
+    .toBuffer();
   const form = new FormData();
   form.set(
     'sighting',

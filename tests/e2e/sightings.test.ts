@@ -14,7 +14,16 @@ afterAll(async () => {
 });
 
 interface Mine {
-  items: Array<{ id: string; status: string; lat: number; lon: number; structure_type: string; photos: unknown[]; cells: Array<{ pci: number | null }>; position_source: string }>;
+  items: Array<{
+    id: string;
+    status: string;
+    lat: number;
+    lon: number;
+    structure_type: string;
+    photos: unknown[];
+    cells: Array<{ pci: number | null }>;
+    position_source: string;
+  }>;
 }
 
 async function phone(): Promise<{ context: BrowserContext; page: Page }> {

@@ -18,7 +18,9 @@ describe('signing in through the form', () => {
     const outside = watchOutsideRequests(page);
     await signIn(page, demoEmail(role));
     expect(new URL(page.url()).pathname).toBe('/');
-    await expect(page.locator('[data-testid=whoami]').innerText()).resolves.toContain(role === 'admin' ? 'Admin' : role.charAt(0).toUpperCase() + role.slice(1));
+    await expect(page.locator('[data-testid=whoami]').innerText()).resolves.toContain(
+      role === 'admin' ? 'Admin' : role.charAt(0).toUpperCase() + role.slice(1),
+    );
     const links = await page.locator('nav[aria-label=Main] a').allInnerTexts();
     expect(links).toEqual(headerNavigationFor(role).map((n) => n.label));
     if (role === 'admin') await page.screenshot({ path: 'test-results/home-admin.png' });

@@ -8,7 +8,11 @@ export const TEST_PASSWORD = 'correct horse battery';
 
 export async function makeUser(role: Role, overrides: Partial<{ email: string; name: string }> = {}): Promise<User> {
   n += 1;
-  return createUser(testDb(), { email: overrides.email ?? `${role}${n}@example.test`, name: overrides.name ?? `Test ${role} ${n}`, role, password: TEST_PASSWORD }, null);
+  return createUser(
+    testDb(),
+    { email: overrides.email ?? `${role}${n}@example.test`, name: overrides.name ?? `Test ${role} ${n}`, role, password: TEST_PASSWORD },
+    null,
+  );
 }
 
 export function asSessionUser(u: User): SessionUser {

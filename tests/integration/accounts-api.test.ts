@@ -138,7 +138,9 @@ describe('sign-up with a confirmation link', () => {
 
   it('throttles sign-ups per IP address', async () => {
     for (let i = 0; i < 20; i += 1) {
-      expect((await call(signup, { clientAddress: '192.0.2.7', json: { name: 'X', email: freshEmail('ip'), password: 'a long enough password' } })).status).toBe(202);
+      expect(
+        (await call(signup, { clientAddress: '192.0.2.7', json: { name: 'X', email: freshEmail('ip'), password: 'a long enough password' } })).status,
+      ).toBe(202);
     }
     const blocked = await call(signup, { clientAddress: '192.0.2.7', json: { name: 'X', email: freshEmail('ip'), password: 'a long enough password' } });
     expect(blocked.status).toBe(429);
@@ -195,7 +197,9 @@ describe('password reset by e-mail', () => {
     const user = await makeUser('planner', { email: freshEmail('slow') });
     await callFrom(forgot, { json: { email: user.email } });
     const token = linkToken((await waitForMailTo(user.email))[0]!.text, '/reset');
-    await testDb()('account_tokens').where({ user_id: user.id }).update({ expires_at: new Date(Date.now() - 1) });
+    await testDb()('account_tokens')
+      .where({ user_id: user.id })
+      .update({ expires_at: new Date(Date.now() - 1) });
     const res = await call(reset, { json: { token, password: NEW_PASSWORD } });
     expect(res.status).toBe(400);
     expect(res.body.error.message).toMatch(/expired/);
@@ -253,7 +257,9 @@ describe('invitations', () => {
     const email = freshEmail('again');
     const created = await call(inviteUser, { user: admin, json: { email, name: 'Again', role: 'planner' } });
     const oldToken = linkToken((await mailTo(email))[0]!.text, '/reset');
-    await testDb()('account_tokens').where({ user_id: created.body.id }).update({ expires_at: new Date(Date.now() - 1) });
+    await testDb()('account_tokens')
+      .where({ user_id: created.body.id })
+      .update({ expires_at: new Date(Date.now() - 1) });
     const list = await call(listUsers, { user: admin });
     expect(list.body.items.find((u: { id: string }) => u.id === created.body.id).invite).toBe('expired');
 

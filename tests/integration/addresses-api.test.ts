@@ -161,9 +161,14 @@ describe('addresses API', () => {
   it('refuses other file types (415) and files over the configured limit (413)', async () => {
     const admin = asSessionUser(await makeUser('admin'));
     expect((await call(importAddresses, { user: admin, ...multipart('x', 'photo.png', 'image/png') })).status).toBe(415);
-    expect((await call(importAddresses, { user: admin, ...multipart('x', 'book.xlsx', 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet') })).status).toBe(415);
+    expect(
+      (await call(importAddresses, { user: admin, ...multipart('x', 'book.xlsx', 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet') }))
+        .status,
+    ).toBe(415);
     expect((await call(importAddresses, { user: admin, json: { label: 'x' } })).status).toBe(415);
-    expect((await call(importAddresses, { user: admin, ...multipart(new Uint8Array([0x50, 0x4b, 0, 0]) as Uint8Array<ArrayBuffer>, 'sheet.csv') })).status).toBe(415);
+    expect(
+      (await call(importAddresses, { user: admin, ...multipart(new Uint8Array([0x50, 0x4b, 0, 0]) as Uint8Array<ArrayBuffer>, 'sheet.csv') })).status,
+    ).toBe(415);
     const big = 'label,postcode,lat,lon\n' + 'Long Lane Farm,KV1 1AA,-47.2,-128.5\n'.repeat(Math.ceil(LIMIT / 36) + 10);
     const multi = await call(importAddresses, { user: admin, ...multipart(big) });
     expect(multi.status).toBe(413);

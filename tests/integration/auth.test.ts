@@ -73,7 +73,9 @@ describe('sessions', () => {
     const u = await makeUser('planner');
     const session = await lucia.createSession(u.id, {});
     expect((await lucia.validateSession(session.id)).user?.id).toBe(u.id);
-    await testDb()('sessions').where({ id: session.id }).update({ expires_at: new Date(Date.now() - 1000) });
+    await testDb()('sessions')
+      .where({ id: session.id })
+      .update({ expires_at: new Date(Date.now() - 1000) });
     const after = await lucia.validateSession(session.id);
     expect(after.session).toBeNull();
     expect(after.user).toBeNull();

@@ -252,7 +252,9 @@ describe('the access table', () => {
 
   it('names nothing that does not exist', () => {
     const stale = Object.entries(ACCESS).flatMap(([file, methods]) =>
-      Object.keys(methods).filter((m) => !routes.get(file)?.includes(m)).map((m) => `${m} ${file}`),
+      Object.keys(methods)
+        .filter((m) => !routes.get(file)?.includes(m))
+        .map((m) => `${m} ${file}`),
     );
     expect(stale).toEqual([]);
   });

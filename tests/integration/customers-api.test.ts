@@ -66,7 +66,10 @@ describe('customers API', () => {
 
   it('creates a customer, normalising contact details, audited', async () => {
     const { operatorId, antennaId } = await seedOperatorAndAntenna();
-    const res = await call(createCustomer, { user: planner, json: { ...ALDER, current_operator_id: operatorId, current_antenna_id: Number(antennaId), notes: ' ' } });
+    const res = await call(createCustomer, {
+      user: planner,
+      json: { ...ALDER, current_operator_id: operatorId, current_antenna_id: Number(antennaId), notes: ' ' },
+    });
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({
       name: 'Hester Quillan',
@@ -102,8 +105,14 @@ describe('customers API', () => {
 
   it('searches by name, address, postcode, e-mail or phone digits, and sorts', async () => {
     await call(createCustomer, { user: planner, json: ALDER });
-    await call(createCustomer, { user: planner, json: { ...ALDER, name: 'Ansel Brack', email: null, phone: '00 1632 960 999', address_label: 'Low Mill, Quarren Lane', postcode: 'QD2 7XB' } });
-    await call(createCustomer, { user: planner, json: { ...ALDER, name: 'Zora Penhallow', email: 'zora@example.test', phone: null, address_label: '4 Harbour Row', postcode: null } });
+    await call(createCustomer, {
+      user: planner,
+      json: { ...ALDER, name: 'Ansel Brack', email: null, phone: '00 1632 960 999', address_label: 'Low Mill, Quarren Lane', postcode: 'QD2 7XB' },
+    });
+    await call(createCustomer, {
+      user: planner,
+      json: { ...ALDER, name: 'Zora Penhallow', email: 'zora@example.test', phone: null, address_label: '4 Harbour Row', postcode: null },
+    });
     const q = async (query: string) => (await call(listCustomers, { user: planner, url: `/api/customers?${query}` })).body;
     expect((await q('q=quarren')).items.map((c: { name: string }) => c.name)).toEqual(['Ansel Brack']);
     expect((await q('q=kv3')).total).toBe(1);

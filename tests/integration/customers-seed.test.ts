@@ -46,7 +46,9 @@ describe('demo catalogue, gazetteer and customers', () => {
     expect(rows.length).toBeGreaterThanOrEqual(300);
     expect(rows.length).toBeLessThanOrEqual(600);
     for (const r of rows) expect(r.postcode).toMatch(/^[A-Z]{3}-\d{4}$/);
-    const bounds = await testDb()('basemap_land').first(testDb().raw('ST_XMin(ST_Extent(geom)) AS w, ST_XMax(ST_Extent(geom)) AS e, ST_YMin(ST_Extent(geom)) AS s, ST_YMax(ST_Extent(geom)) AS n'));
+    const bounds = await testDb()('basemap_land').first(
+      testDb().raw('ST_XMin(ST_Extent(geom)) AS w, ST_XMax(ST_Extent(geom)) AS e, ST_YMin(ST_Extent(geom)) AS s, ST_YMax(ST_Extent(geom)) AS n'),
+    );
     for (const r of rows) {
       expect(r.lon).toBeGreaterThan(bounds.w);
       expect(r.lon).toBeLessThan(bounds.e);

@@ -122,7 +122,12 @@ describe('deleting catalogue kit', () => {
       .insert({ name: 'Router stub', kind: 'stub', ports: 2, horizontal_beamwidth_deg: 360, gain_table: JSON.stringify([{ freq_mhz: 800, gain_dbi: 2 }]) })
       .returning('id');
     const [customer] = await db('customers')
-      .insert({ name: 'Test customer', address_label: 'Test farm', current_antenna_id: antenna.id, geom: db.raw('ST_SetSRID(ST_MakePoint(-128.5, -47.2), 4326)') })
+      .insert({
+        name: 'Test customer',
+        address_label: 'Test farm',
+        current_antenna_id: antenna.id,
+        geom: db.raw('ST_SetSRID(ST_MakePoint(-128.5, -47.2), 4326)'),
+      })
       .returning('id');
     const res = await call(deleteAntenna, { method: 'DELETE', user: admin, params: { id: String(antenna.id) } });
     expect(res.status).toBe(409);

@@ -14,9 +14,18 @@ import { asSessionUser, makeUser } from '../helpers/factories';
 
 /** 4 × 3 float32 cells over 7.0…7.4° E, 45.0…45.3° N (0.1° cells, PixelIsArea), values by hand. */
 const CELLS = new Float32Array([
-  100, 110, 120, 130, // row centred on 45.25° N
-  200, 210, 220, 230, // 45.15° N
-  300, 310, -9999, 330, // 45.05° N, one void
+  100,
+  110,
+  120,
+  130, // row centred on 45.25° N
+  200,
+  210,
+  220,
+  230, // 45.15° N
+  300,
+  310,
+  -9999,
+  330, // 45.05° N, one void
 ]);
 
 function geoTiff(values: Float32Array, width: number, height: number, extra: Partial<GeotiffWriterMetadata> = {}): Uint8Array {
@@ -134,7 +143,16 @@ describe('elevation API', () => {
     const user = await admin();
     const res = await call(uploadGrid, { user, body: multipart('S48W129.hgt', hgtTile()) });
     expect(res.status).toBe(201);
-    expect(res.body).toMatchObject({ format: 'hgt', width: 1201, height: 1201, registration: 'point', sample_type: 'int16', nodata: -32768, nodata_count: 1, bbox: [-129, -48, -128, -47] });
+    expect(res.body).toMatchObject({
+      format: 'hgt',
+      width: 1201,
+      height: 1201,
+      registration: 'point',
+      sample_type: 'int16',
+      nodata: -32768,
+      nodata_count: 1,
+      bbox: [-129, -48, -128, -47],
+    });
     const at = async (lat: number, lon: number) => (await call(sampleAt, { user, url: `/api/elevation/sample?lat=${lat}&lon=${lon}` })).body.height_m;
     expect(await at(-47.5, -129 + 300 / 1200)).toBe(300);
     expect(await at(-47.5, -128)).toBe(1200);
@@ -193,7 +211,10 @@ describe('elevation API', () => {
     [
       'a TIFF without georeferencing',
       'plain.tif',
-      () => new Uint8Array(writeArrayBuffer(CELLS, { width: 4, height: 3, ProjectedCSTypeGeoKey: undefined, GeographicTypeGeoKey: undefined, ModelPixelScale: [1, 1, 0] })),
+      () =>
+        new Uint8Array(
+          writeArrayBuffer(CELLS, { width: 4, height: 3, ProjectedCSTypeGeoKey: undefined, GeographicTypeGeoKey: undefined, ModelPixelScale: [1, 1, 0] }),
+        ),
       /no georeferencing/,
     ],
     [

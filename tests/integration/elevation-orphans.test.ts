@@ -19,8 +19,20 @@ describe('orphaned elevation samples files', () => {
     utimesSync(join(folder, '.stale.f32.1.1.part'), hourAgo, hourAgo);
     const db = testDb();
     await db('elevation_grids').insert({
-      name: 'used.tif', format: 'geotiff', sha256: 'a'.repeat(64), byte_size: 1, width: 2, height: 2, registration: 'point',
-      west: 0, south: 0, east: 1, north: 1, sample_type: 'float32', samples_file: 'used.f32', samples_sha256: 'b'.repeat(64),
+      name: 'used.tif',
+      format: 'geotiff',
+      sha256: 'a'.repeat(64),
+      byte_size: 1,
+      width: 2,
+      height: 2,
+      registration: 'point',
+      west: 0,
+      south: 0,
+      east: 1,
+      north: 1,
+      sample_type: 'float32',
+      samples_file: 'used.f32',
+      samples_sha256: 'b'.repeat(64),
       bounds: db.raw('ST_MakeEnvelope(0, 0, 1, 1, 4326)'),
     });
     expect(await removeOrphanSampleFiles(db, dataDir)).toEqual(['.stale.f32.1.1.part', 'orphan.f32']);

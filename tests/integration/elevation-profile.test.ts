@@ -88,7 +88,10 @@ describe('demo elevation seed', () => {
     expect(rows[0].max_m).toBeGreaterThan(300);
     expect(rows[0].min_m).toBe(0);
     // A node three columns and four rows in from the north-west corner, and one well inland.
-    for (const [r, c] of [[4, 3], [Math.floor(rows[0].height / 2), Math.floor(rows[0].width / 2)]] as const) {
+    for (const [r, c] of [
+      [4, 3],
+      [Math.floor(rows[0].height / 2), Math.floor(rows[0].width / 2)],
+    ] as const) {
       const lat = rows[0].north - r / 1200;
       const lon = rows[0].west + c / 1200;
       const { heightM } = await getElevationAt({ lat, lon });

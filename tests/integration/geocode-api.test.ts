@@ -48,7 +48,14 @@ describe('geocode API', () => {
   it('ranks the closest label first, with the response shape the planner uses', async () => {
     const res = await search('mill farm');
     expect(res.status).toBe(200);
-    expect(res.body.items[0]).toEqual({ label: 'Mill Farm, Crake Lane, Kelvarrow', postcode: 'KV3 2PL', lat: -47.21, lon: -128.52, score: expect.any(Number), kind: 'address' });
+    expect(res.body.items[0]).toEqual({
+      label: 'Mill Farm, Crake Lane, Kelvarrow',
+      postcode: 'KV3 2PL',
+      lat: -47.21,
+      lon: -128.52,
+      score: expect.any(Number),
+      kind: 'address',
+    });
     expect(res.body.total).toBe(res.body.items.length);
     const scores = res.body.items.map((i: { score: number }) => i.score);
     expect(scores).toEqual([...scores].sort((a, b) => b - a));

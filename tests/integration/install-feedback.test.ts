@@ -18,15 +18,45 @@ beforeEach(async () => {
   planner = asSessionUser(await makeUser('planner'));
   const db = testDb();
   const [op] = await db('operators').insert({ name: 'Test Mobile', mcc: '001', mnc: '01', colour: '#336699' }).returning('id');
-  const [mast] = await db('masts').insert({ name: 'Test Hill', geom: db.raw('ST_SetSRID(ST_MakePoint(-128.5, -47.1), 4326)'), ground_elevation_m: 50 }).returning('id');
-  const [cell] = await db('cells')
-    .insert({ mast_id: mast.id, operator_id: op.id, tech: 'lte', band: 'B20', channel: 6300, dl_mhz: 806, pci: 101, sector_azimuth_deg: 180, antenna_height_m: 30 })
+  const [mast] = await db('masts')
+    .insert({ name: 'Test Hill', geom: db.raw('ST_SetSRID(ST_MakePoint(-128.5, -47.1), 4326)'), ground_elevation_m: 50 })
     .returning('id');
-  const flat = (g: number) => JSON.stringify([{ freq_mhz: 700, gain_dbi: g }, { freq_mhz: 2700, gain_dbi: g }]);
-  const [ant] = await db('antennas').insert({ name: 'Panel', kind: 'directional', ports: 2, horizontal_beamwidth_deg: 40, gain_table: flat(8) }).returning('id');
+  const [cell] = await db('cells')
+    .insert({
+      mast_id: mast.id,
+      operator_id: op.id,
+      tech: 'lte',
+      band: 'B20',
+      channel: 6300,
+      dl_mhz: 806,
+      pci: 101,
+      sector_azimuth_deg: 180,
+      antenna_height_m: 30,
+    })
+    .returning('id');
+  const flat = (g: number) =>
+    JSON.stringify([
+      { freq_mhz: 700, gain_dbi: g },
+      { freq_mhz: 2700, gain_dbi: g },
+    ]);
+  const [ant] = await db('antennas')
+    .insert({ name: 'Panel', kind: 'directional', ports: 2, horizontal_beamwidth_deg: 40, gain_table: flat(8) })
+    .returning('id');
   await db('antennas').insert({ name: 'Stub', kind: 'stub', ports: 1, horizontal_beamwidth_deg: 360, gain_table: flat(2) });
-  const [cable] = await db('cables').insert({ name: 'Feeder', loss_table: JSON.stringify([{ freq_mhz: 700, loss_db_per_m: 0.2 }, { freq_mhz: 2700, loss_db_per_m: 0.2 }]), connector_loss_db: 0.15, connectors: 2 }).returning('id');
-  const [cust] = await db('customers').insert({ name: 'Test Customer', address_label: 'Alder Farm', geom: db.raw('ST_SetSRID(ST_MakePoint(-128.52, -47.21), 4326)') }).returning('id');
+  const [cable] = await db('cables')
+    .insert({
+      name: 'Feeder',
+      loss_table: JSON.stringify([
+        { freq_mhz: 700, loss_db_per_m: 0.2 },
+        { freq_mhz: 2700, loss_db_per_m: 0.2 },
+      ]),
+      connector_loss_db: 0.15,
+      connectors: 2,
+    })
+    .returning('id');
+  const [cust] = await db('customers')
+    .insert({ name: 'Test Customer', address_label: 'Alder Farm', geom: db.raw('ST_SetSRID(ST_MakePoint(-128.52, -47.21), 4326)') })
+    .returning('id');
   Object.assign(ids, { cell: String(cell.id), antenna: String(ant.id), cable: String(cable.id), customer: String(cust.id) });
 });
 
@@ -41,7 +71,17 @@ async function verifiedPlan(afterRsrp: number) {
   expect((await patch({ state: 'scheduled', scheduled_for: '2027-03-01' })).status).toBe(200);
   await call(addCheck, { user: planner, params: { id }, json: { phase: 'before', readings: [{ pci: 101, channel: 6300, rsrp_dbm: afterRsrp - 6 }] } });
   expect((await patch({ state: 'installed' })).status).toBe(200);
-  const after = await call(addCheck, { user: planner, params: { id }, json: { phase: 'after', readings: [{ pci: 101, channel: 6300, rsrp_dbm: afterRsrp }, { pci: 404, channel: 6300, rsrp_dbm: -120 }] } });
+  const after = await call(addCheck, {
+    user: planner,
+    params: { id },
+    json: {
+      phase: 'after',
+      readings: [
+        { pci: 101, channel: 6300, rsrp_dbm: afterRsrp },
+        { pci: 404, channel: 6300, rsrp_dbm: -120 },
+      ],
+    },
+  });
   expect(after.status).toBe(201);
   return { id, patch };
 }
@@ -69,7 +109,8 @@ describe('install feedback', () => {
   });
 
   it('calibrates the shortlist at the customer from the verified reading', async () => {
-    const ask = () => call(shortlist, { user: planner, url: `/api/shortlist?${customerAt}&antenna_id=${ids.antenna}&cable_id=${ids.cable}&cable_m=10&height_m=7` });
+    const ask = () =>
+      call(shortlist, { user: planner, url: `/api/shortlist?${customerAt}&antenna_id=${ids.antenna}&cable_id=${ids.cable}&cable_m=10&height_m=7` });
     const before = (await ask()).body.items[0];
     expect(before.calibration).toBeNull();
     // A reading 10 dB above the model at the customer's own position, through the same kit.
@@ -79,7 +120,10 @@ describe('install feedback', () => {
     expect(after.calibration.readings_used).toBe(1);
     // One reading moves the prediction by w = 64 / (64 + (π/2)·64) = 0.389 of its residual (shrinkage rule).
     expect(after.calibration.weight).toBeCloseTo(0.39, 2);
-    expect(after.predicted_rsrp_dbm - before.predicted_rsrp_dbm).toBeCloseTo(0.389 * (Math.round(before.predicted_rsrp_dbm + 10) - before.predicted_rsrp_dbm), 0);
+    expect(after.predicted_rsrp_dbm - before.predicted_rsrp_dbm).toBeCloseTo(
+      0.389 * (Math.round(before.predicted_rsrp_dbm + 10) - before.predicted_rsrp_dbm),
+      0,
+    );
     expect(after.calibration.confidence).toBe('low');
     // sanity: the model itself is a free-space-based figure (ITU-R P.525 loss at 806 MHz over ~12 km)
     expect(before.path_loss_db).toBeGreaterThan(getFreeSpacePathLossDb(806, 11));

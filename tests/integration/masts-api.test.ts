@@ -169,7 +169,15 @@ describe('masts API: one mast', () => {
     expect(res.body).toMatchObject({ id: f.hill, name: 'Test Hill', lat: -47.2, lon: -128.5, status: 'active', row_version: 1 });
     expect(res.body.operators.map((o: { name: string }) => o.name)).toEqual(['Test Mobile A', 'Test Mobile B']);
     expect(res.body.cells).toHaveLength(2);
-    expect(res.body.cells[0]).toMatchObject({ tech: 'lte', band: 'B20', channel: 6300, dl_mhz: 806, pci: 101, rs_power_dbm: 15.2, operator: { name: 'Test Mobile A' } });
+    expect(res.body.cells[0]).toMatchObject({
+      tech: 'lte',
+      band: 'B20',
+      channel: 6300,
+      dl_mhz: 806,
+      pci: 101,
+      rs_power_dbm: 15.2,
+      operator: { name: 'Test Mobile A' },
+    });
     // NR-ARFCN 641280 → 3619.2 MHz (TS 38.104 §5.4.2.1).
     expect(res.body.cells[1]).toMatchObject({ tech: 'nr', band: 'n78', channel: 641280, dl_mhz: 3619.2, operator: { name: 'Test Mobile B' } });
     expect(res.body.recent_readings).toHaveLength(20);
@@ -216,7 +224,12 @@ describe('masts API: writes', () => {
     expect(created.body).toMatchObject({ name: 'New Mast', status: 'active', source: 'manual', row_version: 1, created_by: user.id, structure_height_m: 25 });
     const id = created.body.id;
 
-    const patched = await call(patchMast, { method: 'PATCH', user, params: { id }, json: { row_version: 1, status: 'decommissioned', lat: -47.23, lon: -128.46 } });
+    const patched = await call(patchMast, {
+      method: 'PATCH',
+      user,
+      params: { id },
+      json: { row_version: 1, status: 'decommissioned', lat: -47.23, lon: -128.46 },
+    });
     expect(patched.status).toBe(200);
     expect(patched.body).toMatchObject({ status: 'decommissioned', lat: -47.23, lon: -128.46, row_version: 2, updated_by: user.id });
 
@@ -296,7 +309,11 @@ describe('cells API', () => {
   });
 
   it('creates a cell, deriving band and downlink MHz from the channel (3GPP TS 36.101 Table 5.7.3-1)', async () => {
-    const res = await call(createCell, { user: admin, params: { id: f.planned }, json: { operator_id: Number(f.op1), tech: 'lte', channel: 1300, pci: 42, sector_azimuth_deg: 240 } });
+    const res = await call(createCell, {
+      user: admin,
+      params: { id: f.planned },
+      json: { operator_id: Number(f.op1), tech: 'lte', channel: 1300, pci: 42, sector_azimuth_deg: 240 },
+    });
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({ mast_id: f.planned, band: 'B3', channel: 1300, dl_mhz: 1815, pci: 42, sector_azimuth_deg: 240 });
     const audit = await testDb()('audit_log').where({ entity: 'cell', entity_id: res.body.id }).first();

@@ -36,7 +36,15 @@ import { GET as sampleElevation } from '../../src/pages/api/elevation/sample';
 import { GET as toolsChannel } from '../../src/pages/api/tools/channel';
 import { GET as toolsPath } from '../../src/pages/api/tools/path';
 import { GET as shortlist } from '../../src/pages/api/shortlist/index';
-import { MastChangeSchema, MastDeleteQuerySchema, MastInputSchema, MastListQuerySchema, SearchQuerySchema, CellInputSchema, CellChangeSchema } from '../../src/lib/schemas/masts';
+import {
+  MastChangeSchema,
+  MastDeleteQuerySchema,
+  MastInputSchema,
+  MastListQuerySchema,
+  SearchQuerySchema,
+  CellInputSchema,
+  CellChangeSchema,
+} from '../../src/lib/schemas/masts';
 import { OperatorChangeSchema, OperatorInputSchema } from '../../src/lib/schemas/operators';
 import { CustomerChangeSchema, CustomerInputSchema, CustomerListQuerySchema } from '../../src/lib/schemas/customers';
 import { InstallCheckInputSchema, PlanChangeSchema, PlanInputSchema, PlanListQuerySchema } from '../../src/lib/schemas/plans';
@@ -106,7 +114,29 @@ function keysOf(schema: ZodTypeAny): string[] {
 // Awkward values: wrong types, edges of number ranges, text PostgreSQL refuses (NUL), huge text.
 const awkward = fc.oneof(
   fc.jsonValue({ maxDepth: 2 }),
-  fc.constantFrom(null, '', ' ', '\u0000', 'a\u0000b', '-0', 'NaN', 'Infinity', '1e309', '９', '0x10', true, [], {}, -1, 0, 1.5, 2 ** 53, -(2 ** 63), 1e308, -1e308),
+  fc.constantFrom(
+    null,
+    '',
+    ' ',
+    '\u0000',
+    'a\u0000b',
+    '-0',
+    'NaN',
+    'Infinity',
+    '1e309',
+    '９',
+    '0x10',
+    true,
+    [],
+    {},
+    -1,
+    0,
+    1.5,
+    2 ** 53,
+    -(2 ** 63),
+    1e308,
+    -1e308,
+  ),
   fc.string({ unit: 'binary', maxLength: 40 }),
   fc.integer({ min: 1, max: 5000 }).map((n) => 'x'.repeat(n)),
 );
@@ -148,7 +178,14 @@ const TOKEN = 'A'.repeat(43);
 
 const bodyCases: BodyCase[] = [
   { name: 'POST /api/masts', route: createMast, method: 'POST', schema: MastInputSchema, valid: () => ({ name: 'Probe Hill', lat: -47.2, lon: -128.5 }) },
-  { name: 'PATCH /api/masts/:id', route: patchMast, method: 'PATCH', schema: MastChangeSchema, valid: () => ({ row_version: 1, name: 'Probe Hill 2' }), params: () => ({ id: f.mast }) },
+  {
+    name: 'PATCH /api/masts/:id',
+    route: patchMast,
+    method: 'PATCH',
+    schema: MastChangeSchema,
+    valid: () => ({ row_version: 1, name: 'Probe Hill 2' }),
+    params: () => ({ id: f.mast }),
+  },
   {
     name: 'POST /api/masts/:id/cells',
     route: createCell,
@@ -157,9 +194,29 @@ const bodyCases: BodyCase[] = [
     valid: () => ({ operator_id: f.operator, tech: 'lte', channel: 6300, pci: 101 }),
     params: () => ({ id: f.mast }),
   },
-  { name: 'PATCH /api/cells/:id', route: patchCell, method: 'PATCH', schema: CellChangeSchema, valid: () => ({ row_version: 1, pci: 102 }), params: () => ({ id: f.cell }) },
-  { name: 'POST /api/operators', route: createOperator, method: 'POST', schema: OperatorInputSchema, valid: () => ({ name: 'Probe Mobile', mcc: '001', mnc: '77' }) },
-  { name: 'PATCH /api/operators/:id', route: patchOperator, method: 'PATCH', schema: OperatorChangeSchema, valid: () => ({ name: 'Probe Mobile 2' }), params: () => ({ id: f.operator }) },
+  {
+    name: 'PATCH /api/cells/:id',
+    route: patchCell,
+    method: 'PATCH',
+    schema: CellChangeSchema,
+    valid: () => ({ row_version: 1, pci: 102 }),
+    params: () => ({ id: f.cell }),
+  },
+  {
+    name: 'POST /api/operators',
+    route: createOperator,
+    method: 'POST',
+    schema: OperatorInputSchema,
+    valid: () => ({ name: 'Probe Mobile', mcc: '001', mnc: '77' }),
+  },
+  {
+    name: 'PATCH /api/operators/:id',
+    route: patchOperator,
+    method: 'PATCH',
+    schema: OperatorChangeSchema,
+    valid: () => ({ name: 'Probe Mobile 2' }),
+    params: () => ({ id: f.operator }),
+  },
   {
     name: 'POST /api/customers',
     route: createCustomer,
@@ -167,9 +224,23 @@ const bodyCases: BodyCase[] = [
     schema: CustomerInputSchema,
     valid: () => ({ name: 'Probe Customer', address_label: 'Probe Farm', lat: -47.21, lon: -128.51 }),
   },
-  { name: 'PATCH /api/customers/:id', route: patchCustomer, method: 'PATCH', schema: CustomerChangeSchema, valid: () => ({ row_version: 1, name: 'Probe Customer 2' }), params: () => ({ id: f.customer }) },
+  {
+    name: 'PATCH /api/customers/:id',
+    route: patchCustomer,
+    method: 'PATCH',
+    schema: CustomerChangeSchema,
+    valid: () => ({ row_version: 1, name: 'Probe Customer 2' }),
+    params: () => ({ id: f.customer }),
+  },
   { name: 'POST /api/plans', route: createPlan, method: 'POST', schema: PlanInputSchema, valid: () => ({ customer_id: f.customer }) },
-  { name: 'PATCH /api/plans/:id', route: patchPlan, method: 'PATCH', schema: PlanChangeSchema, valid: () => ({ row_version: 1, notes: 'Probe' }), params: () => ({ id: f.plan }) },
+  {
+    name: 'PATCH /api/plans/:id',
+    route: patchPlan,
+    method: 'PATCH',
+    schema: PlanChangeSchema,
+    valid: () => ({ row_version: 1, notes: 'Probe' }),
+    params: () => ({ id: f.plan }),
+  },
   {
     name: 'POST /api/plans/:id/checks',
     route: addCheck,
@@ -179,30 +250,100 @@ const bodyCases: BodyCase[] = [
     params: () => ({ id: f.plan }),
   },
   { name: 'POST /api/regions', route: createRegion, method: 'POST', schema: RegionInputSchema, valid: () => ({ name: 'Probe Fells', geometry: SQUARE }) },
-  { name: 'PATCH /api/regions/:id', route: patchRegion, method: 'PATCH', schema: RegionChangeSchema, valid: () => ({ name: 'Probe Fells 2' }), params: () => ({ id: f.region }) },
+  {
+    name: 'PATCH /api/regions/:id',
+    route: patchRegion,
+    method: 'PATCH',
+    schema: RegionChangeSchema,
+    valid: () => ({ name: 'Probe Fells 2' }),
+    params: () => ({ id: f.region }),
+  },
   {
     name: 'POST /api/catalogue/antennas',
     route: createAntenna,
     method: 'POST',
     schema: AntennaInputSchema,
-    valid: () => ({ name: 'Probe panel', kind: 'directional', ports: 2, horizontal_beamwidth_deg: 40, gain_table: [{ freq_mhz: 700, gain_dbi: 7 }, { freq_mhz: 2700, gain_dbi: 9 }] }),
+    valid: () => ({
+      name: 'Probe panel',
+      kind: 'directional',
+      ports: 2,
+      horizontal_beamwidth_deg: 40,
+      gain_table: [
+        { freq_mhz: 700, gain_dbi: 7 },
+        { freq_mhz: 2700, gain_dbi: 9 },
+      ],
+    }),
   },
-  { name: 'PATCH /api/catalogue/antennas/:id', route: patchAntenna, method: 'PATCH', schema: AntennaChangeSchema, valid: () => ({ ports: 4 }), params: () => ({ id: f.antenna }) },
+  {
+    name: 'PATCH /api/catalogue/antennas/:id',
+    route: patchAntenna,
+    method: 'PATCH',
+    schema: AntennaChangeSchema,
+    valid: () => ({ ports: 4 }),
+    params: () => ({ id: f.antenna }),
+  },
   {
     name: 'POST /api/catalogue/cables',
     route: createCable,
     method: 'POST',
     schema: CableInputSchema,
-    valid: () => ({ name: 'Probe feeder', loss_table: [{ freq_mhz: 800, loss_db_per_m: 0.12 }, { freq_mhz: 2600, loss_db_per_m: 0.23 }] }),
+    valid: () => ({
+      name: 'Probe feeder',
+      loss_table: [
+        { freq_mhz: 800, loss_db_per_m: 0.12 },
+        { freq_mhz: 2600, loss_db_per_m: 0.23 },
+      ],
+    }),
   },
-  { name: 'PATCH /api/catalogue/cables/:id', route: patchCable, method: 'PATCH', schema: CableChangeSchema, valid: () => ({ connectors: 3 }), params: () => ({ id: f.cable }) },
-  { name: 'POST /api/users', route: inviteUser, method: 'POST', schema: NewUserSchema, valid: () => ({ email: 'probe@example.test', name: 'Probe', role: 'planner' }) },
-  { name: 'PATCH /api/users/:id', route: patchUser, method: 'PATCH', schema: UserChangeSchema, valid: () => ({ name: 'Probe 2' }), params: () => ({ id: f.user }) },
-  { name: 'POST /api/auth/login', route: login, method: 'POST', schema: LoginSchema, valid: () => ({ email: 'nobody@example.test', password: 'not the password' }), signedOut: true },
-  { name: 'POST /api/auth/signup', route: signup, method: 'POST', schema: SignupSchema, valid: () => ({ name: 'Probe', email: 'new@example.test', password: 'a long enough password' }), signedOut: true },
+  {
+    name: 'PATCH /api/catalogue/cables/:id',
+    route: patchCable,
+    method: 'PATCH',
+    schema: CableChangeSchema,
+    valid: () => ({ connectors: 3 }),
+    params: () => ({ id: f.cable }),
+  },
+  {
+    name: 'POST /api/users',
+    route: inviteUser,
+    method: 'POST',
+    schema: NewUserSchema,
+    valid: () => ({ email: 'probe@example.test', name: 'Probe', role: 'planner' }),
+  },
+  {
+    name: 'PATCH /api/users/:id',
+    route: patchUser,
+    method: 'PATCH',
+    schema: UserChangeSchema,
+    valid: () => ({ name: 'Probe 2' }),
+    params: () => ({ id: f.user }),
+  },
+  {
+    name: 'POST /api/auth/login',
+    route: login,
+    method: 'POST',
+    schema: LoginSchema,
+    valid: () => ({ email: 'nobody@example.test', password: 'not the password' }),
+    signedOut: true,
+  },
+  {
+    name: 'POST /api/auth/signup',
+    route: signup,
+    method: 'POST',
+    schema: SignupSchema,
+    valid: () => ({ name: 'Probe', email: 'new@example.test', password: 'a long enough password' }),
+    signedOut: true,
+  },
   { name: 'POST /api/auth/forgot', route: forgot, method: 'POST', schema: ForgotSchema, valid: () => ({ email: 'nobody@example.test' }), signedOut: true },
   { name: 'POST /api/auth/verify', route: verify, method: 'POST', schema: VerifySchema, valid: () => ({ token: TOKEN }), signedOut: true },
-  { name: 'POST /api/auth/reset', route: reset, method: 'POST', schema: SetPasswordSchema, valid: () => ({ token: TOKEN, password: 'a long enough password' }), signedOut: true },
+  {
+    name: 'POST /api/auth/reset',
+    route: reset,
+    method: 'POST',
+    schema: SetPasswordSchema,
+    valid: () => ({ token: TOKEN, password: 'a long enough password' }),
+    signedOut: true,
+  },
 ];
 
 interface QueryCase {
@@ -239,7 +380,10 @@ beforeAll(async () => {
   const { rows } = await db.raw<{ rows: { tablename: string }[] }>(
     `SELECT tablename FROM pg_tables WHERE schemaname = 'public' AND tablename NOT LIKE 'knex_%' AND tablename <> 'spatial_ref_sys'`,
   );
-  tables = rows.map((r) => r.tablename).filter((t) => !BOOKKEEPING.has(t)).sort();
+  tables = rows
+    .map((r) => r.tablename)
+    .filter((t) => !BOOKKEEPING.has(t))
+    .sort();
   const admin = asSessionUser(await makeUser('admin'));
   const other = await makeUser('planner');
   const made = async (route: APIRoute, json: unknown, params?: Record<string, string>) => {
@@ -253,7 +397,13 @@ beforeAll(async () => {
   const customer = await made(createCustomer, { name: 'Fixture Customer', address_label: 'Fixture Farm', lat: -47.21, lon: -128.51 });
   const plan = await made(createPlan, { customer_id: customer });
   const region = await made(createRegion, { name: 'Fixture Fells', geometry: SQUARE });
-  const antenna = await made(createAntenna, { name: 'Fixture panel', kind: 'directional', ports: 2, horizontal_beamwidth_deg: 40, gain_table: [{ freq_mhz: 700, gain_dbi: 7 }] });
+  const antenna = await made(createAntenna, {
+    name: 'Fixture panel',
+    kind: 'directional',
+    ports: 2,
+    horizontal_beamwidth_deg: 40,
+    gain_table: [{ freq_mhz: 700, gain_dbi: 7 }],
+  });
   const cable = await made(createCable, { name: 'Fixture feeder', loss_table: [{ freq_mhz: 800, loss_db_per_m: 0.12 }] });
   f = { admin, operator, mast, cell, customer, plan, region, antenna, cable, user: other.id };
 });
@@ -261,12 +411,15 @@ beforeAll(async () => {
 describe('endpoint bodies (property-based)', () => {
   it.each(bodyCases.map((c) => [c.name, c] as const))('%s: rejected input is a 4xx error body and stores nothing', async (_name, c) => {
     await fc.assert(
-      fc.asyncProperty(bodies(c.valid(), c.schema).filter((body) => !c.schema.safeParse(body).success), async (body) => {
-        const before = await snapshot();
-        const res = await call(c.route, { method: c.method, user: c.signedOut ? null : f.admin, params: c.params?.(), json: body });
-        expectErrorShape(res);
-        expect(await snapshot()).toEqual(before);
-      }),
+      fc.asyncProperty(
+        bodies(c.valid(), c.schema).filter((body) => !c.schema.safeParse(body).success),
+        async (body) => {
+          const before = await snapshot();
+          const res = await call(c.route, { method: c.method, user: c.signedOut ? null : f.admin, params: c.params?.(), json: body });
+          expectErrorShape(res);
+          expect(await snapshot()).toEqual(before);
+        },
+      ),
       RUNS,
     );
   });
@@ -284,10 +437,19 @@ describe('endpoint bodies (property-based)', () => {
 
   it.each(bodyCases.filter((c) => !c.signedOut).map((c) => [c.name, c] as const))('%s: a body that is not JSON is a 4xx', async (_name, c) => {
     await fc.assert(
-      fc.asyncProperty(fc.string({ maxLength: 40 }).filter((text) => !isJsonObject(text)), async (text) => {
-        const res = await call(c.route, { method: c.method, user: f.admin, params: c.params?.(), body: text, headers: { 'content-type': 'application/json' } });
-        expectErrorShape(res);
-      }),
+      fc.asyncProperty(
+        fc.string({ maxLength: 40 }).filter((text) => !isJsonObject(text)),
+        async (text) => {
+          const res = await call(c.route, {
+            method: c.method,
+            user: f.admin,
+            params: c.params?.(),
+            body: text,
+            headers: { 'content-type': 'application/json' },
+          });
+          expectErrorShape(res);
+        },
+      ),
       { numRuns: 10 },
     );
   });

@@ -28,7 +28,15 @@ async function buildFixture(planner: SessionUser) {
   const cell = (await createCell(db, mast, CellInputSchema.parse({ operator_id: op, tech: 'lte', channel: 6300, pci: 101 }), null)).id;
   const customer = await createCustomer(
     db,
-    CustomerInputSchema.parse({ name: 'Hester Quillan', phone: '+00 1632 960 481', email: 'hester@example.test', address_label: 'Alder Farm, Crake Lane', postcode: 'KV3 2PL', notes: 'Dog at the gate', ...HOME }),
+    CustomerInputSchema.parse({
+      name: 'Hester Quillan',
+      phone: '+00 1632 960 481',
+      email: 'hester@example.test',
+      address_label: 'Alder Farm, Crake Lane',
+      postcode: 'KV3 2PL',
+      notes: 'Dog at the gate',
+      ...HOME,
+    }),
     planner.id,
   );
   const [plan] = await db('plans')
@@ -40,13 +48,34 @@ async function buildFixture(planner: SessionUser) {
       figures: JSON.stringify({ cell_id: cell, pci: 101, predicted_rsrp_dbm: -92.5, distance_m: 1800.2, bearing_true_deg: 100.5, customer_position: HOME }),
     })
     .returning('id');
-  const [check] = await db('install_checks').insert({ plan_id: plan.id, phase: 'after', taken_at: new Date('2026-01-05T10:00:00Z'), notes: 'Hester made tea' }).returning('id');
+  const [check] = await db('install_checks')
+    .insert({ plan_id: plan.id, phase: 'after', taken_at: new Date('2026-01-05T10:00:00Z'), notes: 'Hester made tea' })
+    .returning('id');
   await db('install_check_readings').insert({ check_id: check.id, pci: 101, channel: 6300, rsrp_dbm: -85 });
   const point = (lat: number, lon: number) => db.raw('ST_SetSRID(ST_MakePoint(?, ?), 4326)', [lon, lat]);
   // One survey reading in the lane, one fed back from the install check (at the home).
   await db('readings').insert([
-    { taken_at: new Date('2026-01-01T10:00:00Z'), geom: point(-47.205, -128.52), tech: 'lte', channel: 6300, pci: 101, rsrp_dbm: -100, cell_id: cell, source: 'survey' },
-    { taken_at: new Date('2026-01-05T10:00:00Z'), geom: point(HOME.lat, HOME.lon), tech: 'lte', channel: 6300, pci: 101, rsrp_dbm: -85, cell_id: cell, source: 'install_check', install_check_id: check.id },
+    {
+      taken_at: new Date('2026-01-01T10:00:00Z'),
+      geom: point(-47.205, -128.52),
+      tech: 'lte',
+      channel: 6300,
+      pci: 101,
+      rsrp_dbm: -100,
+      cell_id: cell,
+      source: 'survey',
+    },
+    {
+      taken_at: new Date('2026-01-05T10:00:00Z'),
+      geom: point(HOME.lat, HOME.lon),
+      tech: 'lte',
+      channel: 6300,
+      pci: 101,
+      rsrp_dbm: -85,
+      cell_id: cell,
+      source: 'install_check',
+      install_check_id: check.id,
+    },
   ]);
   return { mast, cell, customer: customer.id, plan: String(plan.id), check: String(check.id) };
 }
@@ -100,7 +129,15 @@ describe('erasing a customer on request', () => {
     expect(res.status).toBe(200);
     expect(res.body).toMatchObject({ plans_anonymised: 1, install_checks_cleared: 1, install_readings_removed: 1 });
     expect(res.body.audit_entries_scrubbed).toBeGreaterThanOrEqual(1);
-    expect(res.body.customer).toMatchObject({ name: `Erased customer ${f.customer}`, phone: null, email: null, postcode: null, notes: null, lat: -47.2, lon: -128.6 });
+    expect(res.body.customer).toMatchObject({
+      name: `Erased customer ${f.customer}`,
+      phone: null,
+      email: null,
+      postcode: null,
+      notes: null,
+      lat: -47.2,
+      lon: -128.6,
+    });
     expect(res.body.customer.erased_at).toEqual(expect.any(String));
 
     const db = testDb();
@@ -137,7 +174,7 @@ describe('erasing a customer on request', () => {
     expect((await call(getCustomer, { user: planner, params: { id: f.customer } })).body.name).toBe(`Erased customer ${f.customer}`);
   });
 
-  it('feeds nothing back from the erased customer\'s install afterwards', async () => {
+  it("feeds nothing back from the erased customer's install afterwards", async () => {
     expect(await syncInstallReadings(testDb(), f.plan)).toBe(1);
     await call(eraseCustomer, { method: 'POST', user: planner, params: { id: f.customer } });
     expect(await syncInstallReadings(testDb(), f.plan)).toBe(0);

@@ -17,23 +17,31 @@ interface Fixture {
 async function fixture(): Promise<Fixture> {
   const db = testDb();
   const [op] = await db('operators').insert({ name: 'Test Mobile', mcc: '001', mnc: '01', colour: '#336699' }).returning('id');
-  const [mast] = await db('masts').insert({ name: 'Test Hill', geom: db.raw('ST_SetSRID(ST_MakePoint(-128.5, -47.1), 4326)') }).returning('id');
+  const [mast] = await db('masts')
+    .insert({ name: 'Test Hill', geom: db.raw('ST_SetSRID(ST_MakePoint(-128.5, -47.1), 4326)') })
+    .returning('id');
   const [cell] = await db('cells')
     .insert({ mast_id: mast.id, operator_id: op.id, tech: 'lte', band: 'B20', channel: 6300, dl_mhz: 806, pci: 101, sector_azimuth_deg: 180 })
     .returning('id');
   const [ant] = await db('antennas')
     .insert({ name: 'Panel', kind: 'directional', ports: 2, horizontal_beamwidth_deg: 40, gain_table: JSON.stringify([{ freq_mhz: 800, gain_dbi: 7.5 }]) })
     .returning('id');
-  const [cable] = await db('cables').insert({ name: 'Feeder', loss_table: JSON.stringify([{ freq_mhz: 800, loss_db_per_m: 0.12 }]) }).returning('id');
+  const [cable] = await db('cables')
+    .insert({ name: 'Feeder', loss_table: JSON.stringify([{ freq_mhz: 800, loss_db_per_m: 0.12 }]) })
+    .returning('id');
   const [stub] = await db('antennas')
     .insert({ name: 'Router stub', kind: 'stub', ports: 1, horizontal_beamwidth_deg: 360, gain_table: JSON.stringify([{ freq_mhz: 800, gain_dbi: 2 }]) })
     .returning('id');
   const [cust] = await db('customers')
-    .insert({ name: 'Hester Quillan', address_label: 'Alder Farm', geom: db.raw('ST_SetSRID(ST_MakePoint(-128.52, -47.21), 4326)'), current_antenna_id: stub.id })
+    .insert({
+      name: 'Hester Quillan',
+      address_label: 'Alder Farm',
+      geom: db.raw('ST_SetSRID(ST_MakePoint(-128.52, -47.21), 4326)'),
+      current_antenna_id: stub.id,
+    })
     .returning('id');
   return { customerId: String(cust.id), cellId: String(cell.id), antennaId: String(ant.id), cableId: String(cable.id) };
 }
-
 
 describe('plans API', () => {
   let planner: SessionUser;
@@ -82,7 +90,10 @@ describe('plans API', () => {
     expect(enquiry.status).toBe(201);
     expect(enquiry.body).toMatchObject({ state: 'enquiry', next_states: ['planned'], cell: null, figures: {}, row_version: 1, created_by_name: planner.name });
     // Figures sent by a client are not taken: the server computes them.
-    const planned = await call(createPlan, { user: planner, json: { customer_id: f.customerId, ...kit(), figures: { predicted_rsrp_dbm: -40 }, state: 'planned' } });
+    const planned = await call(createPlan, {
+      user: planner,
+      json: { customer_id: f.customerId, ...kit(), figures: { predicted_rsrp_dbm: -40 }, state: 'planned' },
+    });
     expect(planned.status).toBe(201);
     expect(planned.body).toMatchObject({
       customer_id: f.customerId,
@@ -90,7 +101,19 @@ describe('plans API', () => {
       state: 'planned',
       next_states: ['scheduled', 'enquiry'],
       cell_id: f.cellId,
-      cell: { id: f.cellId, mast_name: 'Test Hill', operator_name: 'Test Mobile', tech: 'lte', band: 'B20', channel: 6300, dl_mhz: 806, pci: 101, sector_azimuth_deg: 180, lat: -47.1, lon: -128.5 },
+      cell: {
+        id: f.cellId,
+        mast_name: 'Test Hill',
+        operator_name: 'Test Mobile',
+        tech: 'lte',
+        band: 'B20',
+        channel: 6300,
+        dl_mhz: 806,
+        pci: 101,
+        sector_azimuth_deg: 180,
+        lat: -47.1,
+        lon: -128.5,
+      },
       antenna_name: 'Panel',
       cable_name: 'Feeder',
       cable_m: 12,
@@ -105,7 +128,10 @@ describe('plans API', () => {
       scheduled_for: null,
     });
     expect(planned.body.figures.predicted_rsrp_dbm).not.toBe(-40);
-    expect(planned.body.figures.predicted_rsrp_dbm).toBeCloseTo(planned.body.figures.budget.reduce((s: number, t: { db: number }) => s + t.db, 0), 0);
+    expect(planned.body.figures.predicted_rsrp_dbm).toBeCloseTo(
+      planned.body.figures.budget.reduce((s: number, t: { db: number }) => s + t.db, 0),
+      0,
+    );
     expect(planned.body.figures).toHaveProperty('sinr_db');
     expect(planned.body.figures).toHaveProperty('expected_throughput_mbps');
     const audit = await testDb()('audit_log').where({ entity: 'plan', entity_id: planned.body.id }).first();
@@ -244,7 +270,9 @@ describe('plans API', () => {
     expect(stale.status).toBe(409);
     expect((await call(getPlan, { user: planner, params: { id: '9999' } })).status).toBe(404);
     expect((await patch('9999', { notes: 'x' })).status).toBe(404);
-    expect((await call(addCheck, { user: planner, params: { id: '9999' }, json: { phase: 'before', readings: [{ pci: 1, rsrp_dbm: -100 }] } })).status).toBe(404);
+    expect((await call(addCheck, { user: planner, params: { id: '9999' }, json: { phase: 'before', readings: [{ pci: 1, rsrp_dbm: -100 }] } })).status).toBe(
+      404,
+    );
     expect((await call(listChecks, { user: planner, params: { id: '9999' } })).status).toBe(404);
     expect((await call(getPlan, { user: planner, params: { id: 'abc' } })).status).toBe(400);
     expect((await patch(made.body.id, {})).status).toBe(400);
@@ -269,7 +297,11 @@ describe('plans API', () => {
       },
     });
     expect(before.status).toBe(201);
-    expect(before.body).toMatchObject({ phase: 'before', taken_at: '2027-03-04T09:10:00.000Z', readings: [{ pci: 101, channel: 6300, rsrp_dbm: -111, rsrq_db: -14, sinr_db: 1 }, {}, {}] });
+    expect(before.body).toMatchObject({
+      phase: 'before',
+      taken_at: '2027-03-04T09:10:00.000Z',
+      readings: [{ pci: 101, channel: 6300, rsrp_dbm: -111, rsrq_db: -14, sinr_db: 1 }, {}, {}],
+    });
 
     const tooEarly = await call(addCheck, { user: planner, params: { id }, json: { phase: 'after', readings: [{ pci: 101, rsrp_dbm: -99 }] } });
     expect(tooEarly.status).toBe(422);
@@ -326,7 +358,17 @@ describe('plans API', () => {
 
   it('refuses an LTE PCI above 503 on an LTE plan (3GPP TS 36.211 §6.11), naming the reading', async () => {
     const made = await call(createPlan, { user: planner, json: { customer_id: f.customerId, ...kit(), state: 'planned' } });
-    const res = await call(addCheck, { user: planner, params: { id: made.body.id }, json: { phase: 'before', readings: [{ pci: 101, rsrp_dbm: -100 }, { pci: 999, rsrp_dbm: -100 }] } });
+    const res = await call(addCheck, {
+      user: planner,
+      params: { id: made.body.id },
+      json: {
+        phase: 'before',
+        readings: [
+          { pci: 101, rsrp_dbm: -100 },
+          { pci: 999, rsrp_dbm: -100 },
+        ],
+      },
+    });
     expect(res.status).toBe(400);
     expect(res.body.error.fields).toEqual({ 'readings.1.pci': ['LTE PCI must be 0–503'] });
     expect(await testDb()('install_checks').count('* as n').first()).toEqual({ n: '0' });

@@ -36,8 +36,15 @@ describe('a readings import whose worker is killed', () => {
     expect((await testDb()('reading_imports').where({ id: staged.importId }).first()).status).toBe('staged');
 
     // Instance 2 starts: it hands the silent job back to the queue and works the retry.
-    await testDb()('jobs').where({ id: staged.jobId }).update({ heartbeat_at: testDb().raw("now() - interval '10 minutes'") });
-    const stop = await startWorkers(testDb(), boss, { [READINGS_IMPORT_QUEUE]: readingsImportHandler(testDb()) }, { sweepSeconds: 0, pollingIntervalSeconds: 1 });
+    await testDb()('jobs')
+      .where({ id: staged.jobId })
+      .update({ heartbeat_at: testDb().raw("now() - interval '10 minutes'") });
+    const stop = await startWorkers(
+      testDb(),
+      boss,
+      { [READINGS_IMPORT_QUEUE]: readingsImportHandler(testDb()) },
+      { sweepSeconds: 0, pollingIntervalSeconds: 1 },
+    );
     try {
       let job = await findJob(testDb(), staged.jobId);
       for (let i = 0; i < 120 && job!.state !== 'completed' && job!.state !== 'failed'; i++) {

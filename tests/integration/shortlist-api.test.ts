@@ -53,14 +53,31 @@ let planner: SessionUser;
 
 async function mast(name: string, p: { lat: number; lon: number }, status = 'active') {
   const [row] = await testDb()('masts')
-    .insert({ name, geom: testDb().raw('ST_SetSRID(ST_MakePoint(?, ?), 4326)', [p.lon, p.lat]), ground_elevation_m: 100, structure_height_m: 40, structure_type: 'lattice_tower', status })
+    .insert({
+      name,
+      geom: testDb().raw('ST_SetSRID(ST_MakePoint(?, ?), 4326)', [p.lon, p.lat]),
+      ground_elevation_m: 100,
+      structure_height_m: 40,
+      structure_type: 'lattice_tower',
+      status,
+    })
     .returning('id');
   return String(row.id);
 }
 
 async function cell(mastId: string, operatorId: string, azimuth: number, height: number, pci: number) {
   const [row] = await testDb()('cells')
-    .insert({ mast_id: mastId, operator_id: operatorId, tech: 'lte', band: 'B20', channel: 6300, dl_mhz: 806, pci, sector_azimuth_deg: azimuth, antenna_height_m: height })
+    .insert({
+      mast_id: mastId,
+      operator_id: operatorId,
+      tech: 'lte',
+      band: 'B20',
+      channel: 6300,
+      dl_mhz: 806,
+      pci,
+      sector_azimuth_deg: azimuth,
+      antenna_height_m: height,
+    })
     .returning('id');
   return String(row.id);
 }
@@ -77,10 +94,26 @@ beforeAll(async () => {
   ids.east = await cell(await mast('East farm', east), ids.op2, 270, 45, 22);
   ids.far = await cell(await mast('Far away', far), ids.op1, 20, 30, 33);
   ids.dead = await cell(await mast('Old pole', near, 'decommissioned'), ids.op1, 225, 20, 44);
-  const gain = (g: number) => JSON.stringify([{ freq_mhz: 700, gain_dbi: g }, { freq_mhz: 2700, gain_dbi: g }]);
-  const [panel] = await db('antennas').insert({ name: 'Test panel', kind: 'directional', ports: 2, horizontal_beamwidth_deg: 40, gain_table: gain(8) }).returning('id');
+  const gain = (g: number) =>
+    JSON.stringify([
+      { freq_mhz: 700, gain_dbi: g },
+      { freq_mhz: 2700, gain_dbi: g },
+    ]);
+  const [panel] = await db('antennas')
+    .insert({ name: 'Test panel', kind: 'directional', ports: 2, horizontal_beamwidth_deg: 40, gain_table: gain(8) })
+    .returning('id');
   await db('antennas').insert({ name: 'Test stub', kind: 'stub', ports: 1, horizontal_beamwidth_deg: 360, gain_table: gain(2) });
-  const [cable] = await db('cables').insert({ name: 'Test cable', loss_table: JSON.stringify([{ freq_mhz: 700, loss_db_per_m: 0.35 }, { freq_mhz: 2700, loss_db_per_m: 0.35 }]), connector_loss_db: 0.15, connectors: 2 }).returning('id');
+  const [cable] = await db('cables')
+    .insert({
+      name: 'Test cable',
+      loss_table: JSON.stringify([
+        { freq_mhz: 700, loss_db_per_m: 0.35 },
+        { freq_mhz: 2700, loss_db_per_m: 0.35 },
+      ]),
+      connector_loss_db: 0.15,
+      connectors: 2,
+    })
+    .returning('id');
   ids.panel = String(panel.id);
   ids.cable = String(cable.id);
   await importElevationFile(db, { fileName: 'fixture.tif', bytes: fixtureTiff() }, { dataDir: config.dataDir, actorId: null });
@@ -171,7 +204,7 @@ describe('GET /api/shortlist', () => {
     await db('readings').delete();
   });
 
-  it('answers for a customer at a mast\'s own position, with a warning instead of a failure', async () => {
+  it("answers for a customer at a mast's own position, with a warning instead of a failure", async () => {
     const res = await ask(`lat=${east.lat}&lon=${east.lon}&height_m=10&antenna_id=${ids.panel}&date=2026-06-01`);
     expect(res.status).toBe(200);
     const e = res.body.items.find((i: { cell_id: string }) => i.cell_id === ids.east);
@@ -179,7 +212,7 @@ describe('GET /api/shortlist', () => {
     expect(e.warnings.join(' ')).toMatch(/at the mast/);
   });
 
-  it('lists only the SIM operator\'s cells when asked, and marks the preferred operator', async () => {
+  it("lists only the SIM operator's cells when asked, and marks the preferred operator", async () => {
     const res = await ask(`${base()}&sim_operator=${ids.op1}&operator=${ids.op1}`);
     expect(res.status).toBe(200);
     expect(res.body.required_operator_id).toBe(ids.op1);

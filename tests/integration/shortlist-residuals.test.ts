@@ -54,27 +54,66 @@ beforeAll(async () => {
   const db = testDb();
   const [op] = await db('operators').insert({ name: 'Test op', mcc: '001', mnc: '01', colour: '#336699' }).returning('id');
   const mast = async (name: string, p: { lat: number; lon: number }) =>
-    String((await db('masts').insert({ name, geom: db.raw('ST_SetSRID(ST_MakePoint(?, ?), 4326)', [p.lon, p.lat]), ground_elevation_m: 100, structure_height_m: 40 }).returning('id'))[0].id);
+    String(
+      (
+        await db('masts')
+          .insert({ name, geom: db.raw('ST_SetSRID(ST_MakePoint(?, ?), 4326)', [p.lon, p.lat]), ground_elevation_m: 100, structure_height_m: 40 })
+          .returning('id')
+      )[0].id,
+    );
   const cell = async (mastId: string, azimuth: number, pci: number) =>
-    String((await db('cells').insert({ mast_id: mastId, operator_id: op.id, tech: 'lte', band: 'B20', channel: 6300, dl_mhz: 806, pci, sector_azimuth_deg: azimuth, antenna_height_m: 30 }).returning('id'))[0].id);
+    String(
+      (
+        await db('cells')
+          .insert({
+            mast_id: mastId,
+            operator_id: op.id,
+            tech: 'lte',
+            band: 'B20',
+            channel: 6300,
+            dl_mhz: 806,
+            pci,
+            sector_azimuth_deg: azimuth,
+            antenna_height_m: 30,
+          })
+          .returning('id')
+      )[0].id,
+    );
   ids.north = await cell(await mast('North hill', north), 180, 11);
   ids.east = await cell(await mast('East farm', east), 270, 22);
-  const gain = JSON.stringify([{ freq_mhz: 700, gain_dbi: 8 }, { freq_mhz: 2700, gain_dbi: 8 }]);
-  ids.panel = String((await db('antennas').insert({ name: 'Test panel', kind: 'directional', ports: 2, horizontal_beamwidth_deg: 40, gain_table: gain }).returning('id'))[0].id);
+  const gain = JSON.stringify([
+    { freq_mhz: 700, gain_dbi: 8 },
+    { freq_mhz: 2700, gain_dbi: 8 },
+  ]);
+  ids.panel = String(
+    (await db('antennas').insert({ name: 'Test panel', kind: 'directional', ports: 2, horizontal_beamwidth_deg: 40, gain_table: gain }).returning('id'))[0].id,
+  );
   await importElevationFile(db, { fileName: 'fixture.tif', bytes: fixtureTiff() }, { dataDir: config.dataDir, actorId: null });
   // Ten readings of each cell scattered 0.5–4.5 km around the customer (some behind the ridge).
   const readings = [];
   for (const cellId of [ids.north, ids.east]) {
     for (let i = 0; i < 10; i++) {
       const p = getDestination(customer, 500 + i * 400, (i * 73) % 360);
-      readings.push({ taken_at: new Date(), geom: db.raw('ST_SetSRID(ST_MakePoint(?, ?), 4326)', [p.lon, p.lat]), tech: 'lte', channel: 6300, pci: cellId === ids.north ? 11 : 22, rsrp_dbm: -80 - i * 1.7, cell_id: cellId, source: 'test' });
+      readings.push({
+        taken_at: new Date(),
+        geom: db.raw('ST_SetSRID(ST_MakePoint(?, ?), 4326)', [p.lon, p.lat]),
+        tech: 'lte',
+        channel: 6300,
+        pci: cellId === ids.north ? 11 : 22,
+        rsrp_dbm: -80 - i * 1.7,
+        cell_id: cellId,
+        source: 'test',
+      });
     }
   }
   await db('readings').insert(readings);
 });
 
 const ask = async () => {
-  const res = await call(shortlist, { url: `/api/shortlist?lat=${customer.lat}&lon=${customer.lon}&height_m=10&antenna_id=${ids.panel}&date=2026-06-01`, user: planner });
+  const res = await call(shortlist, {
+    url: `/api/shortlist?lat=${customer.lat}&lon=${customer.lon}&height_m=10&antenna_id=${ids.panel}&date=2026-06-01`,
+    user: planner,
+  });
   expect(res.status).toBe(200);
   return res.body.items as Array<{ cell_id: string; predicted_rsrp_dbm: number; calibration: { residual_db: number; readings_used: number } | null }>;
 };
@@ -100,10 +139,14 @@ describe('stored model residuals', () => {
   it('are what the shortlist reads once stored', async () => {
     const db = testDb();
     const before = calibrationOf(await ask(), ids.east).residual_db;
-    await db('readings').where({ cell_id: ids.east }).update({ model_residual_db: db.raw('model_residual_db + 10') });
+    await db('readings')
+      .where({ cell_id: ids.east })
+      .update({ model_residual_db: db.raw('model_residual_db + 10') });
     const after = calibrationOf(await ask(), ids.east).residual_db;
     expect(after).toBeGreaterThan(before);
-    await db('readings').where({ cell_id: ids.east }).update({ model_residual_db: db.raw('model_residual_db - 10') });
+    await db('readings')
+      .where({ cell_id: ids.east })
+      .update({ model_residual_db: db.raw('model_residual_db - 10') });
   });
 
   it('are cleared when the reading, its cell or its mast changes, and stale when the elevation data changes', async () => {
@@ -114,7 +157,9 @@ describe('stored model residuals', () => {
     await db('cells').where({ id: ids.east }).update({ rs_power_dbm: 18 });
     expect(await pending()).toBe(11);
     expect(await refreshResiduals(testDb(), { dataDir: config.dataDir })).toBe(11);
-    await db('masts').whereIn('id', db('cells').select('mast_id').where({ id: ids.north })).update({ structure_height_m: 50 });
+    await db('masts')
+      .whereIn('id', db('cells').select('mast_id').where({ id: ids.north }))
+      .update({ structure_height_m: 50 });
     expect(await pending()).toBe(10);
     expect(await refreshResiduals(testDb(), { dataDir: config.dataDir })).toBe(10);
     // New elevation data: every stored residual's basis is out of date, so the shortlist computes

@@ -32,7 +32,12 @@ let op2: string;
 async function mast(name: string, lat: number, cells: Array<{ op: string; channel: number; pci: number | null; observed?: string }>) {
   const m = await createMast(testDb(), MastInputSchema.parse({ name, lat, lon: LON, structure_type: 'monopole' }), null);
   for (const c of cells) {
-    await createCell(testDb(), m.id, CellInputSchema.parse({ operator_id: c.op, tech: 'lte', channel: c.channel, pci: c.pci, last_observed_at: c.observed ?? null }), null);
+    await createCell(
+      testDb(),
+      m.id,
+      CellInputSchema.parse({ operator_id: c.op, tech: 'lte', channel: c.channel, pci: c.pci, last_observed_at: c.observed ?? null }),
+      null,
+    );
   }
   return m;
 }
@@ -52,7 +57,11 @@ const photo = (n: number): NewSightingPhoto => ({
   takenAt: new Date('2026-11-30T09:59:00Z'),
 });
 
-async function sighting(authorId: string, cells: Array<{ op: string; channel: number; pci: number | null }>, opts: { lat?: number; photos?: number; observed?: string } = {}) {
+async function sighting(
+  authorId: string,
+  cells: Array<{ op: string; channel: number; pci: number | null }>,
+  opts: { lat?: number; photos?: number; observed?: string } = {},
+) {
   const input = SightingInputSchema.parse({
     client_uuid: randomUUID(),
     lat: opts.lat ?? LAT,
@@ -88,13 +97,19 @@ describe('review queue', () => {
       { op: op2, channel: 1300, pci: 7 },
     ]);
     await mast('Too far', north(330), [{ op: op1, channel: 6300, pci: 101 }]);
-    const first = await sighting(surveyor.id, [
-      { op: op1, channel: 6300, pci: 101 },
-      { op: op2, channel: 1300, pci: 7 },
-    ], { photos: 2 });
+    const first = await sighting(
+      surveyor.id,
+      [
+        { op: op1, channel: 6300, pci: 101 },
+        { op: op2, channel: 1300, pci: 7 },
+      ],
+      { photos: 2 },
+    );
     const second = await sighting(surveyor.id, [], { lat: north(5000) });
     const done = await sighting(surveyor.id, [], { lat: north(9000) });
-    await testDb()('sightings').where({ id: done.id }).update({ status: 'rejected', decided_at: new Date(), decided_by: reviewer.id, decision_reason: 'Blurred photo' });
+    await testDb()('sightings')
+      .where({ id: done.id })
+      .update({ status: 'rejected', decided_at: new Date(), decided_by: reviewer.id, decision_reason: 'Blurred photo' });
 
     const res = await call(queue, { user: reviewer, url: '/api/review/sightings' });
     expect(res.status).toBe(200);
@@ -134,15 +149,25 @@ describe('review queue', () => {
 describe('deciding a sighting', () => {
   it('approves: a new active mast with the sighting cells, audited, and the submitter is mailed', async () => {
     const { surveyor, reviewer } = await people();
-    const s = await sighting(surveyor.id, [
-      { op: op1, channel: 6300, pci: 101 },
-      { op: op1, channel: 6300, pci: 101 },
-      { op: op2, channel: 1300, pci: 7 },
-    ], { photos: 1 });
+    const s = await sighting(
+      surveyor.id,
+      [
+        { op: op1, channel: 6300, pci: 101 },
+        { op: op1, channel: 6300, pci: 101 },
+        { op: op2, channel: 1300, pci: 7 },
+      ],
+      { photos: 1 },
+    );
     const res = await call(decide, { user: reviewer, params: { id: s.id }, json: { decision: 'approve', name: 'Kestrel Hill lattice' } });
     expect(res.status).toBe(200);
     expect(res.body.sighting).toMatchObject({ status: 'approved', decided_by: { id: reviewer.id }, mast_id: res.body.mast.id });
-    expect(res.body.mast).toMatchObject({ name: 'Kestrel Hill lattice', status: 'active', structure_type: 'lattice_tower', structure_height_m: 25, source: 'sighting' });
+    expect(res.body.mast).toMatchObject({
+      name: 'Kestrel Hill lattice',
+      status: 'active',
+      structure_type: 'lattice_tower',
+      structure_height_m: 25,
+      source: 'sighting',
+    });
     expect(res.body.mast.lat).toBeCloseTo(LAT, 9);
     expect(res.body.added_cells).toBe(2);
     const cells = await testDb()('cells').where({ mast_id: res.body.mast.id }).orderBy('channel');
@@ -169,12 +194,20 @@ describe('deciding a sighting', () => {
       { op: op1, channel: 6300, pci: 101, observed: '2025-05-01T00:00:00Z' },
       { op: op2, channel: 1300, pci: 7, observed: '2027-01-01T00:00:00Z' },
     ]);
-    const s = await sighting(surveyor.id, [
-      { op: op1, channel: 6300, pci: 101 },
-      { op: op2, channel: 1300, pci: 7 },
-      { op: op2, channel: 3350, pci: 12 },
-    ], { photos: 2 });
-    const res = await call(decide, { user: reviewer, params: { id: s.id }, json: { decision: 'merge', mast_id: target.id, reason: 'Same lattice, new NR-less B7 cell' } });
+    const s = await sighting(
+      surveyor.id,
+      [
+        { op: op1, channel: 6300, pci: 101 },
+        { op: op2, channel: 1300, pci: 7 },
+        { op: op2, channel: 3350, pci: 12 },
+      ],
+      { photos: 2 },
+    );
+    const res = await call(decide, {
+      user: reviewer,
+      params: { id: s.id },
+      json: { decision: 'merge', mast_id: target.id, reason: 'Same lattice, new NR-less B7 cell' },
+    });
     expect(res.status).toBe(200);
     expect(res.body).toMatchObject({ added_cells: 1, observed_cells: 2, mast: { id: target.id, row_version: 2 } });
     expect(res.body.sighting).toMatchObject({ status: 'merged', mast_id: target.id, decision_reason: 'Same lattice, new NR-less B7 cell' });
@@ -295,7 +328,10 @@ describe('reviewer alerts', () => {
     const later = (min: number) => new Date(t0.getTime() + min * 60_000);
     expect(await alertReviewers(testDb(), 'http://bearline.test', later(59))).toEqual([]);
     // Two app servers at once: one message each.
-    const [x, y] = await Promise.all([alertReviewers(testDb(), 'http://bearline.test', later(61)), alertReviewers(testDb(), 'http://bearline.test', later(61))]);
+    const [x, y] = await Promise.all([
+      alertReviewers(testDb(), 'http://bearline.test', later(61)),
+      alertReviewers(testDb(), 'http://bearline.test', later(61)),
+    ]);
     expect([...x, ...y].sort()).toEqual([r1.email, r2.email].sort());
     expect(await mailTo(r1.email)).toHaveLength(2);
     // An hour on, but nothing new since the last message: quiet.

@@ -52,7 +52,7 @@ describe('sightings API', () => {
     operatorId = (await createOperator(testDb(), { name: 'Test Mobile A', mcc: '001', mnc: '01' }, null)).id;
   });
 
-  it('takes a sighting with cells and a photo: 201 pending, then listed as the author\'s own', async () => {
+  it("takes a sighting with cells and a photo: 201 pending, then listed as the author's own", async () => {
     const jpeg = await makeJpeg({ gps: HILL, takenAt: '2026:11:30 09:58:00' });
     const body = sightingBody({
       position_source: 'photo',
@@ -154,10 +154,22 @@ describe('sightings API', () => {
   });
 
   it.each([
-    ['a form without the sighting part', () => { const fd = new FormData(); fd.append('other', 'x'); return fd; }, 'sighting'],
+    [
+      'a form without the sighting part',
+      () => {
+        const fd = new FormData();
+        fd.append('other', 'x');
+        return fd;
+      },
+      'sighting',
+    ],
     ['a sighting part that is not JSON', () => form('{not json'), 'sighting'],
     ['a PCI out of range', () => form(sightingBody({ cells: [{ operator_id: 1, tech: 'lte', channel: 6300, pci: 600 }] })), 'cells.0.pci'],
-    ['RSRP out of the reporting range', () => form(sightingBody({ cells: [{ operator_id: 1, tech: 'lte', channel: 6300, rsrp_dbm: -20 }] })), 'cells.0.rsrp_dbm'],
+    [
+      'RSRP out of the reporting range',
+      () => form(sightingBody({ cells: [{ operator_id: 1, tech: 'lte', channel: 6300, rsrp_dbm: -20 }] })),
+      'cells.0.rsrp_dbm',
+    ],
     ['a position from a photo without photos', () => form(sightingBody({ position_source: 'photo' })), 'position_source'],
     ['no structure type', () => form(sightingBody({ structure_type: undefined })), 'structure_type'],
   ])('answers 400 with fields for %s', async (_name, make, field) => {
@@ -195,13 +207,13 @@ describe('sightings API', () => {
       expect(res.status).toBe(reviewers.includes(role) ? 200 : 403);
     });
 
-    it.each(ROLES)('GET /api/sightings/:id of someone else\'s sighting as %s', async (role) => {
+    it.each(ROLES)("GET /api/sightings/:id of someone else's sighting as %s", async (role) => {
       const created = await submit(otherSurveyor, form(sightingBody()));
       const res = await call(getRoute, { params: { id: created.body.id }, user: users[role] });
       expect(res.status).toBe(reviewers.includes(role) ? 200 : submitters.includes(role) ? 404 : 403);
     });
 
-    it.each(ROLES)('GET /api/sightings/pending as %s shows others\' sightings only to reviewers', async (role) => {
+    it.each(ROLES)("GET /api/sightings/pending as %s shows others' sightings only to reviewers", async (role) => {
       await submit(otherSurveyor, form(sightingBody()));
       if (submitters.includes(role)) await submit(users[role], form(sightingBody({ lat: -47.3 })));
       const res = await call(pendingRoute, { url: '/api/sightings/pending?bbox=-129,-48,-128,-47', user: users[role] });
@@ -241,7 +253,9 @@ describe('sightings API', () => {
     const mast = await createMast(testDb(), MastInputSchema.parse({ name: 'Test Hill', ...HILL }), null);
     const res = await submit(users.surveyor, form(sightingBody({ observed_at: '2026-11-20T08:00:00Z' }), [{ bytes: await makeJpeg(), name: 'a.jpg' }]));
     // The review side's decision, written directly here.
-    await testDb()('sightings').where({ id: res.body.id }).update({ status: 'approved', mast_id: mast.id, decided_by: users.reviewer.id, decided_at: new Date() });
+    await testDb()('sightings')
+      .where({ id: res.body.id })
+      .update({ status: 'approved', mast_id: mast.id, decided_by: users.reviewer.id, decided_at: new Date() });
     const surveys = await call(surveysRoute, { params: { id: mast.id }, user: users.planner });
     expect(surveys.body.surveyors).toEqual([{ id: users.surveyor.id, name: users.surveyor.name, last_observed_at: '2026-11-20T08:00:00.000Z' }]);
     expect(surveys.body.last_observed_at).toBe('2026-11-20T08:00:00.000Z');

@@ -23,7 +23,13 @@ afterAll(async () => {
   rmSync(localRoot, { recursive: true, force: true });
 });
 
-const s3Settings = () => ({ endpoint: s3Endpoint, bucket: FAKE_S3_BUCKET, region: 'us-east-1', accessKeyId: FAKE_S3_ACCESS_KEY, secretAccessKey: FAKE_S3_SECRET_KEY });
+const s3Settings = () => ({
+  endpoint: s3Endpoint,
+  bucket: FAKE_S3_BUCKET,
+  region: 'us-east-1',
+  accessKeyId: FAKE_S3_ACCESS_KEY,
+  secretAccessKey: FAKE_S3_SECRET_KEY,
+});
 
 const implementations: Array<[string, () => ObjectStorage]> = [
   ['local disk', () => new LocalDiskStorage(join(localRoot, 'files'))],

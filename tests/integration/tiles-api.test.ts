@@ -65,14 +65,46 @@ beforeAll(async () => {
   const db = testDb();
   const geo = (g: unknown, multi = false) =>
     db.raw(multi ? 'ST_Multi(ST_SetSRID(ST_GeomFromGeoJSON(?), 4326))' : 'ST_SetSRID(ST_GeomFromGeoJSON(?), 4326)', [JSON.stringify(g)]);
-  const box = (w: number, s: number, e: number, n: number) => ({ type: 'Polygon', coordinates: [[[w, s], [e, s], [e, n], [w, n], [w, s]]] });
+  const box = (w: number, s: number, e: number, n: number) => ({
+    type: 'Polygon',
+    coordinates: [
+      [
+        [w, s],
+        [e, s],
+        [e, n],
+        [w, n],
+        [w, s],
+      ],
+    ],
+  });
   await db('basemap_land').insert({ name: 'Test Island', kind: 'island', geom: geo(box(-128.8, -47.35, -128.2, -47.05), true) });
   await db('basemap_landuse').insert({ kind: 'wood', geom: geo(box(-128.52, -47.22, -128.48, -47.18), true) });
   await db('basemap_water').insert([
     { name: 'Test Lake', kind: 'lake', geom: geo(box(-128.46, -47.21, -128.44, -47.2)) },
-    { name: 'Test River', kind: 'river', geom: geo({ type: 'LineString', coordinates: [[-128.45, -47.2], [-128.4, -47.3]] }) },
+    {
+      name: 'Test River',
+      kind: 'river',
+      geom: geo({
+        type: 'LineString',
+        coordinates: [
+          [-128.45, -47.2],
+          [-128.4, -47.3],
+        ],
+      }),
+    },
   ]);
-  await db('basemap_roads').insert({ name: 'Test Road', ref: 'R9', kind: 'primary', geom: geo({ type: 'LineString', coordinates: [[-128.6, -47.2], [-128.33, -47.25]] }) });
+  await db('basemap_roads').insert({
+    name: 'Test Road',
+    ref: 'R9',
+    kind: 'primary',
+    geom: geo({
+      type: 'LineString',
+      coordinates: [
+        [-128.6, -47.2],
+        [-128.33, -47.25],
+      ],
+    }),
+  });
   await db('basemap_places').insert([
     { name: 'Testholm', kind: 'town', rank: 1, population: 1200, geom: geo({ type: 'Point', coordinates: [TOWN.lon, TOWN.lat] }) },
     { name: 'Test Knoll', kind: 'peak', rank: 3, ele_m: 512, geom: geo({ type: 'Point', coordinates: [HILL.lon + 0.01, HILL.lat] }) },
@@ -221,7 +253,11 @@ describe('mast tiles', () => {
       expect(res.status).toBe(204);
       return;
     }
-    expect(masts(res.bytes).map((f) => f.properties.name).sort()).toEqual(expected);
+    expect(
+      masts(res.bytes)
+        .map((f) => f.properties.name)
+        .sort(),
+    ).toEqual(expected);
   });
 
   it('give a different ETag for a different filter', async () => {
@@ -269,14 +305,19 @@ describe('mast tiles zoomed out, cached and compressed', () => {
     expect(layerFeatures(res.bytes, 'masts').map((f) => f.properties.name)).toEqual(['Far Lone']);
     // From zoom 9 on every mast is its own feature.
     const close = await fetchTile('masts', tileOf(FAR.lat, FAR.lon, 9), { user: contributor });
-    expect(layerFeatures(close.bytes, 'masts').map((f) => f.properties.name).sort()).toEqual(['Cluster A', 'Cluster B', 'Cluster C']);
+    expect(
+      layerFeatures(close.bytes, 'masts')
+        .map((f) => f.properties.name)
+        .sort(),
+    ).toEqual(['Cluster A', 'Cluster B', 'Cluster C']);
     expect(layerFeatures(close.bytes, 'mast_clusters')).toEqual([]);
   });
 
   it('show every cell write at once although tiles are cached (the summary follows the cells)', async () => {
     const db = testDb();
     const t = tileOf(FAR.lat, FAR.lon, 12);
-    const clusterA = async () => layerFeatures((await fetchTile('masts', t, { user: contributor })).bytes, 'masts').find((f) => f.properties.name === 'Cluster A')!;
+    const clusterA = async () =>
+      layerFeatures((await fetchTile('masts', t, { user: contributor })).bytes, 'masts').find((f) => f.properties.name === 'Cluster A')!;
     expect((await clusterA()).properties).toMatchObject({ cell_count: 0, bands: '' });
     expect((await clusterA()).properties).toMatchObject({ cell_count: 0 }); // served from the cache
     const mastId = String((await clusterA()).properties.id);

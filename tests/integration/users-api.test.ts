@@ -51,7 +51,7 @@ describe('users API', () => {
     expect(res.status).toBe(409);
   });
 
-  it('changes a role and disables / enables, audited, ending the disabled user\'s sessions', async () => {
+  it("changes a role and disables / enables, audited, ending the disabled user's sessions", async () => {
     const admin = asSessionUser(await makeUser('admin'));
     const target = await makeUser('planner');
     await testDb()('sessions').insert({ id: 'abc', user_id: target.id, expires_at: new Date(Date.now() + 3600_000) });

@@ -16,7 +16,10 @@ async function login(base: string, email: string): Promise<string> {
     body: JSON.stringify({ email, password: 'bearline-demo' }),
   });
   expect(res.status).toBe(200);
-  return res.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+  return res.headers
+    .getSetCookie()
+    .map((c) => c.split(';')[0])
+    .join('; ');
 }
 
 beforeAll(async () => {
@@ -38,7 +41,14 @@ describe('scaling rehearsal', () => {
   });
 
   it('loses no request when one app instance is killed under load', async () => {
-    const paths = ['/api/health', '/api/masts?bbox=-129,-48,-127,-46', '/api/tiles/masts/9/73/316.mvt', '/api/tiles/basemap/9/73/316.mvt', '/map', '/api/operators'];
+    const paths = [
+      '/api/health',
+      '/api/masts?bbox=-129,-48,-127,-46',
+      '/api/tiles/masts/9/73/316.mvt',
+      '/api/tiles/basemap/9/73/316.mvt',
+      '/map',
+      '/api/operators',
+    ];
     let n = 0;
     const run = autocannon({
       url: demo.publicUrl,

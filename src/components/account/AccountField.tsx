@@ -12,11 +12,25 @@ export default function AccountField({ id, label, hint, errors, ...input }: Prop
   const described = [hint ? `${id}-hint` : null, errors?.length ? `${id}-error` : null].filter(Boolean).join(' ') || undefined;
   return (
     <div>
-      <label htmlFor={id} className="field-label">{label}</label>
-      <input id={id} className="field-input min-h-11 text-base sm:text-sm" aria-invalid={errors?.length ? true : undefined} aria-describedby={described} {...input} />
-      {hint && <p id={`${id}-hint`} className="mt-1 text-xs text-ink-500">{hint}</p>}
+      <label htmlFor={id} className="field-label">
+        {label}
+      </label>
+      <input
+        id={id}
+        className="field-input min-h-11 text-base sm:text-sm"
+        aria-invalid={errors?.length ? true : undefined}
+        aria-describedby={described}
+        {...input}
+      />
+      {hint && (
+        <p id={`${id}-hint`} className="mt-1 text-xs text-ink-500">
+          {hint}
+        </p>
+      )}
       {errors?.length ? (
-        <p id={`${id}-error`} className="field-error">{errors.join(' ')}</p>
+        <p id={`${id}-error`} className="field-error">
+          {errors.join(' ')}
+        </p>
       ) : null}
     </div>
   );

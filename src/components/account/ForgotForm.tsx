@@ -20,8 +20,19 @@ export default function ForgotForm() {
   return (
     <form className="card space-y-4" onSubmit={onSubmit} noValidate>
       <FormAlert error={error} notice={done} />
-      <AccountField id="fg-email" label="E-mail" type="email" inputMode="email" autoComplete="email" value={email} onChange={(e) => setEmail(e.target.value)} errors={fields.email} />
-      <button type="submit" className="btn-primary min-h-11 w-full" disabled={busy}>{busy ? 'Sending…' : done ? 'Send again' : 'Send me a link'}</button>
+      <AccountField
+        id="fg-email"
+        label="E-mail"
+        type="email"
+        inputMode="email"
+        autoComplete="email"
+        value={email}
+        onChange={(e) => setEmail(e.target.value)}
+        errors={fields.email}
+      />
+      <button type="submit" className="btn-primary min-h-11 w-full" disabled={busy}>
+        {busy ? 'Sending…' : done ? 'Send again' : 'Send me a link'}
+      </button>
     </form>
   );
 }

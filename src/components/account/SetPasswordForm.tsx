@@ -45,7 +45,9 @@ export default function SetPasswordForm({ token, email, submitLabel }: Props) {
       <label className="flex min-h-11 items-center gap-2 text-sm text-ink-700">
         <input type="checkbox" className="h-5 w-5" checked={show} onChange={(e) => setShow(e.target.checked)} /> Show the password
       </label>
-      <button type="submit" className="btn-primary min-h-11 w-full" disabled={busy || done}>{busy ? 'Saving…' : submitLabel}</button>
+      <button type="submit" className="btn-primary min-h-11 w-full" disabled={busy || done}>
+        {busy ? 'Saving…' : submitLabel}
+      </button>
     </form>
   );
 }

@@ -31,8 +31,24 @@ export default function SignupForm() {
   return (
     <form className="card space-y-4" onSubmit={onSubmit} noValidate>
       <FormAlert error={error} />
-      <AccountField id="su-name" label="Your name" autoComplete="name" value={form.name} onChange={(e) => setForm({ ...form, name: e.target.value })} errors={fields.name} />
-      <AccountField id="su-email" label="E-mail" type="email" inputMode="email" autoComplete="email" value={form.email} onChange={(e) => setForm({ ...form, email: e.target.value })} errors={fields.email} />
+      <AccountField
+        id="su-name"
+        label="Your name"
+        autoComplete="name"
+        value={form.name}
+        onChange={(e) => setForm({ ...form, name: e.target.value })}
+        errors={fields.name}
+      />
+      <AccountField
+        id="su-email"
+        label="E-mail"
+        type="email"
+        inputMode="email"
+        autoComplete="email"
+        value={form.email}
+        onChange={(e) => setForm({ ...form, email: e.target.value })}
+        errors={fields.email}
+      />
       <AccountField
         id="su-password"
         label="Password"
@@ -43,7 +59,9 @@ export default function SignupForm() {
         onChange={(e) => setForm({ ...form, password: e.target.value })}
         errors={fields.password}
       />
-      <button type="submit" className="btn-primary min-h-11 w-full" disabled={busy}>{busy ? 'Sending…' : 'Sign up'}</button>
+      <button type="submit" className="btn-primary min-h-11 w-full" disabled={busy}>
+        {busy ? 'Sending…' : 'Sign up'}
+      </button>
     </form>
   );
 }

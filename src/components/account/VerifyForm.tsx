@@ -26,8 +26,12 @@ export default function VerifyForm({ token, email }: Props) {
   return (
     <form className="card space-y-4" onSubmit={onSubmit}>
       <FormAlert error={error} notice={done ? 'Confirmed. Opening Bearline…' : null} />
-      <p className="text-sm text-ink-700">Confirm that <strong className="break-all">{email}</strong> is your address to finish your contributor account.</p>
-      <button type="submit" className="btn-primary min-h-11 w-full" disabled={busy || done}>{busy ? 'Confirming…' : 'Confirm my e-mail'}</button>
+      <p className="text-sm text-ink-700">
+        Confirm that <strong className="break-all">{email}</strong> is your address to finish your contributor account.
+      </p>
+      <button type="submit" className="btn-primary min-h-11 w-full" disabled={busy || done}>
+        {busy ? 'Confirming…' : 'Confirm my e-mail'}
+      </button>
     </form>
   );
 }

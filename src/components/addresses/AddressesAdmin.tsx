@@ -90,7 +90,9 @@ export default function AddressesAdmin() {
         <h2 id="import-heading">Import a CSV</h2>
         <form className="mt-3 space-y-3" onSubmit={upload} noValidate>
           <div>
-            <label htmlFor="addr-file" className="field-label">File</label>
+            <label htmlFor="addr-file" className="field-label">
+              File
+            </label>
             <input
               ref={input}
               id="addr-file"
@@ -99,19 +101,31 @@ export default function AddressesAdmin() {
               className="block w-full text-sm file:mr-3 file:rounded-md file:border file:border-ink-300 file:bg-white file:px-3 file:py-1.5 file:text-sm file:font-semibold"
               onChange={(e) => setFile(e.target.files?.[0] ?? null)}
             />
-            <p className="mt-1 text-xs text-ink-600">Any size up to the configured limit (512 MB unless IMPORT_MAX_BYTES says otherwise). First line: label,postcode,lat,lon</p>
+            <p className="mt-1 text-xs text-ink-600">
+              Any size up to the configured limit (512 MB unless IMPORT_MAX_BYTES says otherwise). First line: label,postcode,lat,lon
+            </p>
           </div>
           <pre className="overflow-x-auto rounded bg-ink-50 p-2 text-xs text-ink-700" aria-label="Example">{`label,postcode,lat,lon
 "Alder Farm, Crake Lane",KLV-9001,-47.2101,-128.5203`}</pre>
-          <button type="submit" className="btn-primary w-full" disabled={busy}>{busy ? 'Importing…' : 'Import addresses'}</button>
+          <button type="submit" className="btn-primary w-full" disabled={busy}>
+            {busy ? 'Importing…' : 'Import addresses'}
+          </button>
         </form>
         <div aria-live="polite" className="mt-4" data-testid="import-outcome">
           {outcome && (
-            <div className={['rounded-md border p-3 text-sm', outcome.kind === 'done' ? 'border-moss-500 bg-moss-50 text-moss-700' : 'border-alarm-500 bg-alarm-50 text-alarm-700'].join(' ')}>
-              <p className="font-semibold" role={outcome.kind === 'done' ? undefined : 'alert'}>{outcome.message}</p>
+            <div
+              className={[
+                'rounded-md border p-3 text-sm',
+                outcome.kind === 'done' ? 'border-moss-500 bg-moss-50 text-moss-700' : 'border-alarm-500 bg-alarm-50 text-alarm-700',
+              ].join(' ')}
+            >
+              <p className="font-semibold" role={outcome.kind === 'done' ? undefined : 'alert'}>
+                {outcome.message}
+              </p>
               {outcome.summary && (
                 <p className="mt-1">
-                  {outcome.summary.rows} rows: {outcome.summary.inserted} new, {outcome.summary.updated} changed or moved, {outcome.summary.unchanged} unchanged.
+                  {outcome.summary.rows} rows: {outcome.summary.inserted} new, {outcome.summary.updated} changed or moved, {outcome.summary.unchanged}{' '}
+                  unchanged.
                 </p>
               )}
               {outcome.lines && outcome.lines.length > 0 && (
@@ -146,7 +160,9 @@ export default function AddressesAdmin() {
           </label>
         </div>
         {listError ? (
-          <p role="alert" className="text-alarm-700">{listError}</p>
+          <p role="alert" className="text-alarm-700">
+            {listError}
+          </p>
         ) : !list ? (
           <p className="text-ink-500">Loading addresses…</p>
         ) : (
@@ -158,14 +174,22 @@ export default function AddressesAdmin() {
                   <tr>
                     <th scope="col">Label</th>
                     <th scope="col">Postcode</th>
-                    <th scope="col" className="text-right">Lat</th>
-                    <th scope="col" className="text-right">Lon</th>
+                    <th scope="col" className="text-right">
+                      Lat
+                    </th>
+                    <th scope="col" className="text-right">
+                      Lon
+                    </th>
                     <th scope="col">Source</th>
                   </tr>
                 </thead>
                 <tbody>
                   {list.items.length === 0 ? (
-                    <tr><td colSpan={5} className="py-6 text-center text-ink-500">{query ? 'No address matches your search' : 'No addresses yet'}</td></tr>
+                    <tr>
+                      <td colSpan={5} className="py-6 text-center text-ink-500">
+                        {query ? 'No address matches your search' : 'No addresses yet'}
+                      </td>
+                    </tr>
                   ) : (
                     list.items.map((a) => (
                       <tr key={a.id}>
@@ -181,9 +205,15 @@ export default function AddressesAdmin() {
               </table>
             </div>
             <nav className="mt-3 flex items-center justify-between text-sm" aria-label="Pages">
-              <button type="button" className="btn-secondary py-1" disabled={page === 0} onClick={() => setPage((p) => p - 1)}>Previous</button>
-              <span className="text-ink-600">Page {page + 1} of {pages}</span>
-              <button type="button" className="btn-secondary py-1" disabled={page + 1 >= pages} onClick={() => setPage((p) => p + 1)}>Next</button>
+              <button type="button" className="btn-secondary py-1" disabled={page === 0} onClick={() => setPage((p) => p - 1)}>
+                Previous
+              </button>
+              <span className="text-ink-600">
+                Page {page + 1} of {pages}
+              </span>
+              <button type="button" className="btn-secondary py-1" disabled={page + 1 >= pages} onClick={() => setPage((p) => p + 1)}>
+                Next
+              </button>
             </nav>
           </>
         )}

@@ -24,7 +24,10 @@ function Resolution({ g }: { g: ElevationGridJson }) {
       {lon === lat ? fmtArcsec(lon) : `${fmtArcsec(lon)} × ${fmtArcsec(lat)}`}
       <span className="text-ink-600">
         {' '}
-        · ≈{Math.round(g.resolution_ew_m) === Math.round(g.resolution_ns_m) ? `${Math.round(g.resolution_ns_m)} m` : `${Math.round(g.resolution_ew_m)} m E–W × ${Math.round(g.resolution_ns_m)} m N–S`}
+        · ≈
+        {Math.round(g.resolution_ew_m) === Math.round(g.resolution_ns_m)
+          ? `${Math.round(g.resolution_ns_m)} m`
+          : `${Math.round(g.resolution_ew_m)} m E–W × ${Math.round(g.resolution_ns_m)} m N–S`}
       </span>
     </span>
   );
@@ -53,7 +56,14 @@ function ProgressBar({ progress }: { progress: UploadProgress | null }) {
   const sent = progress !== null && progress.loaded >= progress.total;
   return (
     <div className="space-y-1" data-testid="elevation-progress">
-      <div className="h-2 w-full overflow-hidden rounded bg-ink-100" role="progressbar" aria-label="Upload progress" aria-valuemin={0} aria-valuemax={100} aria-valuenow={pct}>
+      <div
+        className="h-2 w-full overflow-hidden rounded bg-ink-100"
+        role="progressbar"
+        aria-label="Upload progress"
+        aria-valuemin={0}
+        aria-valuemax={100}
+        aria-valuenow={pct}
+      >
         <div className="h-full bg-ink-600 transition-[width]" style={{ width: `${pct}%` }} />
       </div>
       <p className="text-xs text-ink-600">{sent ? 'Checking and storing the grid…' : `Uploading… ${pct}%`}</p>
@@ -90,23 +100,54 @@ function PointCheck() {
     }
   }
 
-  const err = (k: string) => fieldErrors[k]?.map((m) => <p key={m} className="field-error" id={`elev-${k}-error`}>{m}</p>);
+  const err = (k: string) =>
+    fieldErrors[k]?.map((m) => (
+      <p key={m} className="field-error" id={`elev-${k}-error`}>
+        {m}
+      </p>
+    ));
   return (
     <form className="mt-3 space-y-3" onSubmit={check} noValidate>
       <div className="grid grid-cols-2 gap-3">
         <div>
-          <label htmlFor="elev-lat" className="field-label">Latitude</label>
-          <input id="elev-lat" inputMode="decimal" className="field-input" placeholder="-47.2" value={lat} onChange={(e) => setLat(e.target.value)} aria-invalid={!!fieldErrors.lat} aria-describedby="elev-lat-error" />
+          <label htmlFor="elev-lat" className="field-label">
+            Latitude
+          </label>
+          <input
+            id="elev-lat"
+            inputMode="decimal"
+            className="field-input"
+            placeholder="-47.2"
+            value={lat}
+            onChange={(e) => setLat(e.target.value)}
+            aria-invalid={!!fieldErrors.lat}
+            aria-describedby="elev-lat-error"
+          />
           {err('lat')}
         </div>
         <div>
-          <label htmlFor="elev-lon" className="field-label">Longitude</label>
-          <input id="elev-lon" inputMode="decimal" className="field-input" placeholder="-128.5" value={lon} onChange={(e) => setLon(e.target.value)} aria-invalid={!!fieldErrors.lon} aria-describedby="elev-lon-error" />
+          <label htmlFor="elev-lon" className="field-label">
+            Longitude
+          </label>
+          <input
+            id="elev-lon"
+            inputMode="decimal"
+            className="field-input"
+            placeholder="-128.5"
+            value={lon}
+            onChange={(e) => setLon(e.target.value)}
+            aria-invalid={!!fieldErrors.lon}
+            aria-describedby="elev-lon-error"
+          />
           {err('lon')}
         </div>
       </div>
-      <button type="submit" className="btn-secondary w-full">Check height</button>
-      <p aria-live="polite" className="min-h-5 text-sm text-ink-700" data-testid="elevation-point-answer">{answer}</p>
+      <button type="submit" className="btn-secondary w-full">
+        Check height
+      </button>
+      <p aria-live="polite" className="min-h-5 text-sm text-ink-700" data-testid="elevation-point-answer">
+        {answer}
+      </p>
     </form>
   );
 }
@@ -125,7 +166,10 @@ export default function ElevationAdmin() {
   const busy = progress !== null;
 
   useEffect(() => {
-    elevationApi.list().then((r) => setGrids(r.items), (e: ApiError) => setLoadError(e.message));
+    elevationApi.list().then(
+      (r) => setGrids(r.items),
+      (e: ApiError) => setLoadError(e.message),
+    );
   }, []);
 
   function choose(f: File | undefined) {
@@ -226,7 +270,9 @@ export default function ElevationAdmin() {
         <span className="whitespace-nowrap">
           {g.min_m === null || g.max_m === null ? '—' : `${Math.round(g.min_m)} – ${Math.round(g.max_m)} m`}
           {g.nodata_count > 0 && (
-            <span className="block text-xs text-ember-700">{((g.nodata_count / (g.width * g.height)) * 100).toFixed(g.nodata_count / (g.width * g.height) < 0.001 ? 3 : 1)} % voids</span>
+            <span className="block text-xs text-ember-700">
+              {((g.nodata_count / (g.width * g.height)) * 100).toFixed(g.nodata_count / (g.width * g.height) < 0.001 ? 3 : 1)} % voids
+            </span>
           )}
         </span>
       ),
@@ -249,24 +295,41 @@ export default function ElevationAdmin() {
       render: (g) =>
         confirming === g.id ? (
           <span className="flex flex-wrap gap-2">
-            <button type="button" className="btn-danger py-1" onClick={() => remove(g)}>Delete {g.name}</button>
-            <button type="button" className="btn-secondary py-1" onClick={() => setConfirming(null)}>Keep</button>
+            <button type="button" className="btn-danger py-1" onClick={() => remove(g)}>
+              Delete {g.name}
+            </button>
+            <button type="button" className="btn-secondary py-1" onClick={() => setConfirming(null)}>
+              Keep
+            </button>
           </span>
         ) : (
-          <button type="button" className="btn-secondary py-1" onClick={() => setConfirming(g.id)}>Delete</button>
+          <button type="button" className="btn-secondary py-1" onClick={() => setConfirming(g.id)}>
+            Delete
+          </button>
         ),
     },
   ];
 
-  const err = (k: string) => fieldErrors[k]?.map((m) => <p key={m} className="field-error" id={`elevation-${k}-error`}>{m}</p>);
+  const err = (k: string) =>
+    fieldErrors[k]?.map((m) => (
+      <p key={m} className="field-error" id={`elevation-${k}-error`}>
+        {m}
+      </p>
+    ));
 
   return (
     <div className="mt-6 space-y-6">
       <section className="card min-w-0" aria-labelledby="elevation-heading">
-        <h2 id="elevation-heading" className="mb-3">Elevation grids</h2>
-        <p aria-live="polite" className="mb-2 min-h-5 text-sm text-ink-600" data-testid="elevation-notice">{notice}</p>
+        <h2 id="elevation-heading" className="mb-3">
+          Elevation grids
+        </h2>
+        <p aria-live="polite" className="mb-2 min-h-5 text-sm text-ink-600" data-testid="elevation-notice">
+          {notice}
+        </p>
         {loadError ? (
-          <p role="alert" className="text-alarm-700">{loadError}</p>
+          <p role="alert" className="text-alarm-700">
+            {loadError}
+          </p>
         ) : grids === null ? (
           <p className="text-ink-500">Loading elevation grids…</p>
         ) : (
@@ -289,12 +352,19 @@ export default function ElevationAdmin() {
         <section className="card" aria-labelledby="upload-elevation-heading">
           <h2 id="upload-elevation-heading">Import a grid</h2>
           <p className="mt-1 text-sm text-ink-600">
-            A single-band GeoTIFF in EPSG:4326 (WGS 84 latitude/longitude) with heights in metres, or an SRTM .hgt tile named by its south-west corner (e.g. S48W129.hgt). Up to {MAX_ELEVATION_UPLOAD_BYTES / (1024 * 1024)} MB.
+            A single-band GeoTIFF in EPSG:4326 (WGS 84 latitude/longitude) with heights in metres, or an SRTM .hgt tile named by its south-west corner (e.g.
+            S48W129.hgt). Up to {MAX_ELEVATION_UPLOAD_BYTES / (1024 * 1024)} MB.
           </p>
           <form className="mt-3 space-y-3" onSubmit={upload} noValidate>
-            {formError && <p role="alert" className="text-sm text-alarm-700">{formError}</p>}
+            {formError && (
+              <p role="alert" className="text-sm text-alarm-700">
+                {formError}
+              </p>
+            )}
             <div>
-              <label htmlFor="elevation-file" className="field-label">Elevation file</label>
+              <label htmlFor="elevation-file" className="field-label">
+                Elevation file
+              </label>
               <input
                 id="elevation-file"
                 ref={fileRef}
@@ -306,14 +376,22 @@ export default function ElevationAdmin() {
                 aria-invalid={!!fieldErrors.file}
                 aria-describedby="elevation-file-error"
               />
-              {file && !fieldErrors.file && <p className="mt-1 text-xs text-ink-500">{file.name} · {fmtBytes(file.size)}</p>}
+              {file && !fieldErrors.file && (
+                <p className="mt-1 text-xs text-ink-500">
+                  {file.name} · {fmtBytes(file.size)}
+                </p>
+              )}
               {err('file')}
             </div>
             {busy && <ProgressBar progress={progress} />}
             {busy ? (
-              <button type="button" className="btn-secondary w-full" onClick={() => abortRef.current?.abort()}>Cancel upload</button>
+              <button type="button" className="btn-secondary w-full" onClick={() => abortRef.current?.abort()}>
+                Cancel upload
+              </button>
             ) : (
-              <button type="submit" className="btn-primary w-full">Import grid</button>
+              <button type="submit" className="btn-primary w-full">
+                Import grid
+              </button>
             )}
           </form>
         </section>

@@ -47,7 +47,9 @@ function ColourEditor({ op, all, onSaved }: { op: OperatorJson; all: OperatorJso
           value={HEX.test(draft) ? draft.toLowerCase() : op.colour}
           onChange={(e) => setDraft(e.target.value)}
         />
-        <label htmlFor={inputId} className="sr-only">Hex colour of {op.name}</label>
+        <label htmlFor={inputId} className="sr-only">
+          Hex colour of {op.name}
+        </label>
         <input
           id={inputId}
           className="field-input w-24 py-1 font-mono"
@@ -61,18 +63,46 @@ function ColourEditor({ op, all, onSaved }: { op: OperatorJson; all: OperatorJso
         />
         {dirty && (
           <>
-            <button type="button" className="btn-primary px-3 py-1" onClick={save} disabled={busy}>Save</button>
-            <button type="button" className="btn-secondary px-3 py-1" onClick={() => { setDraft(op.colour); setErrors([]); }} disabled={busy}>Undo</button>
+            <button type="button" className="btn-primary px-3 py-1" onClick={save} disabled={busy}>
+              Save
+            </button>
+            <button
+              type="button"
+              className="btn-secondary px-3 py-1"
+              onClick={() => {
+                setDraft(op.colour);
+                setErrors([]);
+              }}
+              disabled={busy}
+            >
+              Undo
+            </button>
           </>
         )}
       </div>
       <div className="mt-1 flex gap-1" role="group" aria-label={`Suggested colours for ${op.name}`}>
         {OPERATOR_PALETTE.map((c) => (
-          <button key={c} type="button" title={c} aria-label={`Use ${c}`} className="h-4 w-4 rounded-sm border border-ink-200" style={{ background: c }} onClick={() => setDraft(c)} />
+          <button
+            key={c}
+            type="button"
+            title={c}
+            aria-label={`Use ${c}`}
+            className="h-4 w-4 rounded-sm border border-ink-200"
+            style={{ background: c }}
+            onClick={() => setDraft(c)}
+          />
         ))}
       </div>
-      {errors.map((m) => <p key={m} id={errId} className="field-error">{m}</p>)}
-      {!errors.length && lookalike && <p className="mt-1 text-xs text-ember-700">Close to {lookalike.name}’s colour; the clock position still tells them apart, but a clearer colour helps.</p>}
+      {errors.map((m) => (
+        <p key={m} id={errId} className="field-error">
+          {m}
+        </p>
+      ))}
+      {!errors.length && lookalike && (
+        <p className="mt-1 text-xs text-ember-700">
+          Close to {lookalike.name}’s colour; the clock position still tells them apart, but a clearer colour helps.
+        </p>
+      )}
     </div>
   );
 }
@@ -89,11 +119,24 @@ export default function OperatorsAdmin() {
   const [busy, setBusy] = useState(false);
 
   useEffect(() => {
-    operatorsApi.list().then((r) => setOperators(r.items), (e: ApiError) => setLoadError(e.message));
+    operatorsApi.list().then(
+      (r) => setOperators(r.items),
+      (e: ApiError) => setLoadError(e.message),
+    );
   }, []);
 
   const marks = useMemo(() => (operators ?? []).map((o) => ({ id: o.id, name: o.name, colour: o.colour })), [operators]);
-  const preview = useMemo(() => (marks.length ? mastIconDataUrl('active', marks.map((m) => m.id), marks) : null), [marks]);
+  const preview = useMemo(
+    () =>
+      marks.length
+        ? mastIconDataUrl(
+            'active',
+            marks.map((m) => m.id),
+            marks,
+          )
+        : null,
+    [marks],
+  );
 
   const replace = (o: OperatorJson) => {
     setOperators((list) => (list ?? []).map((x) => (x.id === o.id ? o : x)));
@@ -132,12 +175,26 @@ export default function OperatorsAdmin() {
         </span>
       ),
     },
-    { key: 'plmn', label: 'MCC / MNC', sortValue: (o) => o.plmn, render: (o) => <span className="font-mono">{o.mcc} / {o.mnc}</span> },
+    {
+      key: 'plmn',
+      label: 'MCC / MNC',
+      sortValue: (o) => o.plmn,
+      render: (o) => (
+        <span className="font-mono">
+          {o.mcc} / {o.mnc}
+        </span>
+      ),
+    },
     { key: 'cells', label: 'Cells', sortValue: (o) => o.cell_count, render: (o) => o.cell_count, className: 'text-right' },
     { key: 'colour', label: 'Map colour', render: (o) => <ColourEditor op={o} all={operators ?? []} onSaved={replace} /> },
   ];
 
-  const err = (k: string) => fieldErrors[k]?.map((m) => <p key={m} className="field-error" id={`op-${k}-error`}>{m}</p>);
+  const err = (k: string) =>
+    fieldErrors[k]?.map((m) => (
+      <p key={m} className="field-error" id={`op-${k}-error`}>
+        {m}
+      </p>
+    ));
 
   return (
     <div className="mt-6 grid gap-6 lg:grid-cols-[1fr_20rem]">
@@ -150,38 +207,84 @@ export default function OperatorsAdmin() {
             </span>
           )}
         </div>
-        <p aria-live="polite" className="mb-2 min-h-5 text-sm text-ink-600" data-testid="operators-notice">{notice}</p>
+        <p aria-live="polite" className="mb-2 min-h-5 text-sm text-ink-600" data-testid="operators-notice">
+          {notice}
+        </p>
         {loadError ? (
-          <p role="alert" className="text-alarm-700">{loadError}</p>
+          <p role="alert" className="text-alarm-700">
+            {loadError}
+          </p>
         ) : operators === null ? (
           <p className="text-ink-500">Loading operators…</p>
         ) : (
-          <SortableTable rows={operators} columns={columns} rowKey={(o) => o.id} initialSort={{ key: 'plmn', dir: 'asc' }} empty="No operators yet" caption="Operators" />
+          <SortableTable
+            rows={operators}
+            columns={columns}
+            rowKey={(o) => o.id}
+            initialSort={{ key: 'plmn', dir: 'asc' }}
+            empty="No operators yet"
+            caption="Operators"
+          />
         )}
       </section>
       <section className="card" aria-labelledby="new-operator-heading">
         <h2 id="new-operator-heading">New operator</h2>
         <p className="mt-1 text-sm text-ink-600">It takes the first unused colour of the colour-blind-safe palette; change it afterwards if you like.</p>
         <form className="mt-3 space-y-3" onSubmit={create} noValidate>
-          {formError && <p role="alert" className="text-sm text-alarm-700">{formError}</p>}
+          {formError && (
+            <p role="alert" className="text-sm text-alarm-700">
+              {formError}
+            </p>
+          )}
           <div>
-            <label htmlFor="op-name" className="field-label">Name</label>
-            <input id="op-name" className="field-input" value={form.name} onChange={(e) => setForm({ ...form, name: e.target.value })} aria-invalid={!!fieldErrors.name} aria-describedby="op-name-error" />
+            <label htmlFor="op-name" className="field-label">
+              Name
+            </label>
+            <input
+              id="op-name"
+              className="field-input"
+              value={form.name}
+              onChange={(e) => setForm({ ...form, name: e.target.value })}
+              aria-invalid={!!fieldErrors.name}
+              aria-describedby="op-name-error"
+            />
             {err('name')}
           </div>
           <div className="grid grid-cols-2 gap-3">
             <div>
-              <label htmlFor="op-mcc" className="field-label">MCC</label>
-              <input id="op-mcc" inputMode="numeric" className="field-input font-mono" value={form.mcc} onChange={(e) => setForm({ ...form, mcc: e.target.value })} aria-invalid={!!fieldErrors.mcc} aria-describedby="op-mcc-error" />
+              <label htmlFor="op-mcc" className="field-label">
+                MCC
+              </label>
+              <input
+                id="op-mcc"
+                inputMode="numeric"
+                className="field-input font-mono"
+                value={form.mcc}
+                onChange={(e) => setForm({ ...form, mcc: e.target.value })}
+                aria-invalid={!!fieldErrors.mcc}
+                aria-describedby="op-mcc-error"
+              />
               {err('mcc')}
             </div>
             <div>
-              <label htmlFor="op-mnc" className="field-label">MNC</label>
-              <input id="op-mnc" inputMode="numeric" className="field-input font-mono" value={form.mnc} onChange={(e) => setForm({ ...form, mnc: e.target.value })} aria-invalid={!!fieldErrors.mnc} aria-describedby="op-mnc-error" />
+              <label htmlFor="op-mnc" className="field-label">
+                MNC
+              </label>
+              <input
+                id="op-mnc"
+                inputMode="numeric"
+                className="field-input font-mono"
+                value={form.mnc}
+                onChange={(e) => setForm({ ...form, mnc: e.target.value })}
+                aria-invalid={!!fieldErrors.mnc}
+                aria-describedby="op-mnc-error"
+              />
               {err('mnc')}
             </div>
           </div>
-          <button type="submit" className="btn-primary w-full" disabled={busy}>Add operator</button>
+          <button type="submit" className="btn-primary w-full" disabled={busy}>
+            Add operator
+          </button>
         </form>
       </section>
     </div>

@@ -35,7 +35,9 @@ function PolygonPreview({ geometry, size = 56 }: { geometry: unknown; size?: num
     const ox = pad + (size - pad * 2 - (x1 - x0) * scale) / 2;
     const oy = pad + (size - pad * 2 - (y1 - y0) * scale) / 2;
     return rings
-      .map((ring) => ring.map((p, i) => `${i ? 'L' : 'M'}${(ox + (p[0] * k - x0) * scale).toFixed(1)},${(oy + (-p[1] - y0) * scale).toFixed(1)}`).join('') + 'Z')
+      .map(
+        (ring) => ring.map((p, i) => `${i ? 'L' : 'M'}${(ox + (p[0] * k - x0) * scale).toFixed(1)},${(oy + (-p[1] - y0) * scale).toFixed(1)}`).join('') + 'Z',
+      )
       .join('');
   }, [geometry, size]);
   if (!path) return <span className="inline-block rounded bg-ink-50" style={{ width: size, height: size }} aria-hidden="true" />;
@@ -91,7 +93,10 @@ export default function RegionsAdmin() {
   const fileRef = useRef<HTMLInputElement>(null);
 
   useEffect(() => {
-    regionsApi.list(OUTLINE_PREVIEW_ZOOM).then((r) => setRegions(r.items), (e: ApiError) => setLoadError(e.message));
+    regionsApi.list(OUTLINE_PREVIEW_ZOOM).then(
+      (r) => setRegions(r.items),
+      (e: ApiError) => setLoadError(e.message),
+    );
   }, []);
 
   const chosen = candidates[choice];
@@ -141,7 +146,8 @@ export default function RegionsAdmin() {
     } catch (err) {
       if (err instanceof ApiError) {
         const fields: FieldErrors = {};
-        for (const [k, v] of Object.entries(err.fields)) (fields[k === 'name' ? 'name' : 'file'] ??= []).push(...v.map((m) => (k === 'name' || k === '_' ? m : `${k}: ${m}`)));
+        for (const [k, v] of Object.entries(err.fields))
+          (fields[k === 'name' ? 'name' : 'file'] ??= []).push(...v.map((m) => (k === 'name' || k === '_' ? m : `${k}: ${m}`)));
         setFieldErrors(fields);
         setFormError(err.message);
       } else setFormError('Could not import the region');
@@ -173,40 +179,72 @@ export default function RegionsAdmin() {
       render: (r) =>
         confirming === r.id ? (
           <span className="flex flex-wrap gap-2">
-            <button type="button" className="btn-danger py-1" onClick={() => remove(r)}>Delete {r.name}</button>
-            <button type="button" className="btn-secondary py-1" onClick={() => setConfirming(null)}>Keep</button>
+            <button type="button" className="btn-danger py-1" onClick={() => remove(r)}>
+              Delete {r.name}
+            </button>
+            <button type="button" className="btn-secondary py-1" onClick={() => setConfirming(null)}>
+              Keep
+            </button>
           </span>
         ) : (
           <span className="flex flex-wrap gap-2">
-            <a className="btn-secondary py-1" href={`/map?region=${r.id}`}>Show on map</a>
-            <button type="button" className="btn-secondary py-1" onClick={() => setConfirming(r.id)}>Delete</button>
+            <a className="btn-secondary py-1" href={`/map?region=${r.id}`}>
+              Show on map
+            </a>
+            <button type="button" className="btn-secondary py-1" onClick={() => setConfirming(r.id)}>
+              Delete
+            </button>
           </span>
         ),
     },
   ];
 
-  const err = (k: string) => fieldErrors[k]?.map((m) => <p key={m} className="field-error" id={`region-${k}-error`}>{m}</p>);
+  const err = (k: string) =>
+    fieldErrors[k]?.map((m) => (
+      <p key={m} className="field-error" id={`region-${k}-error`}>
+        {m}
+      </p>
+    ));
 
   return (
     <div className="mt-6 grid gap-6 lg:grid-cols-[1fr_22rem]">
       <section className="card min-w-0" aria-labelledby="regions-heading">
-        <h2 id="regions-heading" className="mb-3">Regions</h2>
-        <p aria-live="polite" className="mb-2 min-h-5 text-sm text-ink-600" data-testid="regions-notice">{notice}</p>
+        <h2 id="regions-heading" className="mb-3">
+          Regions
+        </h2>
+        <p aria-live="polite" className="mb-2 min-h-5 text-sm text-ink-600" data-testid="regions-notice">
+          {notice}
+        </p>
         {loadError ? (
-          <p role="alert" className="text-alarm-700">{loadError}</p>
+          <p role="alert" className="text-alarm-700">
+            {loadError}
+          </p>
         ) : regions === null ? (
           <p className="text-ink-500">Loading regions…</p>
         ) : (
-          <SortableTable rows={regions} columns={columns} rowKey={(r) => r.id} initialSort={{ key: 'name', dir: 'asc' }} empty="No regions yet: import one" caption="Regions" />
+          <SortableTable
+            rows={regions}
+            columns={columns}
+            rowKey={(r) => r.id}
+            initialSort={{ key: 'name', dir: 'asc' }}
+            empty="No regions yet: import one"
+            caption="Regions"
+          />
         )}
       </section>
       <section className="card" aria-labelledby="import-region-heading">
         <h2 id="import-region-heading">Import a region</h2>
         <p className="mt-1 text-sm text-ink-600">A GeoJSON file (WGS84 longitude, latitude) with a Polygon or MultiPolygon, bare or as a Feature.</p>
         <form className="mt-3 space-y-3" onSubmit={importRegion} noValidate>
-          {formError && <p role="alert" className="text-sm text-alarm-700">{formError}</p>}
+          {formError && (
+            <p role="alert" className="text-sm text-alarm-700">
+              {formError}
+            </p>
+          )}
           <div>
-            <label htmlFor="region-file" className="field-label">GeoJSON file</label>
+            <label htmlFor="region-file" className="field-label">
+              GeoJSON file
+            </label>
             <input
               id="region-file"
               ref={fileRef}
@@ -221,9 +259,23 @@ export default function RegionsAdmin() {
           </div>
           {candidates.length > 1 && (
             <div>
-              <label htmlFor="region-feature" className="field-label">Polygon to import</label>
-              <select id="region-feature" className="field-input" value={choice} onChange={(e) => { setChoice(Number(e.target.value)); setName(candidates[Number(e.target.value)].name); }}>
-                {candidates.map((c, i) => <option key={i} value={i}>{c.label}</option>)}
+              <label htmlFor="region-feature" className="field-label">
+                Polygon to import
+              </label>
+              <select
+                id="region-feature"
+                className="field-input"
+                value={choice}
+                onChange={(e) => {
+                  setChoice(Number(e.target.value));
+                  setName(candidates[Number(e.target.value)].name);
+                }}
+              >
+                {candidates.map((c, i) => (
+                  <option key={i} value={i}>
+                    {c.label}
+                  </option>
+                ))}
               </select>
             </div>
           )}
@@ -234,11 +286,22 @@ export default function RegionsAdmin() {
             </div>
           )}
           <div>
-            <label htmlFor="region-name" className="field-label">Name</label>
-            <input id="region-name" className="field-input" value={name} onChange={(e) => setName(e.target.value)} aria-invalid={!!fieldErrors.name} aria-describedby="region-name-error" />
+            <label htmlFor="region-name" className="field-label">
+              Name
+            </label>
+            <input
+              id="region-name"
+              className="field-input"
+              value={name}
+              onChange={(e) => setName(e.target.value)}
+              aria-invalid={!!fieldErrors.name}
+              aria-describedby="region-name-error"
+            />
             {err('name')}
           </div>
-          <button type="submit" className="btn-primary w-full" disabled={busy}>Import region</button>
+          <button type="submit" className="btn-primary w-full" disabled={busy}>
+            Import region
+          </button>
         </form>
       </section>
     </div>

@@ -21,7 +21,10 @@ export default function UsersAdmin({ currentUserId }: Props) {
   const [busy, setBusy] = useState(false);
 
   useEffect(() => {
-    usersApi.list().then((r) => setUsers(r.items), (e: ApiError) => setLoadError(e.message));
+    usersApi.list().then(
+      (r) => setUsers(r.items),
+      (e: ApiError) => setLoadError(e.message),
+    );
   }, []);
 
   const filtered = useMemo(() => {
@@ -72,7 +75,9 @@ export default function UsersAdmin({ currentUserId }: Props) {
     try {
       const updated = await usersApi.resendInvite(u.id);
       replace(updated);
-      setNotice(updated.mailSent ? `New invitation sent to ${updated.email}; older links no longer work` : 'The invitation could not be mailed. Try again later.');
+      setNotice(
+        updated.mailSent ? `New invitation sent to ${updated.email}; older links no longer work` : 'The invitation could not be mailed. Try again later.',
+      );
     } catch (e) {
       setNotice(e instanceof ApiError ? e.message : 'Could not send the invitation');
     }
@@ -93,7 +98,11 @@ export default function UsersAdmin({ currentUserId }: Props) {
           disabled={u.id === currentUserId}
           onChange={(e) => change(u, { role: e.target.value as Role })}
         >
-          {ROLES.map((r) => <option key={r} value={r}>{ROLE_LABELS[r]}</option>)}
+          {ROLES.map((r) => (
+            <option key={r} value={r}>
+              {ROLE_LABELS[r]}
+            </option>
+          ))}
         </select>
       ),
     },
@@ -134,7 +143,12 @@ export default function UsersAdmin({ currentUserId }: Props) {
     },
   ];
 
-  const err = (k: string) => fieldErrors[k]?.map((m) => <p key={m} className="field-error" id={`${k}-error`}>{m}</p>);
+  const err = (k: string) =>
+    fieldErrors[k]?.map((m) => (
+      <p key={m} className="field-error" id={`${k}-error`}>
+        {m}
+      </p>
+    ));
 
   return (
     <div className="mt-6 grid gap-6 lg:grid-cols-[1fr_20rem]">
@@ -143,41 +157,91 @@ export default function UsersAdmin({ currentUserId }: Props) {
           <h2 id="users-heading">Accounts</h2>
           <label className="flex w-full items-center gap-2 text-sm sm:ml-auto sm:w-auto">
             <span className="sr-only">Search users</span>
-            <input type="search" placeholder="Search name, e-mail, role" className="field-input w-full sm:w-64" value={query} onChange={(e) => setQuery(e.target.value)} />
+            <input
+              type="search"
+              placeholder="Search name, e-mail, role"
+              className="field-input w-full sm:w-64"
+              value={query}
+              onChange={(e) => setQuery(e.target.value)}
+            />
           </label>
         </div>
-        <p aria-live="polite" className="mb-2 min-h-5 text-sm text-ink-600" data-testid="users-notice">{notice}</p>
+        <p aria-live="polite" className="mb-2 min-h-5 text-sm text-ink-600" data-testid="users-notice">
+          {notice}
+        </p>
         {loadError ? (
-          <p role="alert" className="text-alarm-700">{loadError}</p>
+          <p role="alert" className="text-alarm-700">
+            {loadError}
+          </p>
         ) : users === null ? (
           <p className="text-ink-500">Loading users…</p>
         ) : (
-          <SortableTable rows={filtered} columns={columns} rowKey={(u) => u.id} initialSort={{ key: 'name', dir: 'asc' }} empty={query ? 'No user matches your search' : 'No users yet'} caption="Users" />
+          <SortableTable
+            rows={filtered}
+            columns={columns}
+            rowKey={(u) => u.id}
+            initialSort={{ key: 'name', dir: 'asc' }}
+            empty={query ? 'No user matches your search' : 'No users yet'}
+            caption="Users"
+          />
         )}
       </section>
       <section className="card min-w-0" aria-labelledby="new-user-heading">
         <h2 id="new-user-heading">Invite a user</h2>
-        <p className="mt-1 text-sm text-ink-600">They get an e-mail with a link to choose their own password. The link works for {TOKEN_LIFETIME_MIN.invite / 1440} days.</p>
+        <p className="mt-1 text-sm text-ink-600">
+          They get an e-mail with a link to choose their own password. The link works for {TOKEN_LIFETIME_MIN.invite / 1440} days.
+        </p>
         <form className="mt-3 space-y-3" onSubmit={create} noValidate>
-          {formError && <p role="alert" className="text-sm text-alarm-700">{formError}</p>}
+          {formError && (
+            <p role="alert" className="text-sm text-alarm-700">
+              {formError}
+            </p>
+          )}
           <div>
-            <label htmlFor="nu-name" className="field-label">Name</label>
-            <input id="nu-name" className="field-input" value={form.name} onChange={(e) => setForm({ ...form, name: e.target.value })} aria-invalid={!!fieldErrors.name} aria-describedby="name-error" />
+            <label htmlFor="nu-name" className="field-label">
+              Name
+            </label>
+            <input
+              id="nu-name"
+              className="field-input"
+              value={form.name}
+              onChange={(e) => setForm({ ...form, name: e.target.value })}
+              aria-invalid={!!fieldErrors.name}
+              aria-describedby="name-error"
+            />
             {err('name')}
           </div>
           <div>
-            <label htmlFor="nu-email" className="field-label">E-mail</label>
-            <input id="nu-email" type="email" className="field-input" value={form.email} onChange={(e) => setForm({ ...form, email: e.target.value })} aria-invalid={!!fieldErrors.email} aria-describedby="email-error" />
+            <label htmlFor="nu-email" className="field-label">
+              E-mail
+            </label>
+            <input
+              id="nu-email"
+              type="email"
+              className="field-input"
+              value={form.email}
+              onChange={(e) => setForm({ ...form, email: e.target.value })}
+              aria-invalid={!!fieldErrors.email}
+              aria-describedby="email-error"
+            />
             {err('email')}
           </div>
           <div>
-            <label htmlFor="nu-role" className="field-label">Role</label>
+            <label htmlFor="nu-role" className="field-label">
+              Role
+            </label>
             <select id="nu-role" className="field-input" value={form.role} onChange={(e) => setForm({ ...form, role: e.target.value as Role })}>
-              {ROLES.map((r) => <option key={r} value={r}>{ROLE_LABELS[r]}</option>)}
+              {ROLES.map((r) => (
+                <option key={r} value={r}>
+                  {ROLE_LABELS[r]}
+                </option>
+              ))}
             </select>
             {err('role')}
           </div>
-          <button type="submit" className="btn-primary w-full" disabled={busy}>{busy ? 'Inviting…' : 'Send invitation'}</button>
+          <button type="submit" className="btn-primary w-full" disabled={busy}>
+            {busy ? 'Inviting…' : 'Send invitation'}
+          </button>
         </form>
       </section>
     </div>

@@ -19,7 +19,12 @@ interface Props {
 /** Rows of frequency → value, with the server's messages beside each input. */
 export function FrequencyTableEditor({ field, valueKey, valueLabel, valueStep, rows, onChange, errors }: Props) {
   const set = (i: number, patch: Partial<FrequencyRow>) => onChange(rows.map((r, j) => (j === i ? { ...r, ...patch } : r)));
-  const msg = (key: string) => errors[key]?.map((m) => <p key={m} className="field-error">{m}</p>);
+  const msg = (key: string) =>
+    errors[key]?.map((m) => (
+      <p key={m} className="field-error">
+        {m}
+      </p>
+    ));
   return (
     <fieldset>
       <legend className="field-label">{valueLabel} over frequency</legend>
@@ -28,9 +33,15 @@ export function FrequencyTableEditor({ field, valueKey, valueLabel, valueStep, r
       <table className="w-full text-sm">
         <thead>
           <tr className="text-left text-xs text-ink-600">
-            <th scope="col" className="pb-1 font-semibold">MHz</th>
-            <th scope="col" className="pb-1 font-semibold">{valueLabel}</th>
-            <th scope="col"><span className="sr-only">Remove</span></th>
+            <th scope="col" className="pb-1 font-semibold">
+              MHz
+            </th>
+            <th scope="col" className="pb-1 font-semibold">
+              {valueLabel}
+            </th>
+            <th scope="col">
+              <span className="sr-only">Remove</span>
+            </th>
           </tr>
         </thead>
         <tbody>

@@ -47,7 +47,17 @@ const STEP_VERB: Record<PlanState, string> = {
   verified: 'Mark verified',
 };
 
-function PlanCard({ plan, canWrite, canRecord, onChanged }: { plan: PlanDetailJson; canWrite: boolean; canRecord: boolean; onChanged: (p: PlanDetailJson) => void }) {
+function PlanCard({
+  plan,
+  canWrite,
+  canRecord,
+  onChanged,
+}: {
+  plan: PlanDetailJson;
+  canWrite: boolean;
+  canRecord: boolean;
+  onChanged: (p: PlanDetailJson) => void;
+}) {
   const [date, setDate] = useState(plan.scheduled_for ?? '');
   const [problem, setProblem] = useState<{ message: string; fields: FieldErrors } | null>(null);
   const [busy, setBusy] = useState(false);
@@ -58,7 +68,10 @@ function PlanCard({ plan, canWrite, canRecord, onChanged }: { plan: PlanDetailJs
     setBusy(true);
     setProblem(null);
     try {
-      const body = to === 'scheduled' && rank(to) > rank(plan.state) ? { state: to, scheduled_for: date || null, row_version: plan.row_version } : { state: to, row_version: plan.row_version };
+      const body =
+        to === 'scheduled' && rank(to) > rank(plan.state)
+          ? { state: to, scheduled_for: date || null, row_version: plan.row_version }
+          : { state: to, row_version: plan.row_version };
       onChanged(await plansApi.update(plan.id, body));
     } catch (err) {
       setProblem(err instanceof ApiError ? { message: err.message, fields: err.fields } : { message: 'Could not change the plan', fields: {} });
@@ -82,7 +95,9 @@ function PlanCard({ plan, canWrite, canRecord, onChanged }: { plan: PlanDetailJs
   return (
     <article className="card min-w-0 space-y-3" aria-labelledby={`plan-${plan.id}-heading`} data-testid="plan-card">
       <header className="flex flex-wrap items-center gap-2">
-        <h3 id={`plan-${plan.id}-heading`} className="font-semibold text-ink-800">Plan {plan.id}</h3>
+        <h3 id={`plan-${plan.id}-heading`} className="font-semibold text-ink-800">
+          Plan {plan.id}
+        </h3>
         <PlanStateBadge state={plan.state} />
         <span className="text-xs text-ink-500">
           since {new Date(plan.state_changed_at).toLocaleDateString()}
@@ -90,7 +105,9 @@ function PlanCard({ plan, canWrite, canRecord, onChanged }: { plan: PlanDetailJs
         </span>
         <span className="ml-auto flex gap-2">
           {plan.cell && (
-            <a className="btn-secondary py-1" href={`/plans/${plan.id}/sheet`}>Aim sheet</a>
+            <a className="btn-secondary py-1" href={`/plans/${plan.id}/sheet`}>
+              Aim sheet
+            </a>
           )}
         </span>
       </header>
@@ -98,7 +115,14 @@ function PlanCard({ plan, canWrite, canRecord, onChanged }: { plan: PlanDetailJs
       <div className="grid gap-4 md:grid-cols-2">
         <Facts
           items={[
-            ['Cell', plan.cell ? `${plan.cell.operator_name} ${plan.cell.tech.toUpperCase()} ${plan.cell.band}, channel ${plan.cell.channel}${plan.cell.pci !== null ? `, PCI ${plan.cell.pci}` : ''}` : <span className="text-ink-500">Not chosen yet</span>],
+            [
+              'Cell',
+              plan.cell ? (
+                `${plan.cell.operator_name} ${plan.cell.tech.toUpperCase()} ${plan.cell.band}, channel ${plan.cell.channel}${plan.cell.pci !== null ? `, PCI ${plan.cell.pci}` : ''}`
+              ) : (
+                <span className="text-ink-500">Not chosen yet</span>
+              ),
+            ],
             ['Mast', plan.cell ? plan.cell.mast_name : '—'],
             ['Antenna', plan.antenna_name ?? '—'],
             ['Cable', plan.cable_name ? `${plan.cable_m ?? '?'} m of ${plan.cable_name}` : '—'],
@@ -110,7 +134,12 @@ function PlanCard({ plan, canWrite, canRecord, onChanged }: { plan: PlanDetailJs
           <Facts
             items={[
               ['Predicted RSRP', `${fmt(f.predicted_rsrp_dbm, 1, 'dBm')} (${f.grade})`],
-              ['SINR', f.sinr_db == null ? '—' : `${fmt(f.sinr_db, 1, 'dB')}${f.expected_throughput_mbps != null ? ` · up to ${fmt(f.expected_throughput_mbps, 0, 'Mbit/s')}` : ''}`],
+              [
+                'SINR',
+                f.sinr_db == null
+                  ? '—'
+                  : `${fmt(f.sinr_db, 1, 'dB')}${f.expected_throughput_mbps != null ? ` · up to ${fmt(f.expected_throughput_mbps, 0, 'Mbit/s')}` : ''}`,
+              ],
               ['Expected gain', fmt(f.expected_gain_db, 1, 'dB')],
               ['Distance', `${(f.distance_m / 1000).toFixed(2)} km`],
               ['Bearing', `${fmt(f.bearing_true_deg, 1, '° true')} · ${fmt(f.bearing_magnetic_deg, 1, '° magnetic')}`],
@@ -140,14 +169,21 @@ function PlanCard({ plan, canWrite, canRecord, onChanged }: { plan: PlanDetailJs
         <div className="space-y-2 border-t border-ink-100 pt-3">
           {(plan.state === 'planned' || plan.state === 'scheduled') && (
             <p className="rounded border border-ember-500 bg-ember-50 p-2 text-xs text-ember-700" role="note">
-              Before anyone goes up a ladder: read the safety cautions on this page and on the aim sheet. Local codes, the owner’s consent and licensed professionals come first.
+              Before anyone goes up a ladder: read the safety cautions on this page and on the aim sheet. Local codes, the owner’s consent and licensed
+              professionals come first.
             </p>
           )}
           <div className="flex flex-wrap items-end gap-2">
             {forward.includes('scheduled') && (
               <label className="text-sm">
                 <span className="field-label">Install date</span>
-                <input type="date" className="field-input py-1" value={date} onChange={(e) => setDate(e.target.value)} aria-invalid={!!problem?.fields.scheduled_for} />
+                <input
+                  type="date"
+                  className="field-input py-1"
+                  value={date}
+                  onChange={(e) => setDate(e.target.value)}
+                  aria-invalid={!!problem?.fields.scheduled_for}
+                />
               </label>
             )}
             {forward.map((s) => (
@@ -167,7 +203,9 @@ function PlanCard({ plan, canWrite, canRecord, onChanged }: { plan: PlanDetailJs
               {Object.keys(problem.fields).length > 0 && (
                 <ul className="mt-1 list-disc pl-5">
                   {Object.entries(problem.fields).map(([k, msgs]) => (
-                    <li key={k}>{fieldLabels[k] ?? k}: {msgs.join('; ')}</li>
+                    <li key={k}>
+                      {fieldLabels[k] ?? k}: {msgs.join('; ')}
+                    </li>
                   ))}
                 </ul>
               )}
@@ -181,12 +219,15 @@ function PlanCard({ plan, canWrite, canRecord, onChanged }: { plan: PlanDetailJs
 
 function CheckResult({ plan }: { plan: PlanDetailJson }) {
   const r = plan.result;
-  const speed = (s: typeof r.speed_before) => (s.tests ? `${s.down_mbps} ↓ / ${s.up_mbps} ↑ Mbit/s${s.latency_ms !== null ? `, ${s.latency_ms} ms` : ''}` : '—');
+  const speed = (s: typeof r.speed_before) =>
+    s.tests ? `${s.down_mbps} ↓ / ${s.up_mbps} ↑ Mbit/s${s.latency_ms !== null ? `, ${s.latency_ms} ms` : ''}` : '—';
   return (
     <section aria-label="Install checks" className="space-y-2">
       <h4 className="text-sm font-semibold text-ink-800">Install checks: measured against predicted</h4>
       <p className="text-xs text-ink-600">
-        {plan.checks.map((c) => `${c.phase === 'before' ? 'Before' : 'After'} ${when(c.taken_at)}${c.created_by_name ? ` (${c.created_by_name})` : ''}`).join(' · ')}
+        {plan.checks
+          .map((c) => `${c.phase === 'before' ? 'Before' : 'After'} ${when(c.taken_at)}${c.created_by_name ? ` (${c.created_by_name})` : ''}`)
+          .join(' · ')}
       </p>
       <div className="overflow-x-auto">
         <table className="data-table">
@@ -195,23 +236,38 @@ function CheckResult({ plan }: { plan: PlanDetailJson }) {
             <tr>
               <th scope="col">PCI</th>
               <th scope="col">Channel</th>
-              <th scope="col" className="text-right">Before</th>
-              <th scope="col" className="text-right">After</th>
-              <th scope="col" className="text-right">Measured gain</th>
-              <th scope="col" className="text-right">Predicted gain</th>
-              <th scope="col" className="text-right">Difference</th>
+              <th scope="col" className="text-right">
+                Before
+              </th>
+              <th scope="col" className="text-right">
+                After
+              </th>
+              <th scope="col" className="text-right">
+                Measured gain
+              </th>
+              <th scope="col" className="text-right">
+                Predicted gain
+              </th>
+              <th scope="col" className="text-right">
+                Difference
+              </th>
             </tr>
           </thead>
           <tbody>
             {r.gains.map((g) => (
               <tr key={`${g.pci}-${g.channel}`}>
-                <td>{g.pci}{plan.cell?.pci === g.pci && <span className="ml-1 text-xs text-ink-500">(planned)</span>}</td>
+                <td>
+                  {g.pci}
+                  {plan.cell?.pci === g.pci && <span className="ml-1 text-xs text-ink-500">(planned)</span>}
+                </td>
                 <td>{g.channel ?? '—'}</td>
                 <td className="text-right tabular-nums">{fmt(g.before_rsrp_dbm, 1, 'dBm')}</td>
                 <td className="text-right tabular-nums">{fmt(g.after_rsrp_dbm, 1, 'dBm')}</td>
                 <td className="text-right font-semibold tabular-nums">{signed(g.measured_gain_db)}</td>
                 <td className="text-right tabular-nums">{signed(g.predicted_gain_db)}</td>
-                <td className={`text-right tabular-nums ${g.difference_db !== null && g.difference_db < -3 ? 'text-alarm-700' : ''}`}>{signed(g.difference_db)}</td>
+                <td className={`text-right tabular-nums ${g.difference_db !== null && g.difference_db < -3 ? 'text-alarm-700' : ''}`}>
+                  {signed(g.difference_db)}
+                </td>
               </tr>
             ))}
           </tbody>
@@ -221,8 +277,10 @@ function CheckResult({ plan }: { plan: PlanDetailJson }) {
         <span className="text-ink-600">Speed before:</span> {speed(r.speed_before)} · <span className="text-ink-600">after:</span> {speed(r.speed_after)}
         {r.expected_throughput_mbps !== null && (
           <span data-testid="speed-vs-expected">
-            {' '}· <span className="text-ink-600">expected up to</span> {r.expected_throughput_mbps.toFixed(0)} Mbit/s
-            {r.speed_after.down_mbps !== null && ` (measured ${Math.round((100 * r.speed_after.down_mbps) / Math.max(0.1, r.expected_throughput_mbps))} % of it; the cell is shared, so less is normal at busy times)`}
+            {' '}
+            · <span className="text-ink-600">expected up to</span> {r.expected_throughput_mbps.toFixed(0)} Mbit/s
+            {r.speed_after.down_mbps !== null &&
+              ` (measured ${Math.round((100 * r.speed_after.down_mbps) / Math.max(0.1, r.expected_throughput_mbps))} % of it; the cell is shared, so less is normal at busy times)`}
           </span>
         )}
       </p>
@@ -258,7 +316,14 @@ export default function CustomerDetail({ customerId, canWrite, canRecord }: Prop
   const [editing, setEditing] = useState(false);
   const [notice, setNotice] = useState<string | null>(null);
 
-  const loadHistory = useCallback(() => customersApi.history(customerId).then((r) => setHistory(r.items), () => undefined), [customerId]);
+  const loadHistory = useCallback(
+    () =>
+      customersApi.history(customerId).then(
+        (r) => setHistory(r.items),
+        () => undefined,
+      ),
+    [customerId],
+  );
 
   useEffect(() => {
     (async () => {
@@ -286,7 +351,12 @@ export default function CustomerDetail({ customerId, canWrite, canRecord }: Prop
     }
   }
 
-  if (error) return <p role="alert" className="mt-6 text-alarm-700">{error}</p>;
+  if (error)
+    return (
+      <p role="alert" className="mt-6 text-alarm-700">
+        {error}
+      </p>
+    );
   if (!customer || !plans) return <p className="mt-6 text-ink-500">Loading…</p>;
 
   return (
@@ -296,7 +366,9 @@ export default function CustomerDetail({ customerId, canWrite, canRecord }: Prop
           <div className="mb-3 flex flex-wrap items-center gap-2">
             <h2 id="customer-heading">Details</h2>
             {canWrite && !editing && !customer.erased_at && (
-              <button type="button" className="btn-secondary ml-auto py-1" onClick={() => setEditing(true)}>Edit</button>
+              <button type="button" className="btn-secondary ml-auto py-1" onClick={() => setEditing(true)}>
+                Edit
+              </button>
             )}
           </div>
           {customer.erased_at && (
@@ -322,8 +394,26 @@ export default function CustomerDetail({ customerId, canWrite, canRecord }: Prop
               items={[
                 ['Address', `${customer.address_label}${customer.postcode ? `, ${customer.postcode}` : ''}`],
                 ['Position', `${customer.lat.toFixed(5)}, ${customer.lon.toFixed(5)}`],
-                ['Phone', customer.phone ? <a className="underline" href={`tel:${customer.phone.replace(/[^+\d]/g, '')}`}>{customer.phone}</a> : '—'],
-                ['E-mail', customer.email ? <a className="underline" href={`mailto:${customer.email}`}>{customer.email}</a> : '—'],
+                [
+                  'Phone',
+                  customer.phone ? (
+                    <a className="underline" href={`tel:${customer.phone.replace(/[^+\d]/g, '')}`}>
+                      {customer.phone}
+                    </a>
+                  ) : (
+                    '—'
+                  ),
+                ],
+                [
+                  'E-mail',
+                  customer.email ? (
+                    <a className="underline" href={`mailto:${customer.email}`}>
+                      {customer.email}
+                    </a>
+                  ) : (
+                    '—'
+                  ),
+                ],
                 ['Today', [customer.current_operator_name, customer.current_antenna_name].filter(Boolean).join(' · ') || '—'],
                 ['Notes', customer.notes ? <span className="whitespace-pre-line">{customer.notes}</span> : '—'],
               ]}
@@ -332,11 +422,7 @@ export default function CustomerDetail({ customerId, canWrite, canRecord }: Prop
           {canWrite && !editing && !customer.erased_at && (
             <div className="mt-3 flex border-t border-ink-100 pt-3">
               {/* The name is in the page heading too: erasure loads the page again to show the erased record. */}
-              <EraseCustomer
-                customerId={customer.id}
-                customerName={customer.name}
-                onErased={() => window.location.reload()}
-              />
+              <EraseCustomer customerId={customer.id} customerName={customer.name} onErased={() => window.location.reload()} />
             </div>
           )}
         </section>
@@ -346,12 +432,18 @@ export default function CustomerDetail({ customerId, canWrite, canRecord }: Prop
             <h2 id="plans-heading">Plans</h2>
             {canWrite && (
               <span className="ml-auto flex flex-wrap gap-2">
-                <a className="btn-primary py-1.5" href={`/plan?customer=${customer.id}`}>Plan on the map</a>
-                <button type="button" className="btn-secondary py-1.5" onClick={newEnquiry}>New enquiry</button>
+                <a className="btn-primary py-1.5" href={`/plan?customer=${customer.id}`}>
+                  Plan on the map
+                </a>
+                <button type="button" className="btn-secondary py-1.5" onClick={newEnquiry}>
+                  New enquiry
+                </button>
               </span>
             )}
           </div>
-          <p aria-live="polite" className="text-sm text-ink-600" data-testid="customer-notice">{notice}</p>
+          <p aria-live="polite" className="text-sm text-ink-600" data-testid="customer-notice">
+            {notice}
+          </p>
           {plans.length === 0 ? (
             <p className="card text-ink-500">No plans yet.</p>
           ) : (

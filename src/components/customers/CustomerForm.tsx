@@ -1,6 +1,14 @@
 import { useEffect, useState, type FormEvent, type ReactNode } from 'react';
 import { ApiError, type FieldErrors } from '../../lib/client/api';
-import { catalogueApi, checkWith, referenceApi, type AntennaJson, type CustomerBody, type CustomerJson, type OperatorChoice } from '../../lib/client/planning-api';
+import {
+  catalogueApi,
+  checkWith,
+  referenceApi,
+  type AntennaJson,
+  type CustomerBody,
+  type CustomerJson,
+  type OperatorChoice,
+} from '../../lib/client/planning-api';
 import { CustomerInputSchema } from '../../lib/schemas/customers';
 import AddressSearch from '../planner/AddressSearch';
 
@@ -58,9 +66,15 @@ function toBody(f: Form): CustomerBody {
 function Field({ id, label, error, children }: { id: string; label: string; error?: string[]; children: ReactNode }) {
   return (
     <div>
-      <label htmlFor={id} className="field-label">{label}</label>
+      <label htmlFor={id} className="field-label">
+        {label}
+      </label>
       {children}
-      {error?.map((m) => <p key={m} className="field-error" id={`${id}-error`}>{m}</p>)}
+      {error?.map((m) => (
+        <p key={m} className="field-error" id={`${id}-error`}>
+          {m}
+        </p>
+      ))}
     </div>
   );
 }
@@ -76,8 +90,14 @@ export default function CustomerForm({ customer, submitLabel, onSave, onCancel }
   const idp = customer ? `cu-${customer.id}` : 'cu-new';
 
   useEffect(() => {
-    referenceApi.operators().then((r) => setOperators(r.items), () => setOperators([]));
-    catalogueApi.antennas().then((r) => setAntennas(r.items), () => setAntennas([]));
+    referenceApi.operators().then(
+      (r) => setOperators(r.items),
+      () => setOperators([]),
+    );
+    catalogueApi.antennas().then(
+      (r) => setAntennas(r.items),
+      () => setAntennas([]),
+    );
   }, []);
 
   const set = (patch: Partial<Form>) => setForm((f) => ({ ...f, ...patch }));
@@ -108,16 +128,34 @@ export default function CustomerForm({ customer, submitLabel, onSave, onCancel }
   const err = (k: string) => fields[k];
   return (
     <form className="space-y-3" onSubmit={submit} noValidate data-testid="customer-form">
-      {formError && <p role="alert" className="text-sm text-alarm-700">{formError}</p>}
+      {formError && (
+        <p role="alert" className="text-sm text-alarm-700">
+          {formError}
+        </p>
+      )}
       <Field id={`${idp}-name`} label="Name" error={err('name')}>
         <input id={`${idp}-name`} className="field-input" value={form.name} onChange={(e) => set({ name: e.target.value })} aria-invalid={!!err('name')} />
       </Field>
       <div className="grid gap-3 sm:grid-cols-2">
         <Field id={`${idp}-phone`} label="Phone" error={err('phone')}>
-          <input id={`${idp}-phone`} type="tel" className="field-input" value={form.phone} onChange={(e) => set({ phone: e.target.value })} aria-invalid={!!err('phone')} />
+          <input
+            id={`${idp}-phone`}
+            type="tel"
+            className="field-input"
+            value={form.phone}
+            onChange={(e) => set({ phone: e.target.value })}
+            aria-invalid={!!err('phone')}
+          />
         </Field>
         <Field id={`${idp}-email`} label="E-mail" error={err('email')}>
-          <input id={`${idp}-email`} type="email" className="field-input" value={form.email} onChange={(e) => set({ email: e.target.value })} aria-invalid={!!err('email')} />
+          <input
+            id={`${idp}-email`}
+            type="email"
+            className="field-input"
+            value={form.email}
+            onChange={(e) => set({ email: e.target.value })}
+            aria-invalid={!!err('email')}
+          />
         </Field>
       </div>
       <fieldset className="space-y-3 rounded-md border border-ink-200 p-3">
@@ -133,40 +171,92 @@ export default function CustomerForm({ customer, submitLabel, onSave, onCancel }
           }
         />
         <Field id={`${idp}-label`} label="Address" error={err('address_label')}>
-          <input id={`${idp}-label`} className="field-input" value={form.address_label} onChange={(e) => set({ address_label: e.target.value })} aria-invalid={!!err('address_label')} />
+          <input
+            id={`${idp}-label`}
+            className="field-input"
+            value={form.address_label}
+            onChange={(e) => set({ address_label: e.target.value })}
+            aria-invalid={!!err('address_label')}
+          />
         </Field>
         <div className="grid grid-cols-3 gap-2">
           <Field id={`${idp}-postcode`} label="Postcode" error={err('postcode')}>
-            <input id={`${idp}-postcode`} className="field-input" value={form.postcode} onChange={(e) => set({ postcode: e.target.value })} aria-invalid={!!err('postcode')} />
+            <input
+              id={`${idp}-postcode`}
+              className="field-input"
+              value={form.postcode}
+              onChange={(e) => set({ postcode: e.target.value })}
+              aria-invalid={!!err('postcode')}
+            />
           </Field>
           <Field id={`${idp}-lat`} label="Latitude" error={err('lat')}>
-            <input id={`${idp}-lat`} inputMode="decimal" className="field-input" value={form.lat} onChange={(e) => set({ lat: e.target.value })} aria-invalid={!!err('lat')} />
+            <input
+              id={`${idp}-lat`}
+              inputMode="decimal"
+              className="field-input"
+              value={form.lat}
+              onChange={(e) => set({ lat: e.target.value })}
+              aria-invalid={!!err('lat')}
+            />
           </Field>
           <Field id={`${idp}-lon`} label="Longitude" error={err('lon')}>
-            <input id={`${idp}-lon`} inputMode="decimal" className="field-input" value={form.lon} onChange={(e) => set({ lon: e.target.value })} aria-invalid={!!err('lon')} />
+            <input
+              id={`${idp}-lon`}
+              inputMode="decimal"
+              className="field-input"
+              value={form.lon}
+              onChange={(e) => set({ lon: e.target.value })}
+              aria-invalid={!!err('lon')}
+            />
           </Field>
         </div>
       </fieldset>
       <div className="grid gap-3 sm:grid-cols-2">
         <Field id={`${idp}-operator`} label="Current operator" error={err('current_operator_id')}>
-          <select id={`${idp}-operator`} className="field-input" value={form.current_operator_id} onChange={(e) => set({ current_operator_id: e.target.value })}>
+          <select
+            id={`${idp}-operator`}
+            className="field-input"
+            value={form.current_operator_id}
+            onChange={(e) => set({ current_operator_id: e.target.value })}
+          >
             <option value="">Not known</option>
-            {operators.map((o) => <option key={o.id} value={o.id}>{o.name}</option>)}
+            {operators.map((o) => (
+              <option key={o.id} value={o.id}>
+                {o.name}
+              </option>
+            ))}
           </select>
         </Field>
         <Field id={`${idp}-antenna`} label="Current antenna" error={err('current_antenna_id')}>
           <select id={`${idp}-antenna`} className="field-input" value={form.current_antenna_id} onChange={(e) => set({ current_antenna_id: e.target.value })}>
             <option value="">Not known</option>
-            {antennas.map((a) => <option key={a.id} value={a.id}>{a.name}</option>)}
+            {antennas.map((a) => (
+              <option key={a.id} value={a.id}>
+                {a.name}
+              </option>
+            ))}
           </select>
         </Field>
       </div>
       <Field id={`${idp}-notes`} label="Notes" error={err('notes')}>
-        <textarea id={`${idp}-notes`} rows={3} className="field-input" value={form.notes} onChange={(e) => set({ notes: e.target.value })} placeholder="Access, ladders, dogs, best times to visit" />
+        <textarea
+          id={`${idp}-notes`}
+          rows={3}
+          className="field-input"
+          value={form.notes}
+          onChange={(e) => set({ notes: e.target.value })}
+          placeholder="Access, ladders, dogs, best times to visit"
+        />
       </Field>
       <div className="flex gap-2">
-        <button type="submit" className="btn-primary flex-1" disabled={busy}>{busy ? 'Saving…' : submitLabel}</button>
-        {onCancel && <button type="button" className="btn-secondary" onClick={onCancel}>Cancel</button>}
+        <button type="submit" className="btn-primary flex-1" disabled={busy}>
+          {busy ? 'Saving…' : submitLabel}
+        </button>
+        {onCancel && (
+          <button type="button" className="btn-secondary" onClick={onCancel}>
+            Cancel
+          </button>
+        )}
       </div>
     </form>
   );

@@ -75,14 +75,23 @@ export default function CustomerList({ canWrite }: Props) {
       key: 'current',
       label: 'Today',
       sortValue: (c) => c.current_operator_name,
-      render: (c) => (c.current_operator_name || c.current_antenna_name ? [c.current_operator_name, c.current_antenna_name].filter(Boolean).join(' · ') : <span className="text-ink-400">—</span>),
+      render: (c) =>
+        c.current_operator_name || c.current_antenna_name ? (
+          [c.current_operator_name, c.current_antenna_name].filter(Boolean).join(' · ')
+        ) : (
+          <span className="text-ink-400">—</span>
+        ),
       className: 'hidden md:table-cell',
     },
     {
       key: 'updated',
       label: 'Updated',
       sortValue: (c) => c.updated_at,
-      render: (c) => <time dateTime={c.updated_at} className="whitespace-nowrap">{new Date(c.updated_at).toLocaleDateString()}</time>,
+      render: (c) => (
+        <time dateTime={c.updated_at} className="whitespace-nowrap">
+          {new Date(c.updated_at).toLocaleDateString()}
+        </time>
+      ),
       className: 'hidden sm:table-cell',
     },
   ];
@@ -94,18 +103,36 @@ export default function CustomerList({ canWrite }: Props) {
           <h2 id="customers-heading">Customers {data && <span className="font-normal text-ink-600">({data.total})</span>}</h2>
           <label className="w-full sm:ml-auto sm:w-auto">
             <span className="sr-only">Search customers</span>
-            <input type="search" placeholder="Name, address, postcode, phone, e-mail" className="field-input w-full sm:w-80" value={query} onChange={(e) => setQuery(e.target.value)} data-testid="customer-search" />
+            <input
+              type="search"
+              placeholder="Name, address, postcode, phone, e-mail"
+              className="field-input w-full sm:w-80"
+              value={query}
+              onChange={(e) => setQuery(e.target.value)}
+              data-testid="customer-search"
+            />
           </label>
         </div>
         {error ? (
-          <p role="alert" className="text-alarm-700">{error}</p>
+          <p role="alert" className="text-alarm-700">
+            {error}
+          </p>
         ) : !data ? (
           <p className="text-ink-500">Loading customers…</p>
         ) : (
           <>
-            <SortableTable rows={data.items} columns={columns} rowKey={(c) => c.id} initialSort={{ key: 'updated', dir: 'desc' }} empty={q ? 'No customer matches your search' : 'No customers yet'} caption="Customers" />
+            <SortableTable
+              rows={data.items}
+              columns={columns}
+              rowKey={(c) => c.id}
+              initialSort={{ key: 'updated', dir: 'desc' }}
+              empty={q ? 'No customer matches your search' : 'No customers yet'}
+              caption="Customers"
+            />
             {data.total > data.items.length && (
-              <p className="mt-2 text-sm text-ink-600">Showing the {data.items.length} most recently changed of {data.total}; search to narrow the list.</p>
+              <p className="mt-2 text-sm text-ink-600">
+                Showing the {data.items.length} most recently changed of {data.total}; search to narrow the list.
+              </p>
             )}
           </>
         )}

@@ -34,18 +34,33 @@ export default function EraseCustomer({ customerId, customerName, onErased }: Pr
     );
   }
   return (
-    <div role="alertdialog" aria-labelledby="erase-heading" aria-describedby="erase-what" className="w-full rounded border border-alarm-500 bg-alarm-50 p-3 text-sm">
-      <h3 id="erase-heading" className="font-semibold text-alarm-700">Erase the personal data of {customerName}?</h3>
+    <div
+      role="alertdialog"
+      aria-labelledby="erase-heading"
+      aria-describedby="erase-what"
+      className="w-full rounded border border-alarm-500 bg-alarm-50 p-3 text-sm"
+    >
+      <h3 id="erase-heading" className="font-semibold text-alarm-700">
+        Erase the personal data of {customerName}?
+      </h3>
       <p id="erase-what" className="mt-1 text-ink-700">
-        For a customer’s request to be forgotten. Their name, phone, e-mail, address, notes and exact position are removed, here and in
-        the history; plan figures that would locate the home (distance, bearings) and readings from their install go too. Plans keep
-        their state, cell, kit and radio figures. This cannot be undone.
+        For a customer’s request to be forgotten. Their name, phone, e-mail, address, notes and exact position are removed, here and in the history; plan
+        figures that would locate the home (distance, bearings) and readings from their install go too. Plans keep their state, cell, kit and radio figures.
+        This cannot be undone.
       </p>
       <div className="mt-2 flex flex-wrap gap-2">
-        <button type="button" className="btn-danger py-1" disabled={busy} onClick={erase}>{busy ? 'Erasing…' : 'Yes, erase personal data'}</button>
-        <button type="button" className="btn-secondary py-1" disabled={busy} onClick={() => setConfirming(false)}>Cancel</button>
+        <button type="button" className="btn-danger py-1" disabled={busy} onClick={erase}>
+          {busy ? 'Erasing…' : 'Yes, erase personal data'}
+        </button>
+        <button type="button" className="btn-secondary py-1" disabled={busy} onClick={() => setConfirming(false)}>
+          Cancel
+        </button>
       </div>
-      {error && <p role="alert" className="mt-2 text-alarm-700">{error}</p>}
+      {error && (
+        <p role="alert" className="mt-2 text-alarm-700">
+          {error}
+        </p>
+      )}
     </div>
   );
 }

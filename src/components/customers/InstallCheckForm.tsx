@@ -26,7 +26,13 @@ interface Props {
   onSaved: () => void;
 }
 
-const blankReading = (channel: number | null, pci: number | null): ReadingRow => ({ pci: pci === null ? '' : String(pci), channel: channel === null ? '' : String(channel), rsrp: '', rsrq: '', sinr: '' });
+const blankReading = (channel: number | null, pci: number | null): ReadingRow => ({
+  pci: pci === null ? '' : String(pci),
+  channel: channel === null ? '' : String(channel),
+  rsrp: '',
+  rsrq: '',
+  sinr: '',
+});
 const NUMBER = /^[+-]?\d+([.,]\d+)?$/;
 const num = (s: string) => (s.trim() === '' ? null : Number(s.trim().replace(',', '.').replace('−', '-')));
 
@@ -101,8 +107,20 @@ export default function InstallCheckForm({ planId, defaultChannel, defaultPci, p
   const cell = (label: string, key: string, value: string, onChange: (v: string) => void, width = 'w-20') => (
     <label className="text-xs">
       <span className="block text-ink-600">{label}</span>
-      <input className={`field-input ${width} py-1`} inputMode="decimal" value={value} onChange={(e) => onChange(e.target.value)} aria-invalid={!!err(key)} aria-label={label} data-field={key} />
-      {err(key) && <span className="field-error block" data-testid={`error-${key}`}>{err(key)}</span>}
+      <input
+        className={`field-input ${width} py-1`}
+        inputMode="decimal"
+        value={value}
+        onChange={(e) => onChange(e.target.value)}
+        aria-invalid={!!err(key)}
+        aria-label={label}
+        data-field={key}
+      />
+      {err(key) && (
+        <span className="field-error block" data-testid={`error-${key}`}>
+          {err(key)}
+        </span>
+      )}
     </label>
   );
 
@@ -114,7 +132,8 @@ export default function InstallCheckForm({ planId, defaultChannel, defaultPci, p
           <legend className="sr-only">Phase</legend>
           {phases.map((p) => (
             <label key={p} className="flex items-center gap-1">
-              <input type="radio" name={`phase-${planId}`} checked={phase === p} onChange={() => setPhase(p)} /> {p === 'before' ? 'Before install' : 'After install'}
+              <input type="radio" name={`phase-${planId}`} checked={phase === p} onChange={() => setPhase(p)} />{' '}
+              {p === 'before' ? 'Before install' : 'After install'}
             </label>
           ))}
         </fieldset>
@@ -129,11 +148,20 @@ export default function InstallCheckForm({ planId, defaultChannel, defaultPci, p
             {cell('RSRQ dB', `readings.${i}.rsrq_db`, r.rsrq, (v) => setReading(i, { rsrq: v }))}
             {cell('SINR dB', `readings.${i}.sinr_db`, r.sinr, (v) => setReading(i, { sinr: v }))}
             {readings.length > 1 && (
-              <button type="button" className="btn-secondary px-2 py-1 text-xs" onClick={() => setReadings((rows) => rows.filter((_, j) => j !== i))} aria-label={`Remove reading ${i + 1}`}>Remove</button>
+              <button
+                type="button"
+                className="btn-secondary px-2 py-1 text-xs"
+                onClick={() => setReadings((rows) => rows.filter((_, j) => j !== i))}
+                aria-label={`Remove reading ${i + 1}`}
+              >
+                Remove
+              </button>
             )}
           </div>
         ))}
-        <button type="button" className="btn-secondary px-2 py-1 text-xs" onClick={() => setReadings((rows) => [...rows, blankReading(defaultChannel, null)])}>Add a cell</button>
+        <button type="button" className="btn-secondary px-2 py-1 text-xs" onClick={() => setReadings((rows) => [...rows, blankReading(defaultChannel, null)])}>
+          Add a cell
+        </button>
       </div>
       <div className="space-y-2">
         <p className="text-xs text-ink-600">Speed tests</p>
@@ -142,19 +170,33 @@ export default function InstallCheckForm({ planId, defaultChannel, defaultPci, p
             {cell('Down Mbit/s', `speed_tests.${i}.down_mbps`, s.down, (v) => setSpeed(i, { down: v }), 'w-24')}
             {cell('Up Mbit/s', `speed_tests.${i}.up_mbps`, s.up, (v) => setSpeed(i, { up: v }), 'w-24')}
             {cell('Latency ms', `speed_tests.${i}.latency_ms`, s.latency, (v) => setSpeed(i, { latency: v }), 'w-24')}
-            <button type="button" className="btn-secondary px-2 py-1 text-xs" onClick={() => setSpeeds((rows) => rows.filter((_, j) => j !== i))} aria-label={`Remove speed test ${i + 1}`}>Remove</button>
+            <button
+              type="button"
+              className="btn-secondary px-2 py-1 text-xs"
+              onClick={() => setSpeeds((rows) => rows.filter((_, j) => j !== i))}
+              aria-label={`Remove speed test ${i + 1}`}
+            >
+              Remove
+            </button>
           </div>
         ))}
-        <button type="button" className="btn-secondary px-2 py-1 text-xs" onClick={() => setSpeeds((rows) => [...rows, { down: '', up: '', latency: '' }])}>Add a speed test</button>
+        <button type="button" className="btn-secondary px-2 py-1 text-xs" onClick={() => setSpeeds((rows) => [...rows, { down: '', up: '', latency: '' }])}>
+          Add a speed test
+        </button>
       </div>
       <label className="block text-xs">
         <span className="block text-ink-600">Notes</span>
         <textarea className="field-input" rows={2} value={notes} onChange={(e) => setNotes(e.target.value)} />
       </label>
       {errors && (
-        <p role="alert" className="field-error">{errors.message}{errors.fields.readings ? `: ${errors.fields.readings[0]}` : ''}</p>
+        <p role="alert" className="field-error">
+          {errors.message}
+          {errors.fields.readings ? `: ${errors.fields.readings[0]}` : ''}
+        </p>
       )}
-      <button type="submit" className="btn-primary py-1.5" disabled={busy}>{busy ? 'Saving…' : `Save ${phase === 'before' ? 'before' : 'after'} check`}</button>
+      <button type="submit" className="btn-primary py-1.5" disabled={busy}>
+        {busy ? 'Saving…' : `Save ${phase === 'before' ? 'before' : 'after'} check`}
+      </button>
     </form>
   );
 }

@@ -12,7 +12,10 @@ const STYLE: Record<PlanState, string> = {
 /** The plan's state as a labelled badge; the step number keeps it readable without colour. */
 export function PlanStateBadge({ state }: { state: PlanState }) {
   return (
-    <span className={`inline-flex items-center gap-1 whitespace-nowrap rounded-full px-2 py-0.5 text-xs font-semibold ring-1 ${STYLE[state]}`} data-testid="plan-state">
+    <span
+      className={`inline-flex items-center gap-1 whitespace-nowrap rounded-full px-2 py-0.5 text-xs font-semibold ring-1 ${STYLE[state]}`}
+      data-testid="plan-state"
+    >
       <span aria-hidden="true">{PLAN_STATES.indexOf(state) + 1}/5</span>
       {PLAN_STATE_LABELS[state]}
     </span>
@@ -35,7 +38,11 @@ export function PlanSteps({ state }: { state: PlanState }) {
             {i < at ? '✓ ' : ''}
             {PLAN_STATE_LABELS[s]}
           </span>
-          {i < PLAN_STATES.length - 1 && <span aria-hidden="true" className="text-ink-300">›</span>}
+          {i < PLAN_STATES.length - 1 && (
+            <span aria-hidden="true" className="text-ink-300">
+              ›
+            </span>
+          )}
         </li>
       ))}
     </ol>

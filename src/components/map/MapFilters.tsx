@@ -47,7 +47,12 @@ export default function MapFilters({ operators, bands, value, onChange }: Props)
     <form className="space-y-3" aria-label="Filter masts" onSubmit={(e) => e.preventDefault()} data-testid="map-filters">
       <Group legend="Operator">
         {operators.map((o) => (
-          <Chip key={o.id} checked={value.operators.includes(o.id)} onChange={() => set({ operators: toggle(value.operators, o.id) })} testId={`filter-operator-${o.id}`}>
+          <Chip
+            key={o.id}
+            checked={value.operators.includes(o.id)}
+            onChange={() => set({ operators: toggle(value.operators, o.id) })}
+            testId={`filter-operator-${o.id}`}
+          >
             <span aria-hidden="true" className="inline-block h-2.5 w-2.5 rounded-full ring-1 ring-white" style={{ background: o.colour }} />
             {o.name}
           </Chip>
@@ -76,7 +81,9 @@ export default function MapFilters({ operators, bands, value, onChange }: Props)
         ))}
       </Group>
       <div className="flex items-center justify-between gap-2 pt-1">
-        <p className="text-xs text-ink-500" aria-live="polite">{isFiltering(value) ? 'Showing matching masts only' : 'Showing all masts'}</p>
+        <p className="text-xs text-ink-500" aria-live="polite">
+          {isFiltering(value) ? 'Showing matching masts only' : 'Showing all masts'}
+        </p>
         <button type="button" className="btn-secondary px-2.5 py-1 text-xs" onClick={() => onChange(NO_MAST_FILTER)} disabled={!isFiltering(value)}>
           Clear
         </button>

@@ -32,10 +32,17 @@ export default function MapLegend({ operators, defaultOpen = true }: Props) {
   const P = BASEMAP_PALETTE;
 
   return (
-    <section aria-labelledby="legend-heading" className={`pointer-events-auto rounded-lg ${open ? 'w-60' : 'w-auto'} border border-ink-200 bg-white/95 text-xs text-ink-800 shadow-md`} data-testid="map-legend">
+    <section
+      aria-labelledby="legend-heading"
+      className={`pointer-events-auto rounded-lg ${open ? 'w-60' : 'w-auto'} border border-ink-200 bg-white/95 text-xs text-ink-800 shadow-md`}
+      data-testid="map-legend"
+    >
       <h2 id="legend-heading" className="text-sm">
         <button type="button" className="flex w-full items-center justify-between px-3 py-2 font-semibold" aria-expanded={open} onClick={() => setOpen(!open)}>
-          Legend <span aria-hidden="true" className="text-ink-400">{open ? '▾' : '▸'}</span>
+          Legend{' '}
+          <span aria-hidden="true" className="text-ink-400">
+            {open ? '▾' : '▸'}
+          </span>
         </button>
       </h2>
       {open && (
@@ -56,24 +63,60 @@ export default function MapLegend({ operators, defaultOpen = true }: Props) {
           <div>
             <h3 className="mb-1 font-semibold text-ink-600">Mast status</h3>
             <ul className="space-y-1">
-              <li className="flex items-center gap-2"><img src={icons.active} alt="" width={24} height={24} />Active</li>
-              <li className="flex items-center gap-2"><img src={icons.planned} alt="" width={24} height={24} />Planned (hollow, dashed)</li>
-              <li className="flex items-center gap-2"><img src={icons.decommissioned} alt="" width={24} height={24} />Decommissioned (grey, crossed)</li>
-              <li className="flex items-center gap-2"><img src={icons.sighting} alt="" width={24} height={24} />Pending sighting</li>
+              <li className="flex items-center gap-2">
+                <img src={icons.active} alt="" width={24} height={24} />
+                Active
+              </li>
+              <li className="flex items-center gap-2">
+                <img src={icons.planned} alt="" width={24} height={24} />
+                Planned (hollow, dashed)
+              </li>
+              <li className="flex items-center gap-2">
+                <img src={icons.decommissioned} alt="" width={24} height={24} />
+                Decommissioned (grey, crossed)
+              </li>
+              <li className="flex items-center gap-2">
+                <img src={icons.sighting} alt="" width={24} height={24} />
+                Pending sighting
+              </li>
             </ul>
             <p className="mt-1 text-ink-500">Zoomed out, overlapping masts are thinned; zoom in to see all.</p>
           </div>
           <div>
             <h3 className="mb-1 font-semibold text-ink-600">Basemap</h3>
             <ul className="grid grid-cols-2 gap-x-2 gap-y-1">
-              <li className="flex items-center gap-2"><Swatch colour={P.wood} />Woods</li>
-              <li className="flex items-center gap-2"><Swatch colour={P.farm} />Farmland</li>
-              <li className="flex items-center gap-2"><Swatch colour={P.settled} />Built-up</li>
-              <li className="flex items-center gap-2"><Swatch colour={P.water} />Water</li>
-              <li className="flex items-center gap-2"><Swatch colour={P.roadMajorCasing} line />Main road</li>
-              <li className="flex items-center gap-2"><Swatch colour={P.roadMinorCasing} line />Road</li>
-              <li className="flex items-center gap-2"><Swatch colour={P.track} line dashed />Track</li>
-              <li className="flex items-center gap-2"><Swatch colour={P.river} line />River</li>
+              <li className="flex items-center gap-2">
+                <Swatch colour={P.wood} />
+                Woods
+              </li>
+              <li className="flex items-center gap-2">
+                <Swatch colour={P.farm} />
+                Farmland
+              </li>
+              <li className="flex items-center gap-2">
+                <Swatch colour={P.settled} />
+                Built-up
+              </li>
+              <li className="flex items-center gap-2">
+                <Swatch colour={P.water} />
+                Water
+              </li>
+              <li className="flex items-center gap-2">
+                <Swatch colour={P.roadMajorCasing} line />
+                Main road
+              </li>
+              <li className="flex items-center gap-2">
+                <Swatch colour={P.roadMinorCasing} line />
+                Road
+              </li>
+              <li className="flex items-center gap-2">
+                <Swatch colour={P.track} line dashed />
+                Track
+              </li>
+              <li className="flex items-center gap-2">
+                <Swatch colour={P.river} line />
+                River
+              </li>
             </ul>
           </div>
         </div>

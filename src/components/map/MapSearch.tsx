@@ -89,7 +89,9 @@ export default function MapSearch({ onPick }: Props) {
 
   return (
     <div className="relative w-full" data-testid="map-search">
-      <label htmlFor={`${id}-input`} className="sr-only">Search masts and places</label>
+      <label htmlFor={`${id}-input`} className="sr-only">
+        Search masts and places
+      </label>
       <input
         ref={inputRef}
         id={`${id}-input`}
@@ -115,7 +117,11 @@ export default function MapSearch({ onPick }: Props) {
         id={listId}
         role="listbox"
         aria-label="Search results"
-        className={expanded ? 'absolute left-0 right-0 top-full z-20 mt-1 max-h-72 overflow-y-auto rounded-md border border-ink-200 bg-white py-1 text-sm shadow-lg' : 'hidden'}
+        className={
+          expanded
+            ? 'absolute left-0 right-0 top-full z-20 mt-1 max-h-72 overflow-y-auto rounded-md border border-ink-200 bg-white py-1 text-sm shadow-lg'
+            : 'hidden'
+        }
       >
         {hits.map((h, i) => (
           <li
@@ -133,7 +139,11 @@ export default function MapSearch({ onPick }: Props) {
             {h.detail && <span className="truncate text-xs text-ink-500">{h.detail}</span>}
           </li>
         ))}
-        {message && hits.length === 0 && <li className="px-3 py-1.5 text-ink-500" role="presentation">{message}</li>}
+        {message && hits.length === 0 && (
+          <li className="px-3 py-1.5 text-ink-500" role="presentation">
+            {message}
+          </li>
+        )}
       </ul>
     </div>
   );

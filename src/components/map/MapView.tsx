@@ -67,9 +67,7 @@ function rebaseStyle(style: StyleSpecification, origin: string): StyleSpecificat
     const u = new URL(t, origin);
     return origin + decodeURI(u.pathname) + u.search;
   };
-  const sources = Object.fromEntries(
-    Object.entries(style.sources).map(([id, s]) => [id, 'tiles' in s && s.tiles ? { ...s, tiles: s.tiles.map(rebase) } : s]),
-  );
+  const sources = Object.fromEntries(Object.entries(style.sources).map(([id, s]) => [id, 'tiles' in s && s.tiles ? { ...s, tiles: s.tiles.map(rebase) } : s]));
   return { ...style, sources };
 }
 
@@ -85,7 +83,10 @@ function readSavedView(): InitialView | null {
 
 function boundsOf(regions: readonly RegionJson[]): [number, number, number, number] | null {
   let box: [number, number, number, number] | null = null;
-  for (const { bbox: [w, s, e, n] } of regions) box = box ? [Math.min(box[0], w), Math.min(box[1], s), Math.max(box[2], e), Math.max(box[3], n)] : [w, s, e, n];
+  for (const {
+    bbox: [w, s, e, n],
+  } of regions)
+    box = box ? [Math.min(box[0], w), Math.min(box[1], s), Math.max(box[2], e), Math.max(box[3], n)] : [w, s, e, n];
   return box;
 }
 
@@ -186,7 +187,10 @@ export default function MapView({ canEditMasts }: Props) {
   }, []);
 
   useEffect(() => {
-    const regionList = regionsApi.list(REGION_OUTLINE_ZOOM).then((r) => r.items, () => [] as RegionJson[]);
+    const regionList = regionsApi.list(REGION_OUTLINE_ZOOM).then(
+      (r) => r.items,
+      () => [] as RegionJson[],
+    );
     Promise.all([loadLabelFonts(), mapApi.style<StyleSpecification>(), operatorsApi.list(), regionList]).then(
       ([, s, ops, regionItems]) => {
         setStyle(rebaseStyle(s, window.location.origin));
@@ -304,7 +308,10 @@ export default function MapView({ canEditMasts }: Props) {
         'relative w-full overflow-hidden bg-[#c9d9e3]',
         // Keep the zoom buttons clear of the side panel.
         selectedId ? 'sm:[&_.maplibregl-ctrl-top-right]:right-[29rem] lg:[&_.maplibregl-ctrl-top-right]:right-[33rem]' : '',
-      ].join(' ')} style={{ height: `calc(100dvh - ${top}px)`, minHeight: 360 }} data-testid="map-frame">
+      ].join(' ')}
+      style={{ height: `calc(100dvh - ${top}px)`, minHeight: 360 }}
+      data-testid="map-frame"
+    >
       {loadError && (
         <div role="alert" className="absolute inset-x-4 top-4 z-40 rounded-md border border-alarm-100 bg-alarm-50 p-3 text-sm text-alarm-700">
           {loadError}
@@ -384,7 +391,11 @@ export default function MapView({ canEditMasts }: Props) {
               Filters{filterCount > 0 && <span className="rounded-full bg-ember-500 px-1.5 text-xs text-white">{filterCount}</span>}
             </button>
           </div>
-          <div id="map-filters-card" hidden={!filtersOpen} className="pointer-events-auto max-h-[60vh] overflow-y-auto rounded-lg border border-ink-200 bg-white/95 p-3 shadow-md">
+          <div
+            id="map-filters-card"
+            hidden={!filtersOpen}
+            className="pointer-events-auto max-h-[60vh] overflow-y-auto rounded-lg border border-ink-200 bg-white/95 p-3 shadow-md"
+          >
             <MapFilters operators={operators} bands={sortBands(new Set([...bands, ...filters.bands]))} value={filters} onChange={setFilters} />
           </div>
         </div>
@@ -397,7 +408,9 @@ export default function MapView({ canEditMasts }: Props) {
       )}
 
       {selectedId && operators && <MastPanel mastId={selectedId} operators={operators} canEdit={canEditMasts} onClose={closePanel} onChanged={onMastChanged} />}
-      <p className="sr-only" aria-live="polite">{selectedId ? '' : 'Select a mast on the map, or search for one by name, to see its cells.'}</p>
+      <p className="sr-only" aria-live="polite">
+        {selectedId ? '' : 'Select a mast on the map, or search for one by name, to see its cells.'}
+      </p>
     </div>
   );
 }

@@ -47,9 +47,15 @@ function changedFields(before: Draft, after: Draft): Record<string, unknown> {
 function Field({ id, label, errors, children }: { id: string; label: string; errors?: string[]; children: ReactNode }) {
   return (
     <div>
-      <label htmlFor={id} className="field-label">{label}</label>
+      <label htmlFor={id} className="field-label">
+        {label}
+      </label>
       {children}
-      {errors?.map((m) => <p key={m} id={`${id}-error`} className="field-error">{m}</p>)}
+      {errors?.map((m) => (
+        <p key={m} id={`${id}-error`} className="field-error">
+          {m}
+        </p>
+      ))}
     </div>
   );
 }
@@ -111,7 +117,9 @@ export default function MastEditForm({ mast, onSaved, onCancel }: Props) {
       {formError && (
         <div role="alert" className="rounded-md border border-alarm-100 bg-alarm-50 p-2 text-sm text-alarm-700">
           {formError}
-          {errors._?.map((m) => <p key={m}>{m}</p>)}
+          {errors._?.map((m) => (
+            <p key={m}>{m}</p>
+          ))}
           {stale && (
             <button type="button" className="btn-secondary mt-2 py-1" onClick={onSaved}>
               Load the latest version
@@ -119,32 +127,58 @@ export default function MastEditForm({ mast, onSaved, onCancel }: Props) {
           )}
         </div>
       )}
-      <Field id="mast-name" label="Name" errors={errors.name}><input {...input('name')} /></Field>
+      <Field id="mast-name" label="Name" errors={errors.name}>
+        <input {...input('name')} />
+      </Field>
       <div className="grid grid-cols-2 gap-3">
-        <Field id="mast-reference" label="Reference" errors={errors.reference}><input {...input('reference')} /></Field>
+        <Field id="mast-reference" label="Reference" errors={errors.reference}>
+          <input {...input('reference')} />
+        </Field>
         <Field id="mast-status" label="Status" errors={errors.status}>
           <select {...input('status')}>
-            {MAST_STATUSES.map((s) => <option key={s} value={s}>{MAST_STATUS_LABELS[s]}</option>)}
+            {MAST_STATUSES.map((s) => (
+              <option key={s} value={s}>
+                {MAST_STATUS_LABELS[s]}
+              </option>
+            ))}
           </select>
         </Field>
       </div>
       <div className="grid grid-cols-2 gap-3">
         <Field id="mast-structure_type" label="Structure" errors={errors.structure_type}>
           <select {...input('structure_type')}>
-            {STRUCTURE_TYPES.map((t) => <option key={t} value={t}>{STRUCTURE_TYPE_LABELS[t]}</option>)}
+            {STRUCTURE_TYPES.map((t) => (
+              <option key={t} value={t}>
+                {STRUCTURE_TYPE_LABELS[t]}
+              </option>
+            ))}
           </select>
         </Field>
-        <Field id="mast-structure_height_m" label="Height (m)" errors={errors.structure_height_m}><input {...input('structure_height_m', { inputMode: 'decimal' })} /></Field>
+        <Field id="mast-structure_height_m" label="Height (m)" errors={errors.structure_height_m}>
+          <input {...input('structure_height_m', { inputMode: 'decimal' })} />
+        </Field>
       </div>
       <div className="grid grid-cols-3 gap-3">
-        <Field id="mast-lat" label="Latitude" errors={errors.lat}><input {...input('lat', { inputMode: 'decimal' })} /></Field>
-        <Field id="mast-lon" label="Longitude" errors={errors.lon}><input {...input('lon', { inputMode: 'decimal' })} /></Field>
-        <Field id="mast-ground_elevation_m" label="Ground (m)" errors={errors.ground_elevation_m}><input {...input('ground_elevation_m', { inputMode: 'decimal' })} /></Field>
+        <Field id="mast-lat" label="Latitude" errors={errors.lat}>
+          <input {...input('lat', { inputMode: 'decimal' })} />
+        </Field>
+        <Field id="mast-lon" label="Longitude" errors={errors.lon}>
+          <input {...input('lon', { inputMode: 'decimal' })} />
+        </Field>
+        <Field id="mast-ground_elevation_m" label="Ground (m)" errors={errors.ground_elevation_m}>
+          <input {...input('ground_elevation_m', { inputMode: 'decimal' })} />
+        </Field>
       </div>
-      <Field id="mast-access_notes" label="Access notes" errors={errors.access_notes}><textarea rows={3} {...input('access_notes')} /></Field>
+      <Field id="mast-access_notes" label="Access notes" errors={errors.access_notes}>
+        <textarea rows={3} {...input('access_notes')} />
+      </Field>
       <div className="flex gap-2">
-        <button type="submit" className="btn-primary" disabled={busy}>Save mast</button>
-        <button type="button" className="btn-secondary" onClick={onCancel} disabled={busy}>Cancel</button>
+        <button type="submit" className="btn-primary" disabled={busy}>
+          Save mast
+        </button>
+        <button type="button" className="btn-secondary" onClick={onCancel} disabled={busy}>
+          Cancel
+        </button>
       </div>
     </form>
   );

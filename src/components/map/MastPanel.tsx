@@ -46,11 +46,15 @@ function CopyPosition({ lat, lon }: { lat: number; lon: number }) {
   }
   return (
     <div className="flex flex-wrap items-center gap-2">
-      <code className="select-all rounded bg-ink-50 px-2 py-1 font-mono text-sm text-ink-900" data-testid="mast-position">{text}</code>
+      <code className="select-all rounded bg-ink-50 px-2 py-1 font-mono text-sm text-ink-900" data-testid="mast-position">
+        {text}
+      </code>
       <button type="button" className="btn-secondary px-2.5 py-1 text-xs" onClick={copy} aria-label={`Copy position ${text}`}>
         Copy
       </button>
-      <span aria-live="polite" className="text-xs text-moss-700">{copied}</span>
+      <span aria-live="polite" className="text-xs text-moss-700">
+        {copied}
+      </span>
     </div>
   );
 }
@@ -95,7 +99,14 @@ export default function MastPanel({ mastId, operators, canEdit, onClose, onChang
   }, [mast]);
 
   const icon = useMemo(
-    () => (mast ? mastIconDataUrl(mast.status, mast.operators.map((o) => o.id), operators) : null),
+    () =>
+      mast
+        ? mastIconDataUrl(
+            mast.status,
+            mast.operators.map((o) => o.id),
+            operators,
+          )
+        : null,
     [mast, operators],
   );
 
@@ -112,13 +123,27 @@ export default function MastPanel({ mastId, operators, canEdit, onClose, onChang
         </span>
       ),
     },
-    { key: 'tech', label: 'Tech', sortValue: (c) => ['gsm', 'umts', 'lte', 'nr'].indexOf(c.tech), render: (c) => <abbr title={TECH_LABELS[c.tech]} className="no-underline">{c.tech.toUpperCase()}</abbr> },
+    {
+      key: 'tech',
+      label: 'Tech',
+      sortValue: (c) => ['gsm', 'umts', 'lte', 'nr'].indexOf(c.tech),
+      render: (c) => (
+        <abbr title={TECH_LABELS[c.tech]} className="no-underline">
+          {c.tech.toUpperCase()}
+        </abbr>
+      ),
+    },
     { key: 'band', label: 'Band', sortValue: (c) => bandOrder(c.band), render: (c) => c.band },
     { key: 'channel', label: 'Channel', sortValue: (c) => c.channel, render: (c) => c.channel, className: 'text-right' },
     { key: 'mhz', label: 'MHz', sortValue: (c) => c.dl_mhz, render: (c) => fmt(c.dl_mhz, 1), className: 'text-right' },
     { key: 'pci', label: 'PCI', sortValue: (c) => c.pci, render: (c) => fmt(c.pci), className: 'text-right' },
     { key: 'azimuth', label: 'Azimuth', sortValue: (c) => c.sector_azimuth_deg, render: (c) => fmt(c.sector_azimuth_deg, 0, '°'), className: 'text-right' },
-    { key: 'seen', label: 'Last observed', sortValue: (c) => c.last_observed_at, render: (c) => <span className="whitespace-nowrap">{fmtDate(c.last_observed_at)}</span> },
+    {
+      key: 'seen',
+      label: 'Last observed',
+      sortValue: (c) => c.last_observed_at,
+      render: (c) => <span className="whitespace-nowrap">{fmtDate(c.last_observed_at)}</span>,
+    },
   ];
 
   const readingColumns: Column<ReadingJson>[] = [
@@ -140,7 +165,12 @@ export default function MastPanel({ mastId, operators, canEdit, onClose, onChang
       <header className="flex items-start gap-3 border-b border-ink-100 px-4 py-3">
         {icon && <img src={icon} alt="" width={34} height={34} className="mt-0.5 shrink-0" />}
         <div className="min-w-0 flex-1">
-          <h2 id="mast-panel-heading" ref={headingRef} tabIndex={-1} className="truncate text-lg focus:outline-none focus-visible:ring-0 focus-visible:ring-offset-0">
+          <h2
+            id="mast-panel-heading"
+            ref={headingRef}
+            tabIndex={-1}
+            className="truncate text-lg focus:outline-none focus-visible:ring-0 focus-visible:ring-offset-0"
+          >
             {mast?.name ?? (error ? 'Mast' : 'Loading mast…')}
           </h2>
           {mast && (
@@ -151,12 +181,18 @@ export default function MastPanel({ mastId, operators, canEdit, onClose, onChang
           )}
         </div>
         <button type="button" onClick={onClose} className="rounded p-1.5 text-ink-500 hover:bg-ink-100 hover:text-ink-900" aria-label="Close mast details">
-          <svg aria-hidden="true" viewBox="0 0 20 20" width="18" height="18"><path d="M5 5l10 10M15 5L5 15" stroke="currentColor" strokeWidth="2" strokeLinecap="round" /></svg>
+          <svg aria-hidden="true" viewBox="0 0 20 20" width="18" height="18">
+            <path d="M5 5l10 10M15 5L5 15" stroke="currentColor" strokeWidth="2" strokeLinecap="round" />
+          </svg>
         </button>
       </header>
 
       <div className="min-h-0 flex-1 space-y-4 overflow-y-auto px-4 py-3 text-sm">
-        {error && <p role="alert" className="text-alarm-700">{error}</p>}
+        {error && (
+          <p role="alert" className="text-alarm-700">
+            {error}
+          </p>
+        )}
         {!mast && !error && <p className="text-ink-500">Loading…</p>}
         {mast && editing && (
           <MastEditForm
@@ -173,11 +209,16 @@ export default function MastPanel({ mastId, operators, canEdit, onClose, onChang
           <>
             <dl className="grid grid-cols-[6.5rem_1fr] gap-x-3 gap-y-1.5">
               <dt className="text-ink-500">Structure</dt>
-              <dd>{STRUCTURE_TYPE_LABELS[mast.structure_type as StructureType] ?? mast.structure_type}{mast.structure_height_m !== null && `, ${fmt(mast.structure_height_m, 0, ' m')} high`}</dd>
+              <dd>
+                {STRUCTURE_TYPE_LABELS[mast.structure_type as StructureType] ?? mast.structure_type}
+                {mast.structure_height_m !== null && `, ${fmt(mast.structure_height_m, 0, ' m')} high`}
+              </dd>
               <dt className="text-ink-500">Ground</dt>
               <dd>{fmt(mast.ground_elevation_m, 0, ' m')} above sea level</dd>
               <dt className="self-center text-ink-500">Position</dt>
-              <dd><CopyPosition lat={mast.lat} lon={mast.lon} /></dd>
+              <dd>
+                <CopyPosition lat={mast.lat} lon={mast.lon} />
+              </dd>
               {mast.access_notes && (
                 <>
                   <dt className="text-ink-500">Access</dt>
@@ -187,7 +228,9 @@ export default function MastPanel({ mastId, operators, canEdit, onClose, onChang
             </dl>
 
             <section aria-labelledby="mast-operators-heading">
-              <h3 id="mast-operators-heading" className="mb-1.5 font-semibold text-ink-800">Operators</h3>
+              <h3 id="mast-operators-heading" className="mb-1.5 font-semibold text-ink-800">
+                Operators
+              </h3>
               {mast.operators.length === 0 ? (
                 <p className="text-ink-500">No operator recorded on this mast.</p>
               ) : (
@@ -203,17 +246,38 @@ export default function MastPanel({ mastId, operators, canEdit, onClose, onChang
               )}
             </section>
 
-            <section aria-labelledby="mast-cells-heading" data-testid="mast-cells" className="[&_table]:text-xs [&_td]:px-2 [&_td]:py-1.5 [&_th]:px-2 [&_th]:py-1.5">
-              <h3 id="mast-cells-heading" className="mb-1.5 font-semibold text-ink-800">Cells ({mast.cells.length})</h3>
-              <SortableTable rows={mast.cells} columns={cellColumns} rowKey={(c) => c.id} initialSort={{ key: 'mhz', dir: 'asc' }} empty="No cells recorded" caption={`Cells on ${mast.name}`} />
+            <section
+              aria-labelledby="mast-cells-heading"
+              data-testid="mast-cells"
+              className="[&_table]:text-xs [&_td]:px-2 [&_td]:py-1.5 [&_th]:px-2 [&_th]:py-1.5"
+            >
+              <h3 id="mast-cells-heading" className="mb-1.5 font-semibold text-ink-800">
+                Cells ({mast.cells.length})
+              </h3>
+              <SortableTable
+                rows={mast.cells}
+                columns={cellColumns}
+                rowKey={(c) => c.id}
+                initialSort={{ key: 'mhz', dir: 'asc' }}
+                empty="No cells recorded"
+                caption={`Cells on ${mast.name}`}
+              />
             </section>
 
             <section aria-labelledby="mast-readings-heading" className="[&_table]:text-xs [&_td]:px-2 [&_td]:py-1.5 [&_th]:px-2 [&_th]:py-1.5">
-              <h3 id="mast-readings-heading" className="mb-1.5 font-semibold text-ink-800">Recent readings</h3>
+              <h3 id="mast-readings-heading" className="mb-1.5 font-semibold text-ink-800">
+                Recent readings
+              </h3>
               {mast.recent_readings.length === 0 ? (
                 <p className="text-ink-500">No readings matched to this mast yet.</p>
               ) : (
-                <SortableTable rows={mast.recent_readings} columns={readingColumns} rowKey={(r) => r.id} initialSort={{ key: 'time', dir: 'desc' }} caption={`Recent readings for ${mast.name}`} />
+                <SortableTable
+                  rows={mast.recent_readings}
+                  columns={readingColumns}
+                  rowKey={(r) => r.id}
+                  initialSort={{ key: 'time', dir: 'desc' }}
+                  caption={`Recent readings for ${mast.name}`}
+                />
               )}
             </section>
 
@@ -221,7 +285,9 @@ export default function MastPanel({ mastId, operators, canEdit, onClose, onChang
 
             {canEdit && (
               <div className="flex flex-wrap gap-2 border-t border-ink-100 pt-3">
-                <button type="button" className="btn-secondary py-1.5" onClick={() => setEditing(true)}>Edit mast</button>
+                <button type="button" className="btn-secondary py-1.5" onClick={() => setEditing(true)}>
+                  Edit mast
+                </button>
               </div>
             )}
           </>

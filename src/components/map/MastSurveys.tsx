@@ -17,7 +17,9 @@ export default function MastSurveys({ mastId }: { mastId: string }) {
 
   return (
     <section aria-labelledby="mast-surveys-heading" data-testid="mast-surveys">
-      <h3 id="mast-surveys-heading" className="mb-1.5 font-semibold text-ink-800">Surveys</h3>
+      <h3 id="mast-surveys-heading" className="mb-1.5 font-semibold text-ink-800">
+        Surveys
+      </h3>
       {failed && <p className="text-ink-500">Surveys could not be loaded.</p>}
       {!failed && !surveys && <p className="text-ink-500">Loading…</p>}
       {surveys && surveys.surveyors.length === 0 && <p className="text-ink-500">No field sightings of this mast yet.</p>}
@@ -32,7 +34,12 @@ export default function MastSurveys({ mastId }: { mastId: string }) {
               {surveys.photos.map((p) => (
                 <li key={p.id}>
                   <a href={p.display_url} target="_blank" rel="noreferrer">
-                    <img src={p.thumb_url} alt={`Photo from a sighting${p.taken_at ? ` taken ${fmtDate(p.taken_at)}` : ''}`} loading="lazy" className="aspect-square w-full rounded object-cover" />
+                    <img
+                      src={p.thumb_url}
+                      alt={`Photo from a sighting${p.taken_at ? ` taken ${fmtDate(p.taken_at)}` : ''}`}
+                      loading="lazy"
+                      className="aspect-square w-full rounded object-cover"
+                    />
                   </a>
                   {p.original_url && (
                     <a href={p.original_url} target="_blank" rel="noreferrer" className="text-xs text-ink-600 underline">

@@ -47,11 +47,7 @@ export const MAST_SYMBOL_LAYER: Omit<SymbolLayerSpecification, 'source'> = {
     'icon-size': ['interpolate', ['linear'], ['zoom'], 7, 0.55, 10, 0.85, 12, 1, 15, 1.15],
     'icon-overlap': 'never',
     'icon-padding': 0,
-    'symbol-sort-key': [
-      '-',
-      ['match', status, 'active', 0, 'planned', 20, 40],
-      ['to-number', ['get', 'op_count'], 0],
-    ],
+    'symbol-sort-key': ['-', ['match', status, 'active', 0, 'planned', 20, 40], ['to-number', ['get', 'op_count'], 0]],
   },
 };
 

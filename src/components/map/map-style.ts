@@ -58,13 +58,7 @@ const SECONDARY_ROADS = ['secondary', 'tertiary'];
 const TRACKS = ['track', 'path', 'service', 'unpaved'];
 
 function roadWidth(major: number, secondary: number, minor: number, track: number) {
-  const byClass = (scale: number) => [
-    'match', kindOf,
-    MAJOR_ROADS, major * scale,
-    SECONDARY_ROADS, secondary * scale,
-    TRACKS, track * scale,
-    minor * scale,
-  ];
+  const byClass = (scale: number) => ['match', kindOf, MAJOR_ROADS, major * scale, SECONDARY_ROADS, secondary * scale, TRACKS, track * scale, minor * scale];
   return ['interpolate', ['exponential', 1.5], ['zoom'], 8, byClass(0.35), 12, byClass(1), 16, byClass(3.2)];
 }
 
@@ -221,8 +215,10 @@ export const BASEMAP_LAYERS: LayerSpecification[] = [
     layout: {
       'text-field': [
         'format',
-        ['get', 'name'], {},
-        ['case', ['has', 'ele_m'], ['concat', '\n', ['to-string', ['round', ['to-number', ['get', 'ele_m']]]], ' m'], ''], { 'font-scale': 0.85 },
+        ['get', 'name'],
+        {},
+        ['case', ['has', 'ele_m'], ['concat', '\n', ['to-string', ['round', ['to-number', ['get', 'ele_m']]]], ' m'], ''],
+        { 'font-scale': 0.85 },
       ],
       'text-font': [...LABEL_FONTS.italic],
       'text-size': 11,

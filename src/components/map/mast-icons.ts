@@ -48,7 +48,13 @@ export function isMastIconId(id: string): boolean {
 export function parseMastIconId(id: string): { status: MastStatus; opIds: string[] } | null {
   const [prefix, status, ops = ''] = id.split('|');
   if (prefix !== PREFIX || !MAST_STATUSES.includes(status as MastStatus)) return null;
-  return { status: status as MastStatus, opIds: ops.split(',').map((s) => s.trim()).filter(Boolean) };
+  return {
+    status: status as MastStatus,
+    opIds: ops
+      .split(',')
+      .map((s) => s.trim())
+      .filter(Boolean),
+  };
 }
 
 export const SIGHTING_ICON_ID = SIGHTING_ICON;

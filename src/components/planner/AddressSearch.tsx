@@ -71,7 +71,9 @@ export default function AddressSearch({ onPick, text }: Props) {
 
   return (
     <div className="relative">
-      <label htmlFor="plan-address" className="field-label">Customer address or coordinates</label>
+      <label htmlFor="plan-address" className="field-label">
+        Customer address or coordinates
+      </label>
       <input
         id="plan-address"
         className="field-input"
@@ -102,7 +104,11 @@ export default function AddressSearch({ onPick, text }: Props) {
           } else if (e.key === 'Escape') setOpen(false);
         }}
       />
-      {error && <p className="mt-1 text-xs text-ink-700" role="status" data-testid="address-error">{error}</p>}
+      {error && (
+        <p className="mt-1 text-xs text-ink-700" role="status" data-testid="address-error">
+          {error}
+        </p>
+      )}
       {open && items.length > 0 && (
         <ul id={listId} role="listbox" className="absolute z-20 mt-1 max-h-72 w-full overflow-auto rounded-md border border-ink-200 bg-white shadow-lg">
           {items.map((m, i) => (

@@ -40,13 +40,23 @@ const positionKey = (p: LatLon | null) => (p ? `${p.lat.toFixed(6)},${p.lon.toFi
 export default function PlannerApp({ customer, canSave }: Props) {
   // A shared or reloaded link restores position, kit and the selected cell; a customer's own position wins.
   const fromUrl = useMemo(() => readPlannerUrl(window.location.search), []);
-  const [position, setPosition] = useState<LatLon | null>(customer?.lat != null && customer.lon != null ? { lat: customer.lat, lon: customer.lon } : fromUrl.position);
+  const [position, setPosition] = useState<LatLon | null>(
+    customer?.lat != null && customer.lon != null ? { lat: customer.lat, lon: customer.lon } : fromUrl.position,
+  );
   const [addressLabel, setAddressLabel] = useState<string | null>(customer?.addressLabel ?? null);
   const [typedLabel, setTypedLabel] = useState<string | null>(position && !customer ? `${position.lat.toFixed(5)}, ${position.lon.toFixed(5)}` : null);
   const [antennas, setAntennas] = useState<AntennaOption[]>([]);
   const [cables, setCables] = useState<CableOption[]>([]);
   const [operators, setOperators] = useState<OperatorOption[]>([]);
-  const [kit, setKit] = useState<KitForm>({ antennaId: '', cableId: '', cableM: '10', heightM: '6', operator: '', simOperator: customer?.currentOperatorId ?? '', ...fromUrl.kit });
+  const [kit, setKit] = useState<KitForm>({
+    antennaId: '',
+    cableId: '',
+    cableM: '10',
+    heightM: '6',
+    operator: '',
+    simOperator: customer?.currentOperatorId ?? '',
+    ...fromUrl.kit,
+  });
   const [shortlist, setShortlist] = useState<Shortlist | null>(null);
   const [loading, setLoading] = useState(false);
   const [error, setError] = useState<{ message: string; fields: Record<string, string[]> } | null>(null);
@@ -129,7 +139,8 @@ export default function PlannerApp({ customer, canSave }: Props) {
           setSelected((cur) => chooseSelection(s.items, cur, { samePosition, wanted: wantedCell.current }));
           wantedCell.current = null;
         },
-        (e: unknown) => live && setError(e instanceof ApiError ? { message: e.message, fields: e.fields } : { message: 'Could not build the shortlist', fields: {} }),
+        (e: unknown) =>
+          live && setError(e instanceof ApiError ? { message: e.message, fields: e.fields } : { message: 'Could not build the shortlist', fields: {} }),
       )
       .finally(() => live && setLoading(false));
     return () => {
@@ -143,7 +154,10 @@ export default function PlannerApp({ customer, canSave }: Props) {
     setProfile(null);
     if (!chosen || !position || !kitValid) return;
     let live = true;
-    plannerApi.profile(position, chosen, String(readMetres(kit.heightM))).then((p) => live && setProfile(p), () => live && setProfile(null));
+    plannerApi.profile(position, chosen, String(readMetres(kit.heightM))).then(
+      (p) => live && setProfile(p),
+      () => live && setProfile(null),
+    );
     return () => {
       live = false;
     };
@@ -159,7 +173,14 @@ export default function PlannerApp({ customer, canSave }: Props) {
       <aside className="space-y-4">
         <section className="card space-y-3" aria-labelledby="where-heading">
           <h2 id="where-heading">Where</h2>
-          {customer && <p className="text-sm">Planning for <a className="font-semibold underline" href={`/customers/${customer.id}`}>{customer.name}</a></p>}
+          {customer && (
+            <p className="text-sm">
+              Planning for{' '}
+              <a className="font-semibold underline" href={`/customers/${customer.id}`}>
+                {customer.name}
+              </a>
+            </p>
+          )}
           <AddressSearch
             text={typedLabel}
             onPick={(m) => {
@@ -168,47 +189,104 @@ export default function PlannerApp({ customer, canSave }: Props) {
             }}
           />
           <p className="text-xs text-ink-600" data-testid="plan-position">
-            {position ? `Position ${position.lat.toFixed(5)}, ${position.lon.toFixed(5)}${shortlist?.customer_ground_m != null ? ` · ground ${shortlist.customer_ground_m} m` : ''}` : 'Search an address, type coordinates, or click the map.'}
+            {position
+              ? `Position ${position.lat.toFixed(5)}, ${position.lon.toFixed(5)}${shortlist?.customer_ground_m != null ? ` · ground ${shortlist.customer_ground_m} m` : ''}`
+              : 'Search an address, type coordinates, or click the map.'}
           </p>
         </section>
         <section className="card" aria-labelledby="kit-heading">
           <h2 id="kit-heading">Kit</h2>
           <div className="mt-3 grid grid-cols-2 gap-3">
             <div className="col-span-2">
-              <label htmlFor="kit-antenna" className="field-label">Antenna</label>
+              <label htmlFor="kit-antenna" className="field-label">
+                Antenna
+              </label>
               <select id="kit-antenna" className="field-input" value={kit.antennaId} onChange={(e) => setK({ antennaId: e.target.value })}>
-                {antennas.map((a) => <option key={a.id} value={a.id}>{a.name} ({a.kind}, {a.ports}-port)</option>)}
+                {antennas.map((a) => (
+                  <option key={a.id} value={a.id}>
+                    {a.name} ({a.kind}, {a.ports}-port)
+                  </option>
+                ))}
               </select>
             </div>
             <div className="col-span-2">
-              <label htmlFor="kit-cable" className="field-label">Cable</label>
+              <label htmlFor="kit-cable" className="field-label">
+                Cable
+              </label>
               <select id="kit-cable" className="field-input" value={kit.cableId} onChange={(e) => setK({ cableId: e.target.value })}>
                 <option value="">None (antenna at the router)</option>
-                {cables.map((c) => <option key={c.id} value={c.id}>{c.name}</option>)}
+                {cables.map((c) => (
+                  <option key={c.id} value={c.id}>
+                    {c.name}
+                  </option>
+                ))}
               </select>
             </div>
             <div>
-              <label htmlFor="kit-length" className="field-label">Cable length (m)</label>
-              <input id="kit-length" className="field-input" inputMode="decimal" value={kit.cableM} disabled={!kit.cableId} required={!!kit.cableId} onChange={(e) => setK({ cableM: e.target.value })} aria-invalid={!!fieldError('cable_m')} aria-describedby={fieldError('cable_m') ? 'kit-length-error' : undefined} />
-              {fieldError('cable_m') && <p id="kit-length-error" className="field-error">{fieldError('cable_m')}</p>}
+              <label htmlFor="kit-length" className="field-label">
+                Cable length (m)
+              </label>
+              <input
+                id="kit-length"
+                className="field-input"
+                inputMode="decimal"
+                value={kit.cableM}
+                disabled={!kit.cableId}
+                required={!!kit.cableId}
+                onChange={(e) => setK({ cableM: e.target.value })}
+                aria-invalid={!!fieldError('cable_m')}
+                aria-describedby={fieldError('cable_m') ? 'kit-length-error' : undefined}
+              />
+              {fieldError('cable_m') && (
+                <p id="kit-length-error" className="field-error">
+                  {fieldError('cable_m')}
+                </p>
+              )}
             </div>
             <div>
-              <label htmlFor="kit-height" className="field-label">Mount height (m)</label>
-              <input id="kit-height" className="field-input" inputMode="decimal" value={kit.heightM} required onChange={(e) => setK({ heightM: e.target.value })} aria-invalid={!!fieldError('height_m')} aria-describedby={fieldError('height_m') ? 'kit-height-error' : undefined} />
-              {fieldError('height_m') && <p id="kit-height-error" className="field-error">{fieldError('height_m')}</p>}
+              <label htmlFor="kit-height" className="field-label">
+                Mount height (m)
+              </label>
+              <input
+                id="kit-height"
+                className="field-input"
+                inputMode="decimal"
+                value={kit.heightM}
+                required
+                onChange={(e) => setK({ heightM: e.target.value })}
+                aria-invalid={!!fieldError('height_m')}
+                aria-describedby={fieldError('height_m') ? 'kit-height-error' : undefined}
+              />
+              {fieldError('height_m') && (
+                <p id="kit-height-error" className="field-error">
+                  {fieldError('height_m')}
+                </p>
+              )}
             </div>
             <div className="col-span-2">
-              <label htmlFor="kit-operator" className="field-label">Preferred operator</label>
+              <label htmlFor="kit-operator" className="field-label">
+                Preferred operator
+              </label>
               <select id="kit-operator" className="field-input" value={kit.operator} onChange={(e) => setK({ operator: e.target.value })}>
                 <option value="">No preference</option>
-                {operators.map((o) => <option key={o.id} value={o.id}>{o.name}</option>)}
+                {operators.map((o) => (
+                  <option key={o.id} value={o.id}>
+                    {o.name}
+                  </option>
+                ))}
               </select>
             </div>
             <div className="col-span-2">
-              <label htmlFor="kit-sim" className="field-label">Customer’s SIM operator</label>
+              <label htmlFor="kit-sim" className="field-label">
+                Customer’s SIM operator
+              </label>
               <select id="kit-sim" className="field-input" value={kit.simOperator} onChange={(e) => setK({ simOperator: e.target.value })}>
                 <option value="">Any operator</option>
-                {operators.map((o) => <option key={o.id} value={o.id}>{o.name} only</option>)}
+                {operators.map((o) => (
+                  <option key={o.id} value={o.id}>
+                    {o.name} only
+                  </option>
+                ))}
               </select>
             </div>
           </div>
@@ -229,19 +307,41 @@ export default function PlannerApp({ customer, canSave }: Props) {
             onSelect={setSelected}
           />
         </div>
-        {error && <p role="alert" className="rounded-md border border-alarm-100 bg-alarm-50 px-3 py-2 text-sm text-alarm-700">{error.message}</p>}
+        {error && (
+          <p role="alert" className="rounded-md border border-alarm-100 bg-alarm-50 px-3 py-2 text-sm text-alarm-700">
+            {error.message}
+          </p>
+        )}
         {shortlist && shortlist.warnings.length > 0 && (
           <ul className="rounded-md border border-ember-100 bg-ember-50 px-3 py-2 text-sm text-ember-700" data-testid="position-warnings">
-            {shortlist.warnings.map((w) => <li key={w}>{w}</li>)}
+            {shortlist.warnings.map((w) => (
+              <li key={w}>{w}</li>
+            ))}
           </ul>
         )}
         <section className="card min-w-0" aria-labelledby="shortlist-heading" aria-busy={loading}>
           <div className="mb-2 flex flex-wrap items-baseline gap-2">
             <h2 id="shortlist-heading">Shortlist</h2>
-            {shortlist && <span className="text-sm text-ink-600">{shortlist.total} cells within {(shortlist.radius_m / 1000).toFixed(0)} km · {shortlist.kit.antenna.name}{shortlist.kit.cable ? `, ${shortlist.kit.cable_m} m ${shortlist.kit.cable.name}` : ''}{shortlist.current_antenna ? ` · gain vs ${shortlist.current_antenna.name}` : ''}{shortlist.required_operator_id ? ` · ${operators.find((o) => o.id === shortlist.required_operator_id)?.name ?? 'one operator'} only` : ''} · ranked by RSRP and SINR</span>}
-            {loading && <span className="text-sm text-ink-500" role="status">Calculating…</span>}
+            {shortlist && (
+              <span className="text-sm text-ink-600">
+                {shortlist.total} cells within {(shortlist.radius_m / 1000).toFixed(0)} km · {shortlist.kit.antenna.name}
+                {shortlist.kit.cable ? `, ${shortlist.kit.cable_m} m ${shortlist.kit.cable.name}` : ''}
+                {shortlist.current_antenna ? ` · gain vs ${shortlist.current_antenna.name}` : ''}
+                {shortlist.required_operator_id ? ` · ${operators.find((o) => o.id === shortlist.required_operator_id)?.name ?? 'one operator'} only` : ''} ·
+                ranked by RSRP and SINR
+              </span>
+            )}
+            {loading && (
+              <span className="text-sm text-ink-500" role="status">
+                Calculating…
+              </span>
+            )}
           </div>
-          {shortlist ? <ShortlistTable items={shortlist.items} selectedCellId={selected} onSelect={setSelected} /> : <p className="text-sm text-ink-600">The ranked candidates appear here once a position is set.</p>}
+          {shortlist ? (
+            <ShortlistTable items={shortlist.items} selectedCellId={selected} onSelect={setSelected} />
+          ) : (
+            <p className="text-sm text-ink-600">The ranked candidates appear here once a position is set.</p>
+          )}
         </section>
         {chosen && (
           <CandidateDetail
@@ -274,15 +374,21 @@ function CandidateDetail(props: {
   return (
     <section className="card min-w-0" aria-labelledby="candidate-heading" data-testid="candidate-detail">
       <div className="flex flex-wrap items-baseline gap-2">
-        <h2 id="candidate-heading">{item.mast.name}: {item.operator.name} {item.tech.toUpperCase()} {item.band}</h2>
+        <h2 id="candidate-heading">
+          {item.mast.name}: {item.operator.name} {item.tech.toUpperCase()} {item.band}
+        </h2>
         <GradeBadge grade={item.grade} prefix="RSRP" />
         {item.sinr_grade && <GradeBadge grade={item.sinr_grade} prefix="SINR" />}
       </div>
       <p className="mt-1 text-sm text-ink-700" data-testid="candidate-aim">
-        Aim {item.bearing_true_deg.toFixed(1)}° true / {item.bearing_magnetic_deg.toFixed(1)}° magnetic · tilt {item.elevation_deg >= 0 ? 'up' : 'down'} {Math.abs(item.elevation_deg).toFixed(1)}° · {item.distance_m >= 1000 ? `${(item.distance_m / 1000).toFixed(2)} km` : `${item.distance_m.toFixed(0)} m`} · {item.tech.toUpperCase()} {item.band} ch {item.channel} ({item.freq_mhz.toFixed(1)} MHz) PCI {item.pci ?? '—'}
+        Aim {item.bearing_true_deg.toFixed(1)}° true / {item.bearing_magnetic_deg.toFixed(1)}° magnetic · tilt {item.elevation_deg >= 0 ? 'up' : 'down'}{' '}
+        {Math.abs(item.elevation_deg).toFixed(1)}° · {item.distance_m >= 1000 ? `${(item.distance_m / 1000).toFixed(2)} km` : `${item.distance_m.toFixed(0)} m`}{' '}
+        · {item.tech.toUpperCase()} {item.band} ch {item.channel} ({item.freq_mhz.toFixed(1)} MHz) PCI {item.pci ?? '—'}
       </p>
       <p className="mt-1 text-sm text-ink-700" data-testid="candidate-quality">
-        SINR {item.sinr_db === null ? '—' : `${item.sinr_db.toFixed(1)} dB`} ({item.interferers} co-channel cell{item.interferers === 1 ? '' : 's'} counted) · expected up to {item.expected_throughput_mbps === null ? '—' : `${item.expected_throughput_mbps.toFixed(0)} Mbit/s`} on {item.bandwidth_mhz} MHz, shared with other users · {describeConfidence(item.calibration)}
+        SINR {item.sinr_db === null ? '—' : `${item.sinr_db.toFixed(1)} dB`} ({item.interferers} co-channel cell{item.interferers === 1 ? '' : 's'} counted) ·
+        expected up to {item.expected_throughput_mbps === null ? '—' : `${item.expected_throughput_mbps.toFixed(0)} Mbit/s`} on {item.bandwidth_mhz} MHz, shared
+        with other users · {describeConfidence(item.calibration)}
       </p>
       <div className="mt-3 grid gap-4 xl:grid-cols-[1fr_18rem]">
         <div className="min-w-0">
@@ -293,14 +399,36 @@ function CandidateDetail(props: {
           <h3 className="mb-1 text-sm font-semibold">Link budget</h3>
           <table className="w-full text-sm" data-testid="budget">
             <tbody>
-              {item.budget.filter((t) => t.db !== 0).map((t) => (
-                <tr key={t.key} className="border-b border-ink-100"><td className="py-1 pr-2 text-ink-700">{t.label}</td><td className="py-1 text-right tabular-nums">{t.db > 0 ? '+' : ''}{t.db.toFixed(1)} dB</td></tr>
-              ))}
-              <tr><td className="py-1 pr-2 font-semibold">Predicted RSRP</td><td className="py-1 text-right font-semibold tabular-nums">{item.predicted_rsrp_dbm.toFixed(1)} dBm</td></tr>
+              {item.budget
+                .filter((t) => t.db !== 0)
+                .map((t) => (
+                  <tr key={t.key} className="border-b border-ink-100">
+                    <td className="py-1 pr-2 text-ink-700">{t.label}</td>
+                    <td className="py-1 text-right tabular-nums">
+                      {t.db > 0 ? '+' : ''}
+                      {t.db.toFixed(1)} dB
+                    </td>
+                  </tr>
+                ))}
+              <tr>
+                <td className="py-1 pr-2 font-semibold">Predicted RSRP</td>
+                <td className="py-1 text-right font-semibold tabular-nums">{item.predicted_rsrp_dbm.toFixed(1)} dBm</td>
+              </tr>
             </tbody>
           </table>
-          <p className="mt-2 text-xs text-ink-600">Terrain: {TERRAIN_LABELS[item.terrain.status]}. {item.calibration ? `Readings nearby: ${item.calibration.readings_used}, median residual ${item.calibration.median_residual_db} dB, ${Math.round(item.calibration.weight * 100)} % of it applied (${item.calibration.residual_db > 0 ? '+' : ''}${item.calibration.residual_db} dB).` : 'No readings of this cell nearby: model only.'}</p>
-          {item.warnings.length > 0 && <ul className="mt-2 list-disc pl-4 text-xs text-ember-700">{item.warnings.map((w) => <li key={w}>{w}</li>)}</ul>}
+          <p className="mt-2 text-xs text-ink-600">
+            Terrain: {TERRAIN_LABELS[item.terrain.status]}.{' '}
+            {item.calibration
+              ? `Readings nearby: ${item.calibration.readings_used}, median residual ${item.calibration.median_residual_db} dB, ${Math.round(item.calibration.weight * 100)} % of it applied (${item.calibration.residual_db > 0 ? '+' : ''}${item.calibration.residual_db} dB).`
+              : 'No readings of this cell nearby: model only.'}
+          </p>
+          {item.warnings.length > 0 && (
+            <ul className="mt-2 list-disc pl-4 text-xs text-ember-700">
+              {item.warnings.map((w) => (
+                <li key={w}>{w}</li>
+              ))}
+            </ul>
+          )}
         </div>
       </div>
       {props.canSave && <SavePlan {...props} />}
@@ -314,7 +442,19 @@ function describeSaveError(error: { message: string; fields: Record<string, stri
   return details.length ? `${error.message}: ${details.join('; ')}` : error.message;
 }
 
-function SavePlan({ item, customer, addressLabel, position, kit }: { item: ShortlistItem; customer: PlannerCustomer | null; addressLabel: string | null; position: LatLon; kit: KitForm }) {
+function SavePlan({
+  item,
+  customer,
+  addressLabel,
+  position,
+  kit,
+}: {
+  item: ShortlistItem;
+  customer: PlannerCustomer | null;
+  addressLabel: string | null;
+  position: LatLon;
+  kit: KitForm;
+}) {
   const kitValid = Object.keys(checkKitForm(kit)).length === 0;
   const [name, setName] = useState('');
   const [busy, setBusy] = useState(false);
@@ -327,7 +467,14 @@ function SavePlan({ item, customer, addressLabel, position, kit }: { item: Short
     try {
       const who = customer
         ? { customer_id: customer.id }
-        : { customer: { name: name.trim(), address_label: addressLabel ?? `${position.lat.toFixed(5)}, ${position.lon.toFixed(5)}`, lat: position.lat, lon: position.lon } };
+        : {
+            customer: {
+              name: name.trim(),
+              address_label: addressLabel ?? `${position.lat.toFixed(5)}, ${position.lon.toFixed(5)}`,
+              lat: position.lat,
+              lon: position.lon,
+            },
+          };
       // One request: the new customer and the plan are saved together or not at all, and the server
       // computes the plan's figures from the same kit the shortlist used.
       const plan = await planSaveApi.createPlan({
@@ -356,13 +503,21 @@ function SavePlan({ item, customer, addressLabel, position, kit }: { item: Short
     >
       {!customer && (
         <div className="min-w-56 flex-1">
-          <label htmlFor="plan-customer-name" className="field-label">New customer’s name</label>
+          <label htmlFor="plan-customer-name" className="field-label">
+            New customer’s name
+          </label>
           <input id="plan-customer-name" className="field-input" value={name} onChange={(e) => setName(e.target.value)} aria-invalid={!!nameError} required />
           {nameError && <p className="field-error">{nameError}</p>}
         </div>
       )}
-      <button type="submit" className="btn-primary" disabled={busy || !kitValid || (!customer && !name.trim())}>{busy ? 'Saving…' : 'Save plan and open the aim sheet'}</button>
-      {error && !nameError && <p role="alert" className="field-error w-full">{describeSaveError(error)}</p>}
+      <button type="submit" className="btn-primary" disabled={busy || !kitValid || (!customer && !name.trim())}>
+        {busy ? 'Saving…' : 'Save plan and open the aim sheet'}
+      </button>
+      {error && !nameError && (
+        <p role="alert" className="field-error w-full">
+          {describeSaveError(error)}
+        </p>
+      )}
     </form>
   );
 }

@@ -40,7 +40,12 @@ export default function PlannerMap({ position, items, selectedCellId, onPickPosi
         const boxes = r.items.map((g) => g.bbox);
         setBounds(
           boxes.length
-            ? [Math.min(...boxes.map((b) => b[0])), Math.min(...boxes.map((b) => b[1])), Math.max(...boxes.map((b) => b[2])), Math.max(...boxes.map((b) => b[3]))]
+            ? [
+                Math.min(...boxes.map((b) => b[0])),
+                Math.min(...boxes.map((b) => b[1])),
+                Math.max(...boxes.map((b) => b[2])),
+                Math.max(...boxes.map((b) => b[3])),
+              ]
             : [-180, -60, 180, 75],
         );
       },
@@ -84,7 +89,10 @@ export default function PlannerMap({ position, items, selectedCellId, onPickPosi
   }, [items]);
 
   const customer = useMemo<FeatureCollection>(
-    () => ({ type: 'FeatureCollection', features: position ? [{ type: 'Feature', properties: {}, geometry: { type: 'Point', coordinates: [position.lon, position.lat] } }] : [] }),
+    () => ({
+      type: 'FeatureCollection',
+      features: position ? [{ type: 'Feature', properties: {}, geometry: { type: 'Point', coordinates: [position.lon, position.lat] } }] : [],
+    }),
     [position],
   );
 
@@ -110,16 +118,39 @@ export default function PlannerMap({ position, items, selectedCellId, onPickPosi
       <NavigationControl position="top-right" />
       <ScaleControl position="bottom-left" />
       <Source id="planner-lines" type="geojson" data={lines}>
-        <Layer id="planner-lines-casing" type="line" paint={{ 'line-color': '#ffffff', 'line-width': ['case', ['get', 'selected'], 7, 4] }} layout={{ 'line-cap': 'round' }} />
-        <Layer id="planner-lines" type="line" paint={{ 'line-color': ['get', 'colour'], 'line-width': ['case', ['get', 'selected'], 4, 2], 'line-dasharray': [3, 1.5] }} layout={{ 'line-cap': 'round' }} />
+        <Layer
+          id="planner-lines-casing"
+          type="line"
+          paint={{ 'line-color': '#ffffff', 'line-width': ['case', ['get', 'selected'], 7, 4] }}
+          layout={{ 'line-cap': 'round' }}
+        />
+        <Layer
+          id="planner-lines"
+          type="line"
+          paint={{ 'line-color': ['get', 'colour'], 'line-width': ['case', ['get', 'selected'], 4, 2], 'line-dasharray': [3, 1.5] }}
+          layout={{ 'line-cap': 'round' }}
+        />
       </Source>
       <Source id="planner-masts-src" type="geojson" data={masts}>
-        <Layer id="planner-masts" type="circle" paint={{ 'circle-radius': 7, 'circle-color': ['get', 'colour'], 'circle-stroke-color': '#ffffff', 'circle-stroke-width': 2 }} />
-        <Layer id="planner-mast-labels" type="symbol" layout={{ 'text-field': ['get', 'name'], 'text-font': [...LABEL_FONTS.regular], 'text-size': 11, 'text-offset': [0, 1.2], 'text-anchor': 'top' }} paint={{ 'text-color': '#1f3043', 'text-halo-color': '#ffffff', 'text-halo-width': 1.5 }} />
+        <Layer
+          id="planner-masts"
+          type="circle"
+          paint={{ 'circle-radius': 7, 'circle-color': ['get', 'colour'], 'circle-stroke-color': '#ffffff', 'circle-stroke-width': 2 }}
+        />
+        <Layer
+          id="planner-mast-labels"
+          type="symbol"
+          layout={{ 'text-field': ['get', 'name'], 'text-font': [...LABEL_FONTS.regular], 'text-size': 11, 'text-offset': [0, 1.2], 'text-anchor': 'top' }}
+          paint={{ 'text-color': '#1f3043', 'text-halo-color': '#ffffff', 'text-halo-width': 1.5 }}
+        />
       </Source>
       <Source id="planner-customer" type="geojson" data={customer}>
         <Layer id="planner-customer-halo" type="circle" paint={{ 'circle-radius': 11, 'circle-color': '#d9891a', 'circle-opacity': 0.25 }} />
-        <Layer id="planner-customer-dot" type="circle" paint={{ 'circle-radius': 6, 'circle-color': '#d9891a', 'circle-stroke-color': '#1f3043', 'circle-stroke-width': 2 }} />
+        <Layer
+          id="planner-customer-dot"
+          type="circle"
+          paint={{ 'circle-radius': 6, 'circle-color': '#d9891a', 'circle-stroke-color': '#1f3043', 'circle-stroke-width': 2 }}
+        />
       </Source>
     </Map>
   );

@@ -31,19 +31,39 @@ export default function ShortlistTable({ items, selectedCellId, onSelect }: Prop
             <span className="mr-1 inline-block h-2 w-2 rounded-full" style={{ background: i.operator.colour ?? '#476785' }} aria-hidden="true" />
             {i.operator.name} · {i.tech.toUpperCase()} {i.band} · ch {i.channel} · PCI {i.pci ?? '—'}
           </span>
-          {i.preferred && <span className="ml-1 rounded bg-ink-100 px-1 text-xs font-semibold text-ink-800" data-testid="preferred">preferred</span>}
+          {i.preferred && (
+            <span className="ml-1 rounded bg-ink-100 px-1 text-xs font-semibold text-ink-800" data-testid="preferred">
+              preferred
+            </span>
+          )}
         </button>
       ),
     },
-    { key: 'dist', label: 'km', sortValue: (i) => i.distance_m, render: (i) => <span className="tabular-nums">{km(i.distance_m)}</span>, className: 'text-right' },
+    {
+      key: 'dist',
+      label: 'km',
+      sortValue: (i) => i.distance_m,
+      render: (i) => <span className="tabular-nums">{km(i.distance_m)}</span>,
+      className: 'text-right',
+    },
     {
       key: 'bearing',
       label: 'Aim °T / °M',
       sortValue: (i) => i.bearing_true_deg,
-      render: (i) => <span className="tabular-nums">{i.bearing_true_deg.toFixed(0)} / {i.bearing_magnetic_deg.toFixed(0)}</span>,
+      render: (i) => (
+        <span className="tabular-nums">
+          {i.bearing_true_deg.toFixed(0)} / {i.bearing_magnetic_deg.toFixed(0)}
+        </span>
+      ),
       className: 'text-right',
     },
-    { key: 'elev', label: 'Tilt °', sortValue: (i) => i.elevation_deg, render: (i) => <span className="tabular-nums">{i.elevation_deg.toFixed(1)}</span>, className: 'hidden text-right sm:table-cell' },
+    {
+      key: 'elev',
+      label: 'Tilt °',
+      sortValue: (i) => i.elevation_deg,
+      render: (i) => <span className="tabular-nums">{i.elevation_deg.toFixed(1)}</span>,
+      className: 'hidden text-right sm:table-cell',
+    },
     { key: 'terrain', label: 'Terrain', sortValue: (i) => i.terrain.diffraction_loss_db, render: (i) => TERRAIN_LABELS[i.terrain.status] },
     {
       key: 'rsrp',
@@ -51,7 +71,9 @@ export default function ShortlistTable({ items, selectedCellId, onSelect }: Prop
       sortValue: (i) => i.predicted_rsrp_dbm,
       render: (i) => (
         <span className="flex flex-wrap items-center justify-end gap-1">
-          <span className="font-semibold tabular-nums" data-testid="rsrp">{i.predicted_rsrp_dbm.toFixed(0)}</span>
+          <span className="font-semibold tabular-nums" data-testid="rsrp">
+            {i.predicted_rsrp_dbm.toFixed(0)}
+          </span>
           <GradeBadge grade={i.grade} />
         </span>
       ),
@@ -62,7 +84,13 @@ export default function ShortlistTable({ items, selectedCellId, onSelect }: Prop
       label: 'SINR dB · Mbit/s',
       sortValue: (i) => i.sinr_db,
       render: (i) => (
-        <span className="tabular-nums" data-testid="sinr" title={i.interferers ? `${i.interferers} co-channel cell${i.interferers === 1 ? '' : 's'} of ${i.operator.name} counted` : 'no co-channel cell nearby'}>
+        <span
+          className="tabular-nums"
+          data-testid="sinr"
+          title={
+            i.interferers ? `${i.interferers} co-channel cell${i.interferers === 1 ? '' : 's'} of ${i.operator.name} counted` : 'no co-channel cell nearby'
+          }
+        >
           {i.sinr_db === null ? '—' : i.sinr_db.toFixed(0)}
           <span className="text-ink-600"> · {i.expected_throughput_mbps === null ? '—' : i.expected_throughput_mbps.toFixed(0)}</span>
         </span>
@@ -73,22 +101,35 @@ export default function ShortlistTable({ items, selectedCellId, onSelect }: Prop
       key: 'gain',
       label: 'Gain dB',
       sortValue: (i) => i.expected_gain_db,
-      render: (i) => <span className="tabular-nums">{i.expected_gain_db === null ? '—' : `${i.expected_gain_db > 0 ? '+' : ''}${i.expected_gain_db.toFixed(1)}`}</span>,
+      render: (i) => (
+        <span className="tabular-nums">{i.expected_gain_db === null ? '—' : `${i.expected_gain_db > 0 ? '+' : ''}${i.expected_gain_db.toFixed(1)}`}</span>
+      ),
       className: 'hidden text-right sm:table-cell',
     },
     {
       key: 'cal',
       label: 'Confidence',
       sortValue: (i) => -(i.calibration?.uncertainty_db ?? 8),
-      render: (i) => <span title={describeConfidence(i.calibration)}>{i.calibration ? `${i.calibration.confidence} (${i.calibration.readings_used})` : 'model'}</span>,
+      render: (i) => (
+        <span title={describeConfidence(i.calibration)}>{i.calibration ? `${i.calibration.confidence} (${i.calibration.readings_used})` : 'model'}</span>
+      ),
       className: 'hidden text-right sm:table-cell',
     },
   ];
   return (
     <>
-      <SortableTable rows={visible} columns={columns} rowKey={(i) => i.cell_id} empty="No active LTE or NR cell within the search radius" caption="Shortlist" rowClassName={(i) => (i.cell_id === selectedCellId ? 'bg-ember-50' : undefined)} />
+      <SortableTable
+        rows={visible}
+        columns={columns}
+        rowKey={(i) => i.cell_id}
+        empty="No active LTE or NR cell within the search radius"
+        caption="Shortlist"
+        rowClassName={(i) => (i.cell_id === selectedCellId ? 'bg-ember-50' : undefined)}
+      />
       {items.length > visible.length && (
-        <button type="button" className="btn-secondary mt-3" onClick={() => setShowAll(true)}>Show all {items.length} candidates</button>
+        <button type="button" className="btn-secondary mt-3" onClick={() => setShowAll(true)}>
+          Show all {items.length} candidates
+        </button>
       )}
     </>
   );

@@ -24,7 +24,13 @@ export default function TerrainChart({ path }: Props) {
     fresnelLow: +(p.los_m - p.fresnel_m).toFixed(1),
     fresnel60: +(p.los_m - 0.6 * p.fresnel_m).toFixed(1),
   }));
-  const worst = terrain.worst_distance_m === null ? null : data.reduce((best, d) => (Math.abs(d.km * 1000 - terrain.worst_distance_m!) < Math.abs(best.km * 1000 - terrain.worst_distance_m!) ? d : best), data[0]);
+  const worst =
+    terrain.worst_distance_m === null
+      ? null
+      : data.reduce(
+          (best, d) => (Math.abs(d.km * 1000 - terrain.worst_distance_m!) < Math.abs(best.km * 1000 - terrain.worst_distance_m!) ? d : best),
+          data[0],
+        );
   const low = Math.min(...data.map((d) => Math.min(d.ground, d.fresnelLow)));
   return (
     <figure>
@@ -32,12 +38,36 @@ export default function TerrainChart({ path }: Props) {
         <ResponsiveContainer>
           <ComposedChart data={data} margin={{ top: 8, right: 12, bottom: 18, left: 4 }}>
             <CartesianGrid stroke="#e3e9f0" />
-            <XAxis dataKey="km" type="number" domain={[0, 'dataMax']} tickFormatter={(v: number) => v.toFixed(1)} label={{ value: 'km from the customer', position: 'insideBottom', offset: -10, fontSize: 12 }} fontSize={12} />
+            <XAxis
+              dataKey="km"
+              type="number"
+              domain={[0, 'dataMax']}
+              tickFormatter={(v: number) => v.toFixed(1)}
+              label={{ value: 'km from the customer', position: 'insideBottom', offset: -10, fontSize: 12 }}
+              fontSize={12}
+            />
             <YAxis domain={[Math.floor(low / 10) * 10, 'auto']} fontSize={12} label={{ value: 'm', angle: -90, position: 'insideLeft', fontSize: 12 }} />
             <Tooltip formatter={(v) => `${v} m`} labelFormatter={(v) => `${Number(v).toFixed(2)} km`} />
-            <Area type="monotone" dataKey="ground" name="Ground + earth bulge" stroke="#6b5a3a" fill="#cdbb92" fillOpacity={0.7} isAnimationActive={false} baseValue="dataMin" />
+            <Area
+              type="monotone"
+              dataKey="ground"
+              name="Ground + earth bulge"
+              stroke="#6b5a3a"
+              fill="#cdbb92"
+              fillOpacity={0.7}
+              isAnimationActive={false}
+              baseValue="dataMin"
+            />
             <Line type="linear" dataKey="los" name="Line of sight" stroke="#1f3043" strokeWidth={2} dot={false} isAnimationActive={false} />
-            <Line type="monotone" dataKey="fresnelLow" name="1st Fresnel zone (lower edge)" stroke="#476785" strokeDasharray="5 4" dot={false} isAnimationActive={false} />
+            <Line
+              type="monotone"
+              dataKey="fresnelLow"
+              name="1st Fresnel zone (lower edge)"
+              stroke="#476785"
+              strokeDasharray="5 4"
+              dot={false}
+              isAnimationActive={false}
+            />
             <Line type="monotone" dataKey="fresnel60" name="60 % of the zone" stroke="#b46d10" strokeDasharray="2 3" dot={false} isAnimationActive={false} />
             {worst && <ReferenceDot x={worst.km} y={worst.ground} r={5} fill="#b4442f" stroke="white" />}
           </ComposedChart>
@@ -55,8 +85,10 @@ export default function TerrainChart({ path }: Props) {
       </ul>
       <figcaption className="mt-2 text-sm text-ink-700">
         {terrain.status === 'clear' && 'Clear: at least 60 % of the first Fresnel zone is free along the path.'}
-        {terrain.status === 'fresnel' && `Fresnel zone infringed: worst clearance ${terrain.worst_clearance_m} m at ${((terrain.worst_distance_m ?? 0) / 1000).toFixed(2)} km, about ${terrain.diffraction_loss_db} dB diffraction loss.`}
-        {terrain.status === 'obstructed' && `Obstructed: the ground rises ${Math.abs(terrain.worst_clearance_m ?? 0)} m above the line of sight at ${((terrain.worst_distance_m ?? 0) / 1000).toFixed(2)} km, about ${terrain.diffraction_loss_db} dB diffraction loss.`}
+        {terrain.status === 'fresnel' &&
+          `Fresnel zone infringed: worst clearance ${terrain.worst_clearance_m} m at ${((terrain.worst_distance_m ?? 0) / 1000).toFixed(2)} km, about ${terrain.diffraction_loss_db} dB diffraction loss.`}
+        {terrain.status === 'obstructed' &&
+          `Obstructed: the ground rises ${Math.abs(terrain.worst_clearance_m ?? 0)} m above the line of sight at ${((terrain.worst_distance_m ?? 0) / 1000).toFixed(2)} km, about ${terrain.diffraction_loss_db} dB diffraction loss.`}
       </figcaption>
     </figure>
   );

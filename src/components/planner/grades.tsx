@@ -30,7 +30,10 @@ export const TERRAIN_LABELS: Record<TerrainStatus, string> = {
 
 export function GradeBadge({ grade, prefix }: { grade: Grade; prefix?: string }) {
   return (
-    <span className="inline-flex items-center gap-1 whitespace-nowrap rounded px-1.5 py-0.5 text-xs font-semibold text-white" style={{ background: GRADE_COLOURS[grade] }}>
+    <span
+      className="inline-flex items-center gap-1 whitespace-nowrap rounded px-1.5 py-0.5 text-xs font-semibold text-white"
+      style={{ background: GRADE_COLOURS[grade] }}
+    >
       {prefix && <span className="sr-only">{prefix} </span>}
       {GRADE_LABELS[grade]}
     </span>

@@ -17,7 +17,14 @@ function ProgressBar({ label, percent }: { label: string; percent: number }) {
         <span>{label}</span>
         <span>{Math.round(percent)} %</span>
       </div>
-      <div className="mt-1 h-3 w-full overflow-hidden rounded bg-ink-100" role="progressbar" aria-label={label} aria-valuenow={Math.round(percent)} aria-valuemin={0} aria-valuemax={100}>
+      <div
+        className="mt-1 h-3 w-full overflow-hidden rounded bg-ink-100"
+        role="progressbar"
+        aria-label={label}
+        aria-valuenow={Math.round(percent)}
+        aria-valuemin={0}
+        aria-valuemax={100}
+      >
         <div className="h-3 bg-sky-700 transition-all" style={{ width: `${percent}%` }} />
       </div>
     </div>
@@ -61,7 +68,11 @@ export default function ReadingsImport() {
           .filter(([k]) => k.startsWith('line '))
           .sort(([a], [b]) => lineOf(a) - lineOf(b));
         const fileProblems = err.fields.file ?? [];
-        setStage(lines.length ? { kind: 'rejected', message: err.message, lines } : { kind: 'error', message: [err.message, ...fileProblems.filter((m) => m !== err.message)].join(' ') });
+        setStage(
+          lines.length
+            ? { kind: 'rejected', message: err.message, lines }
+            : { kind: 'error', message: [err.message, ...fileProblems.filter((m) => m !== err.message)].join(' ') },
+        );
       } else setStage({ kind: 'error', message: 'Could not send the file' });
     }
   }

@@ -14,7 +14,18 @@ const identity = <C extends { operator: { id: string }; tech: string; channel: n
   operatorId: c.operator.id,
 });
 
-function CellText({ c }: { c: { operator: { name: string; colour: string }; tech: keyof typeof TECH_LABELS; band: string; channel: number; pci: number | null; sector_azimuth_deg: number | null } }) {
+function CellText({
+  c,
+}: {
+  c: {
+    operator: { name: string; colour: string };
+    tech: keyof typeof TECH_LABELS;
+    band: string;
+    channel: number;
+    pci: number | null;
+    sector_azimuth_deg: number | null;
+  };
+}) {
   return (
     <span className="flex flex-col">
       <span className="flex items-center gap-1.5 font-semibold">

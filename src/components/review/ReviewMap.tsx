@@ -36,7 +36,10 @@ export default function ReviewMap({ sighting, masts, radiusM, selectedMastId, on
     [sighting.lat, sighting.lon, radiusM],
   );
   const point = useMemo<FeatureCollection>(
-    () => ({ type: 'FeatureCollection', features: [{ type: 'Feature', properties: {}, geometry: { type: 'Point', coordinates: [sighting.lon, sighting.lat] } }] }),
+    () => ({
+      type: 'FeatureCollection',
+      features: [{ type: 'Feature', properties: {}, geometry: { type: 'Point', coordinates: [sighting.lon, sighting.lat] } }],
+    }),
     [sighting.lat, sighting.lon],
   );
   const mastPoints = useMemo<FeatureCollection>(

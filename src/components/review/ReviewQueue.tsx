@@ -7,7 +7,8 @@ import { STRUCTURE_TYPE_LABELS } from '../../lib/schemas/masts';
 import ReviewMap from './ReviewMap';
 import CellsSideBySide from './CellsSideBySide';
 
-const fmtDate = (iso: string) => new Date(iso).toLocaleString(undefined, { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' });
+const fmtDate = (iso: string) =>
+  new Date(iso).toLocaleString(undefined, { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' });
 const count = (n: number, one: string) => `${n} ${one}${n === 1 ? '' : 's'}`;
 const fmtDistance = (m: number) => (m < 10 ? `${m.toFixed(1)} m` : `${Math.round(m)} m`);
 const POSITION_FROM: Record<string, string> = { photo: "the photo's GPS tags", device: "the phone's location", map: 'a click on the map' };
@@ -17,7 +18,8 @@ function SubmitterRecord({ r }: { r: ReviewItemJson['submitter'] }) {
   if (decided === 0) return <span className="text-ink-500">first report</span>;
   return (
     <span>
-      <span className="text-moss-700">{r.approved + r.merged} accepted</span> · <span className={r.rejected ? 'text-alarm-700' : ''}>{r.rejected} rejected</span>
+      <span className="text-moss-700">{r.approved + r.merged} accepted</span> ·{' '}
+      <span className={r.rejected ? 'text-alarm-700' : ''}>{r.rejected} rejected</span>
     </span>
   );
 }
@@ -88,8 +90,18 @@ function DecisionForm({ item, candidate, onDecided, onStale }: DecisionFormProps
   }
 
   const choice = (d: Decision, disabled = false, hint?: string) => (
-    <label className={`flex min-h-11 cursor-pointer items-start gap-2 rounded-md border px-3 py-2 text-sm ${decision === d ? 'border-ink-700 bg-ink-50' : 'border-ink-200'} ${disabled ? 'cursor-not-allowed opacity-50' : ''}`}>
-      <input type="radio" name={`decision-${id}`} value={d} className="mt-1 h-4 w-4" checked={decision === d} disabled={disabled} onChange={() => setDecision(d)} />
+    <label
+      className={`flex min-h-11 cursor-pointer items-start gap-2 rounded-md border px-3 py-2 text-sm ${decision === d ? 'border-ink-700 bg-ink-50' : 'border-ink-200'} ${disabled ? 'cursor-not-allowed opacity-50' : ''}`}
+    >
+      <input
+        type="radio"
+        name={`decision-${id}`}
+        value={d}
+        className="mt-1 h-4 w-4"
+        checked={decision === d}
+        disabled={disabled}
+        onChange={() => setDecision(d)}
+      />
       <span>
         <span className="font-semibold">{DECISION_LABELS[d]}</span>
         {hint && <span className="block text-xs text-ink-600">{hint}</span>}
@@ -100,22 +112,45 @@ function DecisionForm({ item, candidate, onDecided, onStale }: DecisionFormProps
   return (
     <form className="space-y-3" onSubmit={submit} noValidate aria-labelledby={`decide-${id}`}>
       <h3 id={`decide-${id}`}>Decision</h3>
-      {error && <p role="alert" className="rounded-md border border-alarm-100 bg-alarm-50 px-3 py-2 text-sm text-alarm-700">{error}</p>}
+      {error && (
+        <p role="alert" className="rounded-md border border-alarm-100 bg-alarm-50 px-3 py-2 text-sm text-alarm-700">
+          {error}
+        </p>
+      )}
       <fieldset className="space-y-2">
         <legend className="sr-only">What becomes of this sighting</legend>
         {choice('approve', false, 'A new mast with the reported cells')}
-        {choice('merge', !candidate, candidate ? `Into ${candidate.mast.name}: adds cells it lacks, confirms the others, keeps the photos` : 'No mast within reach to merge into')}
+        {choice(
+          'merge',
+          !candidate,
+          candidate ? `Into ${candidate.mast.name}: adds cells it lacks, confirms the others, keeps the photos` : 'No mast within reach to merge into',
+        )}
         {choice('reject', false, 'Nothing changes on the map; the reason goes to the submitter')}
       </fieldset>
       {decision === 'approve' && (
         <div>
-          <label htmlFor={`name-${id}`} className="field-label">Name of the new mast</label>
-          <input id={`name-${id}`} className="field-input min-h-11 text-base sm:text-sm" value={name} onChange={(e) => setName(e.target.value)} aria-invalid={fields.name ? true : undefined} aria-describedby={fields.name ? `name-${id}-error` : undefined} />
-          {fields.name && <p id={`name-${id}-error`} className="field-error">{fields.name.join(' ')}</p>}
+          <label htmlFor={`name-${id}`} className="field-label">
+            Name of the new mast
+          </label>
+          <input
+            id={`name-${id}`}
+            className="field-input min-h-11 text-base sm:text-sm"
+            value={name}
+            onChange={(e) => setName(e.target.value)}
+            aria-invalid={fields.name ? true : undefined}
+            aria-describedby={fields.name ? `name-${id}-error` : undefined}
+          />
+          {fields.name && (
+            <p id={`name-${id}-error`} className="field-error">
+              {fields.name.join(' ')}
+            </p>
+          )}
         </div>
       )}
       <div>
-        <label htmlFor={`reason-${id}`} className="field-label">{decision === 'reject' ? 'Reason (required)' : 'Note to the submitter (optional)'}</label>
+        <label htmlFor={`reason-${id}`} className="field-label">
+          {decision === 'reject' ? 'Reason (required)' : 'Note to the submitter (optional)'}
+        </label>
         <textarea
           id={`reason-${id}`}
           rows={3}
@@ -126,17 +161,37 @@ function DecisionForm({ item, candidate, onDecided, onStale }: DecisionFormProps
           aria-describedby={fields.reason ? `reason-${id}-error` : undefined}
           placeholder={decision === 'reject' ? 'e.g. This is a floodlight pole, not a mast' : ''}
         />
-        {fields.reason && <p id={`reason-${id}-error`} className="field-error">{fields.reason.join(' ')}</p>}
+        {fields.reason && (
+          <p id={`reason-${id}-error`} className="field-error">
+            {fields.reason.join(' ')}
+          </p>
+        )}
       </div>
       {fields.mast_id && <p className="field-error">{fields.mast_id.join(' ')}</p>}
       <button type="submit" className={`${decision === 'reject' ? 'btn-danger' : 'btn-primary'} min-h-11 w-full`} disabled={busy}>
-        {busy ? 'Saving…' : decision === 'approve' ? 'Approve as a new mast' : decision === 'merge' ? `Merge into ${candidate?.mast.name ?? 'the mast'}` : 'Reject the sighting'}
+        {busy
+          ? 'Saving…'
+          : decision === 'approve'
+            ? 'Approve as a new mast'
+            : decision === 'merge'
+              ? `Merge into ${candidate?.mast.name ?? 'the mast'}`
+              : 'Reject the sighting'}
       </button>
     </form>
   );
 }
 
-function SightingDetail({ item, radiusM, onDecided, onStale }: { item: ReviewItemJson; radiusM: number; onDecided: (m: string) => void; onStale: (m: string) => void }) {
+function SightingDetail({
+  item,
+  radiusM,
+  onDecided,
+  onStale,
+}: {
+  item: ReviewItemJson;
+  radiusM: number;
+  onDecided: (m: string) => void;
+  onStale: (m: string) => void;
+}) {
   const s = item.sighting;
   const [mastId, setMastId] = useState<string | null>(item.candidates[0]?.mast.id ?? null);
   useEffect(() => setMastId(item.candidates[0]?.mast.id ?? null), [item]);
@@ -151,7 +206,8 @@ function SightingDetail({ item, radiusM, onDecided, onStale }: { item: ReviewIte
           {s.estimated_height_m !== null && `, about ${Math.round(s.estimated_height_m)} m`}
         </h2>
         <p className="text-sm text-ink-600">
-          Seen {fmtDate(s.observed_at)} by <span className="font-semibold">{s.author.name}</span> (<SubmitterRecord r={item.submitter} />). Position from {POSITION_FROM[s.position_source]}
+          Seen {fmtDate(s.observed_at)} by <span className="font-semibold">{s.author.name}</span> (<SubmitterRecord r={item.submitter} />
+          ). Position from {POSITION_FROM[s.position_source]}
           {s.position_accuracy_m !== null && ` (±${Math.round(s.position_accuracy_m)} m)`}: {s.lat.toFixed(5)}, {s.lon.toFixed(5)}.
         </p>
         {s.notes && <p className="mt-2 whitespace-pre-line rounded bg-ink-50 px-3 py-2 text-sm text-ink-800">{s.notes}</p>}
@@ -170,7 +226,11 @@ function SightingDetail({ item, radiusM, onDecided, onStale }: { item: ReviewIte
                 <a href={p.display_url} target="_blank" rel="noreferrer" className="block overflow-hidden rounded border border-ink-200">
                   <img src={p.thumb_url} alt={`Photo ${i + 1} of ${s.photos.length}`} className="aspect-square w-full object-cover" loading="lazy" />
                 </a>
-                {p.original_url && <a href={p.original_url} className="text-xs text-ink-600 underline" target="_blank" rel="noreferrer">original</a>}
+                {p.original_url && (
+                  <a href={p.original_url} className="text-xs text-ink-600 underline" target="_blank" rel="noreferrer">
+                    original
+                  </a>
+                )}
               </li>
             ))}
           </ul>
@@ -194,9 +254,13 @@ function SightingDetail({ item, radiusM, onDecided, onStale }: { item: ReviewIte
                   <span className="flex h-6 w-6 shrink-0 items-center justify-center rounded-full bg-ink-600 text-xs font-bold text-white">{i + 1}</span>
                   <span className="min-w-0 flex-1">
                     <span className="block truncate font-semibold">{c.mast.name}</span>
-                    <span className="text-ink-600">{fmtDistance(c.distance_m)} away · {count(c.cells.length, 'cell')}</span>
+                    <span className="text-ink-600">
+                      {fmtDistance(c.distance_m)} away · {count(c.cells.length, 'cell')}
+                    </span>
                   </span>
-                  <span className={`shrink-0 rounded px-2 py-0.5 text-xs font-semibold ${c.shared_cells ? 'bg-moss-100 text-moss-700' : 'bg-ink-100 text-ink-600'}`}>
+                  <span
+                    className={`shrink-0 rounded px-2 py-0.5 text-xs font-semibold ${c.shared_cells ? 'bg-moss-100 text-moss-700' : 'bg-ink-100 text-ink-600'}`}
+                  >
                     {c.shared_cells} shared
                   </span>
                 </button>
@@ -256,7 +320,12 @@ export default function ReviewQueue() {
     void load(null);
   }
 
-  if (loadError) return <p role="alert" className="mt-4 text-alarm-700">{loadError}</p>;
+  if (loadError)
+    return (
+      <p role="alert" className="mt-4 text-alarm-700">
+        {loadError}
+      </p>
+    );
   if (!data) return <p className="mt-4 text-ink-500">Loading the queue…</p>;
 
   return (
@@ -266,18 +335,26 @@ export default function ReviewQueue() {
         tabIndex={-1}
         aria-live="polite"
         data-testid="review-notice"
-        className={notice ? `rounded-md border px-3 py-2 text-sm ${notice.tone === 'ok' ? 'border-moss-100 bg-moss-50 text-moss-700' : 'border-ember-100 bg-ember-50 text-ember-700'}` : 'sr-only'}
+        className={
+          notice
+            ? `rounded-md border px-3 py-2 text-sm ${notice.tone === 'ok' ? 'border-moss-100 bg-moss-50 text-moss-700' : 'border-ember-100 bg-ember-50 text-ember-700'}`
+            : 'sr-only'
+        }
       >
         {notice?.text}
         {notice?.tone === 'ok' && (
           <>
             {' '}
-            <a href="/map" className="font-semibold underline">Open the map</a>
+            <a href="/map" className="font-semibold underline">
+              Open the map
+            </a>
           </>
         )}
       </p>
       {data.items.length === 0 ? (
-        <p className="card text-ink-600" data-testid="review-empty">No sightings wait for review. New ones appear here, oldest first.</p>
+        <p className="card text-ink-600" data-testid="review-empty">
+          No sightings wait for review. New ones appear here, oldest first.
+        </p>
       ) : (
         <div className="grid gap-4 lg:grid-cols-[minmax(0,22rem)_minmax(0,1fr)]">
           <section className="card min-w-0" aria-labelledby="queue-heading">
@@ -305,7 +382,9 @@ export default function ReviewQueue() {
                       </span>
                       <span className="text-xs text-ink-600">
                         {count(i.sighting.cells.length, 'cell')} · {count(i.sighting.photos.length, 'photo')} ·{' '}
-                        {best ? `${i.candidates.length} mast${i.candidates.length === 1 ? '' : 's'} near, ${best.shared_cells} shared at ${fmtDistance(best.distance_m)}` : 'no mast near'}
+                        {best
+                          ? `${i.candidates.length} mast${i.candidates.length === 1 ? '' : 's'} near, ${best.shared_cells} shared at ${fmtDistance(best.distance_m)}`
+                          : 'no mast near'}
                       </span>
                     </button>
                   </li>

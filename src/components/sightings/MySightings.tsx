@@ -53,7 +53,12 @@ export default function MySightings() {
             {(s.operators.length > 0 || s.cells.length > 0) && (
               <p className="text-sm text-ink-700">
                 {s.operators.map((o) => o.name).join(', ')}
-                {s.cells.length > 0 && <> · {s.cells.length} cell{s.cells.length === 1 ? '' : 's'}</>}
+                {s.cells.length > 0 && (
+                  <>
+                    {' '}
+                    · {s.cells.length} cell{s.cells.length === 1 ? '' : 's'}
+                  </>
+                )}
               </p>
             )}
             {s.photos.length > 0 && (

@@ -35,15 +35,22 @@ export default function OutboxList({ onSent }: { onSent?: () => void }) {
         {entries.map((e) => (
           <li key={e.clientUuid} className="flex flex-wrap items-center justify-between gap-2 py-2 text-sm">
             <span>
-              <span className={`mr-2 rounded px-2 py-0.5 text-xs font-semibold ${e.state === 'waiting' ? 'bg-ember-100 text-ember-700' : 'bg-alarm-100 text-alarm-700'}`}>
+              <span
+                className={`mr-2 rounded px-2 py-0.5 text-xs font-semibold ${e.state === 'waiting' ? 'bg-ember-100 text-ember-700' : 'bg-alarm-100 text-alarm-700'}`}
+              >
                 {e.state === 'waiting' ? 'Waiting to send' : 'Refused'}
               </span>
-              {SIGHTING_STRUCTURE_LABELS[e.sighting.structure_type] ?? 'Sighting'} at {Number(e.sighting.lat).toFixed(4)}, {Number(e.sighting.lon).toFixed(4)} · {e.photos.length} photo{e.photos.length === 1 ? '' : 's'}
+              {SIGHTING_STRUCTURE_LABELS[e.sighting.structure_type] ?? 'Sighting'} at {Number(e.sighting.lat).toFixed(4)}, {Number(e.sighting.lon).toFixed(4)} ·{' '}
+              {e.photos.length} photo{e.photos.length === 1 ? '' : 's'}
               {e.error && <span className="block text-alarm-700">{e.error}</span>}
             </span>
             {e.state === 'refused' ? (
               <span className="flex gap-2">
-                <button type="button" className="btn-secondary min-h-10" onClick={() => saveToOutbox({ ...e, state: 'waiting', error: undefined }).then(() => flushOutbox())}>
+                <button
+                  type="button"
+                  className="btn-secondary min-h-10"
+                  onClick={() => saveToOutbox({ ...e, state: 'waiting', error: undefined }).then(() => flushOutbox())}
+                >
                   Try again
                 </button>
                 <button type="button" className="btn-danger min-h-10" onClick={() => removeFromOutbox(e.clientUuid)}>

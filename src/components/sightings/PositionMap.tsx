@@ -47,13 +47,7 @@ export default function PositionMap({ position, fallbackCenter, onPick }: Props)
     >
       <NavigationControl position="top-right" showCompass={false} />
       {position && (
-        <Marker
-          longitude={position.lon}
-          latitude={position.lat}
-          anchor="bottom"
-          draggable
-          onDragEnd={(e) => onPick({ lat: e.lngLat.lat, lon: e.lngLat.lng })}
-        >
+        <Marker longitude={position.lon} latitude={position.lat} anchor="bottom" draggable onDragEnd={(e) => onPick({ lat: e.lngLat.lat, lon: e.lngLat.lng })}>
           <svg width="34" height="44" viewBox="0 0 34 44" aria-label="Sighting position" role="img">
             <path d="M17 43 C17 43 3 26 3 16 a14 14 0 0 1 28 0 C31 26 17 43 17 43z" fill="#d9891a" stroke="#1f3043" strokeWidth="2" />
             <circle cx="17" cy="16" r="5" fill="#ffffff" />

@@ -118,7 +118,10 @@ export default function SightingForm({ fallbackCenter }: { fallbackCenter: LatLo
   const [busy, setBusy] = useState(false);
 
   useEffect(() => {
-    operatorsApi.list().then((r) => setOperators(r.items), () => undefined);
+    operatorsApi.list().then(
+      (r) => setOperators(r.items),
+      () => undefined,
+    );
     return keepFlushing();
   }, []);
 
@@ -149,7 +152,13 @@ export default function SightingForm({ fallbackCenter }: { fallbackCenter: LatLo
       },
       (err) => {
         setLocating(false);
-        setErrors((e) => ({ ...e, lat: err.code === err.PERMISSION_DENIED ? 'Location is blocked for this site: allow it, or use a photo or the map' : 'No position from the device yet: try again in the open, or use the map' }));
+        setErrors((e) => ({
+          ...e,
+          lat:
+            err.code === err.PERMISSION_DENIED
+              ? 'Location is blocked for this site: allow it, or use a photo or the map'
+              : 'No position from the device yet: try again in the open, or use the map',
+        }));
       },
       { enableHighAccuracy: true, timeout: 20_000, maximumAge: 30_000 },
     );
@@ -321,7 +330,11 @@ export default function SightingForm({ fallbackCenter }: { fallbackCenter: LatLo
               />
             </label>
           </div>
-          {errors.photos && <p className="field-error" role="alert">{errors.photos}</p>}
+          {errors.photos && (
+            <p className="field-error" role="alert">
+              {errors.photos}
+            </p>
+          )}
           {photos.length > 0 && (
             <ul className="grid grid-cols-3 gap-2" aria-label="Photos">
               {photos.map((p, i) => (
@@ -335,7 +348,12 @@ export default function SightingForm({ fallbackCenter }: { fallbackCenter: LatLo
                     ) : (
                       <span className="text-ink-500">No GPS</span>
                     )}
-                    <button type="button" className="min-h-8 px-2 text-alarm-700 underline" onClick={() => removePhoto(p.key)} aria-label={`Remove photo ${i + 1}`}>
+                    <button
+                      type="button"
+                      className="min-h-8 px-2 text-alarm-700 underline"
+                      onClick={() => removePhoto(p.key)}
+                      aria-label={`Remove photo ${i + 1}`}
+                    >
                       Remove
                     </button>
                   </div>
@@ -348,13 +366,39 @@ export default function SightingForm({ fallbackCenter }: { fallbackCenter: LatLo
               <PositionMap position={position} fallbackCenter={fallbackCenter} onPick={(p) => setPosition(p, 'map')} />
             </Suspense>
           </div>
-          <p className="text-xs text-ink-600">Tap the map to place the marker; drag it to correct. Without a connection the map may stay blank: type the position instead.</p>
+          <p className="text-xs text-ink-600">
+            Tap the map to place the marker; drag it to correct. Without a connection the map may stay blank: type the position instead.
+          </p>
           <div className="grid grid-cols-2 gap-3">
             <Field id="lat" label="Latitude" error={errors.lat}>
-              <input id="lat" className={INPUT} inputMode="decimal" value={lat} {...invalid('lat')} onChange={(e) => { setLat(e.target.value); setSource('map'); setAccuracy(null); }} placeholder="-47.21" />
+              <input
+                id="lat"
+                className={INPUT}
+                inputMode="decimal"
+                value={lat}
+                {...invalid('lat')}
+                onChange={(e) => {
+                  setLat(e.target.value);
+                  setSource('map');
+                  setAccuracy(null);
+                }}
+                placeholder="-47.21"
+              />
             </Field>
             <Field id="lon" label="Longitude" error={errors.lon}>
-              <input id="lon" className={INPUT} inputMode="decimal" value={lon} {...invalid('lon')} onChange={(e) => { setLon(e.target.value); setSource('map'); setAccuracy(null); }} placeholder="-128.49" />
+              <input
+                id="lon"
+                className={INPUT}
+                inputMode="decimal"
+                value={lon}
+                {...invalid('lon')}
+                onChange={(e) => {
+                  setLon(e.target.value);
+                  setSource('map');
+                  setAccuracy(null);
+                }}
+                placeholder="-128.49"
+              />
             </Field>
           </div>
           <p className="text-sm text-ink-700" data-testid="position-source">
@@ -367,7 +411,11 @@ export default function SightingForm({ fallbackCenter }: { fallbackCenter: LatLo
               'No position yet.'
             )}
           </p>
-          {errors.position_source && <p className="field-error" role="alert">{errors.position_source}</p>}
+          {errors.position_source && (
+            <p className="field-error" role="alert">
+              {errors.position_source}
+            </p>
+          )}
         </section>
 
         <section className="card space-y-4">
@@ -376,23 +424,40 @@ export default function SightingForm({ fallbackCenter }: { fallbackCenter: LatLo
             <legend className="field-label">Kind of structure</legend>
             <div className="grid grid-cols-2 gap-2" role="radiogroup" {...invalid('structure_type')}>
               {SIGHTING_STRUCTURE_TYPES.map((t) => (
-                <label key={t} className={`flex min-h-12 cursor-pointer items-center gap-2 rounded-md border px-3 text-base ${structure === t ? 'border-ink-700 bg-ink-100 font-semibold' : 'border-ink-300 bg-white'}`}>
+                <label
+                  key={t}
+                  className={`flex min-h-12 cursor-pointer items-center gap-2 rounded-md border px-3 text-base ${structure === t ? 'border-ink-700 bg-ink-100 font-semibold' : 'border-ink-300 bg-white'}`}
+                >
                   <input type="radio" name="structure_type" value={t} checked={structure === t} onChange={() => setStructure(t)} className="h-5 w-5" />
                   {STRUCTURE_LABELS[t]}
                 </label>
               ))}
             </div>
-            {errors.structure_type && <p className="field-error" id="structure_type-error" role="alert">{errors.structure_type}</p>}
+            {errors.structure_type && (
+              <p className="field-error" id="structure_type-error" role="alert">
+                {errors.structure_type}
+              </p>
+            )}
           </fieldset>
           <Field id="height" label="Estimated height (m)" error={errors.estimated_height_m} hint="A guess is fine: a storey is about 3 m.">
-            <input id="height" className={INPUT} inputMode="decimal" value={height} {...invalid('estimated_height_m')} onChange={(e) => setHeight(e.target.value)} />
+            <input
+              id="height"
+              className={INPUT}
+              inputMode="decimal"
+              value={height}
+              {...invalid('estimated_height_m')}
+              onChange={(e) => setHeight(e.target.value)}
+            />
           </Field>
           <fieldset>
             <legend className="field-label">Operators seen (signs, equipment, the phone&apos;s network list)</legend>
             {operators.length === 0 && <p className="text-sm text-ink-600">The operator list loads with a connection.</p>}
             <div className="flex flex-wrap gap-2">
               {operators.map((o) => (
-                <label key={o.id} className={`flex min-h-12 cursor-pointer items-center gap-2 rounded-full border px-4 text-base ${seen.includes(o.id) ? 'border-ink-700 bg-ink-100' : 'border-ink-300 bg-white'}`}>
+                <label
+                  key={o.id}
+                  className={`flex min-h-12 cursor-pointer items-center gap-2 rounded-full border px-4 text-base ${seen.includes(o.id) ? 'border-ink-700 bg-ink-100' : 'border-ink-300 bg-white'}`}
+                >
                   <input type="checkbox" checked={seen.includes(o.id)} onChange={() => toggleOperator(o.id)} className="h-5 w-5" />
                   <span className="inline-block h-3 w-3 rounded-full" style={{ background: o.colour }} aria-hidden="true" />
                   {o.name}
@@ -413,7 +478,11 @@ export default function SightingForm({ fallbackCenter }: { fallbackCenter: LatLo
               <fieldset key={c.key} className="space-y-3 rounded-md border border-ink-200 p-3" aria-label={`Cell ${i + 1}`}>
                 <div className="flex items-center justify-between">
                   <legend className="font-semibold text-ink-800">Cell {i + 1}</legend>
-                  <button type="button" className="min-h-10 px-2 text-sm text-alarm-700 underline" onClick={() => setCells((l) => l.filter((x) => x.key !== c.key))}>
+                  <button
+                    type="button"
+                    className="min-h-10 px-2 text-sm text-alarm-700 underline"
+                    onClick={() => setCells((l) => l.filter((x) => x.key !== c.key))}
+                  >
                     Remove cell {i + 1}
                   </button>
                 </div>
@@ -437,29 +506,76 @@ export default function SightingForm({ fallbackCenter }: { fallbackCenter: LatLo
                   </select>
                 </Field>
                 <div className="grid grid-cols-2 gap-3">
-                  <Field id={id('channel')} label={c.tech === 'nr' ? 'NR-ARFCN' : c.tech === 'lte' ? 'EARFCN' : c.tech === 'umts' ? 'UARFCN' : 'ARFCN'} error={cellError(i, 'channel')}>
-                    <input id={id('channel')} className={INPUT} inputMode="numeric" value={c.channel} onChange={(e) => updateCell(c.key, { channel: e.target.value })} />
+                  <Field
+                    id={id('channel')}
+                    label={c.tech === 'nr' ? 'NR-ARFCN' : c.tech === 'lte' ? 'EARFCN' : c.tech === 'umts' ? 'UARFCN' : 'ARFCN'}
+                    error={cellError(i, 'channel')}
+                  >
+                    <input
+                      id={id('channel')}
+                      className={INPUT}
+                      inputMode="numeric"
+                      value={c.channel}
+                      onChange={(e) => updateCell(c.key, { channel: e.target.value })}
+                    />
                   </Field>
                   <Field id={id('band')} label="Band (optional)" error={cellError(i, 'band')}>
-                    <input id={id('band')} className={INPUT} value={c.band} placeholder={c.tech === 'nr' ? 'n78' : 'B20'} onChange={(e) => updateCell(c.key, { band: e.target.value })} />
+                    <input
+                      id={id('band')}
+                      className={INPUT}
+                      value={c.band}
+                      placeholder={c.tech === 'nr' ? 'n78' : 'B20'}
+                      onChange={(e) => updateCell(c.key, { band: e.target.value })}
+                    />
                   </Field>
                   <Field id={id('pci')} label={c.tech === 'umts' ? 'PSC' : 'PCI'} error={cellError(i, 'pci')}>
-                    <input id={id('pci')} className={INPUT} inputMode="numeric" value={c.pci} disabled={c.tech === 'gsm'} onChange={(e) => updateCell(c.key, { pci: e.target.value })} />
+                    <input
+                      id={id('pci')}
+                      className={INPUT}
+                      inputMode="numeric"
+                      value={c.pci}
+                      disabled={c.tech === 'gsm'}
+                      onChange={(e) => updateCell(c.key, { pci: e.target.value })}
+                    />
                   </Field>
                   <Field id={id('azimuth')} label="Sector azimuth (°)" error={cellError(i, 'sector_azimuth_deg')} hint="If known">
-                    <input id={id('azimuth')} className={INPUT} inputMode="decimal" value={c.sector_azimuth_deg} onChange={(e) => updateCell(c.key, { sector_azimuth_deg: e.target.value })} />
+                    <input
+                      id={id('azimuth')}
+                      className={INPUT}
+                      inputMode="decimal"
+                      value={c.sector_azimuth_deg}
+                      onChange={(e) => updateCell(c.key, { sector_azimuth_deg: e.target.value })}
+                    />
                   </Field>
                 </div>
                 {ranges.rsrp && (
                   <div className="grid grid-cols-3 gap-2">
                     <Field id={id('rsrp')} label="RSRP" error={cellError(i, 'rsrp_dbm')} hint={rangeHint(ranges.rsrp)}>
-                      <input id={id('rsrp')} className={INPUT} inputMode="decimal" value={c.rsrp_dbm} onChange={(e) => updateCell(c.key, { rsrp_dbm: e.target.value })} />
+                      <input
+                        id={id('rsrp')}
+                        className={INPUT}
+                        inputMode="decimal"
+                        value={c.rsrp_dbm}
+                        onChange={(e) => updateCell(c.key, { rsrp_dbm: e.target.value })}
+                      />
                     </Field>
                     <Field id={id('rsrq')} label="RSRQ" error={cellError(i, 'rsrq_db')} hint={rangeHint(ranges.rsrq)}>
-                      <input id={id('rsrq')} className={INPUT} inputMode="decimal" value={c.rsrq_db} onChange={(e) => updateCell(c.key, { rsrq_db: e.target.value })} />
+                      <input
+                        id={id('rsrq')}
+                        className={INPUT}
+                        inputMode="decimal"
+                        value={c.rsrq_db}
+                        onChange={(e) => updateCell(c.key, { rsrq_db: e.target.value })}
+                      />
                     </Field>
                     <Field id={id('sinr')} label="SINR" error={cellError(i, 'sinr_db')} hint={rangeHint(ranges.sinr)}>
-                      <input id={id('sinr')} className={INPUT} inputMode="decimal" value={c.sinr_db} onChange={(e) => updateCell(c.key, { sinr_db: e.target.value })} />
+                      <input
+                        id={id('sinr')}
+                        className={INPUT}
+                        inputMode="decimal"
+                        value={c.sinr_db}
+                        onChange={(e) => updateCell(c.key, { sinr_db: e.target.value })}
+                      />
                     </Field>
                   </div>
                 )}
@@ -474,14 +590,25 @@ export default function SightingForm({ fallbackCenter }: { fallbackCenter: LatLo
         <section className="card space-y-4">
           <h2>Notes</h2>
           <Field id="observed_at" label="Seen at" error={errors.observed_at}>
-            <input id="observed_at" type="datetime-local" className={INPUT} value={observedAt} {...invalid('observed_at')} onChange={(e) => setObservedAt(e.target.value)} />
+            <input
+              id="observed_at"
+              type="datetime-local"
+              className={INPUT}
+              value={observedAt}
+              {...invalid('observed_at')}
+              onChange={(e) => setObservedAt(e.target.value)}
+            />
           </Field>
           <Field id="notes" label="Notes (optional)" error={errors.notes} hint="Access, landmarks, anything a reviewer should know. No personal details.">
             <textarea id="notes" className="field-input min-h-24 text-base" value={notes} onChange={(e) => setNotes(e.target.value)} maxLength={2000} />
           </Field>
         </section>
 
-        {errors._ && <p className="field-error" role="alert">{errors._}</p>}
+        {errors._ && (
+          <p className="field-error" role="alert">
+            {errors._}
+          </p>
+        )}
         <button type="submit" className={`btn-primary ${BIG_BUTTON}`} disabled={busy}>
           {busy ? 'Saving…' : 'Submit sighting'}
         </button>

@@ -31,20 +31,32 @@ export default function ChannelCalculator() {
       <p className="mt-1 text-sm text-ink-600">3GPP channel rasters: TS 36.101 (LTE), TS 38.104 (NR), TS 25.101 (UMTS), TS 45.005 (GSM).</p>
       <form className="mt-4 grid gap-3 sm:grid-cols-3" onSubmit={(e) => e.preventDefault()}>
         <div>
-          <label htmlFor="ch-tech" className="field-label">Technology</label>
+          <label htmlFor="ch-tech" className="field-label">
+            Technology
+          </label>
           <select id="ch-tech" className="field-input" value={tech} onChange={(e) => setTech(e.target.value)}>
-            {TECHS.map((t) => <option key={t.value} value={t.value}>{t.label}</option>)}
+            {TECHS.map((t) => (
+              <option key={t.value} value={t.value}>
+                {t.label}
+              </option>
+            ))}
           </select>
         </div>
         <fieldset>
           <legend className="field-label">Convert from</legend>
           <div className="flex gap-3 pt-2 text-sm">
-            <label className="flex items-center gap-1"><input type="radio" name="ch-mode" checked={mode === 'channel'} onChange={() => setMode('channel')} /> Channel</label>
-            <label className="flex items-center gap-1"><input type="radio" name="ch-mode" checked={mode === 'frequency'} onChange={() => setMode('frequency')} /> Frequency</label>
+            <label className="flex items-center gap-1">
+              <input type="radio" name="ch-mode" checked={mode === 'channel'} onChange={() => setMode('channel')} /> Channel
+            </label>
+            <label className="flex items-center gap-1">
+              <input type="radio" name="ch-mode" checked={mode === 'frequency'} onChange={() => setMode('frequency')} /> Frequency
+            </label>
           </div>
         </fieldset>
         <div>
-          <label htmlFor="ch-value" className="field-label">{mode === 'channel' ? 'Channel number' : 'Frequency (MHz)'}</label>
+          <label htmlFor="ch-value" className="field-label">
+            {mode === 'channel' ? 'Channel number' : 'Frequency (MHz)'}
+          </label>
           <input
             id="ch-value"
             className="field-input"
@@ -54,7 +66,11 @@ export default function ChannelCalculator() {
             aria-invalid={!!fieldError}
             aria-describedby="ch-error"
           />
-          {fieldError && <p id="ch-error" className="field-error" role="alert">{fieldError}</p>}
+          {fieldError && (
+            <p id="ch-error" className="field-error" role="alert">
+              {fieldError}
+            </p>
+          )}
         </div>
       </form>
       <div className="mt-4" aria-live="polite">
@@ -74,7 +90,11 @@ function ChannelView({ r, fmt }: { r: ChannelResult; fmt: (n: number | null) => 
       <ResultRow label="Uplink" value={fmt(r.ul_mhz)} unit={r.ul_mhz === null ? undefined : 'MHz'} testId="ch-ul" />
       {r.ul_channel !== null && r.duplex === 'FDD' && <ResultRow label="Paired channel" value={String(r.direction === 'UL' ? r.dl_channel : r.ul_channel)} />}
       {r.alternative_bands.length > 0 && <p className="mt-2 text-sm text-ember-700">Also a valid number in band {r.alternative_bands.join(', ')}.</p>}
-      {r.notes.map((n) => <p key={n} className="mt-2 text-sm text-ember-700">{n}</p>)}
+      {r.notes.map((n) => (
+        <p key={n} className="mt-2 text-sm text-ember-700">
+          {n}
+        </p>
+      ))}
     </dl>
   );
 }
@@ -84,10 +104,22 @@ function FrequencyView({ r }: { r: FrequencyResult }) {
     <div data-testid="frequency-result">
       {r.ambiguous && <p className="mb-2 text-sm text-ember-700">{r.freq_mhz} MHz lies in more than one band: the frequency alone does not name the band.</p>}
       <table className="data-table">
-        <thead><tr><th scope="col">Band</th><th scope="col">Channel</th><th scope="col">Link</th><th scope="col">On raster</th></tr></thead>
+        <thead>
+          <tr>
+            <th scope="col">Band</th>
+            <th scope="col">Channel</th>
+            <th scope="col">Link</th>
+            <th scope="col">On raster</th>
+          </tr>
+        </thead>
         <tbody>
           {r.items.map((i) => (
-            <tr key={`${i.band}-${i.direction}`}><td>{i.band}</td><td className="tabular-nums">{i.channel}</td><td>{i.direction === 'both' ? 'DL + UL' : i.direction}</td><td>{i.exact ? 'yes' : 'nearest'}</td></tr>
+            <tr key={`${i.band}-${i.direction}`}>
+              <td>{i.band}</td>
+              <td className="tabular-nums">{i.channel}</td>
+              <td>{i.direction === 'both' ? 'DL + UL' : i.direction}</td>
+              <td>{i.exact ? 'yes' : 'nearest'}</td>
+            </tr>
           ))}
         </tbody>
       </table>

@@ -36,8 +36,7 @@ export function SortableTable<T>({ rows, columns, rowKey, initialSort, empty, ca
     });
   }, [rows, columns, sort]);
 
-  const toggle = (key: string) =>
-    setSort((s) => (s?.key === key ? { key, dir: s.dir === 'asc' ? 'desc' : 'asc' } : { key, dir: 'asc' }));
+  const toggle = (key: string) => setSort((s) => (s?.key === key ? { key, dir: s.dir === 'asc' ? 'desc' : 'asc' } : { key, dir: 'asc' }));
 
   return (
     <div className="overflow-x-auto">
@@ -46,11 +45,18 @@ export function SortableTable<T>({ rows, columns, rowKey, initialSort, empty, ca
         <thead>
           <tr>
             {columns.map((c) => (
-              <th key={c.key} scope="col" className={c.className} aria-sort={sort?.key === c.key ? (sort.dir === 'asc' ? 'ascending' : 'descending') : undefined}>
+              <th
+                key={c.key}
+                scope="col"
+                className={c.className}
+                aria-sort={sort?.key === c.key ? (sort.dir === 'asc' ? 'ascending' : 'descending') : undefined}
+              >
                 {c.sortValue ? (
                   <button type="button" className="inline-flex items-center gap-1 font-semibold" onClick={() => toggle(c.key)}>
                     {c.label}
-                    <span aria-hidden="true" className="text-ink-400">{sort?.key === c.key ? (sort.dir === 'asc' ? '▲' : '▼') : '↕'}</span>
+                    <span aria-hidden="true" className="text-ink-400">
+                      {sort?.key === c.key ? (sort.dir === 'asc' ? '▲' : '▼') : '↕'}
+                    </span>
                   </button>
                 ) : (
                   c.label
@@ -62,13 +68,17 @@ export function SortableTable<T>({ rows, columns, rowKey, initialSort, empty, ca
         <tbody>
           {sorted.length === 0 ? (
             <tr>
-              <td colSpan={columns.length} className="py-6 text-center text-ink-500">{empty ?? 'Nothing to show'}</td>
+              <td colSpan={columns.length} className="py-6 text-center text-ink-500">
+                {empty ?? 'Nothing to show'}
+              </td>
             </tr>
           ) : (
             sorted.map((row) => (
               <tr key={rowKey(row)} className={rowClassName?.(row)}>
                 {columns.map((c) => (
-                  <td key={c.key} className={c.className} data-label={c.label}>{c.render(row)}</td>
+                  <td key={c.key} className={c.className} data-label={c.label}>
+                    {c.render(row)}
+                  </td>
                 ))}
               </tr>
             ))

@@ -102,7 +102,8 @@ export const mapApi = {
 export const operatorsApi = {
   list: () => get<List<OperatorJson>>('/api/operators'),
   create: (input: { name: string; mcc: string; mnc: string; colour?: string }) => request<OperatorJson>('POST', '/api/operators', input),
-  update: (id: string, change: { name?: string; mcc?: string; mnc?: string; colour?: string }) => request<OperatorJson>('PATCH', `/api/operators/${id}`, change),
+  update: (id: string, change: { name?: string; mcc?: string; mnc?: string; colour?: string }) =>
+    request<OperatorJson>('PATCH', `/api/operators/${id}`, change),
 };
 
 export const mastsApi = {
@@ -110,8 +111,7 @@ export const mastsApi = {
     get<MastFeatureCollectionJson>(`/api/masts${query(filter)}`),
   get: (id: string) => get<MastDetailJson>(`/api/masts/${encodeURIComponent(id)}`),
   /** Partial change; `row_version` must be the one last read, or the answer is 409 (CONFLICT). */
-  update: (id: string, change: Record<string, unknown> & { row_version: number }) =>
-    request<MastJson>('PATCH', `/api/masts/${encodeURIComponent(id)}`, change),
+  update: (id: string, change: Record<string, unknown> & { row_version: number }) => request<MastJson>('PATCH', `/api/masts/${encodeURIComponent(id)}`, change),
 };
 
 export const regionsApi = {

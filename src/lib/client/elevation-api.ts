@@ -46,6 +46,5 @@ export const elevationApi = {
   upload: (file: File, onProgress?: (p: UploadProgress) => void, signal?: AbortSignal) =>
     uploadFile<ElevationGridJson>('/api/elevation', file, onProgress, signal),
   remove: (id: string) => request<void>('DELETE', `/api/elevation/${id}`),
-  sample: (lat: number, lon: number) =>
-    get<ElevationSampleJson>(`/api/elevation/sample?${new URLSearchParams({ lat: String(lat), lon: String(lon) })}`),
+  sample: (lat: number, lon: number) => get<ElevationSampleJson>(`/api/elevation/sample?${new URLSearchParams({ lat: String(lat), lon: String(lon) })}`),
 };

@@ -8,7 +8,19 @@ import type { CheckPhase, InstallCheckJson, PlanDetailJson, PlanJson } from '../
 import type { OperatorRefJson } from '../schemas/masts';
 import type { PlanState } from '../domain/plan-state';
 
-export type { AntennaJson, CableJson, AddressJson, AddressImportJson, GeocodeMatchJson, CustomerJson, CustomerErasureJson, HistoryEntryJson, PlanJson, PlanDetailJson, InstallCheckJson };
+export type {
+  AntennaJson,
+  CableJson,
+  AddressJson,
+  AddressImportJson,
+  GeocodeMatchJson,
+  CustomerJson,
+  CustomerErasureJson,
+  HistoryEntryJson,
+  PlanJson,
+  PlanDetailJson,
+  InstallCheckJson,
+};
 
 // --- catalogue ----------------------------------------------------------------------------
 
@@ -133,7 +145,10 @@ export const plansApi = {
 // --- form checks ----------------------------------------------------------------------------
 
 /** Runs the endpoint's schema in the browser; returns field messages keyed like the server's. */
-export function checkWith(schema: { safeParse: (v: unknown) => { success: true } | { success: false; error: { issues: { path: (string | number)[]; message: string }[] } } }, body: unknown): FieldErrors | null {
+export function checkWith(
+  schema: { safeParse: (v: unknown) => { success: true } | { success: false; error: { issues: { path: (string | number)[]; message: string }[] } } },
+  body: unknown,
+): FieldErrors | null {
   const result = schema.safeParse(body);
   if (result.success) return null;
   const fields: FieldErrors = {};

@@ -41,7 +41,8 @@ export const readingsApi = {
 export const jobsApi = {
   get: (id: string) => get<JobJson>(`/api/jobs/${encodeURIComponent(id)}`),
   list: (params: { limit?: number; offset?: number } = {}) => {
-    const q = queryString(params); return get<List<JobJson>>(`/api/jobs${q ? `?${q}` : ''}`);
+    const q = queryString(params);
+    return get<List<JobJson>>(`/api/jobs${q ? `?${q}` : ''}`);
   },
 };
 

@@ -57,7 +57,8 @@ export async function removeFromOutbox(clientUuid: string): Promise<void> {
   announce();
 }
 
-export type SendResult = { clientUuid: string; outcome: 'sent'; id: string } | { clientUuid: string; outcome: 'offline' | 'refused' | 'later'; message: string };
+export type SendResult =
+  { clientUuid: string; outcome: 'sent'; id: string } | { clientUuid: string; outcome: 'offline' | 'refused' | 'later'; message: string };
 
 let flushing: Promise<SendResult[]> | null = null;
 

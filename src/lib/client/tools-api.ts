@@ -9,6 +9,5 @@ export type PathResult = PathJson;
 export const toolsApi = {
   channel: (tech: string, channel: string) => get<ChannelResult>(`/api/tools/channel?${qs({ tech, channel })}`),
   frequency: (tech: string, freq_mhz: string) => get<FrequencyResult>(`/api/tools/channel?${qs({ tech, freq_mhz })}`),
-  path: (p: { from: string; to: string; freq_mhz?: string; h1_m?: string; h2_m?: string; date?: string }) =>
-    get<PathResult>(`/api/tools/path?${qs(p)}`),
+  path: (p: { from: string; to: string; freq_mhz?: string; h1_m?: string; h2_m?: string; date?: string }) => get<PathResult>(`/api/tools/path?${qs(p)}`),
 };

@@ -120,7 +120,16 @@ function findHilltops(model: IslandModel, elevation: ElevationFn): Array<{ at: L
       const e = elevation(p);
       if (e < 110) continue;
       let isTop = true;
-      for (const [dx, dy] of [[1, 0], [-1, 0], [0, 1], [0, -1], [1, 1], [1, -1], [-1, 1], [-1, -1]] as const) {
+      for (const [dx, dy] of [
+        [1, 0],
+        [-1, 0],
+        [0, 1],
+        [0, -1],
+        [1, 1],
+        [1, -1],
+        [-1, 1],
+        [-1, -1],
+      ] as const) {
         if (elevation({ x: x + dx * step * 2, y: y + dy * step * 2 }) > e) {
           isTop = false;
           break;
@@ -206,7 +215,11 @@ const ACCESS_NOTES: Record<SiteKind, string[]> = {
     'Steep unmade track, last 400 m on foot in winter. Compound fenced.',
     'Access by the forestry track; allow 20 minutes from the road.',
   ],
-  town: ['Compound behind the fire station yard; sign in at the front desk.', 'Roof access through the plant room, escort needed.', 'Fenced compound by the car park.'],
+  town: [
+    'Compound behind the fire station yard; sign in at the front desk.',
+    'Roof access through the plant room, escort needed.',
+    'Fenced compound by the car park.',
+  ],
   village: ['Compound beside the village hall car park.', 'Field edge compound, gate on the lane.'],
   roadside: ['Lay-by next to the compound.', 'Verge access, park clear of the bend.'],
   hamlet: ['Farm yard compound; ring ahead.', 'Gate on the lane, cattle grid.'],

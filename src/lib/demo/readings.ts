@@ -103,7 +103,10 @@ export function createReadings(
     const samples: ProfileSample[] = [];
     for (let i = 0; i <= n; i++) {
       const t = i / n;
-      samples.push({ distanceM: t * dKm * 1000, groundM: Math.max(0, groundAt({ x: mast.at.x + t * (p.x - mast.at.x), y: mast.at.y + t * (p.y - mast.at.y) })) });
+      samples.push({
+        distanceM: t * dKm * 1000,
+        groundM: Math.max(0, groundAt({ x: mast.at.x + t * (p.x - mast.at.x), y: mast.at.y + t * (p.y - mast.at.y) })),
+      });
     }
     return samples;
   };
@@ -182,9 +185,7 @@ function describeSignal(best: Link, links: Link[], tech: 'lte' | 'nr'): Pick<Rea
   const resourceBlocks = tech === 'lte' ? getLteResourceBlockCount(cell.bandwidthMhz) : getNrResourceBlockCount(cell.bandwidthMhz, scsKhz);
   const noiseMw = dbmToMw(getThermalNoiseDbm(scsKhz * 1000, NOISE_FIGURE_DB));
   const signalMw = dbmToMw(best.rsrpDbm);
-  const interferenceMw = links
-    .filter((l) => l !== best && l.cell.channel === cell.channel)
-    .reduce((sum, l) => sum + NEIGHBOUR_LOAD * dbmToMw(l.rsrpDbm), 0);
+  const interferenceMw = links.filter((l) => l !== best && l.cell.channel === cell.channel).reduce((sum, l) => sum + NEIGHBOUR_LOAD * dbmToMw(l.rsrpDbm), 0);
   const sinrDb = mwToDbm(signalMw / (interferenceMw + noiseMw));
   const rssiDbm = mwToDbm(12 * resourceBlocks * (SERVING_LOAD * signalMw + interferenceMw + noiseMw));
   const rsrpRange = getMeasurementRange(tech === 'lte' ? 'lteRsrp' : 'nrSsRsrp');

@@ -4,7 +4,17 @@
 import type { LineString, MultiPolygon, Point, Polygon } from 'geojson';
 import { createIslandModel, DEMO_SEED, type IslandModel } from './geography';
 import { createElevationFn, getIslandBounds, type ElevationFn, type GeoBounds } from './elevation';
-import { createLanduse, createPlaceLabels, createRoads, listNearestRoadPoints, routeRoad, type LanduseKind, type PlaceLabelKind, type Road, type RoadKind } from './basemap';
+import {
+  createLanduse,
+  createPlaceLabels,
+  createRoads,
+  listNearestRoadPoints,
+  routeRoad,
+  type LanduseKind,
+  type PlaceLabelKind,
+  type Road,
+  type RoadKind,
+} from './basemap';
 import { createNetwork, DEMO_OPERATORS, type DemoCellPlan, type DemoOperatorSpec, type MastStatus, type SiteKind, type StructureType } from './network';
 import { createReadings, type ReadingPlan } from './readings';
 import { createRegions } from './regions';
@@ -119,7 +129,12 @@ export function generateDemoScenario(seed = DEMO_SEED): DemoScenario {
   const roads = createRoads(model, random.fork('roads'));
   const landuse = createLanduse(model, elevation, random.fork('landuse'));
   const network = createNetwork(model, elevation, roads, random.fork('network'));
-  const tracks = createMastTracks(model, roads, network.masts.filter((m) => m.siteKind === 'hilltop').map((m) => m.at), seed);
+  const tracks = createMastTracks(
+    model,
+    roads,
+    network.masts.filter((m) => m.siteKind === 'hilltop').map((m) => m.at),
+    seed,
+  );
   const ground = createGroundLookup(elevation, model);
   const readingPlans = createReadings(network.masts, network.cells, roads, landuse, ground, random.fork('readings'));
 

@@ -69,9 +69,7 @@ export function getConfidence(uncertaintyDb: number): CalibrationConfidence {
 /** The shrinkage rule: the shift, its weight and the remaining uncertainty from a residual summary. */
 export function shrinkCalibration(summary: ResidualSummary | null, modelSpreadDb = MODEL_SPREAD_DB): Calibration | null {
   if (!summary || summary.count <= 0 || !Number.isFinite(summary.medianDb)) return null;
-  const sigma = summary.count >= MIN_READINGS_FOR_SPREAD && summary.spreadDb !== null
-    ? Math.max(MIN_RESIDUAL_SPREAD_DB, summary.spreadDb)
-    : modelSpreadDb;
+  const sigma = summary.count >= MIN_READINGS_FOR_SPREAD && summary.spreadDb !== null ? Math.max(MIN_RESIDUAL_SPREAD_DB, summary.spreadDb) : modelSpreadDb;
   const standardError = (MEDIAN_EFFICIENCY * sigma) / Math.sqrt(summary.count);
   const tau2 = modelSpreadDb ** 2;
   const weight = tau2 / (tau2 + standardError ** 2);

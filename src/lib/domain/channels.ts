@@ -108,7 +108,11 @@ function isIn(ranges: ChannelRange[] | null, channel: number): boolean {
 }
 
 function normaliseLabel(label: string): string {
-  return label.trim().toUpperCase().replace(/^BAND/, '').replace(/[\s_-]/g, '');
+  return label
+    .trim()
+    .toUpperCase()
+    .replace(/^BAND/, '')
+    .replace(/[\s_-]/g, '');
 }
 
 // ---------------------------------------------------------------------------------------------------------
@@ -128,21 +132,85 @@ interface LteRow {
 // offsets also match one open-source implementation's table, ranges derived from the band edges.
 const LTE_ROWS: LteRow[] = [
   { band: 1, duplex: 'FDD', fDlLow: 2110, nOffsDl: 0, nDlLast: 599, ul: { fUlLow: 1920, nOffsUl: 18000, nUlLast: 18599 }, provenance: 'published' },
-  { band: 2, duplex: 'FDD', fDlLow: 1930, nOffsDl: 600, nDlLast: 1199, ul: { fUlLow: 1850, nOffsUl: 18600, nUlLast: 19199 }, provenance: 'from memory, verify' },
+  {
+    band: 2,
+    duplex: 'FDD',
+    fDlLow: 1930,
+    nOffsDl: 600,
+    nDlLast: 1199,
+    ul: { fUlLow: 1850, nOffsUl: 18600, nUlLast: 19199 },
+    provenance: 'from memory, verify',
+  },
   { band: 3, duplex: 'FDD', fDlLow: 1805, nOffsDl: 1200, nDlLast: 1949, ul: { fUlLow: 1710, nOffsUl: 19200, nUlLast: 19949 }, provenance: 'published' },
-  { band: 4, duplex: 'FDD', fDlLow: 2110, nOffsDl: 1950, nDlLast: 2399, ul: { fUlLow: 1710, nOffsUl: 19950, nUlLast: 20399 }, provenance: 'from memory, verify' },
+  {
+    band: 4,
+    duplex: 'FDD',
+    fDlLow: 2110,
+    nOffsDl: 1950,
+    nDlLast: 2399,
+    ul: { fUlLow: 1710, nOffsUl: 19950, nUlLast: 20399 },
+    provenance: 'from memory, verify',
+  },
   { band: 5, duplex: 'FDD', fDlLow: 869, nOffsDl: 2400, nDlLast: 2649, ul: { fUlLow: 824, nOffsUl: 20400, nUlLast: 20649 }, provenance: 'from memory, verify' },
   { band: 7, duplex: 'FDD', fDlLow: 2620, nOffsDl: 2750, nDlLast: 3449, ul: { fUlLow: 2500, nOffsUl: 20750, nUlLast: 21449 }, provenance: 'published' },
   { band: 8, duplex: 'FDD', fDlLow: 925, nOffsDl: 3450, nDlLast: 3799, ul: { fUlLow: 880, nOffsUl: 21450, nUlLast: 21799 }, provenance: 'published' },
-  { band: 12, duplex: 'FDD', fDlLow: 729, nOffsDl: 5010, nDlLast: 5179, ul: { fUlLow: 699, nOffsUl: 23010, nUlLast: 23179 }, provenance: 'from memory, verify' },
-  { band: 13, duplex: 'FDD', fDlLow: 746, nOffsDl: 5180, nDlLast: 5279, ul: { fUlLow: 777, nOffsUl: 23180, nUlLast: 23279 }, provenance: 'from memory, verify' },
-  { band: 14, duplex: 'FDD', fDlLow: 758, nOffsDl: 5280, nDlLast: 5379, ul: { fUlLow: 788, nOffsUl: 23280, nUlLast: 23379 }, provenance: 'from memory, verify' },
-  { band: 17, duplex: 'FDD', fDlLow: 734, nOffsDl: 5730, nDlLast: 5849, ul: { fUlLow: 704, nOffsUl: 23730, nUlLast: 23849 }, provenance: 'from memory, verify' },
+  {
+    band: 12,
+    duplex: 'FDD',
+    fDlLow: 729,
+    nOffsDl: 5010,
+    nDlLast: 5179,
+    ul: { fUlLow: 699, nOffsUl: 23010, nUlLast: 23179 },
+    provenance: 'from memory, verify',
+  },
+  {
+    band: 13,
+    duplex: 'FDD',
+    fDlLow: 746,
+    nOffsDl: 5180,
+    nDlLast: 5279,
+    ul: { fUlLow: 777, nOffsUl: 23180, nUlLast: 23279 },
+    provenance: 'from memory, verify',
+  },
+  {
+    band: 14,
+    duplex: 'FDD',
+    fDlLow: 758,
+    nOffsDl: 5280,
+    nDlLast: 5379,
+    ul: { fUlLow: 788, nOffsUl: 23280, nUlLast: 23379 },
+    provenance: 'from memory, verify',
+  },
+  {
+    band: 17,
+    duplex: 'FDD',
+    fDlLow: 734,
+    nOffsDl: 5730,
+    nDlLast: 5849,
+    ul: { fUlLow: 704, nOffsUl: 23730, nUlLast: 23849 },
+    provenance: 'from memory, verify',
+  },
   { band: 19, duplex: 'FDD', fDlLow: 875, nOffsDl: 6000, nDlLast: 6149, ul: { fUlLow: 830, nOffsUl: 24000, nUlLast: 24149 }, provenance: 'published' },
   // Band 20 is "reverse" duplex: the uplink lies above the downlink.
   { band: 20, duplex: 'FDD', fDlLow: 791, nOffsDl: 6150, nDlLast: 6449, ul: { fUlLow: 832, nOffsUl: 24150, nUlLast: 24449 }, provenance: 'published' },
-  { band: 25, duplex: 'FDD', fDlLow: 1930, nOffsDl: 8040, nDlLast: 8689, ul: { fUlLow: 1850, nOffsUl: 26040, nUlLast: 26689 }, provenance: 'from memory, verify' },
-  { band: 26, duplex: 'FDD', fDlLow: 859, nOffsDl: 8690, nDlLast: 9039, ul: { fUlLow: 814, nOffsUl: 26690, nUlLast: 27039 }, provenance: 'from memory, verify' },
+  {
+    band: 25,
+    duplex: 'FDD',
+    fDlLow: 1930,
+    nOffsDl: 8040,
+    nDlLast: 8689,
+    ul: { fUlLow: 1850, nOffsUl: 26040, nUlLast: 26689 },
+    provenance: 'from memory, verify',
+  },
+  {
+    band: 26,
+    duplex: 'FDD',
+    fDlLow: 859,
+    nOffsDl: 8690,
+    nDlLast: 9039,
+    ul: { fUlLow: 814, nOffsUl: 26690, nUlLast: 27039 },
+    provenance: 'from memory, verify',
+  },
   { band: 28, duplex: 'FDD', fDlLow: 758, nOffsDl: 9210, nDlLast: 9659, ul: { fUlLow: 703, nOffsUl: 27210, nUlLast: 27659 }, provenance: 'published' },
   { band: 29, duplex: 'SDL', fDlLow: 717, nOffsDl: 9660, nDlLast: 9769, provenance: 'from memory, verify' },
   { band: 32, duplex: 'SDL', fDlLow: 1452, nOffsDl: 9920, nDlLast: 10359, provenance: 'published' },
@@ -155,8 +223,24 @@ const LTE_ROWS: LteRow[] = [
   { band: 48, duplex: 'TDD', fDlLow: 3550, nOffsDl: 55240, nDlLast: 56739, provenance: 'from memory, verify' },
   // Bands ≥ 65 use the extended EARFCN range (above 65535). Band 66's downlink is 20 MHz wider than its
   // uplink; the top downlink channels have no paired uplink.
-  { band: 66, duplex: 'FDD', fDlLow: 2110, nOffsDl: 66436, nDlLast: 67335, ul: { fUlLow: 1710, nOffsUl: 131972, nUlLast: 132671 }, provenance: 'from memory, verify' },
-  { band: 71, duplex: 'FDD', fDlLow: 617, nOffsDl: 68586, nDlLast: 68935, ul: { fUlLow: 663, nOffsUl: 133122, nUlLast: 133471 }, provenance: 'from memory, verify' },
+  {
+    band: 66,
+    duplex: 'FDD',
+    fDlLow: 2110,
+    nOffsDl: 66436,
+    nDlLast: 67335,
+    ul: { fUlLow: 1710, nOffsUl: 131972, nUlLast: 132671 },
+    provenance: 'from memory, verify',
+  },
+  {
+    band: 71,
+    duplex: 'FDD',
+    fDlLow: 617,
+    nOffsDl: 68586,
+    nDlLast: 68935,
+    ul: { fUlLow: 663, nOffsUl: 133122, nUlLast: 133471 },
+    provenance: 'from memory, verify',
+  },
 ];
 
 function createLteBand(row: LteRow, index: number): BandDef {
@@ -264,22 +348,128 @@ const step20 = (first: number, last: number): NrRaster[] => [{ first, step: 20, 
 // Published rows: 3GPP TS 38.104 (Tables 5.2-1 and 5.4.2.3-1/-2, as quoted by an open-source gNB).
 // Memory rows: FR1 ranges also match that implementation; FR2 n257/n260/n261 convert to their band edges.
 const NR_ROWS: NrRow[] = [
-  { band: 1, duplex: 'FDD', dlMhz: { low: 2110, high: 2170 }, ulMhz: { low: 1920, high: 1980 }, dl: step20(422_000, 434_000), ul: step20(384_000, 396_000), provenance: 'published' },
-  { band: 2, duplex: 'FDD', dlMhz: { low: 1930, high: 1990 }, ulMhz: { low: 1850, high: 1910 }, dl: step20(386_000, 398_000), ul: step20(370_000, 382_000), provenance: 'from memory, verify' },
-  { band: 3, duplex: 'FDD', dlMhz: { low: 1805, high: 1880 }, ulMhz: { low: 1710, high: 1785 }, dl: step20(361_000, 376_000), ul: step20(342_000, 357_000), provenance: 'published' },
-  { band: 5, duplex: 'FDD', dlMhz: { low: 869, high: 894 }, ulMhz: { low: 824, high: 849 }, dl: step20(173_800, 178_800), ul: step20(164_800, 169_800), provenance: 'from memory, verify' },
-  { band: 7, duplex: 'FDD', dlMhz: { low: 2620, high: 2690 }, ulMhz: { low: 2500, high: 2570 }, dl: step20(524_000, 538_000), ul: step20(500_000, 514_000), provenance: 'published' },
-  { band: 8, duplex: 'FDD', dlMhz: { low: 925, high: 960 }, ulMhz: { low: 880, high: 915 }, dl: step20(185_000, 192_000), ul: step20(176_000, 183_000), provenance: 'published' },
-  { band: 12, duplex: 'FDD', dlMhz: { low: 729, high: 746 }, ulMhz: { low: 699, high: 716 }, dl: step20(145_800, 149_200), ul: step20(139_800, 143_200), provenance: 'from memory, verify' },
-  { band: 20, duplex: 'FDD', dlMhz: { low: 791, high: 821 }, ulMhz: { low: 832, high: 862 }, dl: step20(158_200, 164_200), ul: step20(166_400, 172_400), provenance: 'published' },
-  { band: 25, duplex: 'FDD', dlMhz: { low: 1930, high: 1995 }, ulMhz: { low: 1850, high: 1915 }, dl: step20(386_000, 399_000), ul: step20(370_000, 383_000), provenance: 'from memory, verify' },
-  { band: 28, duplex: 'FDD', dlMhz: { low: 758, high: 803 }, ulMhz: { low: 703, high: 748 }, dl: step20(151_600, 160_600), ul: step20(140_600, 149_600), extra: [155_608], provenance: 'published' },
+  {
+    band: 1,
+    duplex: 'FDD',
+    dlMhz: { low: 2110, high: 2170 },
+    ulMhz: { low: 1920, high: 1980 },
+    dl: step20(422_000, 434_000),
+    ul: step20(384_000, 396_000),
+    provenance: 'published',
+  },
+  {
+    band: 2,
+    duplex: 'FDD',
+    dlMhz: { low: 1930, high: 1990 },
+    ulMhz: { low: 1850, high: 1910 },
+    dl: step20(386_000, 398_000),
+    ul: step20(370_000, 382_000),
+    provenance: 'from memory, verify',
+  },
+  {
+    band: 3,
+    duplex: 'FDD',
+    dlMhz: { low: 1805, high: 1880 },
+    ulMhz: { low: 1710, high: 1785 },
+    dl: step20(361_000, 376_000),
+    ul: step20(342_000, 357_000),
+    provenance: 'published',
+  },
+  {
+    band: 5,
+    duplex: 'FDD',
+    dlMhz: { low: 869, high: 894 },
+    ulMhz: { low: 824, high: 849 },
+    dl: step20(173_800, 178_800),
+    ul: step20(164_800, 169_800),
+    provenance: 'from memory, verify',
+  },
+  {
+    band: 7,
+    duplex: 'FDD',
+    dlMhz: { low: 2620, high: 2690 },
+    ulMhz: { low: 2500, high: 2570 },
+    dl: step20(524_000, 538_000),
+    ul: step20(500_000, 514_000),
+    provenance: 'published',
+  },
+  {
+    band: 8,
+    duplex: 'FDD',
+    dlMhz: { low: 925, high: 960 },
+    ulMhz: { low: 880, high: 915 },
+    dl: step20(185_000, 192_000),
+    ul: step20(176_000, 183_000),
+    provenance: 'published',
+  },
+  {
+    band: 12,
+    duplex: 'FDD',
+    dlMhz: { low: 729, high: 746 },
+    ulMhz: { low: 699, high: 716 },
+    dl: step20(145_800, 149_200),
+    ul: step20(139_800, 143_200),
+    provenance: 'from memory, verify',
+  },
+  {
+    band: 20,
+    duplex: 'FDD',
+    dlMhz: { low: 791, high: 821 },
+    ulMhz: { low: 832, high: 862 },
+    dl: step20(158_200, 164_200),
+    ul: step20(166_400, 172_400),
+    provenance: 'published',
+  },
+  {
+    band: 25,
+    duplex: 'FDD',
+    dlMhz: { low: 1930, high: 1995 },
+    ulMhz: { low: 1850, high: 1915 },
+    dl: step20(386_000, 399_000),
+    ul: step20(370_000, 383_000),
+    provenance: 'from memory, verify',
+  },
+  {
+    band: 28,
+    duplex: 'FDD',
+    dlMhz: { low: 758, high: 803 },
+    ulMhz: { low: 703, high: 748 },
+    dl: step20(151_600, 160_600),
+    ul: step20(140_600, 149_600),
+    extra: [155_608],
+    provenance: 'published',
+  },
   { band: 38, duplex: 'TDD', dlMhz: { low: 2570, high: 2620 }, dl: step20(514_000, 524_000), provenance: 'published' },
   { band: 40, duplex: 'TDD', dlMhz: { low: 2300, high: 2400 }, dl: step20(460_000, 480_000), provenance: 'published' },
-  { band: 41, duplex: 'TDD', dlMhz: { low: 2496, high: 2690 }, dl: [{ first: 499_200, step: 3, last: 537_999 }, { first: 499_200, step: 6, last: 537_996 }], provenance: 'published' },
+  {
+    band: 41,
+    duplex: 'TDD',
+    dlMhz: { low: 2496, high: 2690 },
+    dl: [
+      { first: 499_200, step: 3, last: 537_999 },
+      { first: 499_200, step: 6, last: 537_996 },
+    ],
+    provenance: 'published',
+  },
   { band: 48, duplex: 'TDD', dlMhz: { low: 3550, high: 3700 }, dl: [{ first: 636_667, step: 1, last: 646_666 }], provenance: 'from memory, verify' },
-  { band: 66, duplex: 'FDD', dlMhz: { low: 2110, high: 2200 }, ulMhz: { low: 1710, high: 1780 }, dl: step20(422_000, 440_000), ul: step20(342_000, 356_000), provenance: 'from memory, verify' },
-  { band: 71, duplex: 'FDD', dlMhz: { low: 617, high: 652 }, ulMhz: { low: 663, high: 698 }, dl: step20(123_400, 130_400), ul: step20(132_600, 139_600), provenance: 'from memory, verify' },
+  {
+    band: 66,
+    duplex: 'FDD',
+    dlMhz: { low: 2110, high: 2200 },
+    ulMhz: { low: 1710, high: 1780 },
+    dl: step20(422_000, 440_000),
+    ul: step20(342_000, 356_000),
+    provenance: 'from memory, verify',
+  },
+  {
+    band: 71,
+    duplex: 'FDD',
+    dlMhz: { low: 617, high: 652 },
+    ulMhz: { low: 663, high: 698 },
+    dl: step20(123_400, 130_400),
+    ul: step20(132_600, 139_600),
+    provenance: 'from memory, verify',
+  },
   { band: 77, duplex: 'TDD', dlMhz: { low: 3300, high: 4200 }, dl: [{ first: 620_000, step: 1, last: 680_000 }], provenance: 'published' },
   { band: 78, duplex: 'TDD', dlMhz: { low: 3300, high: 3800 }, dl: [{ first: 620_000, step: 1, last: 653_333 }], provenance: 'published' },
   { band: 79, duplex: 'TDD', dlMhz: { low: 4400, high: 5000 }, dl: [{ first: 693_334, step: 1, last: 733_333 }], provenance: 'from memory, verify' },
@@ -345,8 +535,26 @@ interface UmtsRow {
 }
 
 const UMTS_ROWS: UmtsRow[] = [
-  { band: 'I', number: 1, offsetMhz: 0, duplexMhz: 190, dl: { first: 10_562, last: 10_838 }, ul: { first: 9612, last: 9888 }, dlMhz: { low: 2110, high: 2170 }, ulMhz: { low: 1920, high: 1980 } },
-  { band: 'VIII', number: 8, offsetMhz: 340, duplexMhz: 45, dl: { first: 2937, last: 3088 }, ul: { first: 2712, last: 2863 }, dlMhz: { low: 925, high: 960 }, ulMhz: { low: 880, high: 915 } },
+  {
+    band: 'I',
+    number: 1,
+    offsetMhz: 0,
+    duplexMhz: 190,
+    dl: { first: 10_562, last: 10_838 },
+    ul: { first: 9612, last: 9888 },
+    dlMhz: { low: 2110, high: 2170 },
+    ulMhz: { low: 1920, high: 1980 },
+  },
+  {
+    band: 'VIII',
+    number: 8,
+    offsetMhz: 340,
+    duplexMhz: 45,
+    dl: { first: 2937, last: 3088 },
+    ul: { first: 2712, last: 2863 },
+    dlMhz: { low: 925, high: 960 },
+    ulMhz: { low: 880, high: 915 },
+  },
 ];
 
 function createUmtsBand(row: UmtsRow, index: number): BandDef {
@@ -392,12 +600,18 @@ interface GsmRow {
   provenance: Provenance;
 }
 
-const PCS_CAUTION =
-  'ARFCN 512–810 is also PCS 1900 (uplink 1850.2 + 0.2·(n − 512) MHz); DCS 1800 is assumed unless the band is given';
+const PCS_CAUTION = 'ARFCN 512–810 is also PCS 1900 (uplink 1850.2 + 0.2·(n − 512) MHz); DCS 1800 is assumed unless the band is given';
 
 // Row order is the preference when ARFCN ranges overlap: P-GSM before E-GSM, DCS 1800 before PCS 1900.
 const GSM_ROWS: GsmRow[] = [
-  { band: 'P-GSM900', aliases: ['PGSM900', 'PGSM', 'GSM900', '900'], segments: [{ first: 1, last: 124, ulFirstMhz: 890.2 }], duplexMhz: 45, ulMhz: { low: 890, high: 915 }, provenance: 'published' },
+  {
+    band: 'P-GSM900',
+    aliases: ['PGSM900', 'PGSM', 'GSM900', '900'],
+    segments: [{ first: 1, last: 124, ulFirstMhz: 890.2 }],
+    duplexMhz: 45,
+    ulMhz: { low: 890, high: 915 },
+    provenance: 'published',
+  },
   {
     band: 'E-GSM900',
     aliases: ['EGSM900', 'EGSM'],
@@ -409,9 +623,30 @@ const GSM_ROWS: GsmRow[] = [
     ulMhz: { low: 880, high: 915 },
     provenance: 'published',
   },
-  { band: 'DCS1800', aliases: ['DCS', '1800', 'GSM1800'], segments: [{ first: 512, last: 885, ulFirstMhz: 1710.2 }], duplexMhz: 95, ulMhz: { low: 1710, high: 1785 }, provenance: 'published' },
-  { band: 'PCS1900', aliases: ['PCS', '1900', 'GSM1900'], segments: [{ first: 512, last: 810, ulFirstMhz: 1850.2 }], duplexMhz: 80, ulMhz: { low: 1850, high: 1910 }, provenance: 'published' },
-  { band: 'GSM850', aliases: ['850'], segments: [{ first: 128, last: 251, ulFirstMhz: 824.2 }], duplexMhz: 45, ulMhz: { low: 824, high: 849 }, provenance: 'from memory, verify' },
+  {
+    band: 'DCS1800',
+    aliases: ['DCS', '1800', 'GSM1800'],
+    segments: [{ first: 512, last: 885, ulFirstMhz: 1710.2 }],
+    duplexMhz: 95,
+    ulMhz: { low: 1710, high: 1785 },
+    provenance: 'published',
+  },
+  {
+    band: 'PCS1900',
+    aliases: ['PCS', '1900', 'GSM1900'],
+    segments: [{ first: 512, last: 810, ulFirstMhz: 1850.2 }],
+    duplexMhz: 80,
+    ulMhz: { low: 1850, high: 1910 },
+    provenance: 'published',
+  },
+  {
+    band: 'GSM850',
+    aliases: ['850'],
+    segments: [{ first: 128, last: 251, ulFirstMhz: 824.2 }],
+    duplexMhz: 45,
+    ulMhz: { low: 824, high: 849 },
+    provenance: 'from memory, verify',
+  },
 ];
 
 function createGsmBand(row: GsmRow, index: number): BandDef {
@@ -506,12 +741,9 @@ function listMatches(tech: RadioTech, channel: number): Match[] {
   // raster holds the number; then a row read from the standard over a regional row from memory (e.g. n78
   // over the US-only n48); then the band's own rank.
   const isUl = (m: Match) => Number(m.direction === 'UL');
-  const offRaster = (m: Match) =>
-    Number(m.def.isOnChannelRaster ? !m.def.isOnChannelRaster(channel, m.direction !== 'UL') : false);
+  const offRaster = (m: Match) => Number(m.def.isOnChannelRaster ? !m.def.isOnChannelRaster(channel, m.direction !== 'UL') : false);
   const unverified = (m: Match) => Number(m.def.provenance !== 'published');
-  return matches.sort(
-    (a, b) => isUl(a) - isUl(b) || offRaster(a) - offRaster(b) || unverified(a) - unverified(b) || a.def.rank - b.def.rank,
-  );
+  return matches.sort((a, b) => isUl(a) - isUl(b) || offRaster(a) - offRaster(b) || unverified(a) - unverified(b) || a.def.rank - b.def.rank);
 }
 
 /** The bands known for a technology, with their edges and channel ranges. */

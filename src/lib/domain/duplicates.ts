@@ -42,7 +42,11 @@ export interface DuplicateCandidate<C extends CellIdentity = CellIdentity> exten
  * mast), then the nearest; ties by mast id so the order is stable. Masts beyond the radius are
  * dropped.
  */
-export function rankDuplicates<C extends CellIdentity>(sightingCells: CellIdentity[], nearby: NearbyMast<C>[], radiusM = DUPLICATE_RADIUS_M): DuplicateCandidate<C>[] {
+export function rankDuplicates<C extends CellIdentity>(
+  sightingCells: CellIdentity[],
+  nearby: NearbyMast<C>[],
+  radiusM = DUPLICATE_RADIUS_M,
+): DuplicateCandidate<C>[] {
   return nearby
     .filter((m) => m.distanceM <= radiusM)
     .map((m) => ({ ...m, sharedCells: sightingCells.filter((s) => m.cells.some((c) => isSharedCell(s, c))).length }))
@@ -74,7 +78,10 @@ export function pairCells<S extends CellIdentity, M extends CellIdentity>(sighti
 }
 
 /** For a merge: which sighting cells the mast already has (to mark observed) and which are new. */
-export function splitForMerge<S extends CellIdentity, M extends CellIdentity & { id: string }>(sightingCells: S[], mastCells: M[]): { existing: Array<{ sighting: S; mastCellId: string }>; added: S[] } {
+export function splitForMerge<S extends CellIdentity, M extends CellIdentity & { id: string }>(
+  sightingCells: S[],
+  mastCells: M[],
+): { existing: Array<{ sighting: S; mastCellId: string }>; added: S[] } {
   const existing: Array<{ sighting: S; mastCellId: string }> = [];
   const added: S[] = [];
   for (const s of sightingCells) {

@@ -243,12 +243,7 @@ function isBoxOverlapping(a: Box, b: Box): boolean {
  *
  * TODO: paths crossing the antimeridian are not matched against grids on the far side.
  */
-export function sampleElevationProfile(
-  grids: readonly ElevationGrid[],
-  from: LatLon,
-  to: LatLon,
-  options: ProfileOptions = {},
-): ElevationProfile {
+export function sampleElevationProfile(grids: readonly ElevationGrid[], from: LatLon, to: LatLon, options: ProfileOptions = {}): ElevationProfile {
   const maxSamples = Math.max(2, Math.floor(options.maxSamples ?? DEFAULT_MAX_PROFILE_SAMPLES));
   const distanceM = getDistanceM(from, to);
   const box = getPathBox(from, to);

@@ -55,8 +55,7 @@ export function getReverseBearing(from: LatLon, to: LatLon): number {
 
 /** The point `distanceM` away from `origin` along the initial bearing `bearingDeg` (great circle). */
 export function getDestination(origin: LatLon, distanceM: number, bearingDeg: number): LatLon {
-  const [lon, lat] = destination(toPosition(origin), distanceM, bearingDeg, { units: 'meters' }).geometry
-    .coordinates as [number, number];
+  const [lon, lat] = destination(toPosition(origin), distanceM, bearingDeg, { units: 'meters' }).geometry.coordinates as [number, number];
   return { lat, lon: wrap180(lon) };
 }
 
@@ -114,11 +113,7 @@ export function interpolatePointsAlong(from: LatLon, to: LatLon, count: number):
  * (RFC 7946 §3.1.9 prefers cutting the line in two for interchange files; cut it before exporting.)
  * turf's own dateline split (option `offset`) is turned off because it yields a MultiLineString.
  */
-export function getBearingLine(
-  from: LatLon,
-  to: LatLon,
-  options: { npoints?: number; properties?: GeoJsonProperties } = {},
-): Feature<LineString> {
+export function getBearingLine(from: LatLon, to: LatLon, options: { npoints?: number; properties?: GeoJsonProperties } = {}): Feature<LineString> {
   const npoints = options.npoints ?? 64;
   let coordinates: Position[];
   if (from.lat === to.lat && from.lon === to.lon) {

@@ -87,10 +87,7 @@ function interpolateBetween(x: number, x0: number, y0: number, x1: number, y1: n
  * end value is used and `isOutsideTable` is set: an antenna's gain collapses outside its design band, so
  * callers should warn rather than trust the clamped value.
  */
-export function interpolateGain(
-  table: readonly GainPoint[],
-  freqMhz: number,
-): { gainDbi: number; isOutsideTable: boolean } {
+export function interpolateGain(table: readonly GainPoint[], freqMhz: number): { gainDbi: number; isOutsideTable: boolean } {
   const points = sortByFrequency(table, 'gain');
   const first = points[0]!;
   const last = points[points.length - 1]!;
@@ -107,10 +104,7 @@ export function interpolateGain(
  * point is scaled by √f and flagged `approximate`. √f scaling keeps only the conductor loss and under-predicts
  * at UHF/SHF (900 → 2600 MHz: ×1.70 vs ×1.77 … ×2.13 real; two-term fits, from memory, verify).
  */
-export function getCableLossPerM(
-  table: readonly CableLossPoint[],
-  freqMhz: number,
-): { dbPerM: number; approximate: boolean } {
+export function getCableLossPerM(table: readonly CableLossPoint[], freqMhz: number): { dbPerM: number; approximate: boolean } {
   const points = sortByFrequency(table, 'cable loss');
   const first = points[0]!;
   const last = points[points.length - 1]!;
@@ -122,11 +116,7 @@ export function getCableLossPerM(
   return { dbPerM: interpolateBetween(freqMhz, lower.freqMhz, lower.dbPerM, upper.freqMhz, upper.dbPerM), approximate: false };
 }
 
-export function getCableLossDb(
-  table: readonly CableLossPoint[],
-  freqMhz: number,
-  lengthM: number,
-): { lossDb: number; dbPerM: number; approximate: boolean } {
+export function getCableLossDb(table: readonly CableLossPoint[], freqMhz: number, lengthM: number): { lossDb: number; dbPerM: number; approximate: boolean } {
   const { dbPerM, approximate } = getCableLossPerM(table, freqMhz);
   return { lossDb: dbPerM * lengthM, dbPerM, approximate };
 }
@@ -180,11 +170,7 @@ export const DEFAULT_SECTOR_MAX_ATTENUATION_DB = 20;
  * 3GPP sector model of TR 36.942 §4.2.1 (from memory, verify). The same parabola gives a
  * customer antenna's aiming loss with its own beamwidth (10° off a 40° beam ≈ 0.75 dB).
  */
-export function getSectorPatternLossDb(
-  offsetDeg: number,
-  hpbwDeg = DEFAULT_SECTOR_HPBW_DEG,
-  maxAttenuationDb = DEFAULT_SECTOR_MAX_ATTENUATION_DB,
-): number {
+export function getSectorPatternLossDb(offsetDeg: number, hpbwDeg = DEFAULT_SECTOR_HPBW_DEG, maxAttenuationDb = DEFAULT_SECTOR_MAX_ATTENUATION_DB): number {
   return Math.min(12 * (offsetDeg / hpbwDeg) ** 2, maxAttenuationDb);
 }
 
@@ -220,17 +206,7 @@ export interface RsrpPredictionInput {
 }
 
 export type BudgetTermKey =
-  | 'rsEpre'
-  | 'mastGain'
-  | 'mastFeeder'
-  | 'freeSpace'
-  | 'diffraction'
-  | 'excess'
-  | 'sectorPattern'
-  | 'customerGain'
-  | 'cable'
-  | 'connectors'
-  | 'calibration';
+  'rsEpre' | 'mastGain' | 'mastFeeder' | 'freeSpace' | 'diffraction' | 'excess' | 'sectorPattern' | 'customerGain' | 'cable' | 'connectors' | 'calibration';
 
 export interface BudgetTerm {
   key: BudgetTermKey;

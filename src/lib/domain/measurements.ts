@@ -3,14 +3,7 @@
  * installers' quality grades (3GPP TS 36.133, 38.133, 36.214; grades common practice).
  */
 
-export type MeasurementKind =
-  | 'lteRsrp'
-  | 'lteRsrq'
-  | 'lteRssi'
-  | 'lteSinr'
-  | 'nrSsRsrp'
-  | 'nrSsRsrq'
-  | 'nrSsSinr';
+export type MeasurementKind = 'lteRsrp' | 'lteRsrq' | 'lteRssi' | 'lteSinr' | 'nrSsRsrp' | 'nrSsRsrq' | 'nrSsSinr';
 
 export interface MeasurementRange {
   kind: MeasurementKind;
@@ -58,11 +51,7 @@ export function getMeasurementRange(kind: MeasurementKind, options: { extended?:
 
 export type ValidationResult = { ok: true } | { ok: false; message: string };
 
-export function validateMeasurement(
-  kind: MeasurementKind,
-  value: number,
-  options: { extended?: boolean } = {},
-): ValidationResult {
+export function validateMeasurement(kind: MeasurementKind, value: number, options: { extended?: boolean } = {}): ValidationResult {
   const { min, max, unit } = getMeasurementRange(kind, options);
   if (!Number.isFinite(value)) return { ok: false, message: `${LABELS[kind]} must be a number` };
   if (value < min || value > max) {

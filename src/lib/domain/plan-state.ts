@@ -61,9 +61,7 @@ export interface PlanFacts {
 export type FieldProblems = Record<string, string[]>;
 
 export type TransitionCheck =
-  | { ok: true }
-  | { ok: false; reason: 'forbidden'; message: string }
-  | { ok: false; reason: 'incomplete'; message: string; fields: FieldProblems };
+  { ok: true } | { ok: false; reason: 'forbidden'; message: string } | { ok: false; reason: 'incomplete'; message: string; fields: FieldProblems };
 
 /** What a plan must hold to be in `state` (a forward step checks the target state). */
 export function getMissingFacts(state: PlanState, facts: PlanFacts): FieldProblems {
@@ -207,17 +205,16 @@ function findPartner(g: Group, others: readonly Group[]): Group | undefined {
  * predicted gain where one was given. Cells seen in only one phase are listed with nulls.
  * Ordered with predicted cells first, then by RSRP after the install, strongest first.
  */
-export function getMeasuredGains(
-  before: readonly CheckReading[],
-  after: readonly CheckReading[],
-  predicted: readonly PredictedGain[] = [],
-): MeasuredGain[] {
+export function getMeasuredGains(before: readonly CheckReading[], after: readonly CheckReading[], predicted: readonly PredictedGain[] = []): MeasuredGain[] {
   const beforeGroups = groupByCell(before);
   const afterGroups = groupByCell(after);
   const used = new Set<Group>();
   const pairs: Array<{ b?: Group; a?: Group }> = [];
   for (const a of afterGroups) {
-    const b = findPartner(a, beforeGroups.filter((x) => !used.has(x)));
+    const b = findPartner(
+      a,
+      beforeGroups.filter((x) => !used.has(x)),
+    );
     if (b) used.add(b);
     pairs.push({ a, b });
   }

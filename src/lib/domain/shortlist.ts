@@ -159,7 +159,9 @@ function kitLosses(kit: Kit, freqMhz: number, warnings: string[]) {
     cableLossDb = cable.lossDb;
     connectorLossDb = getConnectorLossDb(kit.cable.connectors, kit.cable.connectorLossDb);
     if (cableLossDb + connectorLossDb > gain.gainDbi) {
-      warnings.push(`${formatDb(kit.cableM, 0)} m of ${kit.cable.name} loses ${formatDb(cableLossDb + connectorLossDb)} dB at ${freqMhz.toFixed(0)} MHz, more than ${kit.antenna.name} gains (${formatDb(gain.gainDbi)} dBi): use a shorter run or a higher-gain antenna`);
+      warnings.push(
+        `${formatDb(kit.cableM, 0)} m of ${kit.cable.name} loses ${formatDb(cableLossDb + connectorLossDb)} dB at ${freqMhz.toFixed(0)} MHz, more than ${kit.antenna.name} gains (${formatDb(gain.gainDbi)} dBi): use a shorter run or a higher-gain antenna`,
+      );
     }
   }
   return { gainDbi: gain.gainDbi, cableLossDb, connectorLossDb };
@@ -169,7 +171,14 @@ function kitLosses(kit: Kit, freqMhz: number, warnings: string[]) {
 export function modelCellAt(
   cell: CandidateCell,
   at: LatLon,
-  options: { receiveGainDbi: number; diffractionLossDb?: number; excessLossDb?: number; calibrationOffsetDb?: number; cableLossDb?: number; connectorLossDb?: number },
+  options: {
+    receiveGainDbi: number;
+    diffractionLossDb?: number;
+    excessLossDb?: number;
+    calibrationOffsetDb?: number;
+    cableLossDb?: number;
+    connectorLossDb?: number;
+  },
 ): RsrpPrediction & { distanceM: number; sectorOffsetDeg: number | null; bearingFromMastDeg: number } {
   const distanceM = Math.max(1, getDistanceM(at, cell.mastPosition));
   const bearingFromMastDeg = getReverseBearing(at, cell.mastPosition);
@@ -198,9 +207,10 @@ export function evaluateCandidate(cell: CandidateCell, ctx: CandidateContext, s:
   const declinationDeg = getDeclination({ lat: s.customer.lat, lon: s.customer.lon, date: s.date });
 
   // A position on the mast itself has a profile of zero length: there is no path to analyse.
-  const terrain = ctx.profile && ctx.profile.length >= 2 && ctx.profile.at(-1)!.distanceM > 0
-    ? analysePathProfile({ samples: ctx.profile, txHeightM: s.kit.mountHeightM, rxHeightM: mastHeightM, freqMhz: cell.dlMhz, k })
-    : null;
+  const terrain =
+    ctx.profile && ctx.profile.length >= 2 && ctx.profile.at(-1)!.distanceM > 0
+      ? analysePathProfile({ samples: ctx.profile, txHeightM: s.kit.mountHeightM, rxHeightM: mastHeightM, freqMhz: cell.dlMhz, k })
+      : null;
   if (!terrain) warnings.push('No elevation data covers this path: terrain not checked');
   const diffractionLossDb = terrain?.diffractionLossDb ?? 0;
   const customerGround = ctx.profile?.[0]?.groundM ?? s.customerGroundM ?? 0;
@@ -255,7 +265,12 @@ export function evaluateCandidate(cell: CandidateCell, ctx: CandidateContext, s:
     declinationDeg,
     bearingFromMastDeg: modelled.bearingFromMastDeg,
     sectorOffsetDeg: modelled.sectorOffsetDeg,
-    elevationDeg: getElevationAngleDeg({ fromHeightM: customerGround + s.kit.mountHeightM, toHeightM: mastGround + mastHeightM, distanceM: modelled.distanceM, k }),
+    elevationDeg: getElevationAngleDeg({
+      fromHeightM: customerGround + s.kit.mountHeightM,
+      toHeightM: mastGround + mastHeightM,
+      distanceM: modelled.distanceM,
+      k,
+    }),
     terrain: {
       status: terrain?.classification ?? 'unknown',
       worstClearanceM: terrain?.worst?.clearanceM ?? null,
@@ -291,7 +306,11 @@ export function assessLinkQuality(
 ): ShortlistEntry[] {
   return entries.map((e) => {
     const neighbours = entries.filter((o) => isCoChannel(e.cell, o.cell));
-    const sinrDb = getSinrDb(e.predictedRsrpDbm, neighbours.map((o) => o.predictedRsrpDbm), options.sinr);
+    const sinrDb = getSinrDb(
+      e.predictedRsrpDbm,
+      neighbours.map((o) => o.predictedRsrpDbm),
+      options.sinr,
+    );
     const strongest = neighbours.reduce<ShortlistEntry | null>((best, o) => (!best || o.predictedRsrpDbm > best.predictedRsrpDbm ? o : best), null);
     const warnings = [...e.warnings];
     if (strongest && e.predictedRsrpDbm - strongest.predictedRsrpDbm < SECTOR_EDGE_MARGIN_DB) {

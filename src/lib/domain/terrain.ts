@@ -54,12 +54,7 @@ export function getMaxLineOfSightKm(height1M: number, height2M: number, k = STAN
  * radius R_e = k·R: θ = atan2(r2·cos γ − r1, r2·sin γ), r_i = R_e + h_i, γ = d/R_e (standard spherical geometry);
  * k = Infinity gives the flat-earth atan(Δh/d).
  */
-export function getElevationAngleDeg(input: {
-  fromHeightM: number;
-  toHeightM: number;
-  distanceM: number;
-  k?: number;
-}): number {
+export function getElevationAngleDeg(input: { fromHeightM: number; toHeightM: number; distanceM: number; k?: number }): number {
   const { fromHeightM, toHeightM, distanceM } = input;
   const k = input.k ?? STANDARD_K_FACTOR;
   if (!Number.isFinite(k)) return (Math.atan2(toHeightM - fromHeightM, distanceM) * 180) / Math.PI;
@@ -201,12 +196,7 @@ export function analysePathProfile(input: PathProfileInput): PathProfileAnalysis
 
   const heights = obstacleM.map((h, i) => (i === 0 ? txM : i === samples.length - 1 ? rxM : h));
   const distances = samples.map((s) => s.distanceM);
-  const edges =
-    method === 'deygout'
-      ? findDeygoutEdges(distances, heights, 0, samples.length - 1, freqMhz, 0)
-      : worst
-        ? [pickEdge(worst)]
-        : [];
+  const edges = method === 'deygout' ? findDeygoutEdges(distances, heights, 0, samples.length - 1, freqMhz, 0) : worst ? [pickEdge(worst)] : [];
 
   return {
     totalDistanceM: totalM,
@@ -256,14 +246,7 @@ function classifyPath(samples: AnalysedSample[]): PathClassification {
  * applies it — from memory, verify). Without P.526's empirical correction, so it can over-estimate for
  * closely spaced edges.
  */
-function findDeygoutEdges(
-  distances: number[],
-  heights: number[],
-  from: number,
-  to: number,
-  freqMhz: number,
-  depth: number,
-): DiffractionEdge[] {
+function findDeygoutEdges(distances: number[], heights: number[], from: number, to: number, freqMhz: number, depth: number): DiffractionEdge[] {
   let best: DiffractionEdge | null = null;
   for (let i = from + 1; i < to; i++) {
     const d1 = distances[i]! - distances[from]!;

@@ -85,7 +85,8 @@ export function parseAddressCsv(input: string): AddressCsvResult {
         header = fields.map((h) => h.trim().toLowerCase());
         index = Object.fromEntries(header.map((h, i) => [h, i]));
         const missing = REQUIRED_COLUMNS.filter((c) => !(c in index));
-        if (missing.length) result.fileErrors.push(`Missing column${missing.length > 1 ? 's' : ''}: ${missing.join(', ')} (expected ${ADDRESS_CSV_COLUMNS.join(', ')})`);
+        if (missing.length)
+          result.fileErrors.push(`Missing column${missing.length > 1 ? 's' : ''}: ${missing.join(', ')} (expected ${ADDRESS_CSV_COLUMNS.join(', ')})`);
         return;
       }
       if (result.fileErrors.length) return;
@@ -112,7 +113,8 @@ export function parseAddressCsv(input: string): AddressCsvResult {
   });
 
   if (!header) result.fileErrors.push(`The file is empty; the first line must name the columns ${ADDRESS_CSV_COLUMNS.join(', ')}`);
-  else if (!result.fileErrors.length && result.rows.length === 0 && result.errors.length === 0) result.fileErrors.push('The file has a header but no addresses');
+  else if (!result.fileErrors.length && result.rows.length === 0 && result.errors.length === 0)
+    result.fileErrors.push('The file has a header but no addresses');
   return result;
 }
 
@@ -122,11 +124,7 @@ export function csvErrorFields(errors: readonly CsvRowError[]): Record<string, s
 }
 
 export const GeocodeQuerySchema = z.object({
-  q: z
-    .string({ required_error: 'Type an address, postcode or coordinates' })
-    .trim()
-    .min(2, 'Type at least 2 characters')
-    .max(200, 'At most 200 characters'),
+  q: z.string({ required_error: 'Type an address, postcode or coordinates' }).trim().min(2, 'Type at least 2 characters').max(200, 'At most 200 characters'),
   limit: intParam('limit', 1, 50, 10),
 });
 export type GeocodeQuery = z.output<typeof GeocodeQuerySchema>;

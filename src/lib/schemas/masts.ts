@@ -2,7 +2,19 @@
 // shapes the API returns. Channel and PCI checks use the 3GPP tables in lib/domain/channels.ts.
 import { z } from 'zod';
 import { getBand, isChannelInBand, isKnownBand, lookupChannel, type RadioTech } from '../domain/channels';
-import { ID_PATTERN, INT4_MAX, dateTimeField, enumOf, hasChange, intParam, numberField, optionalText, requiredText, RowVersionSchema, textField } from './params';
+import {
+  ID_PATTERN,
+  INT4_MAX,
+  dateTimeField,
+  enumOf,
+  hasChange,
+  intParam,
+  numberField,
+  optionalText,
+  requiredText,
+  RowVersionSchema,
+  textField,
+} from './params';
 
 export const MAST_STATUSES = ['active', 'planned', 'decommissioned'] as const;
 export type MastStatus = (typeof MAST_STATUSES)[number];
@@ -70,7 +82,10 @@ export const BboxSchema = z.string().transform((text, ctx): Bbox => {
 /** A comma-separated list in a query string; empty items are ignored; errors name the list, not the item. */
 const listOf = <T>(item: z.ZodType<T, z.ZodTypeDef, string>, label: string) =>
   z.string().transform((text, ctx): T[] | undefined => {
-    const parts = text.split(',').map((s) => s.trim()).filter(Boolean);
+    const parts = text
+      .split(',')
+      .map((s) => s.trim())
+      .filter(Boolean);
     if (parts.length > 50) {
       ctx.addIssue({ code: 'custom', message: `At most 50 ${label}` });
       return z.NEVER;
@@ -154,7 +169,10 @@ export const MastDeleteQuerySchema = z.object({
 
 const mastName = requiredText(120);
 const reference = optionalText(40);
-const groundElevation = num('Ground elevation').min(-500, 'Ground elevation must be at least −500 m').max(9000, 'Ground elevation must be at most 9000 m').nullish();
+const groundElevation = num('Ground elevation')
+  .min(-500, 'Ground elevation must be at least −500 m')
+  .max(9000, 'Ground elevation must be at most 9000 m')
+  .nullish();
 const structureHeight = num('Structure height').min(0, 'Cannot be negative').max(700, 'Structure height must be at most 700 m').nullish();
 
 export const MastInputSchema = z
@@ -224,7 +242,11 @@ export const OperatorIdSchema = z
   .transform(String);
 export const ChannelSchema = num('Channel').int('Channel must be a whole number').min(0, 'Channel cannot be negative').max(INT4_MAX, 'Channel is too large');
 export const PciSchema = num('PCI').int('PCI must be a whole number').min(0, 'PCI cannot be negative').max(INT4_MAX, 'PCI is too large').nullish();
-const cellIdentity = num('Cell identity').int('Cell identity must be a whole number').min(0, 'Cannot be negative').max(2 ** 36 - 1, 'At most 36 bits').nullish();
+const cellIdentity = num('Cell identity')
+  .int('Cell identity must be a whole number')
+  .min(0, 'Cannot be negative')
+  .max(2 ** 36 - 1, 'At most 36 bits')
+  .nullish();
 export const AzimuthSchema = num('Azimuth').min(0, 'Azimuth must be 0–359°').lt(360, 'Azimuth must be 0–359°').nullish();
 const antennaHeight = num('Antenna height').min(0, 'Cannot be negative').max(700, 'At most 700 m').nullish();
 const bandwidth = num('Bandwidth').gt(0, 'Bandwidth must be above 0').max(400, 'At most 400 MHz').nullish();
@@ -459,7 +481,11 @@ export const SearchQuerySchema = z.object({
 
 export const TILE_MAX_ZOOM = 22;
 
-const tileNumber = (label: string) => z.string().regex(/^\d{1,8}$/, `${label} must be a whole number`).transform(Number);
+const tileNumber = (label: string) =>
+  z
+    .string()
+    .regex(/^\d{1,8}$/, `${label} must be a whole number`)
+    .transform(Number);
 
 /**
  * z/x/y of a Web Mercator XYZ tile: z 0–22, x and y 0 … 2^z − 1 (OGC / Web Mercator tile scheme,

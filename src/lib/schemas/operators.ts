@@ -17,8 +17,14 @@ export function pickDefaultColour(used: readonly string[]): string {
 
 const name = requiredText(80);
 // MCC is three digits, MNC two or three (ITU-T E.212); 001/01 is the test network code.
-const mcc = z.string({ required_error: 'Required', invalid_type_error: 'Required' }).trim().regex(/^\d{3}$/, 'MCC is three digits');
-const mnc = z.string({ required_error: 'Required', invalid_type_error: 'Required' }).trim().regex(/^\d{2,3}$/, 'MNC is two or three digits');
+const mcc = z
+  .string({ required_error: 'Required', invalid_type_error: 'Required' })
+  .trim()
+  .regex(/^\d{3}$/, 'MCC is three digits');
+const mnc = z
+  .string({ required_error: 'Required', invalid_type_error: 'Required' })
+  .trim()
+  .regex(/^\d{2,3}$/, 'MNC is two or three digits');
 const colour = z
   .string({ invalid_type_error: 'Give a colour like #0072b2' })
   .trim()

@@ -136,7 +136,9 @@ export const pageParams = {
 };
 
 /** Optional search text of a list; blank means no search. */
-export const searchParam = textField(200).optional().transform((s) => s || undefined);
+export const searchParam = textField(200)
+  .optional()
+  .transform((s) => s || undefined);
 
 /** A calendar date inside the magnetic model's validity (WMM2025: 2025–2029). */
 export const modelDateParam = z

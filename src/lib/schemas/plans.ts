@@ -91,16 +91,32 @@ export type CheckPhase = (typeof CHECK_PHASES)[number];
 // §9.1.4 / §9.1.7, TS 38.133 §10.1.6 / §10.1.11 / §10.1.16.
 const CheckReadingSchema = z.object({
   pci: num('PCI').int('PCI must be a whole number').min(0, 'PCI must be 0–1007').max(1007, 'PCI must be 0–1007'),
-  channel: num('Channel').int('Channel must be a whole number').min(0, 'Channel cannot be negative').nullish().transform((v) => v ?? null),
+  channel: num('Channel')
+    .int('Channel must be a whole number')
+    .min(0, 'Channel cannot be negative')
+    .nullish()
+    .transform((v) => v ?? null),
   rsrp_dbm: num('RSRP').min(-156, 'RSRP must be between −156 and −31 dBm').max(-31, 'RSRP must be between −156 and −31 dBm'),
-  rsrq_db: num('RSRQ').min(-43, 'RSRQ must be between −43 and 20 dB').max(20, 'RSRQ must be between −43 and 20 dB').nullish().transform((v) => v ?? null),
-  sinr_db: num('SINR').min(-23, 'SINR must be between −23 and 40 dB').max(40, 'SINR must be between −23 and 40 dB').nullish().transform((v) => v ?? null),
+  rsrq_db: num('RSRQ')
+    .min(-43, 'RSRQ must be between −43 and 20 dB')
+    .max(20, 'RSRQ must be between −43 and 20 dB')
+    .nullish()
+    .transform((v) => v ?? null),
+  sinr_db: num('SINR')
+    .min(-23, 'SINR must be between −23 and 40 dB')
+    .max(40, 'SINR must be between −23 and 40 dB')
+    .nullish()
+    .transform((v) => v ?? null),
 });
 
 const SpeedTestSchema = z.object({
   down_mbps: num('Download').min(0, 'Cannot be negative').max(10_000, 'At most 10000 Mbit/s'),
   up_mbps: num('Upload').min(0, 'Cannot be negative').max(10_000, 'At most 10000 Mbit/s'),
-  latency_ms: num('Latency').min(0, 'Cannot be negative').max(10_000, 'At most 10000 ms').nullish().transform((v) => v ?? null),
+  latency_ms: num('Latency')
+    .min(0, 'Cannot be negative')
+    .max(10_000, 'At most 10000 ms')
+    .nullish()
+    .transform((v) => v ?? null),
 });
 
 export const InstallCheckInputSchema = z

@@ -55,7 +55,9 @@ export type PolygonGeometry = z.output<typeof PolygonSchema> | z.output<typeof M
 const GeometrySchema = z
   .discriminatedUnion('type', [PolygonSchema, MultiPolygonSchema], {
     errorMap: (issue, ctx) =>
-      issue.code === 'invalid_union_discriminator' ? { message: 'Give a GeoJSON Polygon or MultiPolygon (or a Feature with one)' } : { message: ctx.defaultError },
+      issue.code === 'invalid_union_discriminator'
+        ? { message: 'Give a GeoJSON Polygon or MultiPolygon (or a Feature with one)' }
+        : { message: ctx.defaultError },
   })
   .superRefine((g, ctx) => {
     const n = countVertices(g);

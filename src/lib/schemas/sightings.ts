@@ -2,7 +2,19 @@
 // the phone and the endpoint; the JSON shapes are what the API returns.
 import { z } from 'zod';
 import { getMeasurementRange, type MeasurementKind } from '../domain/measurements';
-import { AzimuthSchema, BboxSchema, ChannelSchema, LatSchema, LonSchema, OperatorIdSchema, PciSchema, TechSchema, checkRadio, type OperatorRefJson, type Tech } from './masts';
+import {
+  AzimuthSchema,
+  BboxSchema,
+  ChannelSchema,
+  LatSchema,
+  LonSchema,
+  OperatorIdSchema,
+  PciSchema,
+  TechSchema,
+  checkRadio,
+  type OperatorRefJson,
+  type Tech,
+} from './masts';
 import { enumOf, idParam, numberField, optionalText, pageParams } from './params';
 
 export const SIGHTING_STATUSES = ['pending', 'approved', 'merged', 'rejected'] as const;
@@ -118,7 +130,10 @@ const FUTURE_SLACK_MS = 24 * 3600 * 1000;
 
 export const SightingInputSchema = z
   .object({
-    client_uuid: z.string({ required_error: 'Required' }).uuid('Not a valid UUID').transform((s) => s.toLowerCase()),
+    client_uuid: z
+      .string({ required_error: 'Required' })
+      .uuid('Not a valid UUID')
+      .transform((s) => s.toLowerCase()),
     lat: LatSchema,
     lon: LonSchema,
     position_source: enumOf(POSITION_SOURCES),
@@ -129,7 +144,10 @@ export const SightingInputSchema = z
       .array(OperatorIdSchema, { invalid_type_error: 'Must be a list' })
       .max(MAX_SIGHTING_OPERATORS, `At most ${MAX_SIGHTING_OPERATORS} operators`)
       .default([]),
-    cells: z.array(SightingCellInputSchema, { invalid_type_error: 'Must be a list' }).max(MAX_SIGHTING_CELLS, `At most ${MAX_SIGHTING_CELLS} cells`).default([]),
+    cells: z
+      .array(SightingCellInputSchema, { invalid_type_error: 'Must be a list' })
+      .max(MAX_SIGHTING_CELLS, `At most ${MAX_SIGHTING_CELLS} cells`)
+      .default([]),
     notes: optionalText(2000),
     observed_at: z.coerce
       .date({ errorMap: () => ({ message: 'Give a date and time' }) })

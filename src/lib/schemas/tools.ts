@@ -1,7 +1,6 @@
 import { z } from 'zod';
 import { modelDateParam, numberParam } from './params';
 
-
 export const TechSchema = z.enum(['lte', 'nr', 'umts', 'gsm'], {
   errorMap: () => ({ message: 'Choose lte, nr, umts or gsm' }),
 });
@@ -12,7 +11,9 @@ export const ChannelQuerySchema = z
     channel: numberParam('Channel')
       .refine((n) => Number.isInteger(n) && n >= 0, 'Channel must be a whole number ≥ 0')
       .optional(),
-    freq_mhz: numberParam('Frequency').refine((n) => n > 0, 'Frequency must be above 0 MHz').optional(),
+    freq_mhz: numberParam('Frequency')
+      .refine((n) => n > 0, 'Frequency must be above 0 MHz')
+      .optional(),
     band: z.string().trim().min(1, 'Name a band, e.g. B20 or n78').max(10, 'A band name is at most 10 characters').optional(),
   })
   .superRefine((v, ctx) => {
@@ -55,23 +56,25 @@ const height = (label: string) =>
     .optional()
     .default('0');
 
-export const PathQuerySchema = z.object({
-  from: LatLonParam('from'),
-  to: LatLonParam('to'),
-  freq_mhz: numberParam('Frequency')
-    .refine((n) => n >= 30 && n <= 100_000, 'Frequency must be between 30 and 100000 MHz')
-    .optional(),
-  h1_m: height('Customer antenna height'),
-  h2_m: height('Mast antenna height'),
-  k: numberParam('Earth radius factor k')
-    .refine((n) => n > 0 && n <= 10, 'k must be between 0 and 10')
-    .optional(),
-  date: modelDateParam.optional(),
-}).superRefine((v, ctx) => {
-  if (v.from && v.to && v.from.lat === v.to.lat && v.from.lon === v.to.lon) {
-    ctx.addIssue({ code: 'custom', path: ['to'], message: 'The two ends are the same point: move one of them' });
-  }
-});
+export const PathQuerySchema = z
+  .object({
+    from: LatLonParam('from'),
+    to: LatLonParam('to'),
+    freq_mhz: numberParam('Frequency')
+      .refine((n) => n >= 30 && n <= 100_000, 'Frequency must be between 30 and 100000 MHz')
+      .optional(),
+    h1_m: height('Customer antenna height'),
+    h2_m: height('Mast antenna height'),
+    k: numberParam('Earth radius factor k')
+      .refine((n) => n > 0 && n <= 10, 'k must be between 0 and 10')
+      .optional(),
+    date: modelDateParam.optional(),
+  })
+  .superRefine((v, ctx) => {
+    if (v.from && v.to && v.from.lat === v.to.lat && v.from.lon === v.to.lon) {
+      ctx.addIssue({ code: 'custom', path: ['to'], message: 'The two ends are the same point: move one of them' });
+    }
+  });
 export type PathQuery = z.infer<typeof PathQuerySchema>;
 
 // --- JSON the API returns -------------------------------------------------------------------

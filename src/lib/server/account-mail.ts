@@ -14,15 +14,24 @@ const days = (min: number) => `${Math.round(min / 1440)} days`;
 
 export function signupMail(to: string, name: string, link: string): OutgoingMail {
   return compose(to, 'Confirm your e-mail for Bearline', `Hello ${name},`, [
-    { kind: 'p', text: 'Thank you for offering to report masts for Bearline. Please confirm that this address is yours, and your contributor account will be ready.' },
+    {
+      kind: 'p',
+      text: 'Thank you for offering to report masts for Bearline. Please confirm that this address is yours, and your contributor account will be ready.',
+    },
     { kind: 'button', text: 'Confirm my e-mail', href: link },
-    { kind: 'small', text: `The link works once, for ${hours(TOKEN_LIFETIME_MIN.signup)}. If you did not sign up, ignore this message: no account is made without the link.` },
+    {
+      kind: 'small',
+      text: `The link works once, for ${hours(TOKEN_LIFETIME_MIN.signup)}. If you did not sign up, ignore this message: no account is made without the link.`,
+    },
   ]);
 }
 
 export function existingAccountMail(to: string, name: string, signInLink: string, forgotLink: string): OutgoingMail {
   return compose(to, 'You already have a Bearline account', `Hello ${name},`, [
-    { kind: 'p', text: 'Someone, probably you, tried to sign up for Bearline with this e-mail address. An account with this address already exists, so nothing new was made.' },
+    {
+      kind: 'p',
+      text: 'Someone, probably you, tried to sign up for Bearline with this e-mail address. An account with this address already exists, so nothing new was made.',
+    },
     { kind: 'button', text: 'Sign in', href: signInLink },
     { kind: 'p', text: `Forgotten your password? Ask for a new one here: ${forgotLink}` },
     { kind: 'small', text: 'If it was not you, you need not do anything.' },
@@ -33,7 +42,10 @@ export function resetMail(to: string, name: string, link: string): OutgoingMail 
   return compose(to, 'Choose a new Bearline password', `Hello ${name},`, [
     { kind: 'p', text: 'We were asked to reset the password of your Bearline account. Follow the link to choose a new one.' },
     { kind: 'button', text: 'Choose a new password', href: link },
-    { kind: 'small', text: `The link works once, for ${hours(TOKEN_LIFETIME_MIN.reset)}. Setting a new password signs you out everywhere else. If you did not ask for this, ignore this message: your password stays as it is.` },
+    {
+      kind: 'small',
+      text: `The link works once, for ${hours(TOKEN_LIFETIME_MIN.reset)}. Setting a new password signs you out everywhere else. If you did not ask for this, ignore this message: your password stays as it is.`,
+    },
   ]);
 }
 

@@ -18,8 +18,7 @@ import { TokenSchema } from '../schemas/accounts';
 
 export const SIGNUP_ANSWER =
   'Thank you. We have sent a message to that address: follow its link within 24 hours to confirm it. Nothing arrived? Look in the spam folder.';
-export const RESET_ANSWER =
-  'If an account uses that address, a message with a link to choose a new password is on its way. The link works for one hour.';
+export const RESET_ANSWER = 'If an account uses that address, a message with a link to choose a new password is on its way. The link works for one hour.';
 
 /** Where mailed links point: PUBLIC_ORIGIN when set (never trust the Host header in production), else this request's origin. */
 export function linkOrigin(url: URL): string {
@@ -56,7 +55,11 @@ export async function confirmSignup(db: Knex, token: string): Promise<User> {
     }
     const user = await createUserWithHash(trx, { email: link.email, name: link.name!, role: 'contributor', passwordHash: link.passwordHash! }, null, 'signup');
     // Other sign-up links for the same address can no longer make a second account.
-    await trx('account_tokens').where({ purpose: 'signup' }).whereRaw('lower(email) = lower(?)', [link.email]).whereNull('used_at').update({ used_at: new Date() });
+    await trx('account_tokens')
+      .where({ purpose: 'signup' })
+      .whereRaw('lower(email) = lower(?)', [link.email])
+      .whereNull('used_at')
+      .update({ used_at: new Date() });
     return user;
   });
 }
@@ -125,7 +128,13 @@ export async function inviteUser(
   const { user, token } = await db.transaction(async (trx) => {
     const created = await createUserWithHash(trx, { ...input, passwordHash }, actor.id, 'invite');
     const issued = await issueToken(trx, { purpose: 'invite', email: created.email, userId: created.id, createdBy: actor.id });
-    await recordAudit(trx, { userId: actor.id, action: 'invite', entity: 'user', entityId: created.id, after: { expires_at: issued.record.expiresAt.toISOString() } });
+    await recordAudit(trx, {
+      userId: actor.id,
+      action: 'invite',
+      entity: 'user',
+      entityId: created.id,
+      after: { expires_at: issued.record.expiresAt.toISOString() },
+    });
     return { user: created, token: issued.token };
   });
   return { user, mailSent: await mailInvite(user, actor.name, token, origin) };
@@ -141,7 +150,13 @@ export async function resendInvite(db: Knex, userId: string, actor: { id: string
     if (target.disabledAt) throw new ConflictError(`${target.name} is disabled. Enable the account first.`);
     await retireUserTokens(trx, target.id, ['invite']);
     const issued = await issueToken(trx, { purpose: 'invite', email: target.email, userId: target.id, createdBy: actor.id });
-    await recordAudit(trx, { userId: actor.id, action: 'invite', entity: 'user', entityId: target.id, after: { expires_at: issued.record.expiresAt.toISOString(), resent: true } });
+    await recordAudit(trx, {
+      userId: actor.id,
+      action: 'invite',
+      entity: 'user',
+      entityId: target.id,
+      after: { expires_at: issued.record.expiresAt.toISOString(), resent: true },
+    });
     return { user: target, token: issued.token };
   });
   return { user, mailSent: await mailInvite(user, actor.name, token, origin) };

@@ -40,7 +40,9 @@ export interface AddressImportMeta {
 export async function importAddressCsv(trx: Knex.Transaction, input: Readable, meta: AddressImportMeta): Promise<ImportSummary> {
   // A large file takes longer than the default statement timeout.
   await trx.raw("SET LOCAL statement_timeout = '30min'");
-  await trx.raw(`CREATE TEMP TABLE address_import_rows (line int NOT NULL, label text NOT NULL, postcode text, lon float8 NOT NULL, lat float8 NOT NULL) ON COMMIT DROP`);
+  await trx.raw(
+    `CREATE TEMP TABLE address_import_rows (line int NOT NULL, label text NOT NULL, postcode text, lon float8 NOT NULL, lat float8 NOT NULL) ON COMMIT DROP`,
+  );
   const hashed = hashingStream(input);
   const copied = await copyCsvIntoTable(await connectionOf(trx), hashed.stream, {
     table: 'address_import_rows',

@@ -18,21 +18,22 @@ export async function getAimSheet(planId: string, date: Date): Promise<AimSheet>
   const plan = await findPlan(db, planId);
   const customer = await findCustomer(db, plan.customerId);
   // The same inputs as the plan's saved figures (plan-service.ts): no defaults fill a missing kit.
-  const entry = plan.cellId && plan.antennaId && plan.mountHeightM !== null
-    ? await evaluatePlannedCell(
-        db,
-        plan.cellId,
-        {
-          at: { lat: customer.lat, lon: customer.lon },
-          heightM: plan.mountHeightM,
-          antennaId: plan.antennaId,
-          cableId: plan.cableId ?? undefined,
-          cableM: plan.cableId ? (plan.cableM ?? 0) : 0,
-          currentAntennaId: customer.currentAntennaId ?? undefined,
-          date,
-        },
-        getElevationProfile,
-      )
-    : null;
+  const entry =
+    plan.cellId && plan.antennaId && plan.mountHeightM !== null
+      ? await evaluatePlannedCell(
+          db,
+          plan.cellId,
+          {
+            at: { lat: customer.lat, lon: customer.lon },
+            heightM: plan.mountHeightM,
+            antennaId: plan.antennaId,
+            cableId: plan.cableId ?? undefined,
+            cableM: plan.cableId ? (plan.cableM ?? 0) : 0,
+            currentAntennaId: customer.currentAntennaId ?? undefined,
+            date,
+          },
+          getElevationProfile,
+        )
+      : null;
   return { plan, customer, entry, date };
 }

@@ -2,14 +2,7 @@
 // Used by the upload endpoint and by the demo seed, so both go through the same checks.
 // Runs outside Vite too (seeds): no astro:env here; callers pass the data folder.
 import { fromArrayBuffer, type GeoTIFFImage } from 'geotiff';
-import {
-  ElevationDataError,
-  assertValidGrid,
-  getGridStats,
-  parseHgt,
-  type ElevationGrid,
-  type ElevationSamples,
-} from '../domain/elevation-grid';
+import { ElevationDataError, assertValidGrid, getGridStats, parseHgt, type ElevationGrid, type ElevationSamples } from '../domain/elevation-grid';
 import { MAX_ELEVATION_UPLOAD_BYTES, type ElevationFormat } from '../schemas/elevation';
 import type { Tx } from './db';
 import { AppError, ConflictError, ValidationError } from './errors';
@@ -37,8 +30,7 @@ export interface ElevationUpload {
   bytes: Uint8Array;
 }
 
-const tooLarge = () =>
-  new AppError('PAYLOAD_TOO_LARGE', `The file is larger than ${MAX_ELEVATION_UPLOAD_BYTES / (1024 * 1024)} MB: cut the area into tiles`);
+const tooLarge = () => new AppError('PAYLOAD_TOO_LARGE', `The file is larger than ${MAX_ELEVATION_UPLOAD_BYTES / (1024 * 1024)} MB: cut the area into tiles`);
 const unsupported = (message: string) => new AppError('UNSUPPORTED_MEDIA_TYPE', message);
 const unprocessable = (message: string) => new AppError('UNPROCESSABLE_CONTENT', message);
 

@@ -1,12 +1,7 @@
 // Elevation for the app: terrain profiles and spot heights from the imported grids, plus the
 // upload and delete flows. Grids whose samples cannot be read are left out (and logged), so a
 // damaged file shows up as missing data rather than as a failed shortlist.
-import {
-  sampleElevationProfile,
-  type ElevationGrid,
-  type ElevationProfile,
-  type ProfileOptions,
-} from '../domain/elevation-grid';
+import { sampleElevationProfile, type ElevationGrid, type ElevationProfile, type ProfileOptions } from '../domain/elevation-grid';
 import type { LatLon } from '../domain/geodesy';
 import { config } from './config';
 import { getDb } from './db';
@@ -38,11 +33,7 @@ async function loadGrids(records: ElevationGridRecord[]): Promise<ElevationGrid[
  * Ground heights along the great circle from `from` to `to` at the finest available grid spacing
  * (at most `maxSamples` samples), with the coverage report: `groundM` is null where no grid has data.
  */
-export async function getElevationProfile(
-  from: LatLon,
-  to: LatLon,
-  options: Pick<ProfileOptions, 'maxSamples'> = {},
-): Promise<ElevationProfile> {
+export async function getElevationProfile(from: LatLon, to: LatLon, options: Pick<ProfileOptions, 'maxSamples'> = {}): Promise<ElevationProfile> {
   const grids = await loadGrids(await findGridsCovering(getDb(), from, to));
   return sampleElevationProfile(grids, from, to, { maxSamples: options.maxSamples });
 }

@@ -25,7 +25,14 @@ export async function listMailbox(limit = 100): Promise<MailboxMessage[]> {
     newest.map(async (file) => {
       const parsed = await simpleParser(await readFile(join(config.mailDir, file)));
       const addr = (a: typeof parsed.to) => (Array.isArray(a) ? a.map((x) => x.text).join(', ') : (a?.text ?? ''));
-      return { file, from: parsed.from?.text ?? '', to: addr(parsed.to), subject: parsed.subject ?? '(no subject)', date: parsed.date ?? null, text: parsed.text ?? '' };
+      return {
+        file,
+        from: parsed.from?.text ?? '',
+        to: addr(parsed.to),
+        subject: parsed.subject ?? '(no subject)',
+        date: parsed.date ?? null,
+        text: parsed.text ?? '',
+      };
     }),
   );
 }

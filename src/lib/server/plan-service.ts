@@ -19,13 +19,7 @@ export interface PlanKit {
  * The shortlist row of the plan's cell for the customer's position and the plan's kit; empty
  * until a cell, an antenna and a mount height are chosen (there is nothing to predict before).
  */
-export async function computePlanFigures(
-  db: Tx,
-  customerId: string,
-  kit: PlanKit,
-  date: Date,
-  profileFor: ProfileProvider,
-): Promise<PlanFiguresFieldJson> {
+export async function computePlanFigures(db: Tx, customerId: string, kit: PlanKit, date: Date, profileFor: ProfileProvider): Promise<PlanFiguresFieldJson> {
   if (!kit.cellId || !kit.antennaId || kit.mountHeightM === null) return {};
   const customer = await findCustomer(db, customerId);
   const at = { lat: customer.lat, lon: customer.lon };

@@ -57,9 +57,7 @@ export async function stageReadingsUpload(
 ): Promise<StagedImport> {
   // A large upload takes longer than the default statement timeout.
   await trx.raw("SET LOCAL statement_timeout = '30min'");
-  const [{ id: importId }] = await trx('reading_imports')
-    .insert({ owner_id: meta.ownerId, file_name: meta.fileName })
-    .returning<{ id: string }[]>('id');
+  const [{ id: importId }] = await trx('reading_imports').insert({ owner_id: meta.ownerId, file_name: meta.fileName }).returning<{ id: string }[]>('id');
   const hashed = hashingStream(input);
   const conn = await connectionOf(trx);
   const copied = await copyCsvIntoTable(conn, hashed.stream, {
@@ -122,8 +120,7 @@ export async function runReadingsImport(db: Knex, importId: string, ctx: JobCont
   const imp = await db('reading_imports')
     .where({ id: importId })
     .first<
-      | { id: string; status: string; rows: number; owner_id: string | null; file_name: string | null; sha256: string | null; matched: number }
-      | undefined
+      { id: string; status: string; rows: number; owner_id: string | null; file_name: string | null; sha256: string | null; matched: number } | undefined
     >();
   if (!imp) throw new PermanentJobError('The import is gone (its upload was removed)');
   if (imp.status === 'done') {

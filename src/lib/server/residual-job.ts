@@ -86,7 +86,11 @@ export async function refreshResiduals(db: Knex, options: ResidualJobOptions): P
       // A cell without a frequency cannot be modelled: its readings are marked done without a residual.
       residuals.push(
         cell
-          ? await computeResidualDb(cell, { position: { lat: r.lat, lon: r.lon }, rsrpDbm: r.rsrp_dbm, antennaGainDbi: r.antenna_gain_dbi, heightM: r.height_m }, profileFor)
+          ? await computeResidualDb(
+              cell,
+              { position: { lat: r.lat, lon: r.lon }, rsrpDbm: r.rsrp_dbm, antennaGainDbi: r.antenna_gain_dbi, heightM: r.height_m },
+              profileFor,
+            )
           : null,
       );
     }

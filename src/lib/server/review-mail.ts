@@ -26,7 +26,10 @@ export function decisionMail(to: string, name: string, r: DecisionResult, origin
   let subject: string;
   if (s.status === 'approved') {
     subject = 'Your sighting is on the map';
-    blocks.push({ kind: 'p', text: `Good news: ${what} was approved. It is now on Bearline's map as a new mast, "${r.mast?.name}", with ${plural(r.addedCells.length, 'cell')} from your report.` });
+    blocks.push({
+      kind: 'p',
+      text: `Good news: ${what} was approved. It is now on Bearline's map as a new mast, "${r.mast?.name}", with ${plural(r.addedCells.length, 'cell')} from your report.`,
+    });
   } else if (s.status === 'merged') {
     subject = 'Your sighting confirmed a mast on the map';
     blocks.push({
@@ -38,14 +41,19 @@ export function decisionMail(to: string, name: string, r: DecisionResult, origin
     blocks.push({ kind: 'p', text: `Thank you for ${what}. A reviewer looked at it and did not add it to the map.` });
   }
   if (s.decisionReason) blocks.push({ kind: 'p', text: `The reviewer's note: ${s.decisionReason}` });
-  blocks.push({ kind: 'button', text: s.status === 'rejected' ? 'See your sightings' : 'Open the map', href: s.status === 'rejected' ? `${origin}/` : `${origin}/map` });
+  blocks.push({
+    kind: 'button',
+    text: s.status === 'rejected' ? 'See your sightings' : 'Open the map',
+    href: s.status === 'rejected' ? `${origin}/` : `${origin}/map`,
+  });
   blocks.push({ kind: 'small', text: 'Stay on public ground when you report a mast: never climb or enter a site, and keep well clear of power lines.' });
   return compose(to, subject, `Hello ${name},`, blocks);
 }
 
 /** Tells the submitter what became of their sighting. A mail failure is logged, never undoes the decision. */
 export async function notifySubmitter(db: Knex, r: DecisionResult, origin: string): Promise<boolean> {
-  const author = (await db('users').where({ id: r.sighting.author.id }).first('email', 'name', 'disabled_at')) as { email: string; name: string; disabled_at: Date | null } | undefined;
+  const author = (await db('users').where({ id: r.sighting.author.id }).first('email', 'name', 'disabled_at')) as
+    { email: string; name: string; disabled_at: Date | null } | undefined;
   if (!author || author.disabled_at) return false;
   try {
     await sendMail(decisionMail(author.email, author.name, r, origin));
@@ -58,7 +66,10 @@ export async function notifySubmitter(db: Knex, r: DecisionResult, origin: strin
 
 export function waitingMail(to: string, name: string, waiting: number, oldest: Date, origin: string): OutgoingMail {
   return compose(to, `${plural(waiting, 'sighting')} waiting for review`, `Hello ${name},`, [
-    { kind: 'p', text: `${plural(waiting, 'sighting')} from the field ${waiting === 1 ? 'waits' : 'wait'} for review in Bearline. The oldest arrived on ${day(oldest)}.` },
+    {
+      kind: 'p',
+      text: `${plural(waiting, 'sighting')} from the field ${waiting === 1 ? 'waits' : 'wait'} for review in Bearline. The oldest arrived on ${day(oldest)}.`,
+    },
     { kind: 'button', text: 'Open the review queue', href: `${origin}/review` },
     { kind: 'small', text: `You get at most one of these messages an hour.` },
   ]);
@@ -70,7 +81,10 @@ export function waitingMail(to: string, name: string, waiting: number, oldest: D
  * servers running this at once send one message. Returns the addresses mailed.
  */
 export async function alertReviewers(db: Knex, origin: string, now = new Date()): Promise<string[]> {
-  const pending = (await db('sightings').where({ status: 'pending' }).count<{ n: string }[]>('* as n').min('created_at as oldest').first()) as unknown as { n: string; oldest: Date | null };
+  const pending = (await db('sightings').where({ status: 'pending' }).count<{ n: string }[]>('* as n').min('created_at as oldest').first()) as unknown as {
+    n: string;
+    oldest: Date | null;
+  };
   const waiting = Number(pending?.n ?? 0);
   if (waiting === 0 || !pending.oldest) return [];
   const cutoff = new Date(now.getTime() - REVIEWER_ALERT_INTERVAL_MIN * 60_000);
@@ -84,7 +98,12 @@ export async function alertReviewers(db: Knex, origin: string, now = new Date())
     [now, cutoff],
   )) as { rows: Array<{ user_id: string }> };
   if (claimed.rows.length === 0) return [];
-  const people = (await db('users').whereIn('id', claimed.rows.map((r) => r.user_id)).select('email', 'name')) as Array<{ email: string; name: string }>;
+  const people = (await db('users')
+    .whereIn(
+      'id',
+      claimed.rows.map((r) => r.user_id),
+    )
+    .select('email', 'name')) as Array<{ email: string; name: string }>;
   const sent: string[] = [];
   for (const p of people) {
     try {

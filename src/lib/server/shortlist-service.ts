@@ -91,7 +91,12 @@ export async function computeResidualDb(
 ): Promise<number> {
   const samples = toSamples(await profileFor(r.position, cell.mastPosition, { maxSamples: 64 }));
   const diffraction = samples
-    ? analysePathProfile({ samples, txHeightM: r.heightM ?? READING_HEIGHT_M, rxHeightM: cell.antennaHeightM ?? DEFAULT_MAST_ANTENNA_HEIGHT_M, freqMhz: cell.dlMhz }).diffractionLossDb
+    ? analysePathProfile({
+        samples,
+        txHeightM: r.heightM ?? READING_HEIGHT_M,
+        rxHeightM: cell.antennaHeightM ?? DEFAULT_MAST_ANTENNA_HEIGHT_M,
+        freqMhz: cell.dlMhz,
+      }).diffractionLossDb
     : 0;
   const modelled = modelCellAt(cell, r.position, { receiveGainDbi: r.antennaGainDbi ?? READING_ANTENNA_GAIN_DBI, diffractionLossDb: diffraction });
   return r.rsrpDbm - modelled.rsrpDbm;
@@ -103,14 +108,15 @@ export async function computeResidualDb(
  * code). Residuals stored by the residual job are read as they are; readings it has not reached yet
  * (or whose basis is stale) are computed here.
  */
-async function summariseCellResiduals(
-  db: Tx,
-  cells: CandidateCell[],
-  at: LatLon,
-  profileFor: ProfileProvider,
-): Promise<Map<string, ResidualSummary | null>> {
+async function summariseCellResiduals(db: Tx, cells: CandidateCell[], at: LatLon, profileFor: ProfileProvider): Promise<Map<string, ResidualSummary | null>> {
   const [readings, basis] = await Promise.all([
-    listNearbyReadings(db, cells.map((c) => c.cellId), at, CALIBRATION_RADIUS_M, CALIBRATION_READINGS_PER_CELL),
+    listNearbyReadings(
+      db,
+      cells.map((c) => c.cellId),
+      at,
+      CALIBRATION_RADIUS_M,
+      CALIBRATION_READINGS_PER_CELL,
+    ),
     getResidualBasis(db),
   ]);
   const byCell = new Map(cells.map((c) => [c.cellId, c]));
@@ -132,10 +138,10 @@ async function calibrate(db: Tx, cells: CandidateCell[], at: LatLon, profileFor:
 
 async function resolveKits(db: Tx, req: Pick<ShortlistRequest, 'antennaId' | 'cableId' | 'cableM' | 'heightM' | 'currentAntennaId'>) {
   const antennas = await listAntennas(db);
-  const antenna = req.antennaId ? await findAntenna(db, req.antennaId) : antennas.find((a) => a.kind === 'directional') ?? antennas[0];
+  const antenna = req.antennaId ? await findAntenna(db, req.antennaId) : (antennas.find((a) => a.kind === 'directional') ?? antennas[0]);
   if (!antenna) throw new ValidationError('The antenna catalogue is empty: add an antenna first', { antenna_id: ['No antenna in the catalogue'] });
   const cable = req.cableId ? await findCable(db, req.cableId) : null;
-  const current = req.currentAntennaId ? await findAntenna(db, req.currentAntennaId) : antennas.find((a) => a.kind === 'stub') ?? null;
+  const current = req.currentAntennaId ? await findAntenna(db, req.currentAntennaId) : (antennas.find((a) => a.kind === 'stub') ?? null);
   // The current antenna is taken as mounted indoors at the router, without a feeder.
   return { kit: toKit(antenna, cable, req.cableM, req.heightM), currentKit: current ? toKit(current, null, 0, 2) : null };
 }
@@ -189,9 +195,10 @@ async function evaluateCells(
   for (const cell of cells) {
     if (!profiles.has(cell.mastId)) profiles.set(cell.mastId, await profileFor(req.at, cell.mastPosition, { maxSamples: 400 }));
   }
-  const customerGroundM = [...profiles.values()].find((p) => p?.points[0]?.groundM != null)?.points[0]?.groundM
-    ?? (await profileFor(req.at, req.at, { maxSamples: 2 }))?.points[0]?.groundM
-    ?? null;
+  const customerGroundM =
+    [...profiles.values()].find((p) => p?.points[0]?.groundM != null)?.points[0]?.groundM ??
+    (await profileFor(req.at, req.at, { maxSamples: 2 }))?.points[0]?.groundM ??
+    null;
   const settings = { customer: req.at, customerGroundM, date: req.date, kit, currentKit, preferredOperatorId: req.preferredOperatorId ?? null };
   const evaluated = cells.map((cell) => ({
     ...evaluateCandidate(cell, { profile: toSamples(profiles.get(cell.mastId) ?? null), calibration: calibration.get(cell.cellId) ?? null }, settings),

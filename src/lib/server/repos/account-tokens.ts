@@ -74,7 +74,10 @@ export async function issueToken(db: Tx, input: NewAccountToken, now = new Date(
 
 /** The link's record without using it (to word a page), or null when the token is unknown. */
 export async function peekToken(db: Tx, token: string, purposes: readonly TokenPurpose[]): Promise<AccountToken | null> {
-  const row = await db<TokenRow>('account_tokens').where({ token_hash: hashToken(token) }).whereIn('purpose', purposes).first();
+  const row = await db<TokenRow>('account_tokens')
+    .where({ token_hash: hashToken(token) })
+    .whereIn('purpose', purposes)
+    .first();
   return row ? toToken(row) : null;
 }
 
@@ -90,7 +93,11 @@ export class TokenProblemError extends AppError {
  * transaction. A second use, even at the same moment, finds it used.
  */
 export async function consumeToken(trx: Tx, token: string, purposes: readonly TokenPurpose[], now = new Date()): Promise<AccountToken> {
-  const row = await trx<TokenRow>('account_tokens').where({ token_hash: hashToken(token) }).whereIn('purpose', purposes).forUpdate().first();
+  const row = await trx<TokenRow>('account_tokens')
+    .where({ token_hash: hashToken(token) })
+    .whereIn('purpose', purposes)
+    .forUpdate()
+    .first();
   if (!row) throw new TokenProblemError('unknown');
   const record = toToken(row);
   const state = tokenState(record, now);

@@ -83,7 +83,12 @@ export async function listAddresses(
     total = estimate;
     totalExact = false;
   } else {
-    const { rows: counted } = await db.raw('SELECT count(*) AS n FROM (?) c', [base.clone().select(db.raw('1')).limit(EXACT_COUNT_BELOW + 1)]);
+    const { rows: counted } = await db.raw('SELECT count(*) AS n FROM (?) c', [
+      base
+        .clone()
+        .select(db.raw('1'))
+        .limit(EXACT_COUNT_BELOW + 1),
+    ]);
     total = Number(counted[0].n);
     totalExact = total <= EXACT_COUNT_BELOW;
   }
@@ -183,7 +188,13 @@ export async function searchGazetteer(db: Tx, q: string, limit: number): Promise
 }
 
 /** Addresses nearest a point, closest first (KNN on the geometry index). */
-export async function findNearbyAddresses(db: Tx, lat: number, lon: number, limit: number, radiusM: number): Promise<Array<GazetteerHit & { distanceM: number }>> {
+export async function findNearbyAddresses(
+  db: Tx,
+  lat: number,
+  lon: number,
+  limit: number,
+  radiusM: number,
+): Promise<Array<GazetteerHit & { distanceM: number }>> {
   const { rows } = await db.raw<{ rows: Array<Omit<GazetteerHit, 'score'> & { distance_m: number }> }>(
     `SELECT label, postcode, lat, lon, distance_m FROM (
        SELECT label, postcode, ST_Y(geom) AS lat, ST_X(geom) AS lon,

@@ -26,10 +26,25 @@ function selectCandidates(db: Tx) {
     .join('masts as m', 'm.id', 'c.mast_id')
     .join('operators as o', 'o.id', 'c.operator_id')
     .select(
-      'c.id', 'c.mast_id', 'c.operator_id', 'c.tech', 'c.band', 'c.channel', 'c.dl_mhz', 'c.pci', 'c.sector_azimuth_deg',
-      'c.antenna_height_m', 'c.rs_power_dbm', 'c.bandwidth_mhz', 'm.name as mast_name', 'm.ground_elevation_m', 'm.structure_height_m',
-      'o.name as operator_name', 'o.colour as operator_colour',
-      db.raw('ST_Y(m.geom) as lat'), db.raw('ST_X(m.geom) as lon'),
+      'c.id',
+      'c.mast_id',
+      'c.operator_id',
+      'c.tech',
+      'c.band',
+      'c.channel',
+      'c.dl_mhz',
+      'c.pci',
+      'c.sector_azimuth_deg',
+      'c.antenna_height_m',
+      'c.rs_power_dbm',
+      'c.bandwidth_mhz',
+      'm.name as mast_name',
+      'm.ground_elevation_m',
+      'm.structure_height_m',
+      'o.name as operator_name',
+      'o.colour as operator_colour',
+      db.raw('ST_Y(m.geom) as lat'),
+      db.raw('ST_X(m.geom) as lon'),
     );
 }
 

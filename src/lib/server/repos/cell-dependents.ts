@@ -11,7 +11,10 @@ export async function assertNoPlansUseCells(db: Tx, cellIds: string[], what: str
   if (cellIds.length === 0) return;
   const plans: { id: string; state: string }[] = await db('plans').whereIn('cell_id', cellIds).orderBy('id').select('id', 'state');
   if (plans.length === 0) return;
-  const named = plans.slice(0, SHOWN).map((p) => `#${p.id} (${p.state})`).join(', ');
+  const named = plans
+    .slice(0, SHOWN)
+    .map((p) => `#${p.id} (${p.state})`)
+    .join(', ');
   const more = plans.length > SHOWN ? ` and ${plans.length - SHOWN} more` : '';
   throw new ConflictError(
     `${what} is the chosen cell of ${plans.length} plan${plans.length === 1 ? '' : 's'}: ${named}${more}. ` +

@@ -93,22 +93,14 @@ export function cellJson(c: Cell): CellJson {
 }
 
 function selectCells(db: Tx) {
-  return db('cells as c')
-    .join('operators as o', 'o.id', 'c.operator_id')
-    .select('c.*', 'o.name as operator_name', 'o.colour as operator_colour');
+  return db('cells as c').join('operators as o', 'o.id', 'c.operator_id').select('c.*', 'o.name as operator_name', 'o.colour as operator_colour');
 }
 
 /** A mast's cells by operator, technology, frequency and sector. */
 export async function listCellsForMast(db: Tx, mastId: string): Promise<Cell[]> {
   const rows: CellRow[] = await selectCells(db)
     .where('c.mast_id', mastId)
-    .orderBy([
-      { column: 'c.operator_id' },
-      { column: 'c.tech' },
-      { column: 'c.dl_mhz' },
-      { column: 'c.sector_azimuth_deg' },
-      { column: 'c.id' },
-    ]);
+    .orderBy([{ column: 'c.operator_id' }, { column: 'c.tech' }, { column: 'c.dl_mhz' }, { column: 'c.sector_azimuth_deg' }, { column: 'c.id' }]);
   return rows.map(toCell);
 }
 

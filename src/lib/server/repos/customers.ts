@@ -139,10 +139,7 @@ export async function listCustomers(db: Tx, query: CustomerListQuery): Promise<{
     created_at: 'c.created_at',
     updated_at: 'c.updated_at',
   };
-  const rows = await filtered(selectCustomers(db))
-    .orderByRaw(`${order[query.sort]} ${dir} NULLS LAST, c.id ${dir}`)
-    .limit(query.limit)
-    .offset(query.offset);
+  const rows = await filtered(selectCustomers(db)).orderByRaw(`${order[query.sort]} ${dir} NULLS LAST, c.id ${dir}`).limit(query.limit).offset(query.offset);
   return { items: rows.map(toCustomer), total: Number(count) };
 }
 
@@ -247,9 +244,7 @@ export async function listCustomerHistory(db: Tx, id: string): Promise<HistoryEn
     .where((w) =>
       w
         .where((c) => c.where('l.entity', 'customer').andWhere('l.entity_id', id))
-        .orWhere((p) =>
-          p.where('l.entity', 'plan').whereIn('l.entity_id', db('plans').where('customer_id', id).select(db.raw('id::text'))),
-        ),
+        .orWhere((p) => p.where('l.entity', 'plan').whereIn('l.entity_id', db('plans').where('customer_id', id).select(db.raw('id::text')))),
     )
     .orderBy('l.id', 'desc')
     .limit(500)

@@ -47,12 +47,28 @@ export async function syncInstallReadings(db: Tx, planId: string): Promise<numbe
     .leftJoin('cables as cb', 'cb.id', 'p.cable_id')
     .where('p.id', planId)
     .first(
-      'p.id', 'p.state', 'p.cell_id', 'cu.erased_at', 'p.cable_m', 'p.mount_height_m', 'a.gain_table as antenna_gain', 'cb.loss_table as cable_loss',
-      'cb.connector_loss_db', 'cb.connectors', db.raw('ST_Y(cu.geom) as lat'), db.raw('ST_X(cu.geom) as lon'),
+      'p.id',
+      'p.state',
+      'p.cell_id',
+      'cu.erased_at',
+      'p.cable_m',
+      'p.mount_height_m',
+      'a.gain_table as antenna_gain',
+      'cb.loss_table as cable_loss',
+      'cb.connector_loss_db',
+      'cb.connectors',
+      db.raw('ST_Y(cu.geom) as lat'),
+      db.raw('ST_X(cu.geom) as lon'),
     );
   // An erased customer's home is no longer known: their installs feed nothing back.
   if (!plan || plan.state !== 'verified' || plan.erased_at) return 0;
-  const check = await db('install_checks').where({ plan_id: planId, phase: 'after' }).orderBy([{ column: 'taken_at', order: 'desc' }, { column: 'id', order: 'desc' }]).first('id', 'taken_at');
+  const check = await db('install_checks')
+    .where({ plan_id: planId, phase: 'after' })
+    .orderBy([
+      { column: 'taken_at', order: 'desc' },
+      { column: 'id', order: 'desc' },
+    ])
+    .first('id', 'taken_at');
   if (!check) return 0;
   const readings = await db('install_check_readings').where({ check_id: check.id });
   const planCell = plan.cell_id ? await db('cells').where({ id: plan.cell_id }).first('id', 'tech', 'channel', 'pci', 'dl_mhz') : null;

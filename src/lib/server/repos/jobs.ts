@@ -69,9 +69,28 @@ export function jobJson(j: JobRecord): JobJson {
   };
 }
 
-const COLUMNS = ['id', 'queue', 'owner_id', 'title', 'state', 'progress', 'phase', 'counts', 'errors', 'error_count', 'message', 'attempts', 'created_at', 'started_at', 'finished_at'];
+const COLUMNS = [
+  'id',
+  'queue',
+  'owner_id',
+  'title',
+  'state',
+  'progress',
+  'phase',
+  'counts',
+  'errors',
+  'error_count',
+  'message',
+  'attempts',
+  'created_at',
+  'started_at',
+  'finished_at',
+];
 
-export async function createJobRecord(db: Tx, job: { id: string; queue: string; ownerId: string | null; title: string; counts?: Record<string, number> }): Promise<void> {
+export async function createJobRecord(
+  db: Tx,
+  job: { id: string; queue: string; ownerId: string | null; title: string; counts?: Record<string, number> },
+): Promise<void> {
   await db('jobs').insert({ id: job.id, queue: job.queue, owner_id: job.ownerId, title: job.title, counts: JSON.stringify(job.counts ?? {}) });
 }
 
@@ -84,7 +103,11 @@ export async function listJobs(db: Tx, opts: { limit: number; offset: number; ow
   const base = db('jobs');
   if (opts.ownerId) base.where({ owner_id: opts.ownerId });
   const [{ count }] = await base.clone().count<{ count: string }[]>('* as count');
-  const rows: JobRow[] = await base.select(COLUMNS).orderBy([{ column: 'created_at', order: 'desc' }, { column: 'id' }]).limit(opts.limit).offset(opts.offset);
+  const rows: JobRow[] = await base
+    .select(COLUMNS)
+    .orderBy([{ column: 'created_at', order: 'desc' }, { column: 'id' }])
+    .limit(opts.limit)
+    .offset(opts.offset);
   return { items: rows.map(toJob), total: Number(count) };
 }
 
@@ -104,7 +127,15 @@ export async function reportJobProgress(db: Tx, id: string, progress: number, ph
 export async function completeJobRecord(db: Tx, id: string, result: { counts: Record<string, number>; message: string }): Promise<void> {
   await db('jobs')
     .where({ id })
-    .update({ state: 'completed', progress: 100, phase: 'done', counts: JSON.stringify(result.counts), message: result.message, finished_at: db.fn.now(), heartbeat_at: null });
+    .update({
+      state: 'completed',
+      progress: 100,
+      phase: 'done',
+      counts: JSON.stringify(result.counts),
+      message: result.message,
+      finished_at: db.fn.now(),
+      heartbeat_at: null,
+    });
 }
 
 /** A failed attempt: `final` when the queue will not retry it (bad data, or retries used up). */
@@ -123,8 +154,5 @@ export async function failJobRecord(db: Tx, id: string, result: { message: strin
 
 /** Jobs a worker took but has not reported on for `staleSeconds` (its process died). */
 export async function listStalledJobs(db: Tx, staleSeconds: number): Promise<Array<{ id: string; queue: string }>> {
-  return db('jobs')
-    .select('id', 'queue')
-    .where({ state: 'active' })
-    .whereRaw('heartbeat_at < now() - make_interval(secs => ?)', [staleSeconds]);
+  return db('jobs').select('id', 'queue').where({ state: 'active' }).whereRaw('heartbeat_at < now() - make_interval(secs => ?)', [staleSeconds]);
 }

@@ -177,7 +177,11 @@ export function applyMastFilter(db: Tx, q: Knex.QueryBuilder, filter: MastFilter
       this.select(db.raw('1')).from('cells as fc').whereRaw('fc.mast_id = m.id');
       if (operatorIds?.length) this.whereIn('fc.operator_id', operatorIds);
       if (techs?.length) this.whereIn('fc.tech', techs);
-      if (bands?.length) this.whereIn(['fc.tech', 'fc.band'], bands.map((b) => [b.tech, b.band]));
+      if (bands?.length)
+        this.whereIn(
+          ['fc.tech', 'fc.band'],
+          bands.map((b) => [b.tech, b.band]),
+        );
     });
   }
   return q;
@@ -220,21 +224,19 @@ export async function listMasts(db: Tx, options: MastListOptions): Promise<{ ite
   q.orderBy('m.id');
   applyMastFilter(db, q, options);
   const [rows, operators] = await Promise.all([q, loadOperatorRefs(db)]);
-  const items = (rows as Array<Record<string, unknown>>).slice(0, options.limit).map(
-    (r): MastSummary => ({
-      id: String(r.id),
-      name: r.name as string,
-      reference: r.reference as string | null,
-      status: r.status as MastStatus,
-      structureType: r.structure_type as StructureType,
-      lat: r.lat as number,
-      lon: r.lon as number,
-      operators: (r.op_ids as string[]).map((id) => operators.get(String(id))).filter((o): o is OperatorRef => o !== undefined),
-      bands: r.bands as string[],
-      techs: r.techs as Tech[],
-      cellCount: Number(r.cell_count),
-    }),
-  );
+  const items = (rows as Array<Record<string, unknown>>).slice(0, options.limit).map((r): MastSummary => ({
+    id: String(r.id),
+    name: r.name as string,
+    reference: r.reference as string | null,
+    status: r.status as MastStatus,
+    structureType: r.structure_type as StructureType,
+    lat: r.lat as number,
+    lon: r.lon as number,
+    operators: (r.op_ids as string[]).map((id) => operators.get(String(id))).filter((o): o is OperatorRef => o !== undefined),
+    bands: r.bands as string[],
+    techs: r.techs as Tech[],
+    cellCount: Number(r.cell_count),
+  }));
   return { items, truncated: rows.length > options.limit };
 }
 
@@ -358,9 +360,18 @@ export async function updateMast(db: Tx, id: string, change: MastChange, actorId
  */
 export async function markMastConfirmed(db: Tx, id: string, sightingId: string, actorId: string): Promise<Mast> {
   const before = await findMastRow(db, id, true);
-  await db('masts').where({ id }).update({ row_version: db.raw('row_version + 1'), updated_at: db.fn.now(), updated_by: actorId });
+  await db('masts')
+    .where({ id })
+    .update({ row_version: db.raw('row_version + 1'), updated_at: db.fn.now(), updated_by: actorId });
   const after = await findMastRow(db, id);
-  await recordAudit(db, { userId: actorId, action: 'merge_sighting', entity: 'mast', entityId: id, before: auditView(before), after: { ...auditView(after), sighting_id: sightingId } });
+  await recordAudit(db, {
+    userId: actorId,
+    action: 'merge_sighting',
+    entity: 'mast',
+    entityId: id,
+    before: auditView(before),
+    after: { ...auditView(after), sighting_id: sightingId },
+  });
   return after;
 }
 

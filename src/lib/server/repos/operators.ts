@@ -54,10 +54,7 @@ export function operatorJson(o: Operator): OperatorJson {
 }
 
 function selectOperators(db: Tx) {
-  return db('operators as o').select(
-    'o.*',
-    db.raw('(SELECT count(*) FROM cells c WHERE c.operator_id = o.id) AS cell_count'),
-  );
+  return db('operators as o').select('o.*', db.raw('(SELECT count(*) FROM cells c WHERE c.operator_id = o.id) AS cell_count'));
 }
 
 export async function listOperators(db: Tx): Promise<Operator[]> {

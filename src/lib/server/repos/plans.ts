@@ -275,7 +275,13 @@ export async function listPlans(db: Tx, query: PlanListQuery): Promise<{ items: 
     return q;
   };
   const [{ count }] = await filtered(db('plans as p')).count<{ count: string }[]>('* as count');
-  const rows = await filtered(selectPlans(db)).orderBy([{ column: 'p.updated_at', order: 'desc' }, { column: 'p.id', order: 'desc' }]).limit(query.limit).offset(query.offset);
+  const rows = await filtered(selectPlans(db))
+    .orderBy([
+      { column: 'p.updated_at', order: 'desc' },
+      { column: 'p.id', order: 'desc' },
+    ])
+    .limit(query.limit)
+    .offset(query.offset);
   return { items: rows.map(toPlan), total: Number(count) };
 }
 
@@ -307,9 +313,7 @@ export async function listInstallChecks(db: Tx, planId: string): Promise<Install
     readings: readings
       .filter((r) => String(r.check_id) === String(c.id))
       .map((r) => ({ pci: r.pci, channel: r.channel, rsrpDbm: r.rsrp_dbm, rsrqDb: r.rsrq_db, sinrDb: r.sinr_db })),
-    speedTests: tests
-      .filter((t) => String(t.check_id) === String(c.id))
-      .map((t) => ({ downMbps: t.down_mbps, upMbps: t.up_mbps, latencyMs: t.latency_ms })),
+    speedTests: tests.filter((t) => String(t.check_id) === String(c.id)).map((t) => ({ downMbps: t.down_mbps, upMbps: t.up_mbps, latencyMs: t.latency_ms })),
   }));
 }
 
@@ -475,7 +479,14 @@ export async function updatePlan(db: Tx, id: string, change: PlanChange & { figu
   await db('plans').where({ id }).update(patch);
   await db('customers').where({ id: before.customerId }).update({ updated_at: db.fn.now() });
   const after = await findPlan(db, id);
-  await recordAudit(db, { userId: actorId, action: to !== before.state ? 'state' : 'update', entity: 'plan', entityId: id, before: auditView(before), after: auditView(after) });
+  await recordAudit(db, {
+    userId: actorId,
+    action: to !== before.state ? 'state' : 'update',
+    entity: 'plan',
+    entityId: id,
+    before: auditView(before),
+    after: auditView(after),
+  });
   return after;
 }
 
@@ -516,7 +527,13 @@ export async function addInstallCheck(db: Tx, planId: string, input: InstallChec
     action: 'check',
     entity: 'plan',
     entityId: planId,
-    after: { check_id: checkId, phase: check.phase, taken_at: check.takenAt.toISOString(), readings: check.readings.length, speed_tests: check.speedTests.length },
+    after: {
+      check_id: checkId,
+      phase: check.phase,
+      taken_at: check.takenAt.toISOString(),
+      readings: check.readings.length,
+      speed_tests: check.speedTests.length,
+    },
   });
   return check;
 }

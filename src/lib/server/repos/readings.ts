@@ -86,7 +86,10 @@ export async function listRecentReadingsForMast(db: Tx, mastId: string, limit: n
     .modify((q) => {
       if (!withInstallReadings) q.whereNull('r.install_check_id');
     })
-    .orderBy([{ column: 'r.taken_at', order: 'desc' }, { column: 'r.id', order: 'desc' }])
+    .orderBy([
+      { column: 'r.taken_at', order: 'desc' },
+      { column: 'r.id', order: 'desc' },
+    ])
     .limit(limit);
   return rows.map(toReading);
 }

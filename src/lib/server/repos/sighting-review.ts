@@ -79,7 +79,11 @@ export async function listDuplicateCandidates(db: Tx, sighting: Sighting, radius
 export async function listSubmitterRecords(db: Tx, authorIds: string[]): Promise<Map<string, SubmitterRecordJson>> {
   const out = new Map<string, SubmitterRecordJson>();
   if (authorIds.length === 0) return out;
-  const rows = (await db('sightings').whereIn('author_id', [...new Set(authorIds)]).groupBy('author_id', 'status').select('author_id', 'status').count('* as n')) as Array<{
+  const rows = (await db('sightings')
+    .whereIn('author_id', [...new Set(authorIds)])
+    .groupBy('author_id', 'status')
+    .select('author_id', 'status')
+    .count('* as n')) as Array<{
     author_id: string;
     status: SightingStatus;
     n: string;
@@ -95,7 +99,10 @@ export async function listSubmitterRecords(db: Tx, authorIds: string[]): Promise
 /** Pending sightings, oldest first, each with its possible duplicates and its submitter's record. */
 export async function listReviewQueue(db: Tx, page: { limit: number; offset: number }): Promise<{ items: ReviewItemJson[]; total: number }> {
   const { items, total } = await listSightings(db, { status: 'pending', oldestFirst: true, limit: page.limit, offset: page.offset });
-  const records = await listSubmitterRecords(db, items.map((s) => s.author.id));
+  const records = await listSubmitterRecords(
+    db,
+    items.map((s) => s.author.id),
+  );
   const out = await Promise.all(
     items.map(async (s) => ({
       sighting: sightingJson(s, { withOriginals: true }),
@@ -160,7 +167,10 @@ export async function decideSighting(trx: Tx, id: string, input: DecisionInput, 
       }),
       actorId,
     );
-    const { added } = splitForMerge(before.cells.map((c) => ({ ...identity(c), cell: c })), []);
+    const { added } = splitForMerge(
+      before.cells.map((c) => ({ ...identity(c), cell: c })),
+      [],
+    );
     for (const c of added) addedCells.push(await createCell(trx, mast.id, cellInput(c.cell, before.observedAt), actorId));
   } else if (input.decision === 'merge') {
     const target = await trx('masts').where({ id: input.mastId }).forUpdate().first('id');

@@ -204,9 +204,7 @@ async function withDetails(db: Tx, rows: SightingRow[]): Promise<Sighting[]> {
       positionAccuracyM: r.position_accuracy_m,
       structureType: r.structure_type,
       estimatedHeightM: r.estimated_height_m,
-      operators: operatorRows
-        .filter((o) => String(o.sighting_id) === id)
-        .map((o) => ({ id: String(o.id), name: o.name, colour: o.colour })),
+      operators: operatorRows.filter((o) => String(o.sighting_id) === id).map((o) => ({ id: String(o.id), name: o.name, colour: o.colour })),
       cells: cellRows
         .filter((c) => String(c.sighting_id) === id)
         .map((c) => ({
@@ -370,12 +368,28 @@ export async function listPendingSightingFeatures(db: Tx, viewer: PendingViewer,
   const q = db('sightings as s')
     .join('users as a', 'a.id', 's.author_id')
     .where('s.status', 'pending')
-    .select('s.id', 's.structure_type', 's.author_id', 's.observed_at', 'a.name as author_name', db.raw('ST_Y(s.geom::geometry) AS lat'), db.raw('ST_X(s.geom::geometry) AS lon'))
+    .select(
+      's.id',
+      's.structure_type',
+      's.author_id',
+      's.observed_at',
+      'a.name as author_name',
+      db.raw('ST_Y(s.geom::geometry) AS lat'),
+      db.raw('ST_X(s.geom::geometry) AS lon'),
+    )
     .orderBy('s.id')
     .limit(limit);
   if (!viewer.seesAll) q.where('s.author_id', viewer.userId);
   if (bbox) q.whereRaw('s.geom::geometry && ST_MakeEnvelope(?, ?, ?, ?, 4326)', [bbox.minLon, bbox.minLat, bbox.maxLon, bbox.maxLat]);
-  const rows = (await q) as Array<{ id: string; structure_type: SightingStructureType; author_id: string; observed_at: Date; author_name: string; lat: number; lon: number }>;
+  const rows = (await q) as Array<{
+    id: string;
+    structure_type: SightingStructureType;
+    author_id: string;
+    observed_at: Date;
+    author_name: string;
+    lat: number;
+    lon: number;
+  }>;
   return {
     type: 'FeatureCollection',
     features: rows.map((r) => ({
@@ -428,8 +442,7 @@ export async function findSurveyStartPoint(db: Tx, authorId: string): Promise<{ 
     .first(db.raw('ST_Y(geom::geometry) AS lat'), db.raw('ST_X(geom::geometry) AS lon'))) as { lat: number; lon: number } | undefined;
   if (last) return last;
   const centre = (await db('masts').first(db.raw('ST_Y(ST_Centroid(ST_Collect(geom))) AS lat'), db.raw('ST_X(ST_Centroid(ST_Collect(geom))) AS lon'))) as
-    | { lat: number | null; lon: number | null }
-    | undefined;
+    { lat: number | null; lon: number | null } | undefined;
   return centre?.lat != null && centre.lon != null ? { lat: centre.lat, lon: centre.lon } : { lat: 0, lon: 0 };
 }
 

@@ -6,7 +6,11 @@ import { AppError } from '../../../lib/server/errors';
 export const POST = handler(async ({ locals, request, redirect }) => {
   const user = requirePermission(locals, 'mail:view');
   try {
-    await sendMail({ to: user.email, subject: 'Bearline test message', text: `This is a test message from Bearline, sent by ${user.name}. Mail delivery works.` });
+    await sendMail({
+      to: user.email,
+      subject: 'Bearline test message',
+      text: `This is a test message from Bearline, sent by ${user.name}. Mail delivery works.`,
+    });
   } catch (err) {
     console.error('[bearline] test mail failed', err instanceof Error ? err.message : err);
     throw new AppError('SERVICE_UNAVAILABLE', 'The mail server did not accept the message. Check SMTP_URL.');
