@@ -4,14 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createServer, type Server, type Socket } from 'node:net';
 import type { ChildProcess } from 'node:child_process';
 import { startServer, waitForHttp } from '../../scripts/lib/server-process';
-
-async function freePort(): Promise<number> {
-  const probe = createServer();
-  await new Promise<void>((resolve) => probe.listen(0, '127.0.0.1', resolve));
-  const port = (probe.address() as { port: number }).port;
-  await new Promise((resolve) => probe.close(resolve));
-  return port;
-}
+import { freePort } from '../helpers/free-port';
 
 const FAKE_COOKIE = 'bearline_session=abcdefghijklmnopqrstuvwxyz234567';
 
