@@ -85,8 +85,14 @@ describe('demo map seed', () => {
     const t = tileOf(centre.lat, centre.lon, 8);
     const basemap = new VectorTile(new Pbf(await getBasemapTile(db, t)));
     expect(Object.keys(basemap.layers).sort()).toEqual(['land', 'landuse', 'places', 'roads', 'water']);
-    const masts = new VectorTile(new Pbf(await getMastsTile(db, t, {}))).layers.masts!;
-    expect(masts.length).toBe(scenario.masts.length);
+    // Below the clustering zoom a square's masts share one feature; together they count every mast.
+    const low = new VectorTile(new Pbf(await getMastsTile(db, t, {}))).layers;
+    const singles = low.masts?.length ?? 0;
+    let clustered = 0;
+    for (let i = 0; i < (low.mast_clusters?.length ?? 0); i++) clustered += Number(low.mast_clusters!.feature(i).properties.point_count);
+    expect(singles + clustered).toBe(scenario.masts.length);
+    const masts = new VectorTile(new Pbf(await getMastsTile(db, tileOf(centre.lat, centre.lon, 12), {}))).layers.masts!;
+    expect(masts.length).toBeGreaterThan(0);
     const sample = masts.feature(0).properties;
     expect(Object.keys(sample).sort()).toEqual(['bands', 'cell_count', 'id', 'name', 'op_count', 'op_ids', 'status', 'structure_type', 'techs']);
   });
