@@ -244,7 +244,7 @@ describe('mast map', () => {
   it('shows the mast panel as a bottom sheet on a phone, leaving the map usable', async () => {
     const { context, page, outside } = await openMap('surveyor', { width: 390, height: 844 });
     try {
-      const [mast] = (await renderedMasts(page)).filter((m) => m.y > 120 && m.y < 400);
+      const [mast] = (await renderedMasts(page)).filter((m) => m.y > 120 && m.y < 560);
       expect(mast).toBeTruthy();
       await page.mouse.click(mast.x, mast.y);
       const panel = page.getByTestId('mast-panel');

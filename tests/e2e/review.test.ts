@@ -169,7 +169,7 @@ describe('accounts by e-mail in the browser', () => {
     await page.goto(link);
     await page.fill('#sp-password', 'short');
     await page.getByRole('button', { name: 'Save the new password' }).click();
-    await expect(page.locator('#sp-password-error').innerText()).resolves.toMatch(/At least 10 characters/);
+    await expect(page.locator('#sp-password-error').innerText()).resolves.toMatch(/At least 12 characters/);
     await page.fill('#sp-password', 'the second long password');
     await page.getByRole('button', { name: 'Save the new password' }).click();
     await page.waitForURL(`${APP_URL}/`);
