@@ -92,8 +92,11 @@ describe('planner defects', () => {
     const before = await page.locator('[data-testid=plan-position]').innerText();
     await search(page, 'Mill Farm');
     await page.waitForFunction((b) => document.querySelector('[data-testid=plan-position]')?.textContent !== b, before);
+    // The new shortlist arrives after the position: wait for its first row to hold the pick.
+    await page.waitForFunction(() => document.querySelector('table tbody tr button')?.getAttribute('aria-pressed') === 'true', undefined, {
+      timeout: 20_000,
+    });
     await page.waitForFunction(() => document.querySelector('[aria-busy=true]') === null);
-    await expect(page.locator('table tbody tr').first().locator('button').first().getAttribute('aria-pressed')).resolves.toBe('true');
     expect(await heading(page)).toContain(await firstMast(page));
     expect(await heading(page)).not.toBe('');
     expect(picked).not.toBe('');
