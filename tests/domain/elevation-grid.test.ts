@@ -10,6 +10,7 @@ import {
   getGridSpacingMetres,
   getGridStats,
   getProfileCoverage,
+  getPathBoxes,
   getSamplePosition,
   parseHgt,
   parseHgtName,
@@ -291,6 +292,46 @@ describe('sampleElevationProfile', () => {
     expect(p.points).toHaveLength(Math.ceil(getDistanceM(from, to) / DEFAULT_PROFILE_STEP_M) + 1);
     expect(p.coverage).toMatchObject({ fraction: 0, complete: false, firstMissingDistanceM: 0, coveredCount: 0 });
     expect(p.gridIds).toEqual([]);
+  });
+
+  it('takes heights from the grids on both sides of the antimeridian', () => {
+    // Two flat 0.2° grids that meet at ±180° (data spanning the antimeridian is imported as two
+    // grids), and a far-away finer grid on the same latitudes that the path must not consider.
+    const flat = (id: string, west: number, height: number): ElevationGrid => ({
+      id,
+      west,
+      south: -0.1,
+      east: west + 0.2,
+      north: 0.1,
+      width: 3,
+      height: 3,
+      registration: 'point',
+      nodata: null,
+      values: new Float32Array(9).fill(height),
+    });
+    const east = flat('east', 179.8, 40);
+    const west = flat('west', -180, 60);
+    const farFine: ElevationGrid = { ...slope, id: 'far', south: -0.05, north: 0.05, west: 0, east: 0.1 };
+    const p = sampleElevationProfile([farFine, east, west], { lat: 0, lon: 179.9 }, { lat: 0, lon: -179.9 });
+    expect(p.coverage.complete).toBe(true);
+    expect(p.points[0]!.groundM).toBeCloseTo(40, 6);
+    expect(p.points.at(-1)!.groundM).toBeCloseTo(60, 6);
+    expect(new Set(p.gridIds)).toEqual(new Set(['east', 'west']));
+    // The step follows the two grids' 0.1° spacing, not the far grid's 0.001°.
+    expect(p.gridSpacingM).toBeCloseTo(getGridSpacingM(east), 6);
+  });
+
+  it('splits the path box at the antimeridian and keeps one box otherwise', () => {
+    const across = getPathBoxes({ lat: 10, lon: 179.5 }, { lat: 11, lon: -179.5 });
+    expect(across).toHaveLength(2);
+    expect(across[0]).toMatchObject({ east: 180 });
+    expect(across[0]!.west).toBeCloseTo(179.5, 9);
+    expect(across[1]).toMatchObject({ west: -180 });
+    expect(across[1]!.east).toBeCloseTo(-179.5, 9);
+    const plain = getPathBoxes({ lat: 10, lon: 20 }, { lat: 11, lon: 21 });
+    expect(plain).toHaveLength(1);
+    expect(plain[0]!.west).toBeCloseTo(20, 9);
+    expect(plain[0]!.east).toBeCloseTo(21, 9);
   });
 
   it('handles a zero-length path', () => {

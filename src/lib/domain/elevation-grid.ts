@@ -115,7 +115,7 @@ export function assertValidGrid(grid: ElevationGrid): void {
   if (south < -90 - EDGE_TOLERANCE_DEG || north > 90 + EDGE_TOLERANCE_DEG) {
     throw new ElevationDataError('The grid reaches beyond ±90° latitude: are the coordinates in degrees (EPSG:4326)?');
   }
-  // TODO: grids that cross the antimeridian would need splitting; they are refused for now.
+  // A grid is one west < east box; data that spans the antimeridian is imported as two grids.
   if (west < -180 - EDGE_TOLERANCE_DEG || east > 180 + EDGE_TOLERANCE_DEG) {
     throw new ElevationDataError('The grid reaches beyond ±180° longitude: split it at the antimeridian');
   }
@@ -223,12 +223,25 @@ interface Box {
   north: number;
 }
 
-/** The path's latitude/longitude box, from points along the great circle (it may bow past the ends). */
-function getPathBox(from: LatLon, to: LatLon): Box {
+/**
+ * The path's latitude/longitude boxes, from points along the great circle (it may bow past the
+ * ends): one box, or two when the path crosses the antimeridian (one each side of ±180°).
+ */
+export function getPathBoxes(from: LatLon, to: LatLon): Box[] {
   const pts = interpolatePointsAlong(from, to, 33);
-  const lats = pts.map((p) => p.lat);
-  const lons = pts.map((p) => p.lon);
-  return { west: Math.min(...lons), south: Math.min(...lats), east: Math.max(...lons), north: Math.max(...lats) };
+  const south = Math.min(...pts.map((p) => p.lat));
+  const north = Math.max(...pts.map((p) => p.lat));
+  const crosses = pts.some((p, i) => i > 0 && Math.abs(p.lon - pts[i - 1]!.lon) > 180);
+  if (!crosses) {
+    const lons = pts.map((p) => p.lon);
+    return [{ west: Math.min(...lons), south, east: Math.max(...lons), north }];
+  }
+  const eastern = pts.filter((p) => p.lon >= 0).map((p) => p.lon);
+  const western = pts.filter((p) => p.lon < 0).map((p) => p.lon);
+  return [
+    { west: Math.min(...eastern), south, east: 180, north },
+    { west: -180, south, east: Math.max(...western), north },
+  ];
 }
 
 function isBoxOverlapping(a: Box, b: Box): boolean {
@@ -239,16 +252,15 @@ function isBoxOverlapping(a: Box, b: Box): boolean {
  * Ground heights along the great circle from `from` to `to`, sampled at the spacing of the finest
  * grid the path touches (so no detail of the data is skipped), both ends included. Each sample takes
  * its height from the finest grid that has data there, falling back to coarser ones. The coverage
- * tells callers how much of the path has data and where it is missing.
- *
- * TODO: paths crossing the antimeridian are not matched against grids on the far side.
+ * tells callers how much of the path has data and where it is missing. A path across the
+ * antimeridian takes heights from the grids on both sides.
  */
 export function sampleElevationProfile(grids: readonly ElevationGrid[], from: LatLon, to: LatLon, options: ProfileOptions = {}): ElevationProfile {
   const maxSamples = Math.max(2, Math.floor(options.maxSamples ?? DEFAULT_MAX_PROFILE_SAMPLES));
   const distanceM = getDistanceM(from, to);
-  const box = getPathBox(from, to);
+  const boxes = getPathBoxes(from, to);
   const touching = grids
-    .filter((g) => isBoxOverlapping(g, box))
+    .filter((g) => boxes.some((box) => isBoxOverlapping(g, box)))
     .map((grid) => ({ grid, spacingM: getGridSpacingM(grid) }))
     .sort((a, b) => a.spacingM - b.spacingM);
   const gridSpacingM = touching[0]?.spacingM ?? null;
