@@ -254,6 +254,31 @@ describe('analysePathProfile', () => {
     expect(deygout.diffractionLossDb).toBeGreaterThan(single.diffractionLossDb);
   });
 
+  // ITU-R P.526-15 §4.5.1 Bullington construction (from memory, verify the clause) on the same two hills,
+  // worked by hand: tangent slopes from tx 10/3000, from rx 5/3000 → they meet at d1 = (5/3000·10000)/(15/3000)
+  // = 3333.3 m, 10/3000·3333.3 = 11.11 m above the level ray.
+  it('puts one equivalent edge where the steepest tangents from both ends meet with the Bullington method', () => {
+    const samples = flatProfile(10_000, 1000, { 3000: { groundM: 20 }, 7000: { groundM: 15 } });
+    const input = { samples, txHeightM: 10, rxHeightM: 10, freqMhz: 300, k: Number.POSITIVE_INFINITY };
+    const bullington = analysePathProfile({ ...input, diffractionMethod: 'bullington' });
+    const nu = getDiffractionParameter(100 / 9, 10_000 / 3, 20_000 / 3, 300);
+    expect(bullington.edges).toHaveLength(1);
+    expect(bullington.edges[0]!.distanceM).toBeCloseTo(10_000 / 3, 6);
+    expect(bullington.edges[0]!.index).toBe(3);
+    expect(bullington.edges[0]!.nu).toBeCloseTo(nu, 9);
+    expect(bullington.diffractionLossDb).toBeCloseTo(getKnifeEdgeLossDb(nu), 9);
+    // One obstacle: the tangents meet on it, so the equivalent edge is that knife edge.
+    const one = flatProfile(10_000, 1000, { 3000: { groundM: 20 } });
+    const single = analysePathProfile({ ...input, samples: one });
+    const oneEdge = analysePathProfile({ ...input, samples: one, diffractionMethod: 'bullington' });
+    expect(oneEdge.diffractionLossDb).toBeCloseTo(single.diffractionLossDb, 9);
+    expect(oneEdge.edges[0]!.distanceM).toBeCloseTo(3000, 9);
+    // Below the ray: the interior point with the largest ν, as for a single knife edge.
+    const clear = analysePathProfile({ ...input, txHeightM: 40, rxHeightM: 40, diffractionMethod: 'bullington' });
+    const clearSingle = analysePathProfile({ ...input, txHeightM: 40, rxHeightM: 40 });
+    expect(clear.diffractionLossDb).toBeCloseTo(clearSingle.diffractionLossDb, 9);
+  });
+
   it('handles a profile with only the two antenna sites', () => {
     const result = analysePathProfile({
       samples: [

@@ -112,8 +112,11 @@ export interface PathProfileInput {
   rxHeightM: number;
   freqMhz: number;
   k?: number;
-  /** 'single': one knife edge on the worst obstacle; 'deygout': main edge plus the worst edge each side. */
-  diffractionMethod?: 'single' | 'deygout';
+  /**
+   * 'single': one knife edge on the worst obstacle; 'bullington': one equivalent edge where the
+   * steepest tangents from both ends meet; 'deygout': main edge plus the worst edge each side.
+   */
+  diffractionMethod?: DiffractionMethod;
 }
 
 export interface AnalysedSample {
@@ -130,6 +133,8 @@ export interface AnalysedSample {
   clearanceRatio: number | null;
 }
 
+export type DiffractionMethod = 'single' | 'bullington' | 'deygout';
+
 export interface DiffractionEdge {
   index: number;
   distanceM: number;
@@ -144,7 +149,7 @@ export interface PathProfileAnalysis {
   samples: AnalysedSample[];
   /** The interior sample with the smallest clearance/r1, or null without interior samples. */
   worst: (DiffractionEdge & { clearanceM: number; clearanceRatio: number }) | null;
-  diffractionMethod: 'single' | 'deygout';
+  diffractionMethod: DiffractionMethod;
   diffractionLossDb: number;
   edges: DiffractionEdge[];
   classification: PathClassification;
@@ -196,7 +201,14 @@ export function analysePathProfile(input: PathProfileInput): PathProfileAnalysis
 
   const heights = obstacleM.map((h, i) => (i === 0 ? txM : i === samples.length - 1 ? rxM : h));
   const distances = samples.map((s) => s.distanceM);
-  const edges = method === 'deygout' ? findDeygoutEdges(distances, heights, 0, samples.length - 1, freqMhz, 0) : worst ? [pickEdge(worst)] : [];
+  const edges =
+    method === 'deygout'
+      ? findDeygoutEdges(distances, heights, 0, samples.length - 1, freqMhz, 0)
+      : method === 'bullington'
+        ? findBullingtonEdge(distances, heights, freqMhz)
+        : worst
+          ? [pickEdge(worst)]
+          : [];
 
   return {
     totalDistanceM: totalM,
@@ -241,10 +253,48 @@ function classifyPath(samples: AnalysedSample[]): PathClassification {
 }
 
 /**
+ * Bullington construction (ITU-R P.526-15 §4.5.1, the Bullington part of the method for a general
+ * terrestrial path — from memory, verify the clause): when some obstacle rises above the ray, one
+ * equivalent knife edge stands where the steepest tangent from each end meets the other; otherwise the
+ * edge is the interior point with the largest ν. Heights already include the earth bulge. One obstacle
+ * gives exactly its own knife edge, and raising any obstacle can only steepen a tangent and so never
+ * lowers the loss (unlike the Deygout sum below).
+ */
+function findBullingtonEdge(distances: number[], heights: number[], freqMhz: number): DiffractionEdge[] {
+  const last = distances.length - 1;
+  if (last < 2) return [];
+  const totalM = distances[last]!;
+  const txM = heights[0]!;
+  const rxM = heights[last]!;
+  let txSlope = -Infinity;
+  let rxSlope = -Infinity;
+  let losEdge: DiffractionEdge | null = null;
+  for (let i = 1; i < last; i++) {
+    const d1 = distances[i]!;
+    const d2 = totalM - d1;
+    txSlope = Math.max(txSlope, (heights[i]! - txM) / d1);
+    rxSlope = Math.max(rxSlope, (heights[i]! - rxM) / d2);
+    const nu = getDiffractionParameter(heights[i]! - (txM + ((rxM - txM) * d1) / totalM), d1, d2, freqMhz);
+    if (!losEdge || nu > losEdge.nu) losEdge = { index: i, distanceM: d1, nu, lossDb: getKnifeEdgeLossDb(nu) };
+  }
+  const raySlope = (rxM - txM) / totalM;
+  let edge = losEdge!;
+  if (txSlope >= raySlope && txSlope + rxSlope > 0) {
+    const d1 = (rxM - txM + rxSlope * totalM) / (txSlope + rxSlope);
+    const heightAboveRayM = txM + txSlope * d1 - (txM + raySlope * d1);
+    const nu = getDiffractionParameter(heightAboveRayM, d1, totalM - d1, freqMhz);
+    const index = distances.reduce((best, d, i) => (Math.abs(d - d1) < Math.abs(distances[best]! - d1) ? i : best), 1);
+    edge = { index, distanceM: d1, nu, lossDb: getKnifeEdgeLossDb(nu) };
+  }
+  return edge.lossDb === 0 ? [] : [edge];
+}
+
+/**
  * Deygout construction: the edge with the largest ν over the whole path, then recursively the largest ν on
  * each sub-path between the antenna and that edge, here to one level (at most three edges, as ITU-R P.526
  * applies it — from memory, verify). Without P.526's empirical correction, so it can over-estimate for
- * closely spaced edges.
+ * closely spaced edges. The sum is not monotone: raising a main edge lowers the rays of its sub-paths,
+ * so their edges can lose more than the main edge gains (the Bullington construction has no such step).
  */
 function findDeygoutEdges(distances: number[], heights: number[], from: number, to: number, freqMhz: number, depth: number): DiffractionEdge[] {
   let best: DiffractionEdge | null = null;
