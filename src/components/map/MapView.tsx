@@ -1,29 +1,17 @@
 import 'maplibre-gl/dist/maplibre-gl.css';
-import { useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState } from 'react';
-import Map, {
-  Layer,
-  NavigationControl,
-  Popup,
-  ScaleControl,
-  Source,
-  useMap,
-  type MapLayerMouseEvent,
-  type MapRef,
-  type ViewState,
-} from 'react-map-gl/maplibre';
-import type { Map as MaplibreMap, StyleSpecification } from 'maplibre-gl';
-import type { FeatureCollection } from 'geojson';
-import { ApiError, mapApi, mastsApi, operatorsApi, regionsApi, type RegionJson, type SearchHitJson } from '../../lib/client/api';
+import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import Map, { Layer, NavigationControl, ScaleControl, Source, type MapLayerMouseEvent, type MapRef } from 'react-map-gl/maplibre';
+import type { Map as MaplibreMap } from 'maplibre-gl';
+import { mastsApi, type SearchHitJson } from '../../lib/client/api';
+import { saveView } from '../../lib/client/map-view-state';
 import { sightingsApi } from '../../lib/client/sightings-api';
-import { SIGHTING_STRUCTURE_LABELS, type PendingSightingCollectionJson } from '../../lib/schemas/sightings';
-import { loadLabelFonts } from './label-fonts';
+import type { PendingSightingCollectionJson } from '../../lib/schemas/sightings';
 import {
   MAST_CLUSTER_COUNT_LAYER,
   MAST_CLUSTER_LAYER,
   MAST_CLUSTER_LAYER_ID,
   MAST_LABEL_LAYER,
   MAST_SOURCE_ID,
-  MAST_SOURCE_LAYER,
   MAST_SYMBOL_LAYER,
   MAST_SYMBOL_LAYER_ID,
   NO_MAST_FILTER,
@@ -39,120 +27,28 @@ import {
   selectedMastLayer,
   type MastFilterState,
 } from './layers';
-import { MAST_ICON_PIXEL_RATIO, isMastIconId, mastIconImage, type OperatorMark } from './mast-icons';
+import { regionFeatures, sortBands } from './map-data';
+import { isUnderPanel, panelOffset as panelOffsetFor } from './panel-offset';
+import { useFrameTop } from './use-frame-top';
+import { useIsPhone } from './use-is-phone';
+import { useMapSetup } from './use-map-setup';
+import { useSeenBands } from './use-seen-bands';
 import MapFilters from './MapFilters';
 import MapLegend from './MapLegend';
 import MapSearch from './MapSearch';
+import MastImages from './MastImages';
 import MastPanel from './MastPanel';
+import PendingPopup, { type PendingSightingFeature } from './PendingPopup';
 
 interface Props {
   canEditMasts: boolean;
 }
-
-type InitialView = Partial<ViewState> & { bounds?: [number, number, number, number] };
 
 declare global {
   interface Window {
     /** The map instance, for browser tests and the console. */
     bearlineMap?: MaplibreMap;
   }
-}
-
-const VIEW_KEY = 'bearline.map.view';
-const WORLD_VIEW: InitialView = { longitude: 0, latitude: 20, zoom: 1.5 };
-
-/** Tile URLs made absolute on this page's origin (MapLibre's worker cannot resolve relative ones). */
-function rebaseStyle(style: StyleSpecification, origin: string): StyleSpecification {
-  const rebase = (t: string) => {
-    const u = new URL(t, origin);
-    return origin + decodeURI(u.pathname) + u.search;
-  };
-  const sources = Object.fromEntries(Object.entries(style.sources).map(([id, s]) => [id, 'tiles' in s && s.tiles ? { ...s, tiles: s.tiles.map(rebase) } : s]));
-  return { ...style, sources };
-}
-
-function readSavedView(): InitialView | null {
-  try {
-    const v = JSON.parse(localStorage.getItem(VIEW_KEY) ?? 'null');
-    if (v && [v.longitude, v.latitude, v.zoom].every(Number.isFinite)) return { longitude: v.longitude, latitude: v.latitude, zoom: v.zoom };
-  } catch {
-    // A broken saved view is simply ignored.
-  }
-  return null;
-}
-
-function boundsOf(regions: readonly RegionJson[]): [number, number, number, number] | null {
-  let box: [number, number, number, number] | null = null;
-  for (const {
-    bbox: [w, s, e, n],
-  } of regions)
-    box = box ? [Math.min(box[0], w), Math.min(box[1], s), Math.max(box[2], e), Math.max(box[3], n)] : [w, s, e, n];
-  return box;
-}
-
-/** Region outlines are drawn simplified to a pixel at this zoom (about 15 m): finer than the map
- * shows them at a region's scale, and a few kilobytes however detailed the imported outline. */
-const REGION_OUTLINE_ZOOM = 10;
-
-/** A region asked for in the address (?region=ID), else the saved view, else all regions, else the world. */
-function chooseInitialView(regions: readonly RegionJson[], regionId: string | null): InitialView {
-  const asked = regionId ? boundsOf(regions.filter((r) => r.id === regionId)) : null;
-  if (asked) return { bounds: asked };
-  const saved = readSavedView();
-  if (saved) return saved;
-  const all = boundsOf(regions);
-  return all ? { bounds: all } : WORLD_VIEW;
-}
-
-function regionFeatures(regions: readonly RegionJson[]): FeatureCollection {
-  return {
-    type: 'FeatureCollection',
-    features: regions.map((r) => ({ type: 'Feature', id: Number(r.id), geometry: r.geometry, properties: { id: r.id, name: r.name } })),
-  };
-}
-
-/** Supplies mast marks to MapLibre as their image ids are first needed. */
-function MastImages({ operators }: { operators: readonly OperatorMark[] }) {
-  const { current } = useMap();
-  useEffect(() => {
-    const map = current?.getMap();
-    if (!map) return;
-    const onMissing = (e: { id: string }) => {
-      if (map.hasImage(e.id)) return;
-      const image = mastIconImage(e.id, operators);
-      if (image) map.addImage(e.id, image, { pixelRatio: MAST_ICON_PIXEL_RATIO });
-    };
-    // Colours may have changed since the marks were drawn.
-    for (const id of map.listImages()) {
-      if (!isMastIconId(id)) continue;
-      const image = mastIconImage(id, operators);
-      if (image) map.updateImage(id, image);
-    }
-    map.on('styleimagemissing', onMissing);
-    return () => {
-      map.off('styleimagemissing', onMissing);
-    };
-  }, [current, operators]);
-  return null;
-}
-
-function sortBands(bands: Iterable<string>): string[] {
-  const key = (b: string) => {
-    const m = /^([A-Za-z]*)(\d+)(.*)$/.exec(b);
-    return m ? `${m[1].toLowerCase() === 'n' ? '1' : m[1] ? '0' : '2'}${m[2].padStart(5, '0')}${m[3]}` : `3${b}`;
-  };
-  return [...bands].sort((a, b) => key(a).localeCompare(key(b)));
-}
-
-function useIsPhone(): boolean {
-  const [phone, setPhone] = useState(() => typeof window !== 'undefined' && window.matchMedia('(max-width: 639px)').matches);
-  useEffect(() => {
-    const mq = window.matchMedia('(max-width: 639px)');
-    const on = () => setPhone(mq.matches);
-    mq.addEventListener('change', on);
-    return () => mq.removeEventListener('change', on);
-  }, []);
-  return phone;
 }
 
 export default function MapView({ canEditMasts }: Props) {
@@ -162,45 +58,17 @@ export default function MapView({ canEditMasts }: Props) {
     if (ref) window.bearlineMap = ref.getMap();
   }, []);
   const frameRef = useRef<HTMLDivElement>(null);
-  const [top, setTop] = useState(64);
-  const [style, setStyle] = useState<StyleSpecification | null>(null);
-  const [operators, setOperators] = useState<OperatorMark[] | null>(null);
-  const [initialView, setInitialView] = useState<InitialView | null>(null);
-  const [regions, setRegions] = useState<RegionJson[]>([]);
-  const [loadError, setLoadError] = useState<string | null>(null);
+  const top = useFrameTop(frameRef);
+  const { style, operators, regions, initialView, loadError } = useMapSetup();
+  const { bands, collect: collectBands } = useSeenBands(mapRef);
   const [filters, setFilters] = useState<MastFilterState>(NO_MAST_FILTER);
-  const [bands, setBands] = useState<string[]>([]);
   const [selectedId, setSelectedId] = useState<string | null>(null);
   const [hovering, setHovering] = useState(false);
   const [pending, setPending] = useState<PendingSightingCollectionJson>({ type: 'FeatureCollection', features: [] });
-  const [pendingPick, setPendingPick] = useState<PendingSightingCollectionJson['features'][number] | null>(null);
+  const [pendingPick, setPendingPick] = useState<PendingSightingFeature | null>(null);
   const isPhone = useIsPhone();
   const [filtersOpen, setFiltersOpen] = useState(false);
   const origin = typeof window !== 'undefined' ? window.location.origin : '';
-
-  // The map fills the window below the app header, whatever height it wraps to.
-  useLayoutEffect(() => {
-    const measure = () => frameRef.current && setTop(Math.max(0, frameRef.current.getBoundingClientRect().top + window.scrollY));
-    measure();
-    window.addEventListener('resize', measure);
-    return () => window.removeEventListener('resize', measure);
-  }, []);
-
-  useEffect(() => {
-    const regionList = regionsApi.list(REGION_OUTLINE_ZOOM).then(
-      (r) => r.items,
-      () => [] as RegionJson[],
-    );
-    Promise.all([loadLabelFonts(), mapApi.style<StyleSpecification>(), operatorsApi.list(), regionList]).then(
-      ([, s, ops, regionItems]) => {
-        setStyle(rebaseStyle(s, window.location.origin));
-        setOperators(ops.items.map((o) => ({ id: String(o.id), name: o.name, colour: o.colour })));
-        setRegions(regionItems);
-        setInitialView(chooseInitialView(regionItems, new URLSearchParams(window.location.search).get('region')));
-      },
-      (e: unknown) => setLoadError(e instanceof ApiError ? e.message : 'The map could not be loaded'),
-    );
-  }, []);
 
   useEffect(() => {
     sightingsApi.pending().then(setPending, () => undefined);
@@ -218,25 +86,10 @@ export default function MapView({ canEditMasts }: Props) {
   const selectedLayer = useMemo(() => selectedMastLayer(selectedId), [selectedId]);
   const regionData = useMemo(() => regionFeatures(regions), [regions]);
 
-  const collectBands = useCallback(() => {
-    const map = mapRef.current?.getMap();
-    if (!map || !map.getSource(MAST_SOURCE_ID)) return;
-    const seen = new Set<string>();
-    for (const f of map.querySourceFeatures(MAST_SOURCE_ID, { sourceLayer: MAST_SOURCE_LAYER })) {
-      for (const b of String(f.properties?.bands ?? '').split(',')) if (b.trim()) seen.add(b.trim());
-    }
-    setBands((prev) => {
-      const next = new Set([...prev, ...seen]);
-      return next.size === prev.length ? prev : sortBands(next);
-    });
-  }, []);
-
   /** Where a point must sit so that the mast panel (side panel or bottom sheet) does not cover it. */
   const panelOffset = useCallback((): [number, number] => {
     const rect = frameRef.current?.getBoundingClientRect();
-    if (!rect) return [0, 0];
-    if (isPhone) return [0, -Math.round(rect.height * 0.29)];
-    return [-Math.round((window.innerWidth >= 1024 ? 512 : 448) / 2), 0];
+    return panelOffsetFor(rect ?? null, isPhone, window.innerWidth);
   }, [isPhone]);
 
   const onLoad = useCallback(() => {
@@ -253,11 +106,7 @@ export default function MapView({ canEditMasts }: Props) {
     const map = mapRef.current;
     if (!map) return;
     const c = map.getCenter();
-    try {
-      localStorage.setItem(VIEW_KEY, JSON.stringify({ longitude: c.lng, latitude: c.lat, zoom: map.getZoom() }));
-    } catch {
-      // Private windows may refuse storage; the view is then not remembered.
-    }
+    saveView({ longitude: c.lng, latitude: c.lat, zoom: map.getZoom() });
   }, []);
 
   const onClick = useCallback(
@@ -280,9 +129,9 @@ export default function MapView({ canEditMasts }: Props) {
       const map = mapRef.current;
       const rect = frameRef.current?.getBoundingClientRect();
       if (!map || !rect || f.geometry.type !== 'Point') return;
-      const [dx, dy] = panelOffset();
-      const covered = isPhone ? e.point.y > rect.height * 0.4 : e.point.x > rect.width + 2 * dx - 24;
-      if (covered) map.easeTo({ center: f.geometry.coordinates as [number, number], offset: [dx, dy], duration: 400, essential: false });
+      const offset = panelOffset();
+      if (isUnderPanel(e.point, rect, isPhone, offset))
+        map.easeTo({ center: f.geometry.coordinates as [number, number], offset, duration: 400, essential: false });
     },
     [isPhone, panelOffset, pending],
   );
@@ -354,25 +203,7 @@ export default function MapView({ canEditMasts }: Props) {
           <Source id={PENDING_SOURCE_ID} type="geojson" data={pending}>
             <Layer {...PENDING_SYMBOL_LAYER} />
           </Source>
-          {pendingPick && (
-            <Popup
-              longitude={pendingPick.geometry.coordinates[0]}
-              latitude={pendingPick.geometry.coordinates[1]}
-              anchor="bottom"
-              offset={18}
-              onClose={() => setPendingPick(null)}
-              closeOnClick={false}
-            >
-              <div className="space-y-1 pr-4 text-sm text-ink-900" data-testid="pending-popup">
-                <p className="font-semibold">Pending sighting</p>
-                <p>
-                  {SIGHTING_STRUCTURE_LABELS[pendingPick.properties.structure_type]} · seen {new Date(pendingPick.properties.observed_at).toLocaleDateString()}
-                </p>
-                <p>by {pendingPick.properties.mine ? 'you' : pendingPick.properties.author_name}</p>
-                <p className="text-xs text-ink-600">Waiting for a reviewer; only reviewers and its author see it.</p>
-              </div>
-            </Popup>
-          )}
+          {pendingPick && <PendingPopup sighting={pendingPick} onClose={() => setPendingPick(null)} />}
         </Map>
       )}
 
