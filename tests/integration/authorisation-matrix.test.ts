@@ -200,6 +200,7 @@ const ACCESS: Record<string, Partial<Record<Method, Rule | Rule[]>>> = {
     GET: [
       { path: '/api/tiles/basemap/0/0/0.mvt', who: 'public' },
       { path: '/api/tiles/masts/0/0/0.mvt', who: SIGNED_IN },
+      { path: '/api/tiles/signal/0/0/0.mvt', who: SIGNED_IN },
     ],
   },
   'api/tools/channel.ts': { GET: { path: '/api/tools/channel?tech=lte&channel=6300', who: SIGNED_IN, status: 200 } },

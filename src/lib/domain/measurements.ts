@@ -197,7 +197,7 @@ export function getRssiFromCsq(csq: number): number | null {
 
 export type SignalGrade = 'excellent' | 'good' | 'fair' | 'poor' | 'unusable';
 
-type GradedQuantity = 'rsrp' | 'rsrq' | 'sinr';
+export type GradedQuantity = 'rsrp' | 'rsrq' | 'sinr';
 
 const GRADE_FLOORS: Record<GradedQuantity, Array<[number, SignalGrade]>> = {
   rsrp: [
@@ -236,6 +236,22 @@ export function gradeSignal(kind: MeasurementKind, value: number): SignalGrade {
   if (!quantity) throw new RangeError(`${LABELS[kind]} has no quality grades`);
   const floor = GRADE_FLOORS[quantity].find(([threshold]) => value >= threshold);
   return floor ? floor[1] : LOWEST_GRADE[quantity];
+}
+
+export interface GradeBand {
+  grade: SignalGrade;
+  /** Lowest value of the grade (inclusive); null for the lowest grade. */
+  min: number | null;
+  /** Lowest value of the next better grade (exclusive); null for the best grade. */
+  max: number | null;
+}
+
+/** The grades of RSRP, RSRQ or SINR from best to worst, with the value range each covers. */
+export function getGradeBands(quantity: GradedQuantity): GradeBand[] {
+  const floors = GRADE_FLOORS[quantity];
+  const bands: GradeBand[] = floors.map(([min, grade], i) => ({ grade, min, max: i === 0 ? null : floors[i - 1]![0] }));
+  bands.push({ grade: LOWEST_GRADE[quantity], min: null, max: floors[floors.length - 1]![0] });
+  return bands;
 }
 
 /** The worst of several grades, e.g. to summarise a reading from its RSRP, RSRQ and SINR. */

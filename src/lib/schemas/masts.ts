@@ -493,7 +493,7 @@ const tileNumber = (label: string) =>
  */
 export const TileParamsSchema = z
   .object({
-    layer: z.enum(['basemap', 'masts'], { errorMap: () => ({ message: 'Layer must be basemap or masts' }) }),
+    layer: z.enum(['basemap', 'masts', 'signal'], { errorMap: () => ({ message: 'Layer must be basemap, masts or signal' }) }),
     z: tileNumber('z').pipe(z.number().max(TILE_MAX_ZOOM, `z must be 0–${TILE_MAX_ZOOM}`)),
     x: tileNumber('x'),
     y: tileNumber('y'),

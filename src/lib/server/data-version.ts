@@ -2,7 +2,7 @@
 // key their entries by them so a write anywhere makes the old entries unreachable.
 import type { Tx } from './db';
 
-export type DataKind = 'masts' | 'basemap' | 'elevation';
+export type DataKind = 'masts' | 'basemap' | 'elevation' | 'signal';
 
 export async function getDataVersion(db: Tx, kind: DataKind): Promise<string> {
   const row = await db('data_versions').where({ name: kind }).first<{ version: string } | undefined>('version');

@@ -8,10 +8,15 @@ import { completeJobRecord, createJobRecord, failJobRecord, listStalledJobs, mar
 import type { RowError } from '../csv-copy';
 
 export const READINGS_IMPORT_QUEUE = 'readings-import';
+/** Recomputes the measured signal hexagons where readings changed (repos/reading-hexes.ts). */
+export const SIGNAL_HEXES_QUEUE = 'signal-hexes';
 
 /** Queues and their retry policy. An import is one transaction, so retrying it is always safe. */
 const QUEUES: Record<string, PgBoss.Queue> = {
   [READINGS_IMPORT_QUEUE]: { name: READINGS_IMPORT_QUEUE, retryLimit: 3, retryDelay: 5, retryBackoff: true, expireInSeconds: 30 * 60 },
+  // 'short': at most one waiting; a request while one waits adds nothing (that one will see every
+  // change). Runs themselves take turns on an advisory lock, and each is one transaction.
+  [SIGNAL_HEXES_QUEUE]: { name: SIGNAL_HEXES_QUEUE, policy: 'short', retryLimit: 5, retryDelay: 10, retryBackoff: true, expireInSeconds: 60 * 60 },
 };
 
 /** A job failure that retrying cannot fix (bad data): the job fails at once with this report. */

@@ -11,7 +11,7 @@ export const TILE_EXTENT = 4096;
 /** Geometry kept beyond the tile edge, in tile units, so symbols and lines are not cut at seams. */
 export const TILE_BUFFER = 64;
 
-export const TILE_LAYERS = ['basemap', 'masts'] as const;
+export const TILE_LAYERS = ['basemap', 'masts', 'signal'] as const;
 export type TileLayer = (typeof TILE_LAYERS)[number];
 
 /** MVT layers in the basemap tile, bottom to top, with the attributes each carries. */

@@ -2,14 +2,19 @@ import { getReadDb } from '../../../../../../lib/server/db';
 import { getDataVersion } from '../../../../../../lib/server/data-version';
 import { handler, parseQuery, parseWith, requirePermission } from '../../../../../../lib/server/http';
 import { getBasemapTile, getMastsTile } from '../../../../../../lib/server/repos/tiles';
+import { getSignalTile } from '../../../../../../lib/server/repos/reading-hexes';
 import { getTileCache, prepareTile, type CachedTile } from '../../../../../../lib/server/tile-cache';
 import { MastFilterSchema, TileParamsSchema } from '../../../../../../lib/schemas/masts';
+import { SignalTileQuerySchema } from '../../../../../../lib/schemas/signal-map';
+import { can } from '../../../../../../lib/domain/roles';
 
 // The basemap is invented public geography, so its tiles are public and cacheable by anyone for a
 // day (an admin re-import shows up after that, or at once for clients that revalidate the ETag).
 // Mast tiles need 'map:view' and stay private and short-lived, since masts are edited all day.
 const CACHE_BASEMAP = 'public, max-age=86400, stale-while-revalidate=604800';
 const CACHE_MASTS = 'private, max-age=60';
+// Signal hexagons change only when the background job recomputes them; what a role sees differs.
+const CACHE_SIGNAL = 'private, max-age=60';
 
 function isFresh(ifNoneMatch: string | null, etag: string): boolean {
   if (!ifNoneMatch) return false;
@@ -37,18 +42,32 @@ function tileResponse(tile: CachedTile, cacheControl: string, request: Request):
 }
 
 /**
- * Mapbox Vector Tile of the basemap (public) or the masts (map:view; ?operator=&band=&tech=&status=).
- * Finished tiles are cached per process under the data version, so any write to masts, cells or the
- * basemap (which raises it) is seen by the next request.
+ * Mapbox Vector Tile of the basemap (public), the masts (map:view; ?operator=&band=&tech=&status=) or
+ * the measured signal hexagons (map:view; ?operator=&band=; readings from customers' homes count
+ * only for roles that may see customers). Finished tiles are cached per process under the data
+ * version, so any write to masts, cells or the basemap, or a recomputation of the hexagons (which
+ * raise it) is seen by the next request.
  */
 export const GET = handler(async ({ locals, params, url, request }) => {
-  if (params.layer === 'masts') requirePermission(locals, 'map:view');
+  const user = params.layer === 'masts' || params.layer === 'signal' ? requirePermission(locals, 'map:view') : null;
   const tile = parseWith(TileParamsSchema, params);
   const db = getReadDb();
+  const cache = getTileCache();
+  if (tile.layer === 'signal') {
+    const query = parseQuery(SignalTileQuerySchema, url);
+    const filter = { ...query, withHomeReadings: can(user!.role, 'plans:view') };
+    const version = await getDataVersion(db, 'signal');
+    const key = `signal/${version}/${filter.withHomeReadings ? 'all' : 'survey'}/${tile.z}/${tile.x}/${tile.y}?${filter.operatorId ?? ''}&${filter.band ?? ''}`;
+    let ready = cache.get(key);
+    if (!ready) {
+      ready = await prepareTile(await getSignalTile(db, tile, filter));
+      cache.set(key, ready);
+    }
+    return tileResponse(ready, CACHE_SIGNAL, request);
+  }
   const filter = tile.layer === 'masts' ? parseQuery(MastFilterSchema, url) : null;
   const version = await getDataVersion(db, tile.layer === 'masts' ? 'masts' : 'basemap');
   const key = `${tile.layer}/${version}/${tile.z}/${tile.x}/${tile.y}${filter ? `?${JSON.stringify(filter)}` : ''}`;
-  const cache = getTileCache();
   let ready = cache.get(key);
   if (!ready) {
     ready = await prepareTile(filter ? await getMastsTile(db, tile, filter) : await getBasemapTile(db, tile));
