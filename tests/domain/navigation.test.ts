@@ -18,7 +18,7 @@ describe('navigation by role', () => {
     }
   });
 
-  it('gives every signed-in role the map and the tools', () => {
-    for (const role of ROLES) expect(headerNavigationFor(role).map((i) => i.label)).toEqual(expect.arrayContaining(['Map', 'Tools']));
+  it('gives every signed-in role the map, the regions and the tools', () => {
+    for (const role of ROLES) expect(headerNavigationFor(role).map((i) => i.href)).toEqual(expect.arrayContaining(['/map', '/regions', '/tools']));
   });
 });

@@ -69,6 +69,8 @@ const ACCESS: Record<string, Partial<Record<Method, Rule | Rule[]>>> = {
   'sightings/new.astro': { GET: { path: '/sightings/new', who: SUBMITTERS } },
   'admin/jobs.astro': { GET: { path: '/admin/jobs', who: ADMIN } },
   'readings/import.astro': { GET: { path: '/readings/import', who: READINGS_WRITERS } },
+  'regions/index.astro': { GET: { path: '/regions', who: SIGNED_IN, status: 200 } },
+  'regions/[id].astro': { GET: { path: '/regions/1', who: SIGNED_IN, status: 200 } },
 
   // API
   'api/[...path].ts': { ALL: { path: '/api/no/such/route', who: 'public', status: 404, send: 'GET' } },
@@ -84,6 +86,7 @@ const ACCESS: Record<string, Partial<Record<Method, Rule | Rule[]>>> = {
   'api/addresses/import.ts': { POST: { path: '/api/addresses/import', who: ADMIN } },
   'api/readings/import.ts': { POST: { path: '/api/readings/import', who: READINGS_WRITERS, status: 415 } },
   'api/readings/sample.csv.ts': { GET: { path: '/api/readings/sample.csv', who: SIGNED_IN } },
+  'api/regions/[id]/summary.ts': { GET: { path: '/api/regions/1/summary', who: SIGNED_IN, status: 200 } },
   'api/jobs/index.ts': { GET: { path: '/api/jobs', who: SIGNED_IN } },
   'api/jobs/[id].ts': { GET: { path: '/api/jobs/00000000-0000-4000-8000-000000000000', who: SIGNED_IN, status: 404 } },
   'api/catalogue/antennas/index.ts': {

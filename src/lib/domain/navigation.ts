@@ -9,6 +9,7 @@ export interface NavItem {
 
 export const NAV_ITEMS: readonly NavItem[] = [
   { href: '/map', label: 'Map', permission: 'map:view' },
+  { href: '/regions', label: 'Regions', permission: 'map:view' },
   { href: '/plan', label: 'Plan', permission: 'plans:write' },
   { href: '/review', label: 'Review', permission: 'sightings:review' },
   { href: '/tools', label: 'Tools', permission: 'tools:use' },
