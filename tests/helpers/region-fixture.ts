@@ -44,7 +44,17 @@ const square = (west: number, south: number, size: number) => ({
 /** Square lon −128.6…−128.4, lat −47.3…−47.1 (counter-clockwise, RFC 7946 §3.1.6). */
 export const FIXTURE_SQUARE = square(-128.6, -47.3, 0.2);
 
-async function reading(values: { at: string; lat: number; lon: number; tech?: string; channel?: number; pci?: number; rsrp?: number; cell?: string | null; installCheck?: number }) {
+async function reading(values: {
+  at: string;
+  lat: number;
+  lon: number;
+  tech?: string;
+  channel?: number;
+  pci?: number;
+  rsrp?: number;
+  cell?: string | null;
+  installCheck?: number;
+}) {
   await testDb()('readings').insert({
     taken_at: values.at,
     geom: testDb().raw('ST_SetSRID(ST_MakePoint(?, ?), 4326)', [values.lon, values.lat]),

@@ -60,7 +60,9 @@ async function mastFigures(db: Tx, id: string) {
       [id],
     ),
   ]);
-  const statusCounts = Object.fromEntries(MAST_STATUSES.map((s) => [s, byStatus.find((r) => r.status === s)?.n ?? 0])) as RegionSummaryJson['masts']['by_status'];
+  const statusCounts = Object.fromEntries(
+    MAST_STATUSES.map((s) => [s, byStatus.find((r) => r.status === s)?.n ?? 0]),
+  ) as RegionSummaryJson['masts']['by_status'];
   return {
     masts: { total: byStatus.reduce((sum, r) => sum + r.n, 0), by_status: statusCounts },
     cells: {
@@ -136,9 +138,11 @@ async function customerFigures(db: Tx, id: string): Promise<NonNullable<RegionSu
          FROM cu`,
       [id],
     ),
-    rows<{ state: PlanState; n: number }>(db, `${CUSTOMERS_IN} SELECT p.state, count(*)::int AS n FROM plans p JOIN cu ON cu.id = p.customer_id GROUP BY p.state`, [
-      id,
-    ]),
+    rows<{ state: PlanState; n: number }>(
+      db,
+      `${CUSTOMERS_IN} SELECT p.state, count(*)::int AS n FROM plans p JOIN cu ON cu.id = p.customer_id GROUP BY p.state`,
+      [id],
+    ),
     rows<{ n: number }>(
       db,
       `${CUSTOMERS_IN}, best AS (SELECT p.customer_id, max(${PREDICTION}) AS rsrp FROM plans p JOIN cu ON cu.id = p.customer_id GROUP BY p.customer_id)
