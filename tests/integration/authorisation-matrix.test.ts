@@ -54,6 +54,7 @@ const ACCESS: Record<string, Partial<Record<Method, Rule | Rule[]>>> = {
     ],
   },
   'plans/[id]/sheet.astro': { GET: { path: '/plans/1/sheet', who: PLAN_VIEWERS } },
+  'schedule.astro': { GET: { path: '/schedule', who: PLAN_VIEWERS, status: 200 } },
   'tools.astro': { GET: { path: '/tools', who: SIGNED_IN } },
   'customers/index.astro': { GET: { path: '/customers', who: PLAN_VIEWERS } },
   'customers/[id].astro': { GET: { path: '/customers/1', who: PLAN_VIEWERS } },
@@ -165,6 +166,7 @@ const ACCESS: Record<string, Partial<Record<Method, Rule | Rule[]>>> = {
     GET: { path: '/api/plans/1', who: PLAN_VIEWERS, status: 200 },
     PATCH: { path: `/api/plans/${NONE}`, who: PLAN_WRITERS },
   },
+  'api/plans/[id]/installed.ts': { POST: { path: `/api/plans/${NONE}/installed`, who: CHECK_RECORDERS, status: 400 } },
   'api/plans/[id]/checks.ts': {
     GET: { path: '/api/plans/1/checks', who: PLAN_VIEWERS, status: 200 },
     POST: { path: `/api/plans/${NONE}/checks`, who: CHECK_RECORDERS },

@@ -1,7 +1,8 @@
 import { useEffect, useState } from 'react';
 import { ApiError } from '../../lib/client/api';
 import { customersApi, type CustomerJson } from '../../lib/client/planning-api';
-import { PLAN_STATES } from '../../lib/domain/plan-state';
+import { PLAN_STATES, PLAN_STATE_LABELS, isPlanState, type PlanState } from '../../lib/domain/plan-state';
+import { formatDate } from '../../lib/domain/format';
 import { SortableTable, type Column } from '../ui/SortableTable';
 import { useDebounced } from '../tools/useDebounced';
 import CustomerForm from './CustomerForm';
@@ -12,24 +13,35 @@ const LOAD_LIMIT = 200;
 
 interface Props {
   canWrite: boolean;
+  /** From the page's `?state=` parameter, so that links to a filtered list work. */
+  initialState?: PlanState | null;
 }
 
-export default function CustomerList({ canWrite }: Props) {
+/** Keeps the filter in the address bar (replacing the entry: typing is not a step back). */
+function writeStateToUrl(state: PlanState | null) {
+  const url = new URL(window.location.href);
+  if (state) url.searchParams.set('state', state);
+  else url.searchParams.delete('state');
+  window.history.replaceState(window.history.state, '', url);
+}
+
+export default function CustomerList({ canWrite, initialState = null }: Props) {
   const [query, setQuery] = useState('');
+  const [state, setState] = useState<PlanState | null>(initialState);
   const q = useDebounced(query.trim(), 250);
   const [data, setData] = useState<{ items: CustomerJson[]; total: number } | null>(null);
   const [error, setError] = useState<string | null>(null);
 
   useEffect(() => {
     let live = true;
-    customersApi.list({ q: q || undefined, sort: 'updated_at', limit: LOAD_LIMIT }).then(
+    customersApi.list({ q: q || undefined, state: state ?? undefined, sort: 'updated_at', limit: LOAD_LIMIT }).then(
       (r) => live && (setData(r), setError(null)),
       (e: unknown) => live && setError(e instanceof ApiError ? e.message : 'Could not load customers'),
     );
     return () => {
       live = false;
     };
-  }, [q]);
+  }, [q, state]);
 
   const columns: Column<CustomerJson>[] = [
     {
@@ -68,7 +80,7 @@ export default function CustomerList({ canWrite }: Props) {
             {c.plan_count > 1 && <span className="text-xs text-ink-500">+{c.plan_count - 1} more</span>}
           </span>
         ) : (
-          <span className="text-ink-400">No plan</span>
+          <span className="text-ink-500">No plan</span>
         ),
     },
     {
@@ -79,7 +91,7 @@ export default function CustomerList({ canWrite }: Props) {
         c.current_operator_name || c.current_antenna_name ? (
           [c.current_operator_name, c.current_antenna_name].filter(Boolean).join(' · ')
         ) : (
-          <span className="text-ink-400">—</span>
+          <span className="text-ink-500">—</span>
         ),
       className: 'hidden md:table-cell',
     },
@@ -89,7 +101,7 @@ export default function CustomerList({ canWrite }: Props) {
       sortValue: (c) => c.updated_at,
       render: (c) => (
         <time dateTime={c.updated_at} className="whitespace-nowrap">
-          {new Date(c.updated_at).toLocaleDateString()}
+          {formatDate(c.updated_at)}
         </time>
       ),
       className: 'hidden sm:table-cell',
@@ -102,6 +114,26 @@ export default function CustomerList({ canWrite }: Props) {
         <div className="mb-3 flex flex-wrap items-center gap-3">
           <h2 id="customers-heading">Customers {data && <span className="font-normal text-ink-600">({data.total})</span>}</h2>
           <label className="w-full sm:ml-auto sm:w-auto">
+            <span className="sr-only">Plan state</span>
+            <select
+              className="field-input w-full sm:w-auto"
+              value={state ?? ''}
+              onChange={(e) => {
+                const next = isPlanState(e.target.value) ? e.target.value : null;
+                setState(next);
+                writeStateToUrl(next);
+              }}
+              data-testid="customer-state-filter"
+            >
+              <option value="">Any plan state</option>
+              {PLAN_STATES.map((s) => (
+                <option key={s} value={s}>
+                  Plan: {PLAN_STATE_LABELS[s]}
+                </option>
+              ))}
+            </select>
+          </label>
+          <label className="w-full sm:w-auto">
             <span className="sr-only">Search customers</span>
             <input
               type="search"
@@ -126,7 +158,7 @@ export default function CustomerList({ canWrite }: Props) {
               columns={columns}
               rowKey={(c) => c.id}
               initialSort={{ key: 'updated', dir: 'desc' }}
-              empty={q ? 'No customer matches your search' : 'No customers yet'}
+              empty={q || state ? 'No customer matches your search' : 'No customers yet'}
               caption="Customers"
             />
             {data.total > data.items.length && (

@@ -99,7 +99,7 @@ export interface CustomerBody {
 }
 
 export const customersApi = {
-  list: (p: { q?: string; sort?: CustomerSort; dir?: 'asc' | 'desc'; limit?: number; offset?: number } = {}) =>
+  list: (p: { q?: string; state?: PlanState; sort?: CustomerSort; dir?: 'asc' | 'desc'; limit?: number; offset?: number } = {}) =>
     get<List<CustomerJson>>(`/api/customers?${qs(p)}`),
   get: (id: string) => get<CustomerJson>(`/api/customers/${id}`),
   create: (body: CustomerBody) => request<CustomerJson>('POST', '/api/customers', body),
@@ -140,6 +140,8 @@ export const plansApi = {
   update: (id: string, body: PlanChangeBody) => request<PlanDetailJson>('PATCH', `/api/plans/${id}`, body),
   checks: (id: string) => get<List<InstallCheckJson>>(`/api/plans/${id}/checks`),
   addCheck: (id: string, body: InstallCheckBody) => request<InstallCheckJson>('POST', `/api/plans/${id}/checks`, body),
+  /** Scheduled → installed, for planners and surveyors; 409 when the plan changed since `rowVersion`. */
+  markInstalled: (id: string, rowVersion: number) => request<PlanDetailJson>('POST', `/api/plans/${id}/installed`, { row_version: rowVersion }),
 };
 
 // --- form checks ----------------------------------------------------------------------------

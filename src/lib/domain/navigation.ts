@@ -11,6 +11,7 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { href: '/map', label: 'Map', permission: 'map:view' },
   { href: '/regions', label: 'Regions', permission: 'map:view' },
   { href: '/plan', label: 'Plan', permission: 'plans:write' },
+  { href: '/schedule', label: 'Schedule', permission: 'plans:view' },
   { href: '/review', label: 'Review', permission: 'sightings:review' },
   { href: '/tools', label: 'Tools', permission: 'tools:use' },
   { href: '/sightings', label: 'Sightings', permission: 'sightings:submit' },

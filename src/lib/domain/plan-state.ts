@@ -131,6 +131,13 @@ export function canRecordChecks(role: Role | null | undefined): boolean {
   return RECORD_CHECKS_PERMISSIONS.some((p) => can(role, p));
 }
 
+/** Whoever records the install checks may also mark the antenna up (scheduled → installed). */
+export const MARK_INSTALLED_PERMISSIONS: readonly Permission[] = RECORD_CHECKS_PERMISSIONS;
+
+export function canMarkInstalled(role: Role | null | undefined): boolean {
+  return MARK_INSTALLED_PERMISSIONS.some((p) => can(role, p));
+}
+
 // --- Measured result of an install -------------------------------------------------------
 
 export interface CheckReading {

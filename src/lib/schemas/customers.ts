@@ -1,8 +1,8 @@
 // Customers: input schemas shared by the endpoints and the customer forms, and the JSON the
 // API returns.
 import { z } from 'zod';
-import type { PlanState } from '../domain/plan-state';
-import { IdRefSchema, hasChange, numberField as num, optionalText, pageParams, requiredText, RowVersionSchema, searchParam } from './params';
+import { PLAN_STATES, type PlanState } from '../domain/plan-state';
+import { IdRefSchema, enumOf, hasChange, numberField as num, optionalText, pageParams, requiredText, RowVersionSchema, searchParam } from './params';
 
 const name = requiredText(120);
 const phone = z
@@ -96,6 +96,8 @@ export type CustomerSort = (typeof CUSTOMER_SORTS)[number];
 
 export const CustomerListQuerySchema = z.object({
   q: searchParam,
+  /** Customers with at least one plan in this state. */
+  state: enumOf(PLAN_STATES).optional(),
   sort: z.enum(CUSTOMER_SORTS, { errorMap: () => ({ message: `Sort by one of: ${CUSTOMER_SORTS.join(', ')}` }) }).default('updated_at'),
   dir: z.enum(['asc', 'desc'], { errorMap: () => ({ message: 'Choose asc or desc' }) }).optional(),
   ...pageParams,

@@ -252,3 +252,6 @@ export interface PlanDetailJson extends PlanJson {
   checks: InstallCheckJson[];
   result: PlanResultJson;
 }
+
+/** POST /api/plans/:id/installed: the installer marks the antenna up, from the version they saw. */
+export const PlanInstalledSchema = z.object({ row_version: RowVersionSchema }).transform((v) => ({ rowVersion: v.row_version }));

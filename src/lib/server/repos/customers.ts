@@ -126,6 +126,7 @@ export async function listCustomers(db: Tx, query: CustomerListQuery): Promise<{
         if (digits.length >= 3) w.orWhereRaw("regexp_replace(coalesce(c.phone, ''), '[^0-9]', '', 'g') LIKE ?", [`%${digits}%`]);
       });
     }
+    if (query.state) q.whereExists((e) => e.select(db.raw('1')).from('plans as sp').whereRaw('sp.customer_id = c.id').where('sp.state', query.state));
     return q;
   };
   const [{ count }] = await filtered(db('customers as c')).count<{ count: string }[]>('* as count');
