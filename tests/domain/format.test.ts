@@ -95,6 +95,7 @@ describe('radio figures', () => {
     // NR global raster steps of 15 kHz (3GPP TS 38.104 §5.4.2.1) fall between tenths.
     expect(formatMhz(3500.01)).toBe('3500.01 MHz');
     expect(formatMhz(3600.015)).toBe('3600.015 MHz');
+    expect(formatMhz(1815, { unit: false })).toBe('1815.0');
   });
 
   it('writes throughput in whole Mbit/s from 10 up', () => {

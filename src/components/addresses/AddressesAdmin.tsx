@@ -2,6 +2,7 @@ import { useEffect, useRef, useState, type FormEvent } from 'react';
 import { ApiError } from '../../lib/client/api';
 import { addressesApi, type AddressImportJson, type AddressJson } from '../../lib/client/planning-api';
 import { ADDRESS_PRECHECK_MAX_BYTES, MAX_REPORTED_ROW_ERRORS, parseAddressCsv } from '../../lib/schemas/addresses';
+import { MISSING, formatNumber } from '../../lib/domain/format';
 
 const PAGE = 25;
 
@@ -168,7 +169,7 @@ export default function AddressesAdmin() {
         ) : (
           <>
             <div className="overflow-x-auto">
-              <table className="data-table">
+              <table className="data-table stack">
                 <caption className="sr-only">Addresses</caption>
                 <thead>
                   <tr>
@@ -193,11 +194,17 @@ export default function AddressesAdmin() {
                   ) : (
                     list.items.map((a) => (
                       <tr key={a.id}>
-                        <td>{a.label}</td>
-                        <td className="whitespace-nowrap">{a.postcode ?? '—'}</td>
-                        <td className="text-right tabular-nums">{a.lat.toFixed(5)}</td>
-                        <td className="text-right tabular-nums">{a.lon.toFixed(5)}</td>
-                        <td>{a.source}</td>
+                        <td data-label="Label">{a.label}</td>
+                        <td className="whitespace-nowrap" data-label="Postcode">
+                          {a.postcode ?? MISSING}
+                        </td>
+                        <td className="text-right tabular-nums" data-label="Lat">
+                          {formatNumber(a.lat, 5)}
+                        </td>
+                        <td className="text-right tabular-nums" data-label="Lon">
+                          {formatNumber(a.lon, 5)}
+                        </td>
+                        <td data-label="Source">{a.source}</td>
                       </tr>
                     ))
                   )}

@@ -3,15 +3,12 @@ import { ApiError, type FieldErrors } from '../../lib/client/api';
 import { elevationApi, type ElevationGridJson, type UploadProgress } from '../../lib/client/elevation-api';
 import { ELEVATION_FILE_ACCEPT, ELEVATION_FORMAT_LABELS, MAX_ELEVATION_UPLOAD_BYTES } from '../../lib/schemas/elevation';
 import { SortableTable, type Column } from '../ui/SortableTable';
+import { formatBytes, formatDate, formatMetres, formatNumber, formatPercent } from '../../lib/domain/format';
 
-const fmtLat = (v: number) => `${Math.abs(v).toFixed(3)}° ${v < 0 ? 'S' : 'N'}`;
-const fmtLon = (v: number) => `${Math.abs(v).toFixed(3)}° ${v < 0 ? 'W' : 'E'}`;
+const fmtLat = (v: number) => `${formatNumber(Math.abs(v), 3)}° ${v < 0 ? 'S' : 'N'}`;
+const fmtLon = (v: number) => `${formatNumber(Math.abs(v), 3)}° ${v < 0 ? 'W' : 'E'}`;
 
-function fmtBytes(n: number): string {
-  if (n >= 1024 * 1024) return `${(n / (1024 * 1024)).toFixed(1)} MB`;
-  if (n >= 1024) return `${(n / 1024).toFixed(0)} kB`;
-  return `${n} B`;
-}
+const fmtBytes = formatBytes;
 
 function fmtArcsec(v: number): string {
   return `${Number(v.toFixed(2))}″`;
@@ -91,7 +88,7 @@ function PointCheck() {
     }
     try {
       const r = await elevationApi.sample(Number(lat), Number(lon));
-      setAnswer(r.height_m === null ? 'No elevation data at this point' : `${r.height_m.toFixed(1)} m above sea level`);
+      setAnswer(r.height_m === null ? 'No elevation data at this point' : `${formatMetres(r.height_m)} above sea level`);
     } catch (err) {
       if (err instanceof ApiError) {
         setFieldErrors(err.fields);
@@ -271,7 +268,7 @@ export default function ElevationAdmin() {
           {g.min_m === null || g.max_m === null ? '—' : `${Math.round(g.min_m)} – ${Math.round(g.max_m)} m`}
           {g.nodata_count > 0 && (
             <span className="block text-xs text-ember-700">
-              {((g.nodata_count / (g.width * g.height)) * 100).toFixed(g.nodata_count / (g.width * g.height) < 0.001 ? 3 : 1)} % voids
+              {formatPercent(g.nodata_count / (g.width * g.height), g.nodata_count / (g.width * g.height) < 0.001 ? 3 : 1)} voids
             </span>
           )}
         </span>
@@ -284,7 +281,7 @@ export default function ElevationAdmin() {
       sortValue: (g) => g.created_at,
       render: (g) => (
         <span className="whitespace-nowrap">
-          {new Date(g.created_at).toLocaleDateString()}
+          {formatDate(g.created_at)}
           <span className="block text-xs text-ink-500">{g.uploaded_by?.name ?? 'demo data'}</span>
         </span>
       ),

@@ -1,6 +1,7 @@
 import { useEffect, useMemo, useRef, useState, type FormEvent } from 'react';
 import { ApiError, regionsApi, type FieldErrors, type RegionJson } from '../../lib/client/api';
 import { SortableTable, type Column } from '../ui/SortableTable';
+import { formatArea, formatCount, formatDate } from '../../lib/domain/format';
 
 type Rings = number[][][];
 
@@ -139,7 +140,7 @@ export default function RegionsAdmin() {
     try {
       const created = await regionsApi.create({ name, geometry: chosen.geometry });
       setRegions((list) => [...(list ?? []), created]);
-      setNotice(`Imported ${created.name} (${created.area_km2.toFixed(1)} km²)`);
+      setNotice(`Imported ${created.name} (${formatArea(created.area_km2)})`);
       setCandidates([]);
       setName('');
       if (fileRef.current) fileRef.current.value = '';
@@ -170,9 +171,9 @@ export default function RegionsAdmin() {
   const columns: Column<RegionJson>[] = [
     { key: 'shape', label: 'Outline', render: (r) => <PolygonPreview geometry={r.geometry} size={44} /> },
     { key: 'name', label: 'Name', sortValue: (r) => r.name.toLowerCase(), render: (r) => <span className="font-semibold">{r.name}</span> },
-    { key: 'area', label: 'Area', sortValue: (r) => r.area_km2, render: (r) => `${r.area_km2.toFixed(1)} km²`, className: 'text-right whitespace-nowrap' },
-    { key: 'vertices', label: 'Vertices', sortValue: (r) => r.vertex_count, render: (r) => r.vertex_count.toLocaleString('en'), className: 'text-right' },
-    { key: 'updated', label: 'Updated', sortValue: (r) => r.updated_at, render: (r) => new Date(r.updated_at).toLocaleDateString() },
+    { key: 'area', label: 'Area', sortValue: (r) => r.area_km2, render: (r) => formatArea(r.area_km2), className: 'text-right whitespace-nowrap' },
+    { key: 'vertices', label: 'Vertices', sortValue: (r) => r.vertex_count, render: (r) => formatCount(r.vertex_count), className: 'text-right' },
+    { key: 'updated', label: 'Updated', sortValue: (r) => r.updated_at, render: (r) => formatDate(r.updated_at) },
     {
       key: 'actions',
       label: 'Actions',

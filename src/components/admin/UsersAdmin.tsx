@@ -3,6 +3,7 @@ import { ApiError, usersApi, type UserDto, type FieldErrors } from '../../lib/cl
 import { ROLES, ROLE_LABELS, type Role } from '../../lib/domain/roles';
 import { TOKEN_LIFETIME_MIN } from '../../lib/domain/account-tokens';
 import { SortableTable, type Column } from '../ui/SortableTable';
+import { formatDate } from '../../lib/domain/format';
 
 interface Props {
   currentUserId: string;
@@ -121,7 +122,7 @@ export default function UsersAdmin({ currentUserId }: Props) {
           <span className="rounded bg-moss-50 px-2 py-0.5 text-moss-700">Active</span>
         ),
     },
-    { key: 'created', label: 'Since', sortValue: (u) => u.createdAt, render: (u) => new Date(u.createdAt).toLocaleDateString() },
+    { key: 'created', label: 'Since', sortValue: (u) => u.createdAt, render: (u) => formatDate(u.createdAt) },
     {
       key: 'actions',
       label: 'Actions',

@@ -4,6 +4,7 @@ import { catalogueApi, checkWith, type AntennaBody, type AntennaJson, type Cable
 import { ANTENNA_KINDS, ANTENNA_KIND_LABELS, AntennaInputSchema, CableInputSchema, type AntennaKind } from '../../lib/schemas/catalogue';
 import { SortableTable, type Column } from '../ui/SortableTable';
 import { FrequencyTableEditor, toNumber, type FrequencyRow } from './FrequencyTableEditor';
+import { formatNumber } from '../../lib/domain/format';
 
 type Editing = { what: 'antenna'; id: string | null } | { what: 'cable'; id: string | null };
 
@@ -84,7 +85,7 @@ function cableBody(f: CableForm): CableBody {
 const span = (values: number[], unit: string, digits = 1) => {
   const lo = Math.min(...values);
   const hi = Math.max(...values);
-  return lo === hi ? `${lo.toFixed(digits)} ${unit}` : `${lo.toFixed(digits)}–${hi.toFixed(digits)} ${unit}`;
+  return lo === hi ? `${formatNumber(lo, digits)} ${unit}` : `${formatNumber(lo, digits)}–${formatNumber(hi, digits)} ${unit}`;
 };
 const band = (rows: { freq_mhz: number }[]) =>
   span(

@@ -7,6 +7,21 @@ import InstallCheckForm from './InstallCheckForm';
 import CustomerForm from './CustomerForm';
 import EraseCustomer from './EraseCustomer';
 import { PlanStateBadge, PlanSteps } from './PlanStateBadge';
+import MarkInstalled from '../schedule/MarkInstalled';
+import {
+  MISSING,
+  formatBearing,
+  formatDate,
+  formatDateTime,
+  formatDb,
+  formatDbm,
+  formatDistance,
+  formatLatLon,
+  formatMbps,
+  formatMetres,
+  formatNumber,
+  formatTilt,
+} from '../../lib/domain/format';
 
 interface Props {
   customerId: string;
@@ -14,11 +29,6 @@ interface Props {
   /** Surveyors record install checks without editing plans. */
   canRecord: boolean;
 }
-
-const fmt = (v: unknown, digits: number, unit: string) =>
-  typeof v === 'number' && Number.isFinite(v) ? `${v.toFixed(digits)}${unit.startsWith('°') ? '' : ' '}${unit}` : '—';
-const signed = (v: number | null, unit = 'dB') => (v === null ? '—' : `${v > 0 ? '+' : ''}${v.toFixed(1)} ${unit}`);
-const when = (iso: string) => new Date(iso).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' });
 
 function Facts({ items }: { items: Array<[string, ReactNode]> }) {
   return (
@@ -93,14 +103,14 @@ function PlanCard({
   };
 
   return (
-    <article className="card min-w-0 space-y-3" aria-labelledby={`plan-${plan.id}-heading`} data-testid="plan-card">
+    <article id={`plan-${plan.id}`} className="card min-w-0 scroll-mt-4 space-y-3" aria-labelledby={`plan-${plan.id}-heading`} data-testid="plan-card">
       <header className="flex flex-wrap items-center gap-2">
         <h3 id={`plan-${plan.id}-heading`} className="font-semibold text-ink-800">
           Plan {plan.id}
         </h3>
         <PlanStateBadge state={plan.state} />
         <span className="text-xs text-ink-500">
-          since {new Date(plan.state_changed_at).toLocaleDateString()}
+          since {formatDate(plan.state_changed_at)}
           {plan.created_by_name && ` · created by ${plan.created_by_name}`}
         </span>
         <span className="ml-auto flex gap-2">
@@ -125,25 +135,25 @@ function PlanCard({
             ],
             ['Mast', plan.cell ? plan.cell.mast_name : '—'],
             ['Antenna', plan.antenna_name ?? '—'],
-            ['Cable', plan.cable_name ? `${plan.cable_m ?? '?'} m of ${plan.cable_name}` : '—'],
-            ['Mount height', plan.mount_height_m !== null ? `${plan.mount_height_m} m` : '—'],
-            ['Install date', plan.scheduled_for ?? '—'],
+            ['Cable', plan.cable_name ? `${plan.cable_m === null ? '?' : formatMetres(plan.cable_m)} of ${plan.cable_name}` : MISSING],
+            ['Mount height', formatMetres(plan.mount_height_m)],
+            ['Install date', formatDate(plan.scheduled_for)],
           ]}
         />
         {f ? (
           <Facts
             items={[
-              ['Predicted RSRP', `${fmt(f.predicted_rsrp_dbm, 1, 'dBm')} (${f.grade})`],
+              ['Predicted RSRP', `${formatDbm(f.predicted_rsrp_dbm, 1)} (${f.grade})`],
               [
                 'SINR',
                 f.sinr_db == null
-                  ? '—'
-                  : `${fmt(f.sinr_db, 1, 'dB')}${f.expected_throughput_mbps != null ? ` · up to ${fmt(f.expected_throughput_mbps, 0, 'Mbit/s')}` : ''}`,
+                  ? MISSING
+                  : `${formatDb(f.sinr_db)}${f.expected_throughput_mbps != null ? ` · up to ${formatMbps(f.expected_throughput_mbps)}` : ''}`,
               ],
-              ['Expected gain', fmt(f.expected_gain_db, 1, 'dB')],
-              ['Distance', `${(f.distance_m / 1000).toFixed(2)} km`],
-              ['Bearing', `${fmt(f.bearing_true_deg, 1, '° true')} · ${fmt(f.bearing_magnetic_deg, 1, '° magnetic')}`],
-              ['Elevation', fmt(f.elevation_deg, 1, '°')],
+              ['Expected gain', formatDb(f.expected_gain_db, { signed: true })],
+              ['Distance', formatDistance(f.distance_m)],
+              ['Bearing', `${formatBearing(f.bearing_true_deg, 'true')} · ${formatBearing(f.bearing_magnetic_deg, 'magnetic')}`],
+              ['Tilt', formatTilt(f.elevation_deg)],
               ['Terrain', TERRAIN_LABELS[f.terrain.status] ?? f.terrain.status],
             ]}
           />
@@ -154,6 +164,10 @@ function PlanCard({
       {plan.notes && <p className="whitespace-pre-line rounded bg-ink-50 p-2 text-sm">{plan.notes}</p>}
 
       {plan.checks.length > 0 && <CheckResult plan={plan} />}
+
+      {canRecord && !canWrite && plan.state === 'scheduled' && (
+        <MarkInstalled planId={plan.id} rowVersion={plan.row_version} customerId={plan.customer_id} onInstalled={onChanged} />
+      )}
 
       {canRecord && plan.state !== 'enquiry' && (
         <InstallCheckForm
@@ -220,17 +234,19 @@ function PlanCard({
 function CheckResult({ plan }: { plan: PlanDetailJson }) {
   const r = plan.result;
   const speed = (s: typeof r.speed_before) =>
-    s.tests ? `${s.down_mbps} ↓ / ${s.up_mbps} ↑ Mbit/s${s.latency_ms !== null ? `, ${s.latency_ms} ms` : ''}` : '—';
+    s.tests
+      ? `${formatNumber(s.down_mbps, 1)} ↓ / ${formatNumber(s.up_mbps, 1)} ↑ Mbit/s${s.latency_ms !== null ? `, ${formatNumber(s.latency_ms, 0)} ms` : ''}`
+      : MISSING;
   return (
     <section aria-label="Install checks" className="space-y-2">
       <h4 className="text-sm font-semibold text-ink-800">Install checks: measured against predicted</h4>
       <p className="text-xs text-ink-600">
         {plan.checks
-          .map((c) => `${c.phase === 'before' ? 'Before' : 'After'} ${when(c.taken_at)}${c.created_by_name ? ` (${c.created_by_name})` : ''}`)
+          .map((c) => `${c.phase === 'before' ? 'Before' : 'After'} ${formatDateTime(c.taken_at)}${c.created_by_name ? ` (${c.created_by_name})` : ''}`)
           .join(' · ')}
       </p>
       <div className="overflow-x-auto">
-        <table className="data-table">
+        <table className="data-table stack">
           <caption className="sr-only">Measured gain per cell</caption>
           <thead>
             <tr>
@@ -256,17 +272,27 @@ function CheckResult({ plan }: { plan: PlanDetailJson }) {
           <tbody>
             {r.gains.map((g) => (
               <tr key={`${g.pci}-${g.channel}`}>
-                <td>
-                  {g.pci}
-                  {plan.cell?.pci === g.pci && <span className="ml-1 text-xs text-ink-500">(planned)</span>}
+                <td data-label="PCI">
+                  <span>
+                    {g.pci}
+                    {plan.cell?.pci === g.pci && <span className="ml-1 text-xs text-ink-500">(planned)</span>}
+                  </span>
                 </td>
-                <td>{g.channel ?? '—'}</td>
-                <td className="text-right tabular-nums">{fmt(g.before_rsrp_dbm, 1, 'dBm')}</td>
-                <td className="text-right tabular-nums">{fmt(g.after_rsrp_dbm, 1, 'dBm')}</td>
-                <td className="text-right font-semibold tabular-nums">{signed(g.measured_gain_db)}</td>
-                <td className="text-right tabular-nums">{signed(g.predicted_gain_db)}</td>
-                <td className={`text-right tabular-nums ${g.difference_db !== null && g.difference_db < -3 ? 'text-alarm-700' : ''}`}>
-                  {signed(g.difference_db)}
+                <td data-label="Channel">{g.channel ?? MISSING}</td>
+                <td className="text-right tabular-nums" data-label="Before">
+                  {formatDbm(g.before_rsrp_dbm, 1)}
+                </td>
+                <td className="text-right tabular-nums" data-label="After">
+                  {formatDbm(g.after_rsrp_dbm, 1)}
+                </td>
+                <td className="text-right font-semibold tabular-nums" data-label="Measured gain">
+                  {formatDb(g.measured_gain_db, { signed: true })}
+                </td>
+                <td className="text-right tabular-nums" data-label="Predicted gain">
+                  {formatDb(g.predicted_gain_db, { signed: true })}
+                </td>
+                <td className={`text-right tabular-nums ${g.difference_db !== null && g.difference_db < -3 ? 'text-alarm-700' : ''}`} data-label="Difference">
+                  {formatDb(g.difference_db, { signed: true })}
                 </td>
               </tr>
             ))}
@@ -278,7 +304,7 @@ function CheckResult({ plan }: { plan: PlanDetailJson }) {
         {r.expected_throughput_mbps !== null && (
           <span data-testid="speed-vs-expected">
             {' '}
-            · <span className="text-ink-600">expected up to</span> {r.expected_throughput_mbps.toFixed(0)} Mbit/s
+            · <span className="text-ink-600">expected up to</span> {formatMbps(r.expected_throughput_mbps)}
             {r.speed_after.down_mbps !== null &&
               ` (measured ${Math.round((100 * r.speed_after.down_mbps) / Math.max(0.1, r.expected_throughput_mbps))} % of it; the cell is shared, so less is normal at busy times)`}
           </span>
@@ -373,7 +399,7 @@ export default function CustomerDetail({ customerId, canWrite, canRecord }: Prop
           </div>
           {customer.erased_at && (
             <p role="note" className="mb-3 rounded bg-ink-50 p-2 text-sm text-ink-700">
-              Personal data erased on the customer’s request on {new Date(customer.erased_at).toLocaleDateString()}. The position is kept only to about 11 km.
+              Personal data erased on the customer’s request on {formatDate(customer.erased_at)}. The position is kept only to about 11 km.
             </p>
           )}
           {editing ? (
@@ -393,7 +419,7 @@ export default function CustomerDetail({ customerId, canWrite, canRecord }: Prop
             <Facts
               items={[
                 ['Address', `${customer.address_label}${customer.postcode ? `, ${customer.postcode}` : ''}`],
-                ['Position', `${customer.lat.toFixed(5)}, ${customer.lon.toFixed(5)}`],
+                ['Position', formatLatLon(customer.lat, customer.lon)],
                 [
                   'Phone',
                   customer.phone ? (
@@ -474,7 +500,7 @@ export default function CustomerDetail({ customerId, canWrite, canRecord }: Prop
               <li key={e.id} className="border-l-2 border-ink-200 pl-3">
                 <p>{describe(e)}</p>
                 <p className="text-xs text-ink-500">
-                  <time dateTime={e.at}>{when(e.at)}</time>
+                  <time dateTime={e.at}>{formatDateTime(e.at)}</time>
                   {e.user_name && ` · ${e.user_name}`}
                 </p>
               </li>

@@ -18,6 +18,18 @@ import PlannerMap from './PlannerMap';
 import ShortlistTable from './ShortlistTable';
 import TerrainChart from './TerrainChart';
 import { GradeBadge, TERRAIN_LABELS, describeConfidence } from './grades';
+import {
+  MISSING,
+  formatBearing,
+  formatDb,
+  formatDbm,
+  formatDistance,
+  formatLatLon,
+  formatMbps,
+  formatMetres,
+  formatMhz,
+  formatTilt,
+} from '../../lib/domain/format';
 
 export interface PlannerCustomer {
   id: string;
@@ -190,7 +202,7 @@ export default function PlannerApp({ customer, canSave }: Props) {
           />
           <p className="text-xs text-ink-600" data-testid="plan-position">
             {position
-              ? `Position ${position.lat.toFixed(5)}, ${position.lon.toFixed(5)}${shortlist?.customer_ground_m != null ? ` · ground ${shortlist.customer_ground_m} m` : ''}`
+              ? `Position ${formatLatLon(position.lat, position.lon)}${shortlist?.customer_ground_m != null ? ` · ground ${formatMetres(shortlist.customer_ground_m, 0)}` : ''}`
               : 'Search an address, type coordinates, or click the map.'}
           </p>
         </section>
@@ -324,8 +336,8 @@ export default function PlannerApp({ customer, canSave }: Props) {
             <h2 id="shortlist-heading">Shortlist</h2>
             {shortlist && (
               <span className="text-sm text-ink-600">
-                {shortlist.total} cells within {(shortlist.radius_m / 1000).toFixed(0)} km · {shortlist.kit.antenna.name}
-                {shortlist.kit.cable ? `, ${shortlist.kit.cable_m} m ${shortlist.kit.cable.name}` : ''}
+                {shortlist.total} cells within {formatDistance(shortlist.radius_m)} · {shortlist.kit.antenna.name}
+                {shortlist.kit.cable ? `, ${formatMetres(shortlist.kit.cable_m)} ${shortlist.kit.cable.name}` : ''}
                 {shortlist.current_antenna ? ` · gain vs ${shortlist.current_antenna.name}` : ''}
                 {shortlist.required_operator_id ? ` · ${operators.find((o) => o.id === shortlist.required_operator_id)?.name ?? 'one operator'} only` : ''} ·
                 ranked by RSRP and SINR
@@ -381,14 +393,12 @@ function CandidateDetail(props: {
         {item.sinr_grade && <GradeBadge grade={item.sinr_grade} prefix="SINR" />}
       </div>
       <p className="mt-1 text-sm text-ink-700" data-testid="candidate-aim">
-        Aim {item.bearing_true_deg.toFixed(1)}° true / {item.bearing_magnetic_deg.toFixed(1)}° magnetic · tilt {item.elevation_deg >= 0 ? 'up' : 'down'}{' '}
-        {Math.abs(item.elevation_deg).toFixed(1)}° · {item.distance_m >= 1000 ? `${(item.distance_m / 1000).toFixed(2)} km` : `${item.distance_m.toFixed(0)} m`}{' '}
-        · {item.tech.toUpperCase()} {item.band} ch {item.channel} ({item.freq_mhz.toFixed(1)} MHz) PCI {item.pci ?? '—'}
+        Aim {formatBearing(item.bearing_true_deg, 'true')} / {formatBearing(item.bearing_magnetic_deg, 'magnetic')} · tilt {formatTilt(item.elevation_deg)} ·{' '}
+        {formatDistance(item.distance_m)} · {item.tech.toUpperCase()} {item.band} ch {item.channel} ({formatMhz(item.freq_mhz)}) PCI {item.pci ?? MISSING}
       </p>
       <p className="mt-1 text-sm text-ink-700" data-testid="candidate-quality">
-        SINR {item.sinr_db === null ? '—' : `${item.sinr_db.toFixed(1)} dB`} ({item.interferers} co-channel cell{item.interferers === 1 ? '' : 's'} counted) ·
-        expected up to {item.expected_throughput_mbps === null ? '—' : `${item.expected_throughput_mbps.toFixed(0)} Mbit/s`} on {item.bandwidth_mhz} MHz, shared
-        with other users · {describeConfidence(item.calibration)}
+        SINR {formatDb(item.sinr_db)} ({item.interferers} co-channel cell{item.interferers === 1 ? '' : 's'} counted) · expected up to{' '}
+        {formatMbps(item.expected_throughput_mbps)} on {item.bandwidth_mhz} MHz, shared with other users · {describeConfidence(item.calibration)}
       </p>
       <div className="mt-3 grid gap-4 xl:grid-cols-[1fr_18rem]">
         <div className="min-w-0">
@@ -404,15 +414,12 @@ function CandidateDetail(props: {
                 .map((t) => (
                   <tr key={t.key} className="border-b border-ink-100">
                     <td className="py-1 pr-2 text-ink-700">{t.label}</td>
-                    <td className="py-1 text-right tabular-nums">
-                      {t.db > 0 ? '+' : ''}
-                      {t.db.toFixed(1)} dB
-                    </td>
+                    <td className="py-1 text-right tabular-nums">{formatDb(t.db, { signed: true })}</td>
                   </tr>
                 ))}
               <tr>
                 <td className="py-1 pr-2 font-semibold">Predicted RSRP</td>
-                <td className="py-1 text-right font-semibold tabular-nums">{item.predicted_rsrp_dbm.toFixed(1)} dBm</td>
+                <td className="py-1 text-right font-semibold tabular-nums">{formatDbm(item.predicted_rsrp_dbm, 1)}</td>
               </tr>
             </tbody>
           </table>

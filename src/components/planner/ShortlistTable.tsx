@@ -2,14 +2,13 @@ import { useState } from 'react';
 import type { ShortlistItem } from '../../lib/client/planner-api';
 import { SortableTable, type Column } from '../ui/SortableTable';
 import { GradeBadge, TERRAIN_LABELS, describeConfidence } from './grades';
+import { MISSING, formatDistance, formatNumber, formatSigned } from '../../lib/domain/format';
 
 interface Props {
   items: ShortlistItem[];
   selectedCellId: string | null;
   onSelect: (cellId: string) => void;
 }
-
-const km = (m: number) => (m / 1000).toFixed(1);
 
 /** Rows shown before "Show all": the best candidates matter, the tail is for completeness. */
 const FIRST_ROWS = 12;
@@ -29,7 +28,7 @@ export default function ShortlistTable({ items, selectedCellId, onSelect }: Prop
           <span className="block font-semibold underline decoration-ink-300 underline-offset-2">{i.mast.name}</span>
           <span className="text-xs text-ink-600">
             <span className="mr-1 inline-block h-2 w-2 rounded-full" style={{ background: i.operator.colour ?? '#476785' }} aria-hidden="true" />
-            {i.operator.name} · {i.tech.toUpperCase()} {i.band} · ch {i.channel} · PCI {i.pci ?? '—'}
+            {i.operator.name} · {i.tech.toUpperCase()} {i.band} · ch {i.channel} · PCI {i.pci ?? MISSING}
           </span>
           {i.preferred && (
             <span className="ml-1 rounded bg-ink-100 px-1 text-xs font-semibold text-ink-800" data-testid="preferred">
@@ -41,9 +40,9 @@ export default function ShortlistTable({ items, selectedCellId, onSelect }: Prop
     },
     {
       key: 'dist',
-      label: 'km',
+      label: 'Distance',
       sortValue: (i) => i.distance_m,
-      render: (i) => <span className="tabular-nums">{km(i.distance_m)}</span>,
+      render: (i) => <span className="whitespace-nowrap tabular-nums">{formatDistance(i.distance_m)}</span>,
       className: 'text-right',
     },
     {
@@ -52,7 +51,7 @@ export default function ShortlistTable({ items, selectedCellId, onSelect }: Prop
       sortValue: (i) => i.bearing_true_deg,
       render: (i) => (
         <span className="tabular-nums">
-          {i.bearing_true_deg.toFixed(0)} / {i.bearing_magnetic_deg.toFixed(0)}
+          {formatNumber(i.bearing_true_deg, 1)} / {formatNumber(i.bearing_magnetic_deg, 1)}
         </span>
       ),
       className: 'text-right',
@@ -61,8 +60,8 @@ export default function ShortlistTable({ items, selectedCellId, onSelect }: Prop
       key: 'elev',
       label: 'Tilt °',
       sortValue: (i) => i.elevation_deg,
-      render: (i) => <span className="tabular-nums">{i.elevation_deg.toFixed(1)}</span>,
-      className: 'hidden text-right sm:table-cell',
+      render: (i) => <span className="tabular-nums">{formatNumber(i.elevation_deg, 1)}</span>,
+      className: 'text-right',
     },
     { key: 'terrain', label: 'Terrain', sortValue: (i) => i.terrain.diffraction_loss_db, render: (i) => TERRAIN_LABELS[i.terrain.status] },
     {
@@ -72,7 +71,7 @@ export default function ShortlistTable({ items, selectedCellId, onSelect }: Prop
       render: (i) => (
         <span className="flex flex-wrap items-center justify-end gap-1">
           <span className="font-semibold tabular-nums" data-testid="rsrp">
-            {i.predicted_rsrp_dbm.toFixed(0)}
+            {formatNumber(i.predicted_rsrp_dbm, 0)}
           </span>
           <GradeBadge grade={i.grade} />
         </span>
@@ -91,8 +90,8 @@ export default function ShortlistTable({ items, selectedCellId, onSelect }: Prop
             i.interferers ? `${i.interferers} co-channel cell${i.interferers === 1 ? '' : 's'} of ${i.operator.name} counted` : 'no co-channel cell nearby'
           }
         >
-          {i.sinr_db === null ? '—' : i.sinr_db.toFixed(0)}
-          <span className="text-ink-600"> · {i.expected_throughput_mbps === null ? '—' : i.expected_throughput_mbps.toFixed(0)}</span>
+          {formatNumber(i.sinr_db, 1)}
+          <span className="text-ink-600"> · {formatNumber(i.expected_throughput_mbps, 0)}</span>
         </span>
       ),
       className: 'text-right',
@@ -101,10 +100,8 @@ export default function ShortlistTable({ items, selectedCellId, onSelect }: Prop
       key: 'gain',
       label: 'Gain dB',
       sortValue: (i) => i.expected_gain_db,
-      render: (i) => (
-        <span className="tabular-nums">{i.expected_gain_db === null ? '—' : `${i.expected_gain_db > 0 ? '+' : ''}${i.expected_gain_db.toFixed(1)}`}</span>
-      ),
-      className: 'hidden text-right sm:table-cell',
+      render: (i) => <span className="tabular-nums">{formatSigned(i.expected_gain_db, 1)}</span>,
+      className: 'text-right',
     },
     {
       key: 'cal',

@@ -1,5 +1,6 @@
 import { Area, CartesianGrid, ComposedChart, Line, ReferenceDot, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import type { PathResult } from '../../lib/client/tools-api';
+import { formatDb, formatDistance, formatMetres } from '../../lib/domain/format';
 
 interface Props {
   path: PathResult;
@@ -47,7 +48,7 @@ export default function TerrainChart({ path }: Props) {
               fontSize={12}
             />
             <YAxis domain={[Math.floor(low / 10) * 10, 'auto']} fontSize={12} label={{ value: 'm', angle: -90, position: 'insideLeft', fontSize: 12 }} />
-            <Tooltip formatter={(v) => `${v} m`} labelFormatter={(v) => `${Number(v).toFixed(2)} km`} />
+            <Tooltip formatter={(v) => formatMetres(Number(v))} labelFormatter={(v) => formatDistance(Number(v) * 1000)} />
             <Area
               type="monotone"
               dataKey="ground"
@@ -86,9 +87,9 @@ export default function TerrainChart({ path }: Props) {
       <figcaption className="mt-2 text-sm text-ink-700">
         {terrain.status === 'clear' && 'Clear: at least 60 % of the first Fresnel zone is free along the path.'}
         {terrain.status === 'fresnel' &&
-          `Fresnel zone infringed: worst clearance ${terrain.worst_clearance_m} m at ${((terrain.worst_distance_m ?? 0) / 1000).toFixed(2)} km, about ${terrain.diffraction_loss_db} dB diffraction loss.`}
+          `Fresnel zone infringed: worst clearance ${formatMetres(terrain.worst_clearance_m)} at ${formatDistance(terrain.worst_distance_m ?? 0)}, about ${formatDb(terrain.diffraction_loss_db)} diffraction loss.`}
         {terrain.status === 'obstructed' &&
-          `Obstructed: the ground rises ${Math.abs(terrain.worst_clearance_m ?? 0)} m above the line of sight at ${((terrain.worst_distance_m ?? 0) / 1000).toFixed(2)} km, about ${terrain.diffraction_loss_db} dB diffraction loss.`}
+          `Obstructed: the ground rises ${formatMetres(Math.abs(terrain.worst_clearance_m ?? 0))} above the line of sight at ${formatDistance(terrain.worst_distance_m ?? 0)}, about ${formatDb(terrain.diffraction_loss_db)} diffraction loss.`}
       </figcaption>
     </figure>
   );

@@ -1,5 +1,6 @@
 import type { Grade, ShortlistItem, TerrainStatus } from '../../lib/client/planner-api';
 import type { CalibrationConfidenceJson } from '../../lib/schemas/shortlist';
+import { formatDb } from '../../lib/domain/format';
 
 /**
  * Bearline's grade colours: a ramp from deep green to slate, readable with the text label beside it.
@@ -45,5 +46,5 @@ export const CONFIDENCE_LABELS: Record<CalibrationConfidenceJson, string> = { hi
 /** How far a prediction can be trusted: readings behind it and the remaining uncertainty. */
 export function describeConfidence(c: ShortlistItem['calibration']): string {
   if (!c) return 'model only (±8 dB)';
-  return `${CONFIDENCE_LABELS[c.confidence]} confidence: ${c.readings_used} reading${c.readings_used === 1 ? '' : 's'}, ±${c.uncertainty_db.toFixed(1)} dB`;
+  return `${CONFIDENCE_LABELS[c.confidence]} confidence: ${c.readings_used} reading${c.readings_used === 1 ? '' : 's'}, ±${formatDb(c.uncertainty_db)}`;
 }

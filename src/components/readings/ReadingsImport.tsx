@@ -120,18 +120,20 @@ export default function ReadingsImport() {
         {stage.kind === 'rejected' && (
           <div className="mt-4 rounded border border-red-300 bg-red-50 p-4 text-sm" data-testid="import-report">
             <p className="font-medium">{stage.message}</p>
-            <table className="mt-2 w-full text-left">
+            <table className="data-table stack mt-2">
               <thead>
                 <tr>
-                  <th className="pr-4">Line</th>
-                  <th>Problem</th>
+                  <th scope="col">Line</th>
+                  <th scope="col">Problem</th>
                 </tr>
               </thead>
               <tbody>
                 {stage.lines.map(([key, messages]) => (
-                  <tr key={key} className="align-top">
-                    <td className="pr-4 tabular-nums">{lineOf(key)}</td>
-                    <td>{messages.join('; ')}</td>
+                  <tr key={key}>
+                    <td className="tabular-nums" data-label="Line">
+                      {lineOf(key)}
+                    </td>
+                    <td data-label="Problem">{messages.join('; ')}</td>
                   </tr>
                 ))}
               </tbody>

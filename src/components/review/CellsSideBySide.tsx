@@ -45,7 +45,7 @@ export default function CellsSideBySide({ sightingCells, mastCells, mastName }: 
   const pairs = pairCells(sightingCells.map(identity), (mastCells ?? []).map(identity));
   if (pairs.length === 0) return <p className="text-sm text-ink-500">No cells were reported{mastName ? ' and the mast has none' : ''}.</p>;
   return (
-    <table className="data-table" data-testid="cells-side-by-side">
+    <table className="data-table stack" data-testid="cells-side-by-side">
       <caption className="sr-only">Cells reported in the sighting beside the cells of {mastName ?? 'no mast'}</caption>
       <thead>
         <tr>
@@ -56,18 +56,18 @@ export default function CellsSideBySide({ sightingCells, mastCells, mastName }: 
       <tbody>
         {pairs.map((p, i) => (
           <tr key={i} className={p.shared ? 'bg-moss-50' : p.sighting && p.mast ? 'bg-ink-50' : undefined}>
-            <td>
+            <td data-label="Reported">
               {p.sighting ? (
                 <>
                   <CellText c={p.sighting} />
                   {p.sighting.rsrp_dbm !== null && <span className="text-xs text-ink-500">RSRP {p.sighting.rsrp_dbm} dBm where the surveyor stood</span>}
                 </>
               ) : (
-                <span className="text-ink-400">not reported</span>
+                <span className="text-ink-500">not reported</span>
               )}
             </td>
-            <td>
-              {p.mast ? <CellText c={p.mast} /> : <span className="text-ink-400">{mastCells ? 'new on this mast' : '—'}</span>}
+            <td data-label={mastName ? `On ${mastName}` : 'On the mast'}>
+              {p.mast ? <CellText c={p.mast} /> : <span className="text-ink-500">{mastCells ? 'new on this mast' : '—'}</span>}
               {p.shared && <span className="mt-1 inline-block rounded bg-moss-100 px-1.5 text-xs font-semibold text-moss-700">Same cell</span>}
             </td>
           </tr>

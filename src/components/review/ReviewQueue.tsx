@@ -6,11 +6,11 @@ import { DECISION_LABELS, DecisionSchema, type Decision } from '../../lib/schema
 import { STRUCTURE_TYPE_LABELS } from '../../lib/schemas/masts';
 import ReviewMap from './ReviewMap';
 import CellsSideBySide from './CellsSideBySide';
+import { formatDateTime, formatDistance, formatLatLon } from '../../lib/domain/format';
 
-const fmtDate = (iso: string) =>
-  new Date(iso).toLocaleString(undefined, { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' });
+const fmtDate = formatDateTime;
 const count = (n: number, one: string) => `${n} ${one}${n === 1 ? '' : 's'}`;
-const fmtDistance = (m: number) => (m < 10 ? `${m.toFixed(1)} m` : `${Math.round(m)} m`);
+const fmtDistance = formatDistance;
 const POSITION_FROM: Record<string, string> = { photo: "the photo's GPS tags", device: "the phone's location", map: 'a click on the map' };
 
 function SubmitterRecord({ r }: { r: ReviewItemJson['submitter'] }) {
@@ -208,7 +208,7 @@ function SightingDetail({
         <p className="text-sm text-ink-600">
           Seen {fmtDate(s.observed_at)} by <span className="font-semibold">{s.author.name}</span> (<SubmitterRecord r={item.submitter} />
           ). Position from {POSITION_FROM[s.position_source]}
-          {s.position_accuracy_m !== null && ` (±${Math.round(s.position_accuracy_m)} m)`}: {s.lat.toFixed(5)}, {s.lon.toFixed(5)}.
+          {s.position_accuracy_m !== null && ` (±${Math.round(s.position_accuracy_m)} m)`}: {formatLatLon(s.lat, s.lon)}.
         </p>
         {s.notes && <p className="mt-2 whitespace-pre-line rounded bg-ink-50 px-3 py-2 text-sm text-ink-800">{s.notes}</p>}
       </header>

@@ -4,6 +4,7 @@ import { keepFlushing } from '../../lib/client/sighting-outbox';
 import { sightingsApi } from '../../lib/client/sightings-api';
 import { SIGHTING_STATUS_LABELS, SIGHTING_STRUCTURE_LABELS, type SightingJson, type SightingStatus } from '../../lib/schemas/sightings';
 import OutboxList from './OutboxList';
+import { formatDateTime, formatLatLon, formatMetres } from '../../lib/domain/format';
 
 const TONE: Record<SightingStatus, string> = {
   pending: 'bg-ember-100 text-ember-700',
@@ -12,7 +13,7 @@ const TONE: Record<SightingStatus, string> = {
   rejected: 'bg-alarm-100 text-alarm-700',
 };
 
-const when = (iso: string) => new Date(iso).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+const when = formatDateTime;
 
 export default function MySightings() {
   const [items, setItems] = useState<SightingJson[] | null>(null);
@@ -48,7 +49,7 @@ export default function MySightings() {
             </div>
             <p className="text-base text-ink-900">
               {SIGHTING_STRUCTURE_LABELS[s.structure_type]}
-              {s.estimated_height_m !== null && <> · about {s.estimated_height_m} m</>} · {s.lat.toFixed(5)}, {s.lon.toFixed(5)}
+              {s.estimated_height_m !== null && <> · about {formatMetres(s.estimated_height_m, 0)}</>} · {formatLatLon(s.lat, s.lon)}
             </p>
             {(s.operators.length > 0 || s.cells.length > 0) && (
               <p className="text-sm text-ink-700">

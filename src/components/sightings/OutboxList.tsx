@@ -1,6 +1,7 @@
 // Sightings kept on this device until the server has them.
 import { useEffect, useState } from 'react';
 import { SIGHTING_STRUCTURE_LABELS } from '../../lib/schemas/sightings';
+import { formatLatLon } from '../../lib/domain/format';
 import { flushOutbox, listOutbox, onOutboxChange, removeFromOutbox, saveToOutbox, type OutboxEntry } from '../../lib/client/sighting-outbox';
 
 export default function OutboxList({ onSent }: { onSent?: () => void }) {
@@ -40,7 +41,7 @@ export default function OutboxList({ onSent }: { onSent?: () => void }) {
               >
                 {e.state === 'waiting' ? 'Waiting to send' : 'Refused'}
               </span>
-              {SIGHTING_STRUCTURE_LABELS[e.sighting.structure_type] ?? 'Sighting'} at {Number(e.sighting.lat).toFixed(4)}, {Number(e.sighting.lon).toFixed(4)} ·{' '}
+              {SIGHTING_STRUCTURE_LABELS[e.sighting.structure_type] ?? 'Sighting'} at {formatLatLon(Number(e.sighting.lat), Number(e.sighting.lon), 4)} ·{' '}
               {e.photos.length} photo{e.photos.length === 1 ? '' : 's'}
               {e.error && <span className="block text-alarm-700">{e.error}</span>}
             </span>

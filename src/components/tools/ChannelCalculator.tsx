@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { formatMhz } from '../../lib/domain/format';
 import { toolsApi, type ChannelResult, type FrequencyResult } from '../../lib/client/tools-api';
 import { useDebounced } from './useDebounced';
 import { useQueryResult } from './useQueryResult';
@@ -23,7 +24,8 @@ export default function ChannelCalculator() {
     sMode === 'channel' ? toolsApi.channel(sTech, sValue) : toolsApi.frequency(sTech, sValue),
   );
   const fieldError = result.fields.channel?.[0] ?? result.fields.freq_mhz?.[0] ?? result.fields.tech?.[0] ?? result.error;
-  const fmt = (mhz: number | null) => (mhz === null ? '—' : mhz.toFixed(mhz % 1 === 0 ? 1 : 3));
+  // The number alone: the unit is printed beside it.
+  const fmt = (mhz: number | null) => formatMhz(mhz, { unit: false });
 
   return (
     <section className="card" aria-labelledby="channel-heading">
@@ -103,7 +105,7 @@ function FrequencyView({ r }: { r: FrequencyResult }) {
   return (
     <div data-testid="frequency-result">
       {r.ambiguous && <p className="mb-2 text-sm text-ember-700">{r.freq_mhz} MHz lies in more than one band: the frequency alone does not name the band.</p>}
-      <table className="data-table">
+      <table className="data-table stack">
         <thead>
           <tr>
             <th scope="col">Band</th>
@@ -115,10 +117,12 @@ function FrequencyView({ r }: { r: FrequencyResult }) {
         <tbody>
           {r.items.map((i) => (
             <tr key={`${i.band}-${i.direction}`}>
-              <td>{i.band}</td>
-              <td className="tabular-nums">{i.channel}</td>
-              <td>{i.direction === 'both' ? 'DL + UL' : i.direction}</td>
-              <td>{i.exact ? 'yes' : 'nearest'}</td>
+              <td data-label="Band">{i.band}</td>
+              <td className="tabular-nums" data-label="Channel">
+                {i.channel}
+              </td>
+              <td data-label="Link">{i.direction === 'both' ? 'DL + UL' : i.direction}</td>
+              <td data-label="On raster">{i.exact ? 'yes' : 'nearest'}</td>
             </tr>
           ))}
         </tbody>

@@ -3,6 +3,7 @@ import { toolsApi, type PathResult } from '../../lib/client/tools-api';
 import { useDebounced } from './useDebounced';
 import { useQueryResult } from './useQueryResult';
 import { ResultRow } from './ResultRow';
+import { formatNumber } from '../../lib/domain/format';
 
 interface Form {
   from: string;
@@ -22,7 +23,7 @@ const FIELDS: { key: keyof Form; label: string; hint: string; mode: 'decimal' | 
   { key: 'date', label: 'Date for declination', hint: 'YYYY-MM-DD', mode: 'text' },
 ];
 
-const f = (n: number, d = 1) => n.toFixed(d);
+const f = formatNumber;
 
 export default function PathCalculator({ today, initialFrom, initialTo }: { today: string; initialFrom?: string; initialTo?: string }) {
   const [form, setForm] = useState<Form>({

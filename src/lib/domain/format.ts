@@ -68,11 +68,15 @@ export function formatDbi(v: Maybe): string {
   return withUnit(formatNumber(v, 1), 'dBi');
 }
 
-/** Frequencies: 0.1 MHz on the usual rasters, more decimals only where the channel needs them ("3500.01 MHz"). */
-export function formatMhz(v: Maybe): string {
+/**
+ * Frequencies: 0.1 MHz on the usual rasters, more decimals only where the channel needs them
+ * ("3500.01 MHz"). `unit: false` leaves the unit off, for a value printed beside its unit.
+ */
+export function formatMhz(v: Maybe, options: { unit?: boolean } = {}): string {
   if (!isNumber(v)) return MISSING;
   const tenths = Math.abs(v * 10 - Math.round(v * 10)) < 1e-6;
-  return withUnit(tenths ? formatNumber(v, 1) : String(Number(v.toFixed(3))), 'MHz');
+  const text = tenths ? formatNumber(v, 1) : String(Number(v.toFixed(3)));
+  return options.unit === false ? text : withUnit(text, 'MHz');
 }
 
 /** Throughput: whole Mbit/s from 10 up, 0.1 below. */
