@@ -4,9 +4,9 @@
 // build's precompressed assets (.br / .gz made at build time) and compresses HTML and JSON on the
 // way out (gzip or brotli, whichever the client prefers). Plain JavaScript: runs with `node` alone.
 import cluster from 'node:cluster';
-import { existsSync, readdirSync, statSync, createReadStream } from 'node:fs';
+import { existsSync, readdirSync, statSync, createReadStream, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import http from 'node:http';
-import { availableParallelism } from 'node:os';
+import { availableParallelism, tmpdir } from 'node:os';
 import { extname, join, resolve, sep } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import compression from 'compression';
@@ -123,6 +123,12 @@ function startWorker() {
 }
 
 if (cluster.isPrimary && WORKERS > 1) {
+  // The workers' shared write marker (src/lib/server/write-epoch.ts): after any worker wrote, the
+  // others read data versions and sessions from the database again instead of their memory.
+  const epochDir = mkdtempSync(join(tmpdir(), 'bearline-epoch-'));
+  process.env.BEARLINE_WRITE_EPOCH_FILE = join(epochDir, 'epoch');
+  writeFileSync(process.env.BEARLINE_WRITE_EPOCH_FILE, Buffer.alloc(16));
+  process.on('exit', () => rmSync(epochDir, { recursive: true, force: true }));
   let stopping = false;
   const fork = () => cluster.fork();
   for (let i = 0; i < WORKERS; i++) fork();

@@ -2,6 +2,9 @@ import { defineMiddleware } from 'astro:middleware';
 import type { APIContext } from 'astro';
 import { AppError, ForbiddenError, type ErrorCode } from './lib/server/errors';
 import { lucia, setSessionCookie } from './lib/server/auth';
+import { validateSessionCached } from './lib/server/session-cache';
+import { startChangeFeed } from './lib/server/change-feed';
+import { noteLocalWrite } from './lib/server/write-epoch';
 import { errorResponse } from './lib/server/http';
 import { isForeignWrite } from './lib/server/origin';
 import { config } from './lib/server/config';
@@ -13,6 +16,8 @@ import { DATABASE_UNAVAILABLE_MESSAGE, isDatabaseUnavailable } from './lib/serve
 import { allowedApiMethods, methodNotAllowed, PAGE_METHODS } from './lib/server/methods';
 import { API_CSP, COMMON_HEADERS, contentSecurityPolicy, inlineScriptHashes, mutable } from './lib/server/security-headers';
 
+const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
+
 const isApiPath = (pathname: string) => pathname === '/api' || pathname.startsWith('/api/');
 
 export const onRequest = defineMiddleware(async (context, next) => {
@@ -22,6 +27,8 @@ export const onRequest = defineMiddleware(async (context, next) => {
   if (config.databaseUrl) startBackgroundWork(context.url.origin);
   // The job queue and this instance's workers (imports), once per process.
   startJobQueueInBackground();
+  // Data versions and session changes pushed by PostgreSQL, once per process.
+  startChangeFeed(config.databaseUrl);
   const api = isApiPath(context.url.pathname);
   const response = await answer(context, next, api);
   return secure(response, api);
@@ -43,7 +50,7 @@ async function answer(context: APIContext, next: () => Promise<Response>, api: b
   const sessionId = context.cookies.get(lucia.sessionCookieName)?.value ?? null;
   if (sessionId) {
     try {
-      const { session, user } = await lucia.validateSession(sessionId);
+      const { session, user } = await validateSessionCached(sessionId);
       if (session?.fresh) setSessionCookie(context.cookies, context.url, session.id);
       if (!session) setSessionCookie(context.cookies, context.url, null);
       if (session && user && !user.disabledAt) {
@@ -66,6 +73,9 @@ async function answer(context: APIContext, next: () => Promise<Response>, api: b
     if (api) return errorResponse(err);
     if (isDatabaseUnavailable(err)) return unavailable(false);
     throw err;
+  } finally {
+    // In-memory copies on this machine read the database again after anything that may have written.
+    if (!SAFE_METHODS.has(method)) noteLocalWrite();
   }
 
   if (api) {

@@ -313,6 +313,32 @@ describe('mast tiles zoomed out, cached and compressed', () => {
     expect(layerFeatures(close.bytes, 'mast_clusters')).toEqual([]);
   });
 
+  it('count only the masts the filter keeps in the clusters, and say when the tile came from the cache', async () => {
+    const db = testDb();
+    const t = tileOf(FAR.lat, FAR.lon, 5);
+    const [b] = await db('masts').where({ name: 'Cluster B' }).pluck('id');
+    const [c] = await db('masts').where({ name: 'Cluster C' }).pluck('id');
+    await db('masts').where({ id: c }).update({ status: 'planned' });
+    await createCell(db, String(b), CellInputSchema.parse({ operator_id: ids.op2, tech: 'nr', channel: 641280, pci: 9 }), null);
+    const counts = async (query?: string) => {
+      const res = await fetchTile('masts', t, { user: contributor, query });
+      return {
+        clusters: layerFeatures(res.bytes, 'mast_clusters').map((f) => f.properties.point_count),
+        masts: layerFeatures(res.bytes, 'masts').map((f) => f.properties.name),
+        cache: res.headers.get('x-tile-cache'),
+      };
+    };
+    expect(await counts()).toMatchObject({ clusters: [3], cache: 'miss' });
+    expect(await counts()).toMatchObject({ clusters: [3], cache: 'hit' });
+    // Active only: A and B stay together, the planned C leaves the cluster.
+    expect(await counts('status=active')).toMatchObject({ clusters: [2], masts: ['Far Lone'] });
+    // Only B has an NR cell: no cluster is left, B is drawn alone.
+    expect(await counts('tech=nr')).toMatchObject({ clusters: [], masts: ['Cluster B'] });
+    expect(await counts(`operator=${ids.op2}&band=n78`)).toMatchObject({ clusters: [], masts: ['Cluster B'] });
+    await db('cells').where({ mast_id: b }).delete();
+    await db('masts').where({ id: c }).update({ status: 'active' });
+  });
+
   it('show every cell write at once although tiles are cached (the summary follows the cells)', async () => {
     const db = testDb();
     const t = tileOf(FAR.lat, FAR.lon, 12);

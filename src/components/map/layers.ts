@@ -21,14 +21,30 @@ export const MAST_TILE_MAX_ZOOM = 14;
 /** Zoom at which mast names appear. */
 export const MAST_LABEL_MIN_ZOOM = 12;
 
-/** The mast tiles; a new `version` makes MapLibre fetch them afresh after an edit. */
-export function mastSource(origin: string, version = 0): VectorSourceSpecification {
+/**
+ * The mast tiles; a new `version` makes MapLibre fetch them afresh after an edit. The filter goes to
+ * the server too, so the clusters of the low zooms count only the masts it keeps.
+ */
+export function mastSource(origin: string, version = 0, filter: MastFilterState = NO_MAST_FILTER): VectorSourceSpecification {
+  const query = mastTileQuery(filter);
+  if (version) query.set('v', String(version));
+  const search = query.toString();
   return {
     type: 'vector',
-    tiles: [origin + tilePathTemplate('masts') + (version ? `?v=${version}` : '')],
+    tiles: [origin + tilePathTemplate('masts') + (search ? `?${search}` : '')],
     minzoom: 0,
     maxzoom: MAST_TILE_MAX_ZOOM,
   };
+}
+
+/** The tile endpoint's filter parameters for a filter state (none when it keeps every mast). */
+export function mastTileQuery(f: MastFilterState): URLSearchParams {
+  const q = new URLSearchParams();
+  if (f.operators.length) q.set('operator', [...f.operators].sort().join(','));
+  if (f.techs.length) q.set('tech', [...f.techs].sort().join(','));
+  if (f.bands.length) q.set('band', [...f.bands].sort().join(','));
+  if (f.statuses.length && f.statuses.length < MAST_STATUSES.length) q.set('status', [...f.statuses].sort().join(','));
+  return q;
 }
 
 const status = ['coalesce', ['get', 'status'], 'active'] as unknown as ExpressionSpecification;
@@ -81,8 +97,8 @@ export const MAST_CLUSTER_COUNT_LAYER_ID = 'mast-clusters-count';
 
 /**
  * Zoomed out, the server sends masts that share a grid square as one cluster with `point_count`
- * (unfiltered: filters apply to single masts; zoom in to filter every mast). A disc that grows with
- * the count; a click zooms in on it.
+ * (counting only the masts the filter keeps: see mastSource). A disc that grows with the count; a
+ * click zooms in on it.
  */
 export const MAST_CLUSTER_LAYER: Omit<CircleLayerSpecification, 'source'> = {
   id: MAST_CLUSTER_LAYER_ID,

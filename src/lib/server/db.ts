@@ -6,6 +6,10 @@ import { config } from './config';
 // bigint ids and counts come back as strings by default; numeric columns as numbers.
 pg.types.setTypeParser(pg.types.builtins.NUMERIC, (v) => (v === null ? null : Number(v)));
 
+// The app's statements are short and planned afresh each time (tiles, lists, one record): JIT
+// compilation of their plans would cost more than it saves.
+const SESSION_OPTIONS = '-c jit=off';
+
 let instance: Knex | null = null;
 
 export function getDb(): Knex {
@@ -24,6 +28,7 @@ export function getDb(): Knex {
         query_timeout: statementMs + 5_000,
         idle_in_transaction_session_timeout: statementMs * 2,
         keepAlive: true,
+        options: SESSION_OPTIONS,
       },
       // Waiting for a free connection from the pool (all busy, or the database unreachable).
       acquireConnectionTimeout: connectMs + 2_000,
@@ -42,7 +47,9 @@ let readInstance: Knex | null = null;
  */
 export function getReadDb(): Knex {
   if (!config.databaseReadUrl) return getDb();
-  if (!readInstance) readInstance = knexFactory({ client: 'pg', connection: config.databaseReadUrl, pool: { min: 0, max: 10 } });
+  if (!readInstance) {
+    readInstance = knexFactory({ client: 'pg', connection: { connectionString: config.databaseReadUrl, options: SESSION_OPTIONS }, pool: { min: 0, max: 10 } });
+  }
   return readInstance;
 }
 

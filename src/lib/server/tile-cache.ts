@@ -3,6 +3,9 @@
 import { createHash } from 'node:crypto';
 import { promisify } from 'node:util';
 import { gzip } from 'node:zlib';
+import type { Tx } from './db';
+import { getDataVersion, type DataKind } from './data-version';
+import type { TileQuery } from './repos/tiles';
 
 const gzipAsync = promisify(gzip);
 
@@ -69,4 +72,41 @@ export function getTileCache(): TileCache {
     shared = new TileCache(Number.isFinite(mb) && mb >= 0 ? mb * 1024 * 1024 : DEFAULT_BUDGET_MB * 1024 * 1024);
   }
   return shared;
+}
+
+/** One layer's tile to serve from the cache or cut afresh. */
+export interface TileSpec {
+  /** The URL layer name (part of the cache key). */
+  layer: string;
+  /** The data version that a write to this layer's data raises (data_versions.name). */
+  kind: DataKind;
+  z: number;
+  x: number;
+  y: number;
+  /** Anything else that changes the tile (filters, options), as a stable string; '' for none. */
+  variant: string;
+  /** The query that cuts the tile (see repos/tiles.ts). */
+  query: (db: Tx) => TileQuery;
+}
+
+const tileKey = (spec: TileSpec, version: string) => `${spec.layer}/${version}/${spec.z}/${spec.x}/${spec.y}${spec.variant ? `?${spec.variant}` : ''}`;
+
+/**
+ * The tile from this process's cache under the current data version, or cut and cached. A hit needs
+ * no database round trip while the change feed is live (data-version.ts). A cut reads the version in
+ * the same statement as the tile, so the tile is filed under the version it was cut from even if a
+ * write (or a lagging standby) moved the version meanwhile.
+ */
+export async function getCachedTile(db: Tx, spec: TileSpec): Promise<{ tile: CachedTile; hit: boolean }> {
+  const cache = getTileCache();
+  const version = await getDataVersion(db, spec.kind);
+  const hit = cache.get(tileKey(spec, version));
+  if (hit) return { tile: hit, hit: true };
+  const { rows } = await db.raw<{ rows: Array<{ version: string | null; tile: Buffer | null }> }>(
+    'SELECT (SELECT version::text FROM data_versions WHERE name = ?) AS version, q.tile FROM (?) q',
+    [spec.kind, spec.query(db)],
+  );
+  const tile = await prepareTile(rows[0]?.tile ?? Buffer.alloc(0));
+  cache.set(tileKey(spec, rows[0]?.version ?? '0'), tile);
+  return { tile, hit: false };
 }

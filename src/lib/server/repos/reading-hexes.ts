@@ -15,7 +15,7 @@ import {
   toWebMercator,
   type HexLevel,
 } from '../../domain/signal-map';
-import { TILE_BUFFER, TILE_EXTENT, type TileAddress } from './tiles';
+import { TILE_BUFFER, TILE_EXTENT, type TileAddress, type TileQuery } from './tiles';
 
 /** MVT layer name of the signal tiles. */
 export const SIGNAL_MVT_LAYER = 'signal';
@@ -207,27 +207,23 @@ function hexRowsSql(f: SignalFilter): string {
      ORDER BY i, j, audience`;
 }
 
-/** The signal tile: layer `signal`, one polygon per hexagon of the zoom's level, with counts and medians. */
-export async function getSignalTile(db: Tx, t: TileAddress, f: SignalFilter): Promise<Buffer> {
+/** The signal tile query (one row, column `tile`): layer `signal`, one polygon per hexagon of the zoom's level, with counts and medians. */
+export function signalTileQuery(db: Tx, t: TileAddress, f: SignalFilter): TileQuery {
   const level = getHexLevelForZoom(t.z);
   const box = getTileBox(t.z, t.x, t.y);
   const margin = ((box.xmax - box.xmin) * TILE_BUFFER) / TILE_EXTENT;
   const range = getHexRangeForBox(level.sizeM, { xmin: box.xmin - margin, ymin: box.ymin - margin, xmax: box.xmax + margin, ymax: box.ymax + margin });
   const round1 = (col: string) => `round(h.${col}::numeric, 1)::float8 AS ${col}`;
-  const { rows } = await db.transaction(async (trx) => {
-    await trx.raw('SET LOCAL jit = off');
-    return trx.raw<{ rows: Array<{ tile: Buffer | null }> }>(
-      `WITH bounds AS (SELECT ST_TileEnvelope(:z, :x, :y) AS env), hexes AS (${hexRowsSql(f)})
+  return db.raw(
+    `WITH bounds AS (SELECT ST_TileEnvelope(:z, :x, :y) AS env), hexes AS (${hexRowsSql(f)})
        SELECT coalesce(ST_AsMVT(q, '${SIGNAL_MVT_LAYER}', ${TILE_EXTENT}, 'geom'), ''::bytea) AS tile FROM (
          SELECT h.readings, h.rsrp_count, ${round1('rsrp_median_dbm')}, h.rsrq_count, ${round1('rsrq_median_db')},
                 h.sinr_count, ${round1('sinr_median_db')},
                 ST_AsMVTGeom(${hexagonSql(':size', 'h.i', 'h.j')}, b.env, ${TILE_EXTENT}, ${TILE_BUFFER}, true) AS geom
            FROM hexes h, bounds b
        ) q WHERE q.geom IS NOT NULL`,
-      { z: t.z, x: t.x, y: t.y, level: level.level, size: level.sizeM, operatorId: f.operatorId, band: f.band, ...range },
-    );
-  });
-  return rows[0]?.tile ?? Buffer.alloc(0);
+    { z: t.z, x: t.x, y: t.y, level: level.level, size: level.sizeM, operatorId: f.operatorId, band: f.band, ...range },
+  );
 }
 
 export interface ReadingHexRow {

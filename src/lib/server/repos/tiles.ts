@@ -26,6 +26,9 @@ export const BASEMAP_MVT_LAYERS = [
 /** Attributes of each feature in the `masts` MVT layer (the feature id is the mast id too). */
 export const MAST_MVT_ATTRIBUTES = ['id', 'name', 'status', 'structure_type', 'op_ids', 'op_count', 'bands', 'techs', 'cell_count'] as const;
 
+/** A query yielding one row with the finished tile in column `tile` (null or empty when nothing is in it). */
+export type TileQuery = Knex.Raw<{ rows: Array<{ tile: Buffer | null }> }>;
+
 export interface TileAddress {
   z: number;
   x: number;
@@ -53,9 +56,14 @@ const BASEMAP_TILE_SQL = `
   )
   SELECT ${BASEMAP_MVT_LAYERS.map(basemapLayerSql).join(' || ')} AS tile`;
 
-/** The basemap tile: layers land, landuse, water, roads, places concatenated (an empty buffer when nothing is there). */
+/** The basemap tile query (one row, column `tile`): layers land, landuse, water, roads, places concatenated. */
+export function basemapTileQuery(db: Tx, t: TileAddress): TileQuery {
+  return db.raw(BASEMAP_TILE_SQL, [t.z, t.x, t.y, t.z, t.x, t.y]);
+}
+
+/** The basemap tile (an empty buffer when nothing is there). */
 export async function getBasemapTile(db: Tx, t: TileAddress): Promise<Buffer> {
-  const { rows } = await db.raw<{ rows: Array<{ tile: Buffer }> }>(BASEMAP_TILE_SQL, [t.z, t.x, t.y, t.z, t.x, t.y]);
+  const { rows } = await basemapTileQuery(db, t);
   return rows[0]?.tile ?? Buffer.alloc(0);
 }
 
@@ -88,16 +96,12 @@ function mastFeaturesSql(idsSql: string): string {
  * triggers on cells), so no per-mast join over cells is needed.
  */
 export async function getMastsTile(db: Tx, t: TileAddress, filter: MastFilter): Promise<Buffer> {
-  // Tile queries are short and planned afresh each time: JIT compilation would cost more than it saves.
-  const { rows } = await db.transaction(async (trx) => {
-    await trx.raw('SET LOCAL jit = off');
-    return mastsTileQuery(trx, t, filter);
-  });
+  const { rows } = await mastsTileQuery(db, t, filter);
   return rows[0]?.tile ?? Buffer.alloc(0);
 }
 
 /** The masts tile query (one row, column `tile`); the benchmark runs the same SQL in psql. */
-export function mastsTileQuery(db: Tx, t: TileAddress, filter: MastFilter): Knex.Raw<{ rows: Array<{ tile: Buffer | null }> }> {
+export function mastsTileQuery(db: Tx, t: TileAddress, filter: MastFilter): TileQuery {
   const clustered = t.z < MAST_CLUSTER_BELOW_ZOOM;
   const inTile = db('masts as m')
     .select('m.id', 'm.geom_3857')

@@ -1,9 +1,8 @@
 import { getReadDb } from '../../../../../../lib/server/db';
-import { getDataVersion } from '../../../../../../lib/server/data-version';
 import { handler, parseQuery, parseWith, requirePermission } from '../../../../../../lib/server/http';
-import { getBasemapTile, getMastsTile } from '../../../../../../lib/server/repos/tiles';
-import { getSignalTile } from '../../../../../../lib/server/repos/reading-hexes';
-import { getTileCache, prepareTile, type CachedTile } from '../../../../../../lib/server/tile-cache';
+import { basemapTileQuery, mastsTileQuery } from '../../../../../../lib/server/repos/tiles';
+import { signalTileQuery } from '../../../../../../lib/server/repos/reading-hexes';
+import { getCachedTile, type CachedTile, type TileSpec } from '../../../../../../lib/server/tile-cache';
 import { MastFilterSchema, TileParamsSchema } from '../../../../../../lib/schemas/masts';
 import { SignalTileQuerySchema } from '../../../../../../lib/schemas/signal-map';
 import { can } from '../../../../../../lib/domain/roles';
@@ -42,36 +41,36 @@ function tileResponse(tile: CachedTile, cacheControl: string, request: Request):
 }
 
 /**
- * Mapbox Vector Tile of the basemap (public), the masts (map:view; ?operator=&band=&tech=&status=) or
- * the measured signal hexagons (map:view; ?operator=&band=; readings from customers' homes count
- * only for roles that may see customers). Finished tiles are cached per process under the data
- * version, so any write to masts, cells or the basemap, or a recomputation of the hexagons (which
- * raise it) is seen by the next request.
+ * Mapbox Vector Tile of the basemap (public), the masts (map:view; ?operator=&band=&tech=&status=,
+ * which apply to the clusters of the low zooms too) or the measured signal hexagons (map:view;
+ * ?operator=&band=; readings from customers' homes count only for roles that may see customers).
+ * Finished tiles are cached per process under the layer's data version (tile-cache.ts), so any write
+ * to masts, cells or the basemap, or a recomputation of the hexagons (which raise it) is seen by the
+ * next request. X-Tile-Cache says whether this process had the tile already.
  */
 export const GET = handler(async ({ locals, params, url, request }) => {
   const user = params.layer === 'masts' || params.layer === 'signal' ? requirePermission(locals, 'map:view') : null;
-  const tile = parseWith(TileParamsSchema, params);
+  const t = parseWith(TileParamsSchema, params);
   const db = getReadDb();
-  const cache = getTileCache();
-  if (tile.layer === 'signal') {
+  const address = { z: t.z, x: t.x, y: t.y };
+  let spec: TileSpec;
+  let cacheControl: string;
+  if (t.layer === 'signal') {
     const query = parseQuery(SignalTileQuerySchema, url);
     const filter = { ...query, withHomeReadings: can(user!.role, 'plans:view') };
-    const version = await getDataVersion(db, 'signal');
-    const key = `signal/${version}/${filter.withHomeReadings ? 'all' : 'survey'}/${tile.z}/${tile.x}/${tile.y}?${filter.operatorId ?? ''}&${filter.band ?? ''}`;
-    let ready = cache.get(key);
-    if (!ready) {
-      ready = await prepareTile(await getSignalTile(db, tile, filter));
-      cache.set(key, ready);
-    }
-    return tileResponse(ready, CACHE_SIGNAL, request);
+    const variant = `${filter.withHomeReadings ? 'all' : 'survey'}&${filter.operatorId ?? ''}&${filter.band ?? ''}`;
+    spec = { layer: 'signal', kind: 'signal', ...address, variant, query: (q) => signalTileQuery(q, address, filter) };
+    cacheControl = CACHE_SIGNAL;
+  } else if (t.layer === 'masts') {
+    const filter = parseQuery(MastFilterSchema, url);
+    spec = { layer: 'masts', kind: 'masts', ...address, variant: JSON.stringify(filter), query: (q) => mastsTileQuery(q, address, filter) };
+    cacheControl = CACHE_MASTS;
+  } else {
+    spec = { layer: 'basemap', kind: 'basemap', ...address, variant: '', query: (q) => basemapTileQuery(q, address) };
+    cacheControl = CACHE_BASEMAP;
   }
-  const filter = tile.layer === 'masts' ? parseQuery(MastFilterSchema, url) : null;
-  const version = await getDataVersion(db, tile.layer === 'masts' ? 'masts' : 'basemap');
-  const key = `${tile.layer}/${version}/${tile.z}/${tile.x}/${tile.y}${filter ? `?${JSON.stringify(filter)}` : ''}`;
-  let ready = cache.get(key);
-  if (!ready) {
-    ready = await prepareTile(filter ? await getMastsTile(db, tile, filter) : await getBasemapTile(db, tile));
-    cache.set(key, ready);
-  }
-  return tileResponse(ready, tile.layer === 'masts' ? CACHE_MASTS : CACHE_BASEMAP, request);
+  const { tile, hit } = await getCachedTile(db, spec);
+  const res = tileResponse(tile, cacheControl, request);
+  res.headers.set('X-Tile-Cache', hit ? 'hit' : 'miss');
+  return res;
 });
