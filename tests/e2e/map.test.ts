@@ -3,26 +3,10 @@
 // request leaving the machine.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
-import type { Map as MaplibreMap } from 'maplibre-gl';
 import { APP_URL, demoEmail, launchBrowser, signIn, watchOutsideRequests } from '../helpers/browser';
+import { renderedMasts, settle, waitForMasts } from '../helpers/map-page';
 
-declare global {
-  interface Window {
-    bearlineMap?: MaplibreMap;
-  }
-}
-
-const MAST_LAYER = 'masts-symbol';
 const PLACE_LAYERS = ['label-place-major', 'label-place-minor'];
-
-interface RenderedMast {
-  id: string;
-  name: string;
-  status: string;
-  opIds: string[];
-  x: number;
-  y: number;
-}
 
 let browser: Browser;
 
@@ -42,55 +26,6 @@ async function openMap(role: string, viewport = { width: 1280, height: 860 }): P
   await page.goto(`${APP_URL}/map`);
   await waitForMasts(page);
   return { context, page, outside };
-}
-
-/** Waits until the map is idle with at least one mast mark drawn. */
-async function waitForMasts(page: Page): Promise<void> {
-  await page.waitForFunction(
-    (layer) => {
-      const map = window.bearlineMap;
-      return !!map && map.loaded() && map.areTilesLoaded() && map.queryRenderedFeatures({ layers: [layer] }).length > 0;
-    },
-    MAST_LAYER,
-    { timeout: 30_000 },
-  );
-}
-
-/** Waits for the map to finish rendering after a change. */
-async function settle(page: Page): Promise<void> {
-  await page.evaluate(
-    () =>
-      new Promise<void>((resolve) => {
-        const map = window.bearlineMap!;
-        map.triggerRepaint();
-        map.once('idle', () => resolve());
-      }),
-  );
-}
-
-async function renderedMasts(page: Page): Promise<RenderedMast[]> {
-  return page.evaluate((layer) => {
-    const map = window.bearlineMap!;
-    const rect = map.getCanvas().getBoundingClientRect();
-    const seen = new Map<string, RenderedMast>();
-    for (const f of map.queryRenderedFeatures({ layers: [layer] })) {
-      const p = f.properties ?? {};
-      const id = String(p.id);
-      if (seen.has(id) || f.geometry.type !== 'Point') continue;
-      const pt = map.project(f.geometry.coordinates as [number, number]);
-      seen.set(id, {
-        id,
-        name: String(p.name),
-        status: String(p.status),
-        opIds: String(p.op_ids ?? '')
-          .split(',')
-          .filter(Boolean),
-        x: rect.left + pt.x,
-        y: rect.top + pt.y,
-      });
-    }
-    return [...seen.values()];
-  }, MAST_LAYER);
 }
 
 describe('mast map', () => {

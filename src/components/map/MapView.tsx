@@ -3,6 +3,7 @@ import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import Map, { Layer, NavigationControl, ScaleControl, Source, type MapLayerMouseEvent, type MapRef } from 'react-map-gl/maplibre';
 import type { Map as MaplibreMap } from 'maplibre-gl';
 import { mastsApi, type SearchHitJson } from '../../lib/client/api';
+import { readMapUrl } from '../../lib/client/map-url';
 import { saveView } from '../../lib/client/map-view-state';
 import { sightingsApi } from '../../lib/client/sightings-api';
 import type { PendingSightingCollectionJson } from '../../lib/schemas/sightings';
@@ -32,6 +33,7 @@ import { isUnderPanel, panelOffset as panelOffsetFor } from './panel-offset';
 import { useFrameTop } from './use-frame-top';
 import { useIsPhone } from './use-is-phone';
 import { useMapSetup } from './use-map-setup';
+import { useMastSelection } from './use-mast-selection';
 import { useSeenBands } from './use-seen-bands';
 import MapFilters from './MapFilters';
 import MapLegend from './MapLegend';
@@ -62,7 +64,7 @@ export default function MapView({ canEditMasts }: Props) {
   const { style, operators, regions, initialView, loadError } = useMapSetup();
   const { bands, collect: collectBands } = useSeenBands(mapRef);
   const [filters, setFilters] = useState<MastFilterState>(NO_MAST_FILTER);
-  const [selectedId, setSelectedId] = useState<string | null>(null);
+  const { selectedId, select, recordView } = useMastSelection(mapRef);
   const [hovering, setHovering] = useState(false);
   const [pending, setPending] = useState<PendingSightingCollectionJson>({ type: 'FeatureCollection', features: [] });
   const [pendingPick, setPendingPick] = useState<PendingSightingFeature | null>(null);
@@ -72,12 +74,6 @@ export default function MapView({ canEditMasts }: Props) {
 
   useEffect(() => {
     sightingsApi.pending().then(setPending, () => undefined);
-  }, []);
-
-  // A link such as /map?mast=12 opens that mast.
-  useEffect(() => {
-    const id = new URLSearchParams(window.location.search).get('mast');
-    if (id && /^\d+$/.test(id)) setSelectedId(id);
   }, []);
 
   const [tileVersion, setTileVersion] = useState(0);
@@ -92,22 +88,25 @@ export default function MapView({ canEditMasts }: Props) {
     return panelOffsetFor(rect ?? null, isPhone, window.innerWidth);
   }, [isPhone]);
 
+  // A link such as /map?mast=12 (without a view) centres that mast beside its panel.
   const onLoad = useCallback(() => {
-    const id = new URLSearchParams(window.location.search).get('mast');
-    if (id && /^\d+$/.test(id)) {
-      mastsApi.get(id).then(
+    const linked = readMapUrl(window.location.search);
+    recordView();
+    if (linked.mastId && !linked.view) {
+      mastsApi.get(linked.mastId).then(
         (m) => mapRef.current?.easeTo({ center: [m.lon, m.lat], zoom: Math.max(mapRef.current.getZoom(), 13), offset: panelOffset(), duration: 0 }),
         () => undefined,
       );
     }
-  }, [panelOffset]);
+  }, [panelOffset, recordView]);
 
   const onMoveEnd = useCallback(() => {
     const map = mapRef.current;
     if (!map) return;
     const c = map.getCenter();
     saveView({ longitude: c.lng, latitude: c.lat, zoom: map.getZoom() });
-  }, []);
+    recordView();
+  }, [recordView]);
 
   const onClick = useCallback(
     (e: MapLayerMouseEvent) => {
@@ -125,7 +124,7 @@ export default function MapView({ canEditMasts }: Props) {
       setPendingPick(null);
       const f = e.features?.find((x) => x.layer.id === MAST_SYMBOL_LAYER_ID);
       if (f?.properties?.id === undefined) return;
-      setSelectedId(String(f.properties.id));
+      select(String(f.properties.id));
       const map = mapRef.current;
       const rect = frameRef.current?.getBoundingClientRect();
       if (!map || !rect || f.geometry.type !== 'Point') return;
@@ -133,19 +132,19 @@ export default function MapView({ canEditMasts }: Props) {
       if (isUnderPanel(e.point, rect, isPhone, offset))
         map.easeTo({ center: f.geometry.coordinates as [number, number], offset, duration: 400, essential: false });
     },
-    [isPhone, panelOffset, pending],
+    [isPhone, panelOffset, pending, select],
   );
 
   const onPick = useCallback(
     (hit: SearchHitJson) => {
       const mast = hit.kind === 'mast';
       mapRef.current?.flyTo({ center: [hit.lon, hit.lat], zoom: mast ? 14 : 13, offset: mast ? panelOffset() : [0, 0], essential: false });
-      if (mast) setSelectedId(hit.id);
+      if (mast) select(hit.id);
     },
-    [panelOffset],
+    [panelOffset, select],
   );
 
-  const closePanel = useCallback(() => setSelectedId(null), []);
+  const closePanel = useCallback(() => select(null), [select]);
   const onMastChanged = useCallback(() => setTileVersion((v) => v + 1), []);
 
   const filterCount = filters.operators.length + filters.techs.length + filters.bands.length + (filters.statuses.length < 3 ? 1 : 0);

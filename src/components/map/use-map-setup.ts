@@ -1,6 +1,7 @@
 import { useEffect, useState } from 'react';
 import type { StyleSpecification } from 'maplibre-gl';
 import { ApiError, mapApi, operatorsApi, regionsApi, type RegionJson } from '../../lib/client/api';
+import { readMapUrl } from '../../lib/client/map-url';
 import { chooseInitialView, readSavedView, type InitialView } from '../../lib/client/map-view-state';
 import { loadLabelFonts } from './label-fonts';
 import type { OperatorMark } from './mast-icons';
@@ -28,7 +29,7 @@ export function rebaseStyle(style: StyleSpecification, origin: string): StyleSpe
 }
 
 /** Loads what the map needs before it can be drawn: label fonts, style, operators, regions, and
- * the view to open at. */
+ * the view to open at (the address's view, else `chooseInitialView`). */
 export function useMapSetup(): MapSetup {
   const [setup, setSetup] = useState<MapSetup>({ style: null, operators: null, regions: [], initialView: null, loadError: null });
   useEffect(() => {
@@ -42,7 +43,10 @@ export function useMapSetup(): MapSetup {
           style: rebaseStyle(s, window.location.origin),
           operators: ops.items.map((o) => ({ id: String(o.id), name: o.name, colour: o.colour })),
           regions: regionItems,
-          initialView: chooseInitialView(regionItems, new URLSearchParams(window.location.search).get('region'), readSavedView()),
+          // A view in the address (a shared, reloaded or returned-to link) comes first.
+          initialView:
+            readMapUrl(window.location.search).view ??
+            chooseInitialView(regionItems, new URLSearchParams(window.location.search).get('region'), readSavedView()),
           loadError: null,
         }),
       (e: unknown) => setSetup((prev) => ({ ...prev, loadError: e instanceof ApiError ? e.message : 'The map could not be loaded' })),

@@ -148,7 +148,9 @@ export default function PlannerApp({ customer, canSave }: Props) {
           shortlistAt.current = at;
           setShortlist(s);
           setError(null);
-          setSelected((cur) => chooseSelection(s.items, cur, { samePosition, wanted: wantedCell.current }));
+          // Read the wanted cell now: React may run the updater after it has been cleared below.
+          const wanted = wantedCell.current;
+          setSelected((cur) => chooseSelection(s.items, cur, { samePosition, wanted }));
           wantedCell.current = null;
         },
         (e: unknown) =>
