@@ -36,15 +36,8 @@ import { GET as sampleElevation } from '../../src/pages/api/elevation/sample';
 import { GET as toolsChannel } from '../../src/pages/api/tools/channel';
 import { GET as toolsPath } from '../../src/pages/api/tools/path';
 import { GET as shortlist } from '../../src/pages/api/shortlist/index';
-import {
-  MastChangeSchema,
-  MastDeleteQuerySchema,
-  MastInputSchema,
-  MastListQuerySchema,
-  SearchQuerySchema,
-  CellInputSchema,
-  CellChangeSchema,
-} from '../../src/lib/schemas/masts';
+import { MastChangeSchema, MastInputSchema, CellInputSchema, CellChangeSchema } from '../../src/lib/schemas/masts';
+import { MastDeleteQuerySchema, MastListQuerySchema, SearchQuerySchema } from '../../src/lib/schemas/mast-query';
 import { OperatorChangeSchema, OperatorInputSchema } from '../../src/lib/schemas/operators';
 import { CustomerChangeSchema, CustomerInputSchema, CustomerListQuerySchema } from '../../src/lib/schemas/customers';
 import { InstallCheckInputSchema, PlanChangeSchema, PlanInputSchema, PlanListQuerySchema } from '../../src/lib/schemas/plans';

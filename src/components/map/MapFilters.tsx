@@ -1,6 +1,6 @@
 import type { ReactNode } from 'react';
 import { type OperatorMark } from './mast-icons';
-import { MAST_STATUSES, MAST_STATUS_LABELS, type MastStatus } from '../../lib/schemas/masts';
+import { MAST_STATUSES, MAST_STATUS_LABELS, type MastStatus } from '../../lib/schemas/mast-enums';
 import { NO_MAST_FILTER, isFiltering, type MastFilterState } from './layers';
 
 export const TECH_LABELS: Record<string, string> = { gsm: '2G GSM', umts: '3G UMTS', lte: '4G LTE', nr: '5G NR' };

@@ -1,6 +1,7 @@
 import { useState, type FormEvent, type ReactNode } from 'react';
 import { ApiError, mastsApi, type FieldErrors, type MastDetailJson } from '../../lib/client/api';
-import { MAST_STATUSES, MAST_STATUS_LABELS, MastChangeSchema, STRUCTURE_TYPES, STRUCTURE_TYPE_LABELS } from '../../lib/schemas/masts';
+import { MAST_STATUSES, MAST_STATUS_LABELS, STRUCTURE_TYPES, STRUCTURE_TYPE_LABELS } from '../../lib/schemas/mast-enums';
+import { MastChangeSchema } from '../../lib/schemas/masts';
 
 interface Props {
   mast: MastDetailJson;

@@ -1,9 +1,9 @@
 import { useEffect, useMemo, useRef, useState } from 'react';
 import { ApiError, mastsApi, type CellJson, type MastDetailJson, type ReadingJson } from '../../lib/client/api';
-import { STRUCTURE_TYPE_LABELS, type StructureType } from '../../lib/schemas/masts';
+import { STRUCTURE_TYPE_LABELS, type StructureType } from '../../lib/schemas/mast-enums';
 import { SortableTable, type Column } from '../ui/SortableTable';
 import { mastIconDataUrl, type OperatorMark } from './mast-icons';
-import { MAST_STATUS_LABELS } from '../../lib/schemas/masts';
+import { MAST_STATUS_LABELS } from '../../lib/schemas/mast-enums';
 import { TECH_LABELS } from './MapFilters';
 import MastEditForm from './MastEditForm';
 import MastSurveys from './MastSurveys';

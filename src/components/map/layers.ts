@@ -9,7 +9,7 @@ import type {
 } from 'maplibre-gl';
 import { LABEL_FONTS, tilePathTemplate } from './map-style';
 import { MAST_ICON_EXPRESSION, SIGHTING_ICON_ID } from './mast-icons';
-import { MAST_STATUSES, type MastStatus } from '../../lib/schemas/masts';
+import { MAST_STATUSES, type MastStatus } from '../../lib/schemas/mast-enums';
 
 export const MAST_SOURCE_ID = 'masts';
 export const MAST_SOURCE_LAYER = 'masts';

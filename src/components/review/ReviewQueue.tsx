@@ -3,7 +3,7 @@ import { ApiError, type FieldErrors } from '../../lib/client/api';
 import { reviewApi, type DuplicateCandidateJson, type ReviewItemJson, type ReviewQueueJson } from '../../lib/client/review-api';
 import { checkWith } from '../../lib/client/planning-api';
 import { DECISION_LABELS, DecisionSchema, type Decision } from '../../lib/schemas/review';
-import { STRUCTURE_TYPE_LABELS } from '../../lib/schemas/masts';
+import { STRUCTURE_TYPE_LABELS } from '../../lib/schemas/mast-enums';
 import ReviewMap from './ReviewMap';
 import CellsSideBySide from './CellsSideBySide';
 import { formatDateTime, formatDistance, formatLatLon } from '../../lib/domain/format';

@@ -5,7 +5,7 @@ import exifr from 'exifr';
 import { operatorsApi, type OperatorJson } from '../../lib/client/api';
 import { flushOutbox, keepFlushing, saveToOutbox } from '../../lib/client/sighting-outbox';
 import { IMAGE_SNIFF_BYTES, sniffImageType } from '../../lib/domain/image-type';
-import { TECHS, type Tech } from '../../lib/schemas/masts';
+import { TECHS, type Tech } from '../../lib/schemas/mast-enums';
 import {
   MAX_PHOTO_BYTES,
   MAX_SIGHTING_PHOTOS,

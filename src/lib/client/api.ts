@@ -1,7 +1,8 @@
 // The only place islands call fetch. Error bodies become ApiError.
 import type { Role } from '../domain/roles';
 import type { OperatorJson } from '../schemas/operators';
-import type { CellJson, MastDetailJson, MastFeatureCollectionJson, MastJson, ReadingJson, SearchHitJson } from '../schemas/masts';
+import type { CellJson, MastJson } from '../schemas/masts';
+import type { MastDetailJson, MastFeatureCollectionJson, ReadingJson, SearchHitJson } from '../schemas/mast-responses';
 import type { RegionJson } from '../schemas/regions';
 
 export type { OperatorJson, CellJson, MastDetailJson, MastJson, ReadingJson, SearchHitJson, RegionJson };

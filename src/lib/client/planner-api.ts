@@ -3,7 +3,7 @@ import { get, queryString as qs, request, type List } from './api';
 import type { PathResult } from './tools-api';
 import type { AntennaJson, CableJson } from '../schemas/catalogue';
 import type { GeocodeMatchJson } from '../schemas/addresses';
-import type { OperatorRefJson } from '../schemas/masts';
+import type { OperatorRefJson } from '../schemas/mast-responses';
 import type { CustomerJson } from '../schemas/customers';
 import type { PlanJson } from '../schemas/plans';
 import type { GradeJson, ShortlistItemJson, ShortlistJson, TerrainStatusJson } from '../schemas/shortlist';

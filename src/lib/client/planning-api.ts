@@ -5,7 +5,7 @@ import type { AntennaJson, AntennaKind, CableJson } from '../schemas/catalogue';
 import type { AddressImportJson, AddressJson, GeocodeMatchJson } from '../schemas/addresses';
 import type { CustomerErasureJson, CustomerJson, CustomerSort, HistoryEntryJson } from '../schemas/customers';
 import type { CheckPhase, InstallCheckJson, PlanDetailJson, PlanJson } from '../schemas/plans';
-import type { OperatorRefJson } from '../schemas/masts';
+import type { OperatorRefJson } from '../schemas/mast-responses';
 import type { PlanState } from '../domain/plan-state';
 
 export type {

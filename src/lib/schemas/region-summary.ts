@@ -3,7 +3,7 @@
 // The one declaration of the summary's shape: the endpoint checks its answer with it, the page
 // renders the same type.
 import { z } from 'zod';
-import { MAST_STATUSES, TECHS } from './masts';
+import { MAST_STATUSES, TECHS } from './mast-enums';
 import { PLAN_STATES } from '../domain/plan-state';
 import { SIGNAL_GRADES, type SignalGrade } from '../domain/measurements';
 

@@ -1,7 +1,8 @@
 // The review queue and a reviewer's decision on a sighting: schemas shared by the endpoint and
 // the review page, and the JSON shapes the API returns.
 import { z } from 'zod';
-import type { CellJson, MastJson, MastStatus, StructureType } from './masts';
+import type { CellJson, MastJson } from './masts';
+import type { MastStatus, StructureType } from './mast-enums';
 import type { SightingJson } from './sightings';
 import { IdRefSchema, enumOf, optionalText, pageParams } from './params';
 

@@ -2,19 +2,11 @@
 // the phone and the endpoint; the JSON shapes are what the API returns.
 import { z } from 'zod';
 import { getMeasurementRange, type MeasurementKind } from '../domain/measurements';
-import {
-  AzimuthSchema,
-  BboxSchema,
-  ChannelSchema,
-  LatSchema,
-  LonSchema,
-  OperatorIdSchema,
-  PciSchema,
-  TechSchema,
-  checkRadio,
-  type OperatorRefJson,
-  type Tech,
-} from './masts';
+import { AzimuthSchema, ChannelSchema, LatSchema, LonSchema, OperatorIdSchema, PciSchema } from './masts';
+import { BboxSchema } from './mast-query';
+import { TechSchema, type Tech } from './mast-enums';
+import { checkRadio } from './radio';
+import { type OperatorRefJson } from './mast-responses';
 import { enumOf, idParam, numberField, optionalText, pageParams } from './params';
 
 export const SIGHTING_STATUSES = ['pending', 'approved', 'merged', 'rejected'] as const;

@@ -1,7 +1,7 @@
 // Query of the measured signal map's tiles: one operator and one band at most (empty: all).
 import { z } from 'zod';
 import { ID_PATTERN } from './params';
-import { resolveBandLabel } from './masts';
+import { resolveBandLabel } from './radio';
 
 const empty = (v: unknown) => (v === '' ? undefined : v);
 

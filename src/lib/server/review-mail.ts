@@ -5,7 +5,7 @@ import type { Knex } from 'knex';
 import { sendMail, type OutgoingMail } from './mail';
 import { mailHtml, mailText, type MailBlock } from './mail-layout';
 import type { DecisionResult } from './repos/sighting-review';
-import { STRUCTURE_TYPE_LABELS } from '../schemas/masts';
+import { STRUCTURE_TYPE_LABELS } from '../schemas/mast-enums';
 import type { SightingStructureType } from '../schemas/sightings';
 
 /** Reviewers hear about waiting sightings at most this often (one message an hour). */

@@ -2,169 +2,16 @@
 // with optimistic concurrency (row_version).
 import type { Knex } from 'knex';
 import type { Tx } from '../db';
-import type {
-  Bbox,
-  MastChange,
-  MastDetailJson,
-  MastFeatureCollectionJson,
-  MastFeatureJson,
-  MastFilter,
-  MastInput,
-  MastJson,
-  MastStatus,
-  OperatorRefJson,
-  StructureType,
-  Tech,
-} from '../../schemas/masts';
+import type { MastFilter, Bbox } from '../../schemas/mast-query';
+import type { MastStatus, StructureType, Tech } from '../../schemas/mast-enums';
+import { MAST, type Mast, type MastChange, type MastInput, type OperatorRef } from '../../schemas/masts';
+import type { MastDetail, MastSummary } from '../../schemas/mast-responses';
 import { ConflictError, NotFoundError } from '../errors';
 import { recordAudit } from './audit';
-import { cellAuditView, cellJson, listCellsForMast, type Cell } from './cells';
+import { cellAuditView, listCellsForMast } from './cells';
 import { assertNoPlansUseCells, unlinkReadingsOfCells } from './cell-dependents';
-import { listRecentReadingsForMast, readingJson, type Reading } from './readings';
-
-export interface Mast {
-  id: string;
-  name: string;
-  reference: string | null;
-  lat: number;
-  lon: number;
-  groundElevationM: number | null;
-  structureHeightM: number | null;
-  structureType: StructureType;
-  status: MastStatus;
-  accessNotes: string | null;
-  source: string;
-  createdBy: string | null;
-  updatedBy: string | null;
-  createdAt: Date;
-  updatedAt: Date;
-  rowVersion: number;
-}
-
-export interface OperatorRef {
-  id: string;
-  name: string;
-  colour: string;
-}
-
-export interface MastSummary {
-  id: string;
-  name: string;
-  reference: string | null;
-  status: MastStatus;
-  structureType: StructureType;
-  lat: number;
-  lon: number;
-  operators: OperatorRef[];
-  /** Band labels, lowest downlink frequency first. */
-  bands: string[];
-  techs: Tech[];
-  cellCount: number;
-}
-
-export interface MastDetail extends Mast {
-  operators: OperatorRef[];
-  cells: Cell[];
-  recentReadings: Reading[];
-}
-
-/** Rows as selected: the response fields with the times as Dates. */
-type MastRow = Omit<MastJson, 'created_at' | 'updated_at'> & { created_at: Date; updated_at: Date };
-
-const MAST_COLUMNS = [
-  'm.id',
-  'm.name',
-  'm.reference',
-  'm.ground_elevation_m',
-  'm.structure_height_m',
-  'm.structure_type',
-  'm.status',
-  'm.access_notes',
-  'm.source',
-  'm.created_by',
-  'm.updated_by',
-  'm.created_at',
-  'm.updated_at',
-  'm.row_version',
-];
-
-function toMast(r: MastRow): Mast {
-  return {
-    id: String(r.id),
-    name: r.name,
-    reference: r.reference,
-    lat: r.lat,
-    lon: r.lon,
-    groundElevationM: r.ground_elevation_m,
-    structureHeightM: r.structure_height_m,
-    structureType: r.structure_type,
-    status: r.status,
-    accessNotes: r.access_notes,
-    source: r.source,
-    createdBy: r.created_by === null ? null : String(r.created_by),
-    updatedBy: r.updated_by === null ? null : String(r.updated_by),
-    createdAt: r.created_at,
-    updatedAt: r.updated_at,
-    rowVersion: r.row_version,
-  };
-}
-
-export function mastJson(m: Mast): MastJson {
-  return {
-    id: m.id,
-    name: m.name,
-    reference: m.reference,
-    lat: m.lat,
-    lon: m.lon,
-    ground_elevation_m: m.groundElevationM,
-    structure_height_m: m.structureHeightM,
-    structure_type: m.structureType,
-    status: m.status,
-    access_notes: m.accessNotes,
-    source: m.source,
-    created_by: m.createdBy,
-    updated_by: m.updatedBy,
-    created_at: m.createdAt.toISOString(),
-    updated_at: m.updatedAt.toISOString(),
-    row_version: m.rowVersion,
-  };
-}
-
-export function mastDetailJson(m: MastDetail): MastDetailJson {
-  return {
-    ...mastJson(m),
-    operators: m.operators.map(operatorRefJson),
-    cells: m.cells.map(cellJson),
-    recent_readings: m.recentReadings.map(readingJson),
-  };
-}
-
-function operatorRefJson(o: OperatorRef): OperatorRefJson {
-  return { id: o.id, name: o.name, colour: o.colour };
-}
-
-export function mastFeatureJson(m: MastSummary): MastFeatureJson {
-  return {
-    type: 'Feature',
-    id: Number(m.id),
-    geometry: { type: 'Point', coordinates: [m.lon, m.lat] },
-    properties: {
-      id: m.id,
-      name: m.name,
-      reference: m.reference,
-      status: m.status,
-      structure_type: m.structureType,
-      operators: m.operators.map(operatorRefJson),
-      bands: m.bands,
-      techs: m.techs,
-      cell_count: m.cellCount,
-    },
-  };
-}
-
-export function mastFeatureCollectionJson(list: { items: MastSummary[]; truncated: boolean }): MastFeatureCollectionJson {
-  return { type: 'FeatureCollection', features: list.items.map(mastFeatureJson), truncated: list.truncated };
-}
+import { listRecentReadingsForMast } from './readings';
+import { recordColumns } from './record-sql';
 
 // --- Shared SQL for the list and the tiles -----------------------------------------------------
 
@@ -242,13 +89,13 @@ export async function listMasts(db: Tx, options: MastListOptions): Promise<{ ite
 
 async function findMastRow(db: Tx, id: string, forUpdate = false): Promise<Mast> {
   const q = db('masts as m')
-    .select(...MAST_COLUMNS, db.raw('ST_Y(m.geom) AS lat'), db.raw('ST_X(m.geom) AS lon'))
+    .select(recordColumns(db, MAST, 'm'))
     .where('m.id', id)
     .first();
   if (forUpdate) q.forUpdate();
-  const row = (await q) as MastRow | undefined;
+  const row = (await q) as Record<string, unknown> | undefined;
   if (!row) throw new NotFoundError('Mast not found');
-  return toMast(row);
+  return MAST.fromRow(row);
 }
 
 /**
@@ -306,19 +153,7 @@ function pointSql(db: Tx, lat: number, lon: number) {
 export async function createMast(db: Tx, input: MastInput, actorId: string | null): Promise<Mast> {
   await assertReferenceFree(db, input.reference);
   const [row] = await db('masts')
-    .insert({
-      name: input.name,
-      reference: input.reference,
-      geom: pointSql(db, input.lat, input.lon),
-      ground_elevation_m: input.groundElevationM,
-      structure_height_m: input.structureHeightM,
-      structure_type: input.structureType,
-      status: input.status,
-      access_notes: input.accessNotes,
-      source: input.source,
-      created_by: actorId,
-      updated_by: actorId,
-    })
+    .insert({ ...MAST.insertRow(input), geom: pointSql(db, input.lat, input.lon), created_by: actorId, updated_by: actorId })
     .returning('id');
   const mast = await findMastRow(db, String(row.id));
   await recordAudit(db, { userId: actorId, action: 'create', entity: 'mast', entityId: mast.id, after: auditView(mast) });
@@ -334,19 +169,12 @@ export async function updateMast(db: Tx, id: string, change: MastChange, actorId
   if (before.rowVersion !== change.rowVersion) throw staleVersion(before.rowVersion);
   if (change.reference !== undefined) await assertReferenceFree(db, change.reference, id);
   const patch: Record<string, unknown> = {
+    ...MAST.patchRow(change),
     row_version: db.raw('row_version + 1'),
     updated_at: db.fn.now(),
     updated_by: actorId,
   };
-  if (change.name !== undefined) patch.name = change.name;
-  if (change.reference !== undefined) patch.reference = change.reference;
   if (change.lat !== undefined && change.lon !== undefined) patch.geom = pointSql(db, change.lat, change.lon);
-  if (change.groundElevationM !== undefined) patch.ground_elevation_m = change.groundElevationM;
-  if (change.structureHeightM !== undefined) patch.structure_height_m = change.structureHeightM;
-  if (change.structureType !== undefined) patch.structure_type = change.structureType;
-  if (change.status !== undefined) patch.status = change.status;
-  if (change.accessNotes !== undefined) patch.access_notes = change.accessNotes;
-  if (change.source !== undefined) patch.source = change.source;
   const updated = await db('masts').where({ id, row_version: change.rowVersion }).update(patch);
   if (updated === 0) throw staleVersion((await findMastRow(db, id)).rowVersion);
   const after = await findMastRow(db, id);
@@ -393,18 +221,4 @@ export async function deleteMast(db: Tx, id: string, rowVersion: number | undefi
   });
 }
 
-function auditView(m: Mast) {
-  return {
-    name: m.name,
-    reference: m.reference,
-    lat: m.lat,
-    lon: m.lon,
-    ground_elevation_m: m.groundElevationM,
-    structure_height_m: m.structureHeightM,
-    structure_type: m.structureType,
-    status: m.status,
-    access_notes: m.accessNotes,
-    source: m.source,
-    row_version: m.rowVersion,
-  };
-}
+const auditView = (m: Mast) => MAST.auditView(m);

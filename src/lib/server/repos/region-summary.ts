@@ -3,7 +3,7 @@
 import type { Knex } from 'knex';
 import type { Tx } from '../db';
 import { findRegion } from './regions';
-import { MAST_STATUSES, TECHS, type Tech } from '../../schemas/masts';
+import { MAST_STATUSES, TECHS, type Tech } from '../../schemas/mast-enums';
 import {
   REGION_GAP_LIST_LIMIT,
   REGION_SIGHTING_LIST_LIMIT,

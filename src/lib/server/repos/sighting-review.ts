@@ -4,13 +4,15 @@
 // and a second reviewer deciding at the same moment gets 409 and changes nothing.
 import type { Tx } from '../db';
 import { DUPLICATE_RADIUS_M, rankDuplicates, splitForMerge, type CellIdentity } from '../../domain/duplicates';
-import { CellInputSchema, MastInputSchema, STRUCTURE_TYPE_LABELS, type MastStatus, type StructureType } from '../../schemas/masts';
+import { CellInputSchema, MastInputSchema, type Mast } from '../../schemas/masts';
+import { STRUCTURE_TYPE_LABELS, type MastStatus, type StructureType } from '../../schemas/mast-enums';
 import type { DecisionInput, DuplicateCandidateJson, ReviewItemJson, SubmitterRecordJson } from '../../schemas/review';
 import { SIGHTING_STATUS_LABELS, type SightingStatus } from '../../schemas/sightings';
 import { ConflictError, NotFoundError, ValidationError } from '../errors';
 import { recordAudit } from './audit';
-import { cellJson, createCell, listCellsForMast, updateCell, type Cell } from './cells';
-import { createMast, markMastConfirmed, type Mast } from './masts';
+import { createCell, listCellsForMast, updateCell, type Cell } from './cells';
+import { createMast, markMastConfirmed } from './masts';
+import { cellJson } from '../../schemas/mast-responses';
 import { auditView, findSighting, listSightings, sightingJson, type Sighting, type SightingCell } from './sightings';
 
 interface NearbyRow {

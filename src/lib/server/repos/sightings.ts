@@ -1,7 +1,9 @@
 // Sightings: field reports of a mast with the operators and cells seen and their photos.
 // Creating one is idempotent by the client's UUID; reviewers' decisions fill the decided_* columns.
 import type { Tx } from '../db';
-import type { Bbox, OperatorRefJson, Tech } from '../../schemas/masts';
+import type { Bbox } from '../../schemas/mast-query';
+import type { OperatorRefJson } from '../../schemas/mast-responses';
+import type { Tech } from '../../schemas/mast-enums';
 import type {
   MastSurveyJson,
   PendingSightingCollectionJson,

@@ -3,7 +3,7 @@
 // common practice of web maps (OGC Two Dimensional Tile Matrix Set "WebMercatorQuad").
 import type { Knex } from 'knex';
 import type { Tx } from '../db';
-import type { MastFilter } from '../../schemas/masts';
+import type { MastFilter } from '../../schemas/mast-query';
 import { applyMastFilter } from './masts';
 
 /** Tile coordinate units per side (the MVT default). */

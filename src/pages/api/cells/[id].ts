@@ -1,6 +1,7 @@
 import { getDb } from '../../../lib/server/db';
 import { handler, json, parseBody, parseWith, requirePermission } from '../../../lib/server/http';
-import { cellJson, deleteCell, findCell, updateCell } from '../../../lib/server/repos/cells';
+import { deleteCell, findCell, updateCell } from '../../../lib/server/repos/cells';
+import { cellJson } from '../../../lib/schemas/mast-responses';
 import { CellChangeSchema } from '../../../lib/schemas/masts';
 import { IdParamSchema } from '../../../lib/schemas/params';
 

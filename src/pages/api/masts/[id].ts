@@ -1,7 +1,9 @@
 import { getDb } from '../../../lib/server/db';
 import { handler, json, parseBody, parseQuery, parseWith, requirePermission } from '../../../lib/server/http';
-import { deleteMast, findMast, mastDetailJson, mastJson, updateMast } from '../../../lib/server/repos/masts';
-import { MastChangeSchema, MastDeleteQuerySchema } from '../../../lib/schemas/masts';
+import { deleteMast, findMast, updateMast } from '../../../lib/server/repos/masts';
+import { mastDetailJson, mastJson } from '../../../lib/schemas/mast-responses';
+import { MastChangeSchema } from '../../../lib/schemas/masts';
+import { MastDeleteQuerySchema } from '../../../lib/schemas/mast-query';
 import { IdParamSchema } from '../../../lib/schemas/params';
 import { can } from '../../../lib/domain/roles';
 

@@ -1,7 +1,9 @@
 import { getDb, getReadDb } from '../../../lib/server/db';
 import { handler, json, parseBody, parseQuery, requirePermission } from '../../../lib/server/http';
-import { createMast, listMasts, mastFeatureCollectionJson, mastJson } from '../../../lib/server/repos/masts';
-import { MastInputSchema, MastListQuerySchema } from '../../../lib/schemas/masts';
+import { createMast, listMasts } from '../../../lib/server/repos/masts';
+import { mastFeatureCollectionJson, mastJson } from '../../../lib/schemas/mast-responses';
+import { MastInputSchema } from '../../../lib/schemas/masts';
+import { MastListQuerySchema } from '../../../lib/schemas/mast-query';
 
 /** Masts as a GeoJSON FeatureCollection (RFC 7946), filtered by bbox, operator, band, tech and status. */
 export const GET = handler(async ({ locals, url }) => {

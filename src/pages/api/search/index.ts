@@ -2,7 +2,8 @@ import { getDb } from '../../../lib/server/db';
 import { handler, json, parseQuery, requirePermission } from '../../../lib/server/http';
 import { searchPlaces } from '../../../lib/server/repos/basemap';
 import { searchMasts } from '../../../lib/server/repos/masts';
-import { SearchQuerySchema, type SearchHitJson } from '../../../lib/schemas/masts';
+import { SearchQuerySchema } from '../../../lib/schemas/mast-query';
+import { type SearchHitJson } from '../../../lib/schemas/mast-responses';
 
 /** Masts by name or reference and places by name, each with lat/lon to fly to; masts first. */
 export const GET = handler(async ({ locals, url }) => {

@@ -1,6 +1,7 @@
 import { getDb } from '../../../../lib/server/db';
 import { handler, json, parseBody, parseWith, requirePermission } from '../../../../lib/server/http';
-import { cellJson, createCell, listCellsOfExistingMast } from '../../../../lib/server/repos/cells';
+import { createCell, listCellsOfExistingMast } from '../../../../lib/server/repos/cells';
+import { cellJson } from '../../../../lib/schemas/mast-responses';
 import { CellInputSchema } from '../../../../lib/schemas/masts';
 import { IdParamSchema } from '../../../../lib/schemas/params';
 

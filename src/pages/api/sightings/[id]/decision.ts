@@ -2,7 +2,7 @@ import { getDb } from '../../../../lib/server/db';
 import { handler, json, parseBody, parseWith, requirePermission } from '../../../../lib/server/http';
 import { decideSighting } from '../../../../lib/server/repos/sighting-review';
 import { sightingJson } from '../../../../lib/server/repos/sightings';
-import { mastJson } from '../../../../lib/server/repos/masts';
+import { mastJson } from '../../../../lib/schemas/mast-responses';
 import { notifySubmitter } from '../../../../lib/server/review-mail';
 import { linkOrigin } from '../../../../lib/server/accounts';
 import { DecisionSchema, type DecisionResultJson } from '../../../../lib/schemas/review';

@@ -3,7 +3,8 @@ import { handler, parseQuery, parseWith, requirePermission } from '../../../../.
 import { basemapTileQuery, mastsTileQuery } from '../../../../../../lib/server/repos/tiles';
 import { signalTileQuery } from '../../../../../../lib/server/repos/reading-hexes';
 import { getCachedTile, type CachedTile, type TileSpec } from '../../../../../../lib/server/tile-cache';
-import { MastFilterSchema, TileParamsSchema } from '../../../../../../lib/schemas/masts';
+import { MastFilterSchema } from '../../../../../../lib/schemas/mast-query';
+import { TileParamsSchema } from '../../../../../../lib/schemas/tiles';
 import { SignalTileQuerySchema } from '../../../../../../lib/schemas/signal-map';
 import { can } from '../../../../../../lib/domain/roles';
 
