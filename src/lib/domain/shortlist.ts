@@ -16,6 +16,7 @@ import { getCableLossDb, getConnectorLossDb, interpolateGain, predictRsrp, type 
 import { analysePathProfile, getElevationAngleDeg, STANDARD_K_FACTOR, type PathClassification, type ProfileSample } from './terrain';
 import { gradeSignal, type SignalGrade } from './measurements';
 import { type Calibration } from './calibration';
+import { formatDb, formatDbi, formatDegrees, formatDistance, formatMetres, formatNumber } from './format';
 import { DEFAULT_BANDWIDTH_MHZ, DOWNLINK_SHANNON, getExpectedThroughputMbps, getSinrAtMaxEfficiencyDb, getSinrDb, type SinrOptions } from './link-quality';
 
 export { MAX_CALIBRATION_SHIFT_DB, getCalibration, type Calibration } from './calibration';
@@ -146,21 +147,19 @@ export function getRankScore(rsrpDbm: number, sinrDb: number | null, preferenceD
   return Math.min(rsrpDbm, RSRP_SCORE_CAP_DBM) + SINR_SCORE_WEIGHT * sinrTerm + preferenceDb;
 }
 
-const formatDb = (n: number, digits = 1) => n.toFixed(digits);
-
 function kitLosses(kit: Kit, freqMhz: number, warnings: string[]) {
   const gain = interpolateGain(kit.antenna.gainTable, freqMhz);
-  if (gain.isOutsideTable) warnings.push(`${kit.antenna.name} has no gain figure at ${freqMhz.toFixed(0)} MHz; the nearest one is used`);
+  if (gain.isOutsideTable) warnings.push(`${kit.antenna.name} has no gain figure at ${formatNumber(freqMhz, 0)} MHz; the nearest one is used`);
   let cableLossDb = 0;
   let connectorLossDb = 0;
   if (kit.cable && kit.cableM > 0) {
     const cable = getCableLossDb(kit.cable.lossTable, freqMhz, kit.cableM);
-    if (cable.approximate) warnings.push(`${kit.cable.name} loss at ${freqMhz.toFixed(0)} MHz is extrapolated (√f), approximate`);
+    if (cable.approximate) warnings.push(`${kit.cable.name} loss at ${formatNumber(freqMhz, 0)} MHz is extrapolated (√f), approximate`);
     cableLossDb = cable.lossDb;
     connectorLossDb = getConnectorLossDb(kit.cable.connectors, kit.cable.connectorLossDb);
     if (cableLossDb + connectorLossDb > gain.gainDbi) {
       warnings.push(
-        `${formatDb(kit.cableM, 0)} m of ${kit.cable.name} loses ${formatDb(cableLossDb + connectorLossDb)} dB at ${freqMhz.toFixed(0)} MHz, more than ${kit.antenna.name} gains (${formatDb(gain.gainDbi)} dBi): use a shorter run or a higher-gain antenna`,
+        `${formatMetres(kit.cableM, 0)} of ${kit.cable.name} loses ${formatDb(cableLossDb + connectorLossDb)} at ${formatNumber(freqMhz, 0)} MHz, more than ${kit.antenna.name} gains (${formatDbi(gain.gainDbi)}): use a shorter run or a higher-gain antenna`,
       );
     }
   }
@@ -227,9 +226,9 @@ export function evaluateCandidate(cell: CandidateCell, ctx: CandidateContext, s:
     connectorLossDb: kit.connectorLossDb,
   });
   if (modelled.distanceM < AT_MAST_M) {
-    warnings.push(`The position is at the mast (${modelled.distanceM.toFixed(0)} m): bearing and tilt mean nothing this close`);
+    warnings.push(`The position is at the mast (${formatDistance(modelled.distanceM)}): bearing and tilt mean nothing this close`);
   } else if (modelled.sectorOffsetDeg !== null && Math.abs(modelled.sectorOffsetDeg) > 60) {
-    warnings.push(`The customer is ${Math.abs(modelled.sectorOffsetDeg).toFixed(0)}° off this sector's axis`);
+    warnings.push(`The customer is ${formatDegrees(Math.abs(modelled.sectorOffsetDeg), 0)} off this sector's axis`);
   }
 
   let expectedGainDb: number | null = null;

@@ -4,6 +4,7 @@ import type { PathJson, PathQuery } from '../schemas/tools';
 import type { ElevationProfile } from '../domain/elevation-grid';
 import type { ProfileSample } from '../domain/terrain';
 import { getElevationProfile } from './elevation-service';
+import { formatDistance, formatPercent } from '../domain/format';
 
 /** Samples along the path for the terrain profile and chart. */
 export const PATH_PROFILE_SAMPLES = 400;
@@ -18,7 +19,7 @@ function describeCoverage(profile: ElevationProfile): string | null {
   const c = profile.coverage;
   if (c.complete) return null;
   if (c.coveredCount === 0) return 'No elevation data covers this path: terrain not checked.';
-  return `Elevation data covers ${Math.round(c.fraction * 100)} % of the path (missing from ${((c.firstMissingDistanceM ?? 0) / 1000).toFixed(2)} km): terrain not checked.`;
+  return `Elevation data covers ${formatPercent(c.fraction)} of the path (missing from ${formatDistance(c.firstMissingDistanceM ?? 0)}): terrain not checked.`;
 }
 
 export async function calculatePath(q: PathQuery, now: Date): Promise<PathToolResult> {

@@ -7,6 +7,7 @@ import { mailHtml, mailText, type MailBlock } from './mail-layout';
 import type { DecisionResult } from './repos/sighting-review';
 import { STRUCTURE_TYPE_LABELS } from '../schemas/mast-enums';
 import type { SightingStructureType } from '../schemas/sightings';
+import { formatDate, formatQuantity } from '../domain/format';
 
 /** Reviewers hear about waiting sightings at most this often (one message an hour). */
 export const REVIEWER_ALERT_INTERVAL_MIN = 60;
@@ -16,8 +17,8 @@ function compose(to: string, subject: string, greeting: string, blocks: MailBloc
 }
 
 const structureWord = (t: SightingStructureType) => (t === 'other' ? 'mast' : STRUCTURE_TYPE_LABELS[t].toLowerCase());
-const day = (d: Date) => d.toLocaleDateString('en-GB', { day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' });
-const plural = (n: number, one: string, many = `${one}s`) => `${n} ${n === 1 ? one : many}`;
+const day = formatDate;
+const plural = (n: number, one: string, many = `${one}s`) => formatQuantity(n, one, many);
 
 export function decisionMail(to: string, name: string, r: DecisionResult, origin: string): OutgoingMail {
   const s = r.sighting;

@@ -21,6 +21,7 @@ import { findCandidateCell, listCandidateCells, listNearbyReadings, type CellRea
 import { getDataVersion } from './data-version';
 import { ValidationError } from './errors';
 import { findAntenna, findCable, listAntennas, type Antenna, type Cable } from './repos/catalogue';
+import { formatMetres } from '../domain/format';
 
 export type ProfileProvider = (from: LatLon, to: LatLon, options: { maxSamples: number }) => Promise<ElevationProfile | null>;
 
@@ -177,7 +178,7 @@ const SEA_LEVEL_M = 0;
 
 function getPositionWarnings(groundM: number | null): string[] {
   if (groundM === null) return ['No elevation grid covers this position: terrain, clearance and tilt are not checked'];
-  if (groundM <= SEA_LEVEL_M) return [`The ground here is ${groundM.toFixed(0)} m above sea level: the position may be at sea, check it`];
+  if (groundM <= SEA_LEVEL_M) return [`The ground here is ${formatMetres(groundM, 0)} above sea level: the position may be at sea, check it`];
   return [];
 }
 
