@@ -128,7 +128,7 @@ export default function UsersAdmin({ currentUserId }: Props) {
       label: 'Actions',
       render: (u) =>
         u.id === currentUserId ? (
-          <span className="text-ink-400">You</span>
+          <span className="text-ink-500">You</span>
         ) : (
           <div className="flex flex-wrap gap-2">
             {u.invite && !u.disabledAt && (

@@ -74,6 +74,18 @@ function PlanCard({
   const f = hasFigures(plan.figures) ? plan.figures : null;
   const rank = (s: PlanState) => PLAN_STATES.indexOf(s);
 
+  async function reschedule() {
+    setBusy(true);
+    setProblem(null);
+    try {
+      onChanged(await plansApi.update(plan.id, { scheduled_for: date || null, row_version: plan.row_version }));
+    } catch (err) {
+      setProblem(err instanceof ApiError ? { message: err.message, fields: err.fields } : { message: 'Could not move the visit', fields: {} });
+    } finally {
+      setBusy(false);
+    }
+  }
+
   async function move(to: PlanState) {
     setBusy(true);
     setProblem(null);
@@ -188,7 +200,7 @@ function PlanCard({
             </p>
           )}
           <div className="flex flex-wrap items-end gap-2">
-            {forward.includes('scheduled') && (
+            {(forward.includes('scheduled') || plan.state === 'scheduled') && (
               <label className="text-sm">
                 <span className="field-label">Install date</span>
                 <input
@@ -199,6 +211,11 @@ function PlanCard({
                   aria-invalid={!!problem?.fields.scheduled_for}
                 />
               </label>
+            )}
+            {plan.state === 'scheduled' && (
+              <button type="button" className="btn-secondary py-1.5" disabled={busy || !date || date === plan.scheduled_for} onClick={reschedule}>
+                Move the visit
+              </button>
             )}
             {forward.map((s) => (
               <button key={s} type="button" className="btn-primary py-1.5" disabled={busy} onClick={() => move(s)}>

@@ -49,12 +49,9 @@ export default function CustomerList({ canWrite, initialState = null }: Props) {
       label: 'Customer',
       sortValue: (c) => c.name.toLowerCase(),
       render: (c) => (
-        <>
-          <a href={`/customers/${c.id}`} className="font-semibold text-ink-800 underline decoration-ink-300 underline-offset-2 hover:decoration-ink-700">
-            {c.name}
-          </a>
-          <span className="block text-xs text-ink-500 sm:hidden">{c.address_label}</span>
-        </>
+        <a href={`/customers/${c.id}`} className="font-semibold text-ink-800 underline decoration-ink-300 underline-offset-2 hover:decoration-ink-700">
+          {c.name}
+        </a>
       ),
     },
     {

@@ -46,7 +46,8 @@ export default function MapLegend({ operators, defaultOpen = true }: Props) {
         </button>
       </h2>
       {open && (
-        <div className="max-h-[45vh] space-y-3 overflow-y-auto px-3 pb-3">
+        // A scrolling box is reachable by keyboard (tabIndex) so its lower entries can be scrolled to.
+        <div className="max-h-[45vh] space-y-3 overflow-y-auto px-3 pb-3" tabIndex={0} role="group" aria-label="Legend entries">
           <div>
             <h3 className="mb-1 font-semibold text-ink-600">Operators on a mast</h3>
             <ul className="space-y-1">
