@@ -226,7 +226,7 @@ describe('invitations', () => {
     const email = freshEmail('invitee');
     const res = await call(inviteUser, { user: admin, json: { email, name: 'Ivo Marsh', role: 'surveyor' } });
     expect(res.status).toBe(201);
-    expect(res.body).toMatchObject({ email, role: 'surveyor', invite: 'pending', mailSent: true });
+    expect(res.body).toMatchObject({ email, role: 'surveyor', invite: 'pending', mail_sent: true });
     expect(res.body).not.toHaveProperty('passwordHash');
 
     const [mail] = await mailTo(email);
@@ -265,7 +265,7 @@ describe('invitations', () => {
 
     const resent = await call(resendInvite, { user: admin, params: { id: created.body.id } });
     expect(resent.status).toBe(200);
-    expect(resent.body).toMatchObject({ invite: 'pending', mailSent: true });
+    expect(resent.body).toMatchObject({ invite: 'pending', mail_sent: true });
     const mails = await mailTo(email);
     expect(mails).toHaveLength(2);
     const newToken = linkToken(mails[1]!.text, '/reset');

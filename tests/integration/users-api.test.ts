@@ -29,7 +29,7 @@ describe('users API', () => {
     const admin = asSessionUser(await makeUser('admin'));
     const created = await call(createUser, { user: admin, json: { email: 'new@example.test', name: 'New Person', role: 'surveyor' } });
     expect(created.status).toBe(201);
-    expect(created.body).toMatchObject({ email: 'new@example.test', role: 'surveyor', disabledAt: null, invite: 'pending' });
+    expect(created.body).toMatchObject({ email: 'new@example.test', role: 'surveyor', disabled_at: null, invite: 'pending' });
     expect(created.body).not.toHaveProperty('passwordHash');
     const list = await call(listUsers, { user: admin });
     expect(list.body.total).toBe(2);
@@ -59,10 +59,10 @@ describe('users API', () => {
     expect(role.status).toBe(200);
     expect(role.body.role).toBe('reviewer');
     const off = await call(patchUser, { method: 'PATCH', user: admin, params: { id: target.id }, json: { disabled: true } });
-    expect(off.body.disabledAt).not.toBeNull();
+    expect(off.body.disabled_at).not.toBeNull();
     expect(await testDb()('sessions').where({ user_id: target.id }).first()).toBeUndefined();
     const on = await call(patchUser, { method: 'PATCH', user: admin, params: { id: target.id }, json: { disabled: false } });
-    expect(on.body.disabledAt).toBeNull();
+    expect(on.body.disabled_at).toBeNull();
     const actions = await testDb()('audit_log').where({ entity: 'user', entity_id: target.id, action: 'update' });
     expect(actions).toHaveLength(3);
   });

@@ -41,7 +41,7 @@ export default function UsersAdmin({ currentUserId }: Props) {
     try {
       const updated = await usersApi.update(u.id, patch);
       replace(updated);
-      setNotice(`${updated.name}: ${patch.role ? `role set to ${ROLE_LABELS[updated.role]}` : updated.disabledAt ? 'disabled' : 'enabled'}`);
+      setNotice(`${updated.name}: ${patch.role ? `role set to ${ROLE_LABELS[updated.role]}` : updated.disabled_at ? 'disabled' : 'enabled'}`);
     } catch (e) {
       setNotice(e instanceof ApiError ? e.message : 'Could not save the change');
     }
@@ -57,7 +57,7 @@ export default function UsersAdmin({ currentUserId }: Props) {
       setUsers((list) => [...(list ?? []), created]);
       setForm(EMPTY_FORM);
       setNotice(
-        created.mailSent
+        created.mail_sent
           ? `Invited ${created.name} (${ROLE_LABELS[created.role]}): a link to choose a password is on its way to ${created.email}`
           : `Made ${created.name}'s account, but the invitation could not be mailed. Try "Resend invitation".`,
       );
@@ -77,7 +77,7 @@ export default function UsersAdmin({ currentUserId }: Props) {
       const updated = await usersApi.resendInvite(u.id);
       replace(updated);
       setNotice(
-        updated.mailSent ? `New invitation sent to ${updated.email}; older links no longer work` : 'The invitation could not be mailed. Try again later.',
+        updated.mail_sent ? `New invitation sent to ${updated.email}; older links no longer work` : 'The invitation could not be mailed. Try again later.',
       );
     } catch (e) {
       setNotice(e instanceof ApiError ? e.message : 'Could not send the invitation');
@@ -110,9 +110,9 @@ export default function UsersAdmin({ currentUserId }: Props) {
     {
       key: 'status',
       label: 'Status',
-      sortValue: (u) => (u.disabledAt ? 2 : u.invite ? 1 : 0),
+      sortValue: (u) => (u.disabled_at ? 2 : u.invite ? 1 : 0),
       render: (u) =>
-        u.disabledAt ? (
+        u.disabled_at ? (
           <span className="rounded bg-alarm-50 px-2 py-0.5 text-alarm-700">Disabled</span>
         ) : u.invite === 'pending' ? (
           <span className="rounded bg-ember-50 px-2 py-0.5 text-ember-700">Invited</span>
@@ -122,7 +122,7 @@ export default function UsersAdmin({ currentUserId }: Props) {
           <span className="rounded bg-moss-50 px-2 py-0.5 text-moss-700">Active</span>
         ),
     },
-    { key: 'created', label: 'Since', sortValue: (u) => u.createdAt, render: (u) => formatDate(u.createdAt) },
+    { key: 'created', label: 'Since', sortValue: (u) => u.created_at, render: (u) => formatDate(u.created_at) },
     {
       key: 'actions',
       label: 'Actions',
@@ -131,13 +131,13 @@ export default function UsersAdmin({ currentUserId }: Props) {
           <span className="text-ink-500">You</span>
         ) : (
           <div className="flex flex-wrap gap-2">
-            {u.invite && !u.disabledAt && (
+            {u.invite && !u.disabled_at && (
               <button type="button" className="btn-secondary py-1" onClick={() => resend(u)} aria-label={`Resend invitation to ${u.name}`}>
                 Resend invitation
               </button>
             )}
-            <button type="button" className={u.disabledAt ? 'btn-secondary py-1' : 'btn-danger py-1'} onClick={() => change(u, { disabled: !u.disabledAt })}>
-              {u.disabledAt ? 'Enable' : 'Disable'}
+            <button type="button" className={u.disabled_at ? 'btn-secondary py-1' : 'btn-danger py-1'} onClick={() => change(u, { disabled: !u.disabled_at })}>
+              {u.disabled_at ? 'Enable' : 'Disable'}
             </button>
           </div>
         ),

@@ -4,6 +4,7 @@ import type { OperatorJson } from '../schemas/operators';
 import type { CellJson, MastJson } from '../schemas/masts';
 import type { MastDetailJson, MastFeatureCollectionJson, ReadingJson, SearchHitJson } from '../schemas/mast-responses';
 import type { RegionJson } from '../schemas/regions';
+import type { InvitedUserJson, UserListItemJson } from '../schemas/users';
 
 export type { OperatorJson, CellJson, MastDetailJson, MastJson, ReadingJson, SearchHitJson, RegionJson };
 
@@ -55,18 +56,8 @@ export interface List<T> {
   total: number;
 }
 
-export interface UserDto {
-  id: string;
-  email: string;
-  name: string;
-  role: Role;
-  disabledAt: string | null;
-  createdAt: string;
-  /** While an invited person has not chosen a password: whether the link still works. */
-  invite: 'pending' | 'expired' | null;
-}
-
-export type InvitedUserDto = UserDto & { mailSent: boolean };
+export type UserDto = UserListItemJson;
+export type InvitedUserDto = InvitedUserJson;
 
 export const usersApi = {
   list: () => get<List<UserDto>>('/api/users'),

@@ -1,5 +1,6 @@
 // The planner's state as a shareable URL, the kit form's own checks, and which candidate stays
 // selected when a new shortlist arrives. Pure: the planner island calls these.
+import { ID_PATTERN } from '../schemas/params';
 
 export interface KitForm {
   antennaId: string;
@@ -27,7 +28,6 @@ const KIT_PARAMS: Record<keyof KitForm, string> = {
   simOperator: 'sim',
 };
 
-const ID = /^\d{1,18}$/;
 const NUMBER = /^-?\d+(\.\d+)?$/;
 
 /** Reads what a shared or reloaded planner link holds; anything malformed is ignored. */
@@ -43,10 +43,10 @@ export function readPlannerUrl(search: string): PlannerUrlState {
     const v = p.get(name);
     if (v === null) continue;
     const numeric = key === 'cableM' || key === 'heightM';
-    if (numeric ? NUMBER.test(v) : v === '' || ID.test(v)) kit[key] = v;
+    if (numeric ? NUMBER.test(v) : v === '' || ID_PATTERN.test(v)) kit[key] = v;
   }
   const cell = p.get('cell');
-  return { position, kit, cellId: cell && ID.test(cell) ? cell : null };
+  return { position, kit, cellId: cell && ID_PATTERN.test(cell) ? cell : null };
 }
 
 /** The planner's state as a query string; keeps parameters it does not own (e.g. `customer`). */

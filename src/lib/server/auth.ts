@@ -3,6 +3,7 @@ import { Lucia, TimeSpan } from 'lucia';
 import { getDb } from './db';
 import { KnexSessionAdapter } from './session-adapter';
 import { findUserForLogin, type User } from './repos/users';
+import { clearLoginFailures, countLoginFailures, recordLoginFailure } from './repos/login-failures';
 import { randomBytes } from 'node:crypto';
 import { hashPassword, verifyPassword } from './password';
 import { normaliseEmail } from '../schemas/auth';
@@ -63,22 +64,16 @@ export function accountDelaySeconds(failures: number): number {
 }
 
 async function assertNotThrottled(email: string, ip: string): Promise<void> {
-  const db = getDb();
   const now = Date.now();
   const since = new Date(now - THROTTLE_WINDOW_MIN * 60_000);
-  const [byEmail, byIp] = await Promise.all([
-    db('login_failures').where({ email }).andWhere('at', '>', since).count<{ count: string }[]>('* as count').max('at as last').first(),
-    db('login_failures').where({ ip }).andWhere('at', '>', since).count<{ count: string }[]>('* as count').min('at as first').first(),
-  ]);
-  const ipRow = byIp as unknown as { count: string; first: Date | null } | undefined;
-  if (Number(ipRow?.count ?? 0) >= IP_FAILURE_LIMIT && ipRow?.first) {
-    const retryAfter = Math.max(1, Math.ceil((new Date(ipRow.first).getTime() + THROTTLE_WINDOW_MIN * 60_000 - now) / 1000));
+  const { byEmail, byIp } = await countLoginFailures(getDb(), email, ip, since);
+  if (byIp.count >= IP_FAILURE_LIMIT && byIp.first) {
+    const retryAfter = Math.max(1, Math.ceil((byIp.first.getTime() + THROTTLE_WINDOW_MIN * 60_000 - now) / 1000));
     throw new TooManyRequestsError(`Too many failed sign-ins from your address. Try again in ${Math.ceil(retryAfter / 60)} minutes.`, retryAfter);
   }
-  const emailRow = byEmail as unknown as { count: string; last: Date | null } | undefined;
-  const delay = accountDelaySeconds(Number(emailRow?.count ?? 0));
-  if (delay > 0 && emailRow?.last) {
-    const retryAfter = Math.ceil((new Date(emailRow.last).getTime() + delay * 1000 - now) / 1000);
+  const delay = accountDelaySeconds(byEmail.count);
+  if (delay > 0 && byEmail.last) {
+    const retryAfter = Math.ceil((byEmail.last.getTime() + delay * 1000 - now) / 1000);
     if (retryAfter > 0) throw new TooManyRequestsError(`Too many failed sign-ins. Try again in ${retryAfter} seconds.`, retryAfter);
   }
 }
@@ -97,12 +92,12 @@ export async function authenticate(rawEmail: string, password: string, ip: strin
   const user = await findUserForLogin(getDb(), email);
   const ok = user !== null ? await verifyPassword(user.passwordHash, password) : (await verifyPassword(await getDummyHash(), password)) && false;
   if (!user || !ok || user.disabledAt) {
-    await getDb()('login_failures').insert({ email, ip });
+    await recordLoginFailure(getDb(), email, ip);
     // Disabled accounts get their own message only after a correct password.
     if (user && ok && user.disabledAt) throw new AccountDisabledError();
     throw new UnauthorizedError('Wrong e-mail or password');
   }
-  await getDb()('login_failures').where({ email }).delete();
+  await clearLoginFailures(getDb(), email);
   const { passwordHash: _omit, ...plain } = user;
   return plain;
 }

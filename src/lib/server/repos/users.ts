@@ -3,15 +3,9 @@ import type { Role } from '../../domain/roles';
 import { ConflictError, NotFoundError, ValidationError } from '../errors';
 import { hashPassword } from '../password';
 import { recordAudit } from './audit';
+import { USER, type User } from '../../schemas/users';
 
-export interface User {
-  id: string;
-  email: string;
-  name: string;
-  role: Role;
-  disabledAt: Date | null;
-  createdAt: Date;
-}
+export type { User };
 
 interface UserRow {
   id: string;
@@ -23,16 +17,7 @@ interface UserRow {
   created_at: Date;
 }
 
-export function toUser(row: UserRow): User {
-  return {
-    id: String(row.id),
-    email: row.email,
-    name: row.name,
-    role: row.role,
-    disabledAt: row.disabled_at,
-    createdAt: row.created_at,
-  };
-}
+export const toUser = (row: UserRow): User => USER.fromRow(row as unknown as Record<string, unknown>);
 
 export async function findUserForLogin(db: Tx, email: string): Promise<(User & { passwordHash: string }) | null> {
   const row = await db<UserRow>('users').whereRaw('lower(email) = lower(?)', [email]).first();

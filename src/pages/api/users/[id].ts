@@ -2,12 +2,12 @@ import { getDb } from '../../../lib/server/db';
 import { handler, json, parseBody, parseWith, requirePermission } from '../../../lib/server/http';
 import { findUser, updateUser } from '../../../lib/server/repos/users';
 import { IdParamSchema } from '../../../lib/schemas/params';
-import { UserChangeSchema } from '../../../lib/schemas/users';
+import { UserChangeSchema, userJson } from '../../../lib/schemas/users';
 
 export const GET = handler(async ({ locals, params }) => {
   requirePermission(locals, 'users:manage');
   const { id } = parseWith(IdParamSchema, params);
-  return json(await findUser(getDb(), id));
+  return json(userJson(await findUser(getDb(), id)));
 });
 
 export const PATCH = handler(async ({ locals, params, request }) => {
@@ -15,5 +15,5 @@ export const PATCH = handler(async ({ locals, params, request }) => {
   const { id } = parseWith(IdParamSchema, params);
   const change = await parseBody(UserChangeSchema, request);
   const user = await getDb().transaction((trx) => updateUser(trx, id, change, actor.id));
-  return json(user);
+  return json(userJson(user));
 });
