@@ -17,23 +17,22 @@ import {
 
 describe('hexagon levels', () => {
   it('follow the zoom: 32 km hexagons for a nation, 125 m for streets, two zooms per level', () => {
-    expect([0, 6, 7, 8, 9, 10, 11, 12, 13, 14, 18].map((z) => getHexLevelForZoom(z).sizeM)).toEqual([
+    expect([0, 5, 6, 7, 8, 9, 10, 11, 12, 13, 18].map((z) => getHexLevelForZoom(z).sizeM)).toEqual([
       32_000, 32_000, 8_000, 8_000, 2_000, 2_000, 500, 500, 125, 125, 125,
     ]);
-    for (let k = 1; k < HEX_LEVELS.length; k++) expect(HEX_LEVELS[k - 1]!.sizeM / HEX_LEVELS[k]!.sizeM).toBe(4);
+    for (let k = 1; k < HEX_LEVELS.length; k++) {
+      expect(HEX_LEVELS[k - 1]!.sizeM / HEX_LEVELS[k]!.sizeM).toBe(4);
+      expect(HEX_LEVELS[k]!.fromZoom - HEX_LEVELS[k - 1]!.fromZoom).toBe(k === 1 ? 6 : 2);
+    }
     expect(() => getHexLevel(5)).toThrow(RangeError);
     expect(SIGNAL_MIN_READINGS).toBe(5);
   });
 
-  it('draw hexagons 20–60 px wide on the 512 px tiles of their zooms (Web Mercator: 40 075 016.7 m / (512 · 2^z) per px)', () => {
-    for (const level of HEX_LEVELS) {
-      // The coarsest level also serves zooms 0–4, where a nation is a few pixels wide anyway.
-      for (const z of level.level === 0 ? [5, 6] : [level.fromZoom, level.fromZoom + 1]) {
-        const widthPx = (2 * level.sizeM) / (40_075_016.686 / (512 * 2 ** z));
-        expect(widthPx, `level ${level.level} z ${z}`).toBeGreaterThan(20);
-        expect(widthPx, `level ${level.level} z ${z}`).toBeLessThan(60);
-      }
-    }
+  it('start each level at 13 px wide on its 512 px tiles (Web Mercator: 40 075 016.7 m / (512 · 2^z) per px)', () => {
+    const widthPx = (sizeM: number, z: number) => (2 * sizeM) / (40_075_016.686 / (512 * 2 ** z));
+    for (const level of HEX_LEVELS.slice(1)) expect(widthPx(level.sizeM, level.fromZoom)).toBeCloseTo(13.1, 1);
+    // The coarsest at zoom 5, a nation's view: 26 px.
+    expect(widthPx(32_000, 5)).toBeCloseTo(26.2, 1);
   });
 
   it('are narrower on the ground away from the equator: √3 · 125 m · cos 60° = 108.3 m [CALC]', () => {

@@ -41,6 +41,9 @@ import MapSearch from './MapSearch';
 import MastImages from './MastImages';
 import MastPanel from './MastPanel';
 import PendingPopup, { type PendingSightingFeature } from './PendingPopup';
+import SignalLayer from './SignalLayer';
+import SignalPanel from './SignalPanel';
+import { SIGNAL_OFF, type SignalState } from './signal-layers';
 
 interface Props {
   canEditMasts: boolean;
@@ -70,6 +73,7 @@ export default function MapView({ canEditMasts }: Props) {
   const [pendingPick, setPendingPick] = useState<PendingSightingFeature | null>(null);
   const isPhone = useIsPhone();
   const [filtersOpen, setFiltersOpen] = useState(false);
+  const [signal, setSignal] = useState<SignalState>(SIGNAL_OFF);
   const origin = typeof window !== 'undefined' ? window.location.origin : '';
 
   useEffect(() => {
@@ -188,6 +192,7 @@ export default function MapView({ canEditMasts }: Props) {
           <NavigationControl position="top-right" showCompass={false} />
           <ScaleControl position="bottom-right" unit="metric" />
           <MastImages operators={operators} />
+          <SignalLayer origin={origin} state={signal} />
           <Source id={REGION_SOURCE_ID} type="geojson" data={regionData}>
             <Layer {...REGION_LINE_LAYER} />
             <Layer {...REGION_LABEL_LAYER} />
@@ -228,6 +233,7 @@ export default function MapView({ canEditMasts }: Props) {
           >
             <MapFilters operators={operators} bands={sortBands(new Set([...bands, ...filters.bands]))} value={filters} onChange={setFilters} />
           </div>
+          <SignalPanel operators={operators} bands={bands} value={signal} onChange={setSignal} compact={isPhone} />
         </div>
       )}
 

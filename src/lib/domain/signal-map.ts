@@ -22,15 +22,17 @@ export interface HexLevel {
 }
 
 /**
- * Each level's hexagons are a quarter the size of the one before, and each serves two zooms, so a
- * hexagon is about 25–50 px wide on a 512 px tile (MapLibre's vector tile size).
+ * Each level's hexagons are a quarter the size of the one before, and each serves two zooms: a
+ * hexagon is about 13 px wide (corner to corner) where its level starts and grows to 52 px before
+ * the next level takes over (MapLibre draws a 512 px tile per zoom step). From zoom 14 on the
+ * 125 m hexagons just grow.
  */
 export const HEX_LEVELS: readonly HexLevel[] = [
   { level: 0, sizeM: 32_000, fromZoom: 0 },
-  { level: 1, sizeM: 8_000, fromZoom: 7 },
-  { level: 2, sizeM: 2_000, fromZoom: 9 },
-  { level: 3, sizeM: 500, fromZoom: 11 },
-  { level: 4, sizeM: 125, fromZoom: 13 },
+  { level: 1, sizeM: 8_000, fromZoom: 6 },
+  { level: 2, sizeM: 2_000, fromZoom: 8 },
+  { level: 3, sizeM: 500, fromZoom: 10 },
+  { level: 4, sizeM: 125, fromZoom: 12 },
 ];
 
 /** The level whose hexagons are drawn in a tile of zoom `z`. */

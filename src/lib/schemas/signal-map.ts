@@ -1,4 +1,4 @@
-// Query of the measured signal map's tiles: one operator and one band at most (empty: all).
+// Query of the measured signal map's tiles: one operator and one of its bands at most (empty: all).
 import { z } from 'zod';
 import { ID_PATTERN } from './params';
 import { resolveBandLabel } from './radio';
@@ -18,6 +18,8 @@ export const SignalTileQuerySchema = z
         .optional(),
     ),
   })
+  // Hexagons are kept per operator and band: a band is one operator's.
+  .refine((q) => !q.band || q.operator, { path: ['band'], message: 'Choose an operator to choose a band' })
   .transform((q) => ({ operatorId: q.operator ?? null, band: q.band ?? null }));
 
 export type SignalTileQuery = z.output<typeof SignalTileQuerySchema>;

@@ -25,7 +25,7 @@ export const SIGNAL_MVT_ATTRIBUTES = ['readings', 'rsrp_count', 'rsrp_median_dbm
 export interface SignalFilter {
   /** One operator's readings (matched to its cells); null: every reading, matched or not. */
   operatorId: string | null;
-  /** One band (as stored on cells, e.g. B20, n78); null: every band. */
+  /** One band of the operator (as stored on cells, e.g. B20, n78); null: every band. Needs an operator. */
   band: string | null;
   /** Count readings taken at customers' homes too (only for roles that may see customers). */
   withHomeReadings: boolean;
@@ -59,9 +59,13 @@ export function hexCellSql(alias: string, geom: string, size: string): string {
 /** Hexagon i, j of a grid of edge `size` as a Web Mercator polygon, as SQL. */
 const hexagonSql = (size: string, i: string, j: string) => `ST_Hexagon(${size}, ${i}, ${j}, ST_SetSRID(ST_MakePoint(0, 0), 3857))`;
 
-/** SQL: the hexagon i, j's centre lies in the box (Web Mercator), with the box as named parameters. */
+/**
+ * SQL: the hexagon i, j's centre lies in the box (Web Mercator), with the box as named parameters;
+ * the column and row ranges first, for the index.
+ */
 const centreInBoxSql = (i: string, j: string) =>
-  `(1.5 * :size * ${i} BETWEEN :cxmin AND :cxmax AND sqrt(3.0) * :size * (${j} + (${i} & 1) / 2.0) BETWEEN :cymin AND :cymax)`;
+  `(${i} BETWEEN :iMin AND :iMax AND ${j} BETWEEN :jMin AND :jMax
+    AND 1.5 * :size * ${i} BETWEEN :cxmin AND :cxmax AND sqrt(3.0) * :size * (${j} + (${i} & 1) / 2.0) BETWEEN :cymin AND :cymax)`;
 
 const AGGREGATES = `count(*) AS readings,
   count(r.rsrp_dbm) AS rsrp_count, percentile_cont(0.5) WITHIN GROUP (ORDER BY r.rsrp_dbm) AS rsrp_median_dbm,
@@ -72,10 +76,10 @@ const AGGREGATES = `count(*) AS readings,
 const COLUMNS = `level, i, j, audience, operator_id, band, readings, rsrp_count, rsrp_median_dbm, rsrq_count, rsrq_median_db,
   sinr_count, sinr_median_db, first_taken_at, last_taken_at`;
 
-// Every operator and band; each operator; each band; each operator's band. Readings matched to no
-// cell count only in the first (their operator and band are unknown).
-const GROUPING = `GROUP BY GROUPING SETS ((h.i, h.j), (h.i, h.j, c.operator_id), (h.i, h.j, c.band), (h.i, h.j, c.operator_id, c.band))
-  HAVING (GROUPING(c.operator_id) = 1 OR c.operator_id IS NOT NULL) AND (GROUPING(c.band) = 1 OR c.band IS NOT NULL)`;
+// Every operator and band; each operator; each operator's band. Readings matched to no cell count
+// only in the first (their operator is unknown).
+const GROUPING = `GROUP BY GROUPING SETS ((h.i, h.j), (h.i, h.j, c.operator_id), (h.i, h.j, c.operator_id, c.band))
+  HAVING GROUPING(c.operator_id) = 1 OR c.operator_id IS NOT NULL`;
 
 type Box = readonly [west: number, south: number, east: number, north: number];
 
@@ -85,6 +89,10 @@ const clampLat = (lat: number) => Math.max(-MAX_LAT, Math.min(MAX_LAT, lat));
 
 interface RegionParams {
   size: number;
+  iMin: number;
+  iMax: number;
+  jMin: number;
+  jMax: number;
   cxmin: number;
   cymin: number;
   cxmax: number;
@@ -106,7 +114,19 @@ function regionFor(level: HexLevel, box: Box): RegionParams {
   const s = level.sizeM;
   const gsw = fromWebMercator(sw.x - 2 * s, sw.y - 2 * s);
   const gne = fromWebMercator(ne.x + 2 * s, ne.y + 2 * s);
-  return { size: s, cxmin: sw.x - s, cymin: sw.y - s, cxmax: ne.x + s, cymax: ne.y + s, gw: gsw.lon, gs: gsw.lat, ge: gne.lon, gn: gne.lat };
+  const centres = { xmin: sw.x - s, ymin: sw.y - s, xmax: ne.x + s, ymax: ne.y + s };
+  return {
+    size: s,
+    ...getHexRangeForBox(s, centres),
+    cxmin: centres.xmin,
+    cymin: centres.ymin,
+    cxmax: centres.xmax,
+    cymax: centres.ymax,
+    gw: gsw.lon,
+    gs: gsw.lat,
+    ge: gne.lon,
+    gn: gne.lat,
+  };
 }
 
 /** Recomputes one level's hexagons in `box` (everywhere when null), both audiences. Returns the rows written. */
@@ -163,6 +183,8 @@ export async function refreshReadingHexes(db: Knex, onLevel?: (done: number, tot
   return db.transaction(async (trx) => {
     await trx.raw("SET LOCAL statement_timeout = '60min'");
     await trx.raw('SET LOCAL jit = off');
+    // Medians sort every hexagon's readings: in memory rather than on disk (one job at a time).
+    await trx.raw("SET LOCAL work_mem = '128MB'");
     await trx.raw('SELECT pg_advisory_xact_lock(?)', [REFRESH_LOCK_KEY]);
     const dirty: Array<{ id: string; w: number | null; s: number | null; e: number | null; n: number | null }> = await trx('reading_hex_dirty')
       .select('id', trx.raw('ST_XMin(box) AS w'), trx.raw('ST_YMin(box) AS s'), trx.raw('ST_XMax(box) AS e'), trx.raw('ST_YMax(box) AS n'))

@@ -1,0 +1,122 @@
+// The measured signal layer on /map in headless Chromium: switched on from the keyboard, hexagons
+// drawn from the app's own tiles, the legend with each grade's range, a change of metric and
+// operator, and the same at phone width.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser, Page } from 'playwright-core';
+import type { Map as MaplibreMap } from 'maplibre-gl';
+import { APP_URL, demoEmail, launchBrowser, signIn, watchOutsideRequests } from '../helpers/browser';
+
+declare global {
+  interface Window {
+    bearlineMap?: MaplibreMap;
+  }
+}
+
+const FILL_LAYER = 'signal-fill';
+
+let browser: Browser;
+
+beforeAll(async () => {
+  browser = await launchBrowser();
+});
+
+afterAll(async () => {
+  await browser?.close();
+});
+
+async function openMap(page: Page, role: string): Promise<void> {
+  await signIn(page, demoEmail(role));
+  await page.goto(`${APP_URL}/map`);
+  await page.waitForFunction(() => !!window.bearlineMap && window.bearlineMap.isStyleLoaded(), undefined, { timeout: 60_000 });
+}
+
+/** The hexagons drawn on screen once the map is idle: their RSRP / SINR medians and counts. */
+async function drawnHexagons(page: Page): Promise<Array<Record<string, number>>> {
+  await page.waitForFunction(
+    (layer) => {
+      const map = window.bearlineMap!;
+      return !!map.getLayer(layer) && map.areTilesLoaded() && map.queryRenderedFeatures({ layers: [layer] }).length > 0;
+    },
+    FILL_LAYER,
+    { timeout: 60_000 },
+  );
+  return page.evaluate(
+    (layer) => window.bearlineMap!.queryRenderedFeatures({ layers: [layer] }).map((f) => f.properties as Record<string, number>),
+    FILL_LAYER,
+  );
+}
+
+describe('measured signal layer', () => {
+  it('switches on from the keyboard, draws hexagons with a graded legend, and follows metric and operator', async () => {
+    const context = await browser.newContext({ viewport: { width: 1280, height: 860 } });
+    const page = await context.newPage();
+    const outside = watchOutsideRequests(page);
+    await openMap(page, 'planner');
+
+    const toggle = page.getByTestId('signal-toggle');
+    await expect(toggle.getAttribute('aria-checked')).resolves.toBe('false');
+    expect(await page.getByTestId('signal-legend').count()).toBe(0);
+    await toggle.focus();
+    await page.keyboard.press('Space');
+    await expect(toggle.getAttribute('aria-checked')).resolves.toBe('true');
+
+    const legend = page.getByTestId('signal-legend');
+    await legend.waitFor();
+    // Installers' grades (common practice): RSRP ≥ −80 dBm excellent … < −110 dBm unusable.
+    expect((await page.getByTestId('signal-class-excellent').innerText()).replace(/\s+/g, ' ')).toBe('≥ −80 dBm Excellent');
+    expect((await page.getByTestId('signal-class-unusable').innerText()).replace(/\s+/g, ' ')).toBe('< −110 dBm Unusable');
+    expect(await legend.innerText()).toContain('Faint: fewer than 5 RSRP readings');
+
+    const all = await drawnHexagons(page);
+    expect(all.length).toBeGreaterThan(10);
+    expect(all.every((p) => p.rsrp_median_dbm <= -44 && p.rsrp_median_dbm >= -140 && p.readings >= 1)).toBe(true);
+    // The demo's drive survey spans good and poor coverage.
+    const medians = all.map((p) => p.rsrp_median_dbm);
+    expect(Math.max(...medians) - Math.min(...medians)).toBeGreaterThan(15);
+
+    // SINR: the legend changes to dB and its four grades.
+    await page.getByRole('radio', { name: 'SINR' }).check();
+    await expect(page.getByTestId('signal-class-unusable').count()).resolves.toBe(0);
+    expect((await page.getByTestId('signal-class-excellent').innerText()).replace(/\s+/g, ' ')).toBe('≥ 20 dB Excellent');
+    expect(await page.evaluate((layer) => JSON.stringify(window.bearlineMap!.getLayer(layer)?.filter), FILL_LAYER)).toContain('sinr_median_db');
+
+    // One operator: fewer readings per hexagon than all operators together.
+    const total = (list: Array<Record<string, number>>) => list.reduce((n, p) => n + p.readings, 0);
+    const operatorSelect = page.getByTestId('signal-operator');
+    const firstOperator = await operatorSelect.locator('option').nth(1).getAttribute('value');
+    await operatorSelect.selectOption(firstOperator!);
+    await page.waitForFunction(
+      () => {
+        const tiles = (window.bearlineMap!.getSource('signal') as unknown as { tiles?: string[] } | undefined)?.tiles ?? [];
+        return tiles.some((t) => t.includes('operator='));
+      },
+      undefined,
+      { timeout: 10_000 },
+    );
+    const one = await drawnHexagons(page);
+    expect(total(one)).toBeLessThan(total(all));
+
+    // Off again: no hexagons, no legend.
+    await toggle.click();
+    expect(await page.evaluate((layer) => !!window.bearlineMap!.getLayer(layer), FILL_LAYER)).toBe(false);
+    expect(await page.getByTestId('signal-legend').count()).toBe(0);
+    expect(outside).toEqual([]);
+    await context.close();
+  });
+
+  it('fits a 390 px phone: the legend folds away and opens on demand', async () => {
+    const context = await browser.newContext({ viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true });
+    const page = await context.newPage();
+    await openMap(page, 'reviewer');
+    await page.getByTestId('signal-toggle').click();
+    expect(await page.getByTestId('signal-panel').isHidden()).toBe(true);
+    await page.getByTestId('signal-legend-toggle').click();
+    const panel = page.getByTestId('signal-panel');
+    await panel.waitFor();
+    const box = (await panel.boundingBox())!;
+    expect(box.x).toBeGreaterThanOrEqual(0);
+    expect(box.x + box.width).toBeLessThanOrEqual(390);
+    expect(await drawnHexagons(page)).not.toHaveLength(0);
+    await context.close();
+  });
+});
