@@ -74,8 +74,11 @@ describe('measured signal layer', () => {
     const medians = all.map((p) => p.rsrp_median_dbm);
     expect(Math.max(...medians) - Math.min(...medians)).toBeGreaterThan(15);
 
-    // SINR: the legend changes to dB and its four grades.
-    await page.getByRole('radio', { name: 'SINR' }).check();
+    // SINR, chosen with the arrow keys: the legend changes to dB and its four grades.
+    await page.getByRole('radio', { name: 'RSRP' }).focus();
+    await page.keyboard.press('ArrowRight');
+    await page.keyboard.press('ArrowRight');
+    expect(await page.getByRole('radio', { name: 'SINR' }).isChecked()).toBe(true);
     await expect(page.getByTestId('signal-class-unusable').count()).resolves.toBe(0);
     expect((await page.getByTestId('signal-class-excellent').innerText()).replace(/\s+/g, ' ')).toBe('≥ 20 dB Excellent');
     expect(await page.evaluate((layer) => JSON.stringify(window.bearlineMap!.getLayer(layer)?.filter), FILL_LAYER)).toContain('sinr_median_db');
@@ -102,7 +105,7 @@ describe('measured signal layer', () => {
     expect(await page.getByTestId('signal-legend').count()).toBe(0);
     expect(outside).toEqual([]);
     await context.close();
-  });
+  }, 180_000);
 
   it('fits a 390 px phone: the legend folds away and opens on demand', async () => {
     const context = await browser.newContext({ viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true });
