@@ -1,7 +1,8 @@
-// Customers: input schemas shared by the endpoints and the customer forms, and the JSON the
-// API returns.
+// Customers: the one field declaration, the input schemas derived from it (shared by the
+// endpoints and the customer forms), and the JSON the API returns.
 import { z } from 'zod';
 import { PLAN_STATES, type PlanState } from '../domain/plan-state';
+import { defineRecord, field, idOrNull, type ChangeOf, type InputOf, type JsonOf, type ValueOf } from './record';
 import { IdRefSchema, enumOf, hasChange, numberField as num, optionalText, pageParams, requiredText, RowVersionSchema, searchParam } from './params';
 
 const name = requiredText(120);
@@ -28,45 +29,47 @@ const lat = num('Latitude').min(-90, 'Latitude must be between -90 and 90').max(
 const lon = num('Longitude').min(-180, 'Longitude must be between -180 and 180').max(180, 'Longitude must be between -180 and 180');
 const ref = IdRefSchema.nullish().transform((v) => v ?? null);
 
-export const CustomerInputSchema = z
-  .object({
-    name,
-    phone,
-    email,
-    address_label: addressLabel,
-    postcode,
-    lat,
-    lon,
-    current_operator_id: ref,
-    current_antenna_id: ref,
-    notes: optionalText(4000),
-  })
-  .transform((v) => ({
-    name: v.name,
-    phone: v.phone,
-    email: v.email,
-    addressLabel: v.address_label,
-    postcode: v.postcode,
-    lat: v.lat,
-    lon: v.lon,
-    currentOperatorId: v.current_operator_id,
-    currentAntennaId: v.current_antenna_id,
-    notes: v.notes,
-  }));
-export type CustomerInput = z.output<typeof CustomerInputSchema>;
+/** A customer, field by field: body and JSON name (= column), how it is written, read and audited. */
+export const CUSTOMER = defineRecord({
+  id: field.id(),
+  name: field.input(name),
+  phone: field.input(phone),
+  email: field.input(email),
+  address_label: field.input(addressLabel),
+  postcode: field.input(postcode),
+  // The place is stored as one point (`geom`): the repo writes it from lat and lon together.
+  lat: field.input(lat, { column: false, sql: 'ST_Y({t}.geom)' }),
+  lon: field.input(lon, { column: false, sql: 'ST_X({t}.geom)' }),
+  current_operator_id: field.input(ref, { fromRow: idOrNull }),
+  // Names of the referenced rows: selected with the operator joined as `o` and the antenna as `a`.
+  current_operator_name: field.value<string | null>({ sql: 'o.name' }),
+  current_antenna_id: field.input(ref, { fromRow: idOrNull }),
+  current_antenna_name: field.value<string | null>({ sql: 'a.name' }),
+  notes: field.input(optionalText(4000)),
+  plan_count: field.count({ sql: '(SELECT count(*) FROM plans p WHERE p.customer_id = {t}.id)' }),
+  /** State of the most recently changed plan, if any. */
+  latest_plan_state: field.value<PlanState | null>({
+    sql: '(SELECT p.state FROM plans p WHERE p.customer_id = {t}.id ORDER BY p.updated_at DESC, p.id DESC LIMIT 1)',
+  }),
+  created_at: field.time(),
+  updated_at: field.time(),
+  /** When the personal data was erased on the customer's request (null while it is held). */
+  erased_at: field.maybeTime(),
+  row_version: field.value<number>(),
+});
+
+export type Customer = ValueOf<typeof CUSTOMER.fields>;
+export type CustomerJson = JsonOf<typeof CUSTOMER.fields>;
+export type CustomerInput = InputOf<typeof CUSTOMER.fields>;
+export type CustomerChange = Partial<ChangeOf<typeof CUSTOMER.fields> & { rowVersion: number }>;
+
+export const customerJson = (c: Customer): CustomerJson => CUSTOMER.toJson(c);
+
+export const CustomerInputSchema = z.object(CUSTOMER.inputShape).transform((v): CustomerInput => CUSTOMER.toInput(v));
 
 export const CustomerChangeSchema = z
   .object({
-    name: name.optional(),
-    phone: phone.optional(),
-    email: email.optional(),
-    address_label: addressLabel.optional(),
-    postcode: postcode.optional(),
-    lat: lat.optional(),
-    lon: lon.optional(),
-    current_operator_id: IdRefSchema.nullable().optional(),
-    current_antenna_id: IdRefSchema.nullable().optional(),
-    notes: optionalText(4000).optional(),
+    ...CUSTOMER.changeShape,
     /** Required: the version the change was made from; a stale one is refused with 409. */
     row_version: RowVersionSchema,
   })
@@ -76,20 +79,7 @@ export const CustomerChangeSchema = z
     }
     if (!hasChange(v)) ctx.addIssue({ code: 'custom', path: [], message: 'Nothing to change' });
   })
-  .transform((v) => ({
-    name: v.name,
-    phone: v.phone,
-    email: v.email,
-    addressLabel: v.address_label,
-    postcode: v.postcode,
-    lat: v.lat,
-    lon: v.lon,
-    currentOperatorId: v.current_operator_id,
-    currentAntennaId: v.current_antenna_id,
-    notes: v.notes,
-    rowVersion: v.row_version,
-  }));
-export type CustomerChange = Partial<z.output<typeof CustomerChangeSchema>>;
+  .transform((v): CustomerChange => ({ ...CUSTOMER.toChange(v), rowVersion: v.row_version }));
 
 export const CUSTOMER_SORTS = ['name', 'address', 'postcode', 'state', 'created_at', 'updated_at'] as const;
 export type CustomerSort = (typeof CUSTOMER_SORTS)[number];
@@ -105,30 +95,6 @@ export const CustomerListQuerySchema = z.object({
 export type CustomerListQuery = z.output<typeof CustomerListQuerySchema>;
 
 // --- JSON the API returns ---------------------------------------------------------------
-
-export interface CustomerJson {
-  id: string;
-  name: string;
-  phone: string | null;
-  email: string | null;
-  address_label: string;
-  postcode: string | null;
-  lat: number;
-  lon: number;
-  current_operator_id: string | null;
-  current_operator_name: string | null;
-  current_antenna_id: string | null;
-  current_antenna_name: string | null;
-  notes: string | null;
-  plan_count: number;
-  /** State of the most recently changed plan, if any. */
-  latest_plan_state: PlanState | null;
-  created_at: string;
-  updated_at: string;
-  /** When the personal data was erased on the customer's request (null while it is held). */
-  erased_at: string | null;
-  row_version: number;
-}
 
 /** Answer of POST /api/customers/:id/erasure: the erased customer and what else was cleared. */
 export interface CustomerErasureJson {

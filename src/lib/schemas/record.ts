@@ -103,6 +103,8 @@ export const field = {
   id: kept<string, string>(toId, same),
   /** A nullable reference to another row, as a string. */
   ref: kept<string | null, string | null>(toIdOrNull, same),
+  /** A count (PostgreSQL returns count(*) as text), as a number. */
+  count: kept<number, number>((v) => Number(v), same),
   /** A bigint that fits a JavaScript number (e.g. a 36-bit cell identity). */
   bigNumber: kept<number | null, number | null>(toNumberOrNull, same),
   /** A timestamp: a Date in the value, ISO 8601 in JSON. */
@@ -117,6 +119,8 @@ export const isoTime = (d: Date | null | undefined) => (d ? d.toISOString() : nu
 export const orNull = <T>(v: T | null | undefined): T | null => v ?? null;
 /** A bigint column read as a number (PostgreSQL returns bigints as text). */
 export const numberOrNull = toNumberOrNull;
+/** A nullable bigint id read as a string (`field.input(schema, { fromRow: idOrNull })`). */
+export const idOrNull = toIdOrNull;
 
 type Entry = { name: string; key: string; spec: AnyField };
 

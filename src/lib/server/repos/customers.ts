@@ -1,117 +1,23 @@
 // Customers: who they are, where the antenna goes, and what they use today.
 import type { Knex } from 'knex';
 import type { Tx } from '../db';
-import { PLAN_STATES, type PlanState } from '../../domain/plan-state';
-import type { CustomerChange, CustomerInput, CustomerJson, CustomerListQuery, HistoryEntryJson } from '../../schemas/customers';
+import { PLAN_STATES } from '../../domain/plan-state';
+import { CUSTOMER, type Customer, type CustomerChange, type CustomerInput, type CustomerListQuery, type HistoryEntryJson } from '../../schemas/customers';
 import { ConflictError, NotFoundError, ValidationError } from '../errors';
 import { recordAudit } from './audit';
 import { escapeLike } from './masts';
+import { recordColumns } from './record-sql';
 
-export interface Customer {
-  id: string;
-  name: string;
-  phone: string | null;
-  email: string | null;
-  addressLabel: string;
-  postcode: string | null;
-  lat: number;
-  lon: number;
-  currentOperatorId: string | null;
-  currentOperatorName: string | null;
-  currentAntennaId: string | null;
-  currentAntennaName: string | null;
-  notes: string | null;
-  planCount: number;
-  latestPlanState: PlanState | null;
-  createdAt: Date;
-  updatedAt: Date;
-  /** When the customer's personal data was erased on their request; null while it is held. */
-  erasedAt: Date | null;
-  rowVersion: number;
-}
-
-// Rows as selected: the response fields, with dates and the count as the driver returns them.
-type CustomerRow = Omit<CustomerJson, 'plan_count' | 'created_at' | 'updated_at' | 'erased_at'> & {
-  plan_count: string | number;
-  created_at: Date;
-  updated_at: Date;
-  erased_at: Date | null;
-};
-
-function toCustomer(r: CustomerRow): Customer {
-  return {
-    id: String(r.id),
-    name: r.name,
-    phone: r.phone,
-    email: r.email,
-    addressLabel: r.address_label,
-    postcode: r.postcode,
-    lat: r.lat,
-    lon: r.lon,
-    currentOperatorId: r.current_operator_id === null ? null : String(r.current_operator_id),
-    currentOperatorName: r.current_operator_name,
-    currentAntennaId: r.current_antenna_id === null ? null : String(r.current_antenna_id),
-    currentAntennaName: r.current_antenna_name,
-    notes: r.notes,
-    planCount: Number(r.plan_count),
-    latestPlanState: r.latest_plan_state,
-    createdAt: r.created_at,
-    updatedAt: r.updated_at,
-    erasedAt: r.erased_at,
-    rowVersion: r.row_version,
-  };
-}
-
-export function customerJson(c: Customer): CustomerJson {
-  return {
-    id: c.id,
-    name: c.name,
-    phone: c.phone,
-    email: c.email,
-    address_label: c.addressLabel,
-    postcode: c.postcode,
-    lat: c.lat,
-    lon: c.lon,
-    current_operator_id: c.currentOperatorId,
-    current_operator_name: c.currentOperatorName,
-    current_antenna_id: c.currentAntennaId,
-    current_antenna_name: c.currentAntennaName,
-    notes: c.notes,
-    plan_count: c.planCount,
-    latest_plan_state: c.latestPlanState,
-    created_at: c.createdAt.toISOString(),
-    updated_at: c.updatedAt.toISOString(),
-    erased_at: c.erasedAt ? c.erasedAt.toISOString() : null,
-    row_version: c.rowVersion,
-  };
-}
+export type { Customer };
 
 function selectCustomers(db: Tx): Knex.QueryBuilder {
   return db('customers as c')
     .leftJoin('operators as o', 'o.id', 'c.current_operator_id')
     .leftJoin('antennas as a', 'a.id', 'c.current_antenna_id')
-    .select(
-      'c.id',
-      'c.name',
-      'c.phone',
-      'c.email',
-      'c.address_label',
-      'c.postcode',
-      db.raw('ST_Y(c.geom) AS lat'),
-      db.raw('ST_X(c.geom) AS lon'),
-      'c.current_operator_id',
-      'o.name as current_operator_name',
-      'c.current_antenna_id',
-      'a.name as current_antenna_name',
-      'c.notes',
-      db.raw('(SELECT count(*) FROM plans p WHERE p.customer_id = c.id) AS plan_count'),
-      db.raw('(SELECT p.state FROM plans p WHERE p.customer_id = c.id ORDER BY p.updated_at DESC, p.id DESC LIMIT 1) AS latest_plan_state'),
-      'c.created_at',
-      'c.updated_at',
-      'c.erased_at',
-      'c.row_version',
-    );
+    .select(recordColumns(db, CUSTOMER, 'c'));
 }
+
+const toCustomer = (row: Record<string, unknown>): Customer => CUSTOMER.fromRow(row);
 
 const SEARCH_TEXT = "(c.name || ' ' || c.address_label || ' ' || coalesce(c.postcode, ''))";
 
@@ -163,37 +69,12 @@ async function assertReferences(db: Tx, refs: { currentOperatorId?: string | nul
 
 const point = (db: Tx, lat: number, lon: number) => db.raw('ST_SetSRID(ST_MakePoint(?, ?), 4326)', [lon, lat]);
 
-function auditView(c: Customer) {
-  return {
-    name: c.name,
-    phone: c.phone,
-    email: c.email,
-    address_label: c.addressLabel,
-    postcode: c.postcode,
-    lat: c.lat,
-    lon: c.lon,
-    current_operator_id: c.currentOperatorId,
-    current_antenna_id: c.currentAntennaId,
-    notes: c.notes,
-  };
-}
+const auditView = (c: Customer) => CUSTOMER.auditView(c);
 
 export async function createCustomer(db: Tx, input: CustomerInput, actorId: string | null): Promise<Customer> {
   await assertReferences(db, input);
   const [row] = await db('customers')
-    .insert({
-      name: input.name,
-      phone: input.phone,
-      email: input.email,
-      address_label: input.addressLabel,
-      postcode: input.postcode,
-      geom: point(db, input.lat, input.lon),
-      current_operator_id: input.currentOperatorId,
-      current_antenna_id: input.currentAntennaId,
-      notes: input.notes,
-      created_by: actorId,
-      updated_by: actorId,
-    })
+    .insert({ ...CUSTOMER.insertRow(input), geom: point(db, input.lat, input.lon), created_by: actorId, updated_by: actorId })
     .returning('id');
   const customer = await findCustomer(db, String(row.id));
   await recordAudit(db, { userId: actorId, action: 'create', entity: 'customer', entityId: customer.id, after: auditView(customer) });
@@ -209,16 +90,13 @@ export async function updateCustomer(db: Tx, id: string, change: CustomerChange,
   }
   const before = await findCustomer(db, id);
   await assertReferences(db, change);
-  const patch: Record<string, unknown> = { updated_at: db.fn.now(), updated_by: actorId, row_version: db.raw('row_version + 1') };
-  if (change.name !== undefined) patch.name = change.name;
-  if (change.phone !== undefined) patch.phone = change.phone;
-  if (change.email !== undefined) patch.email = change.email;
-  if (change.addressLabel !== undefined) patch.address_label = change.addressLabel;
-  if (change.postcode !== undefined) patch.postcode = change.postcode;
+  const patch: Record<string, unknown> = {
+    ...CUSTOMER.patchRow(change),
+    updated_at: db.fn.now(),
+    updated_by: actorId,
+    row_version: db.raw('row_version + 1'),
+  };
   if (change.lat !== undefined && change.lon !== undefined) patch.geom = point(db, change.lat, change.lon);
-  if (change.currentOperatorId !== undefined) patch.current_operator_id = change.currentOperatorId;
-  if (change.currentAntennaId !== undefined) patch.current_antenna_id = change.currentAntennaId;
-  if (change.notes !== undefined) patch.notes = change.notes;
   await db('customers').where({ id }).update(patch);
   const after = await findCustomer(db, id);
   await recordAudit(db, { userId: actorId, action: 'update', entity: 'customer', entityId: id, before: auditView(before), after: auditView(after) });

@@ -1,7 +1,7 @@
 import { getDb } from '../../../lib/server/db';
 import { handler, json, parseBody, parseWith, requirePermission } from '../../../lib/server/http';
-import { customerJson, findCustomer, updateCustomer } from '../../../lib/server/repos/customers';
-import { CustomerChangeSchema } from '../../../lib/schemas/customers';
+import { findCustomer, updateCustomer } from '../../../lib/server/repos/customers';
+import { CustomerChangeSchema, customerJson } from '../../../lib/schemas/customers';
 import { IdParamSchema } from '../../../lib/schemas/params';
 
 export const GET = handler(async ({ locals, params }) => {

@@ -1,7 +1,7 @@
 import { getDb } from '../../../lib/server/db';
 import { handler, json, parseBody, parseQuery, requirePermission } from '../../../lib/server/http';
-import { createCustomer, customerJson, listCustomers } from '../../../lib/server/repos/customers';
-import { CustomerInputSchema, CustomerListQuerySchema } from '../../../lib/schemas/customers';
+import { createCustomer, listCustomers } from '../../../lib/server/repos/customers';
+import { CustomerInputSchema, CustomerListQuerySchema, customerJson } from '../../../lib/schemas/customers';
 
 export const GET = handler(async ({ locals, url }) => {
   requirePermission(locals, 'plans:view');

@@ -1,6 +1,6 @@
 import { getDb } from '../../../../lib/server/db';
 import { handler, json, parseWith, requirePermission } from '../../../../lib/server/http';
-import { customerJson } from '../../../../lib/server/repos/customers';
+import { customerJson } from '../../../../lib/schemas/customers';
 import { eraseCustomer } from '../../../../lib/server/repos/customer-erasure';
 import { IdParamSchema } from '../../../../lib/schemas/params';
 import type { CustomerErasureJson } from '../../../../lib/schemas/customers';
