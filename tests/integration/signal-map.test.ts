@@ -271,6 +271,41 @@ describe('signal hexagons', () => {
     expect(geometry.coordinates[0][0][0]).toBeCloseTo(-128.5, 1);
   });
 
+  it('are listed for a region: those touching its outline, in column and row order', async () => {
+    const db = testDb();
+    const west = otherCentre(-4);
+    await insertReadings([
+      { at: near(0, 0), rsrp: -80, cellId: cells.aB20 },
+      { at: near(0, 0, west), rsrp: -100, cellId: cells.aB20 },
+    ]);
+    await refreshReadingHexes(db);
+    // A small square around the base hexagon's centre only (±30 m Web Mercator).
+    const sw = near(-30, -30);
+    const ne = near(30, 30);
+    const ring = [
+      [sw.lon, sw.lat],
+      [ne.lon, sw.lat],
+      [ne.lon, ne.lat],
+      [sw.lon, ne.lat],
+      [sw.lon, sw.lat],
+    ];
+    const [{ id: regionId }] = await db('regions')
+      .insert({
+        name: 'Test Square',
+        geom: db.raw('ST_Multi(ST_SetSRID(ST_GeomFromGeoJSON(?), 4326))', [JSON.stringify({ type: 'Polygon', coordinates: [ring] })]),
+      })
+      .returning('id');
+    const bbox = [-128.6, -47.3, -128.4, -47.1] as const;
+    const query = { level: FINEST.level, bbox, operatorId: null, band: null, withHomeReadings: false };
+    const everywhere = await readingHexesQuery(db, query);
+    expect(everywhere.rows.map((r) => [r.i, r.j])).toEqual([
+      [BASE_CELL.i - 4, BASE_CELL.j],
+      [BASE_CELL.i, BASE_CELL.j],
+    ]);
+    const inRegion = await readingHexesQuery(db, { ...query, regionId: String(regionId) });
+    expect(inRegion.rows.map((r) => [r.i, r.j, r.readings, r.rsrp_median_dbm])).toEqual([[BASE_CELL.i, BASE_CELL.j, 1, -80]]);
+  });
+
   it('are recomputed where readings changed, and a new data version makes the tile cache answer afresh', async () => {
     const db = testDb();
     await insertReadings([{ at: near(0, 0), rsrp: -80, cellId: cells.aB20 }]);
