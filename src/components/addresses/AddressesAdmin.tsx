@@ -106,7 +106,7 @@ export default function AddressesAdmin() {
               Any size up to the configured limit (512 MB unless IMPORT_MAX_BYTES says otherwise). First line: label,postcode,lat,lon
             </p>
           </div>
-          <pre className="overflow-x-auto rounded bg-ink-50 p-2 text-xs text-ink-700" aria-label="Example">{`label,postcode,lat,lon
+          <pre className="whitespace-pre-wrap break-all rounded bg-ink-50 p-2 text-xs text-ink-700" aria-label="Example">{`label,postcode,lat,lon
 "Alder Farm, Crake Lane",KLV-9001,-47.2101,-128.5203`}</pre>
           <button type="submit" className="btn-primary w-full" disabled={busy}>
             {busy ? 'Importing…' : 'Import addresses'}

@@ -56,7 +56,7 @@ export default function PlannerApp({ customer, canSave }: Props) {
     customer?.lat != null && customer.lon != null ? { lat: customer.lat, lon: customer.lon } : fromUrl.position,
   );
   const [addressLabel, setAddressLabel] = useState<string | null>(customer?.addressLabel ?? null);
-  const [typedLabel, setTypedLabel] = useState<string | null>(position && !customer ? `${position.lat.toFixed(5)}, ${position.lon.toFixed(5)}` : null);
+  const [typedLabel, setTypedLabel] = useState<string | null>(position && !customer ? formatLatLon(position.lat, position.lon) : null);
   const [antennas, setAntennas] = useState<AntennaOption[]>([]);
   const [cables, setCables] = useState<CableOption[]>([]);
   const [operators, setOperators] = useState<OperatorOption[]>([]);
@@ -112,7 +112,7 @@ export default function PlannerApp({ customer, canSave }: Props) {
       lastUrlPosition.current = positionKey(back.position);
       if (!customer) {
         setPosition(back.position);
-        setTypedLabel(back.position ? `${back.position.lat.toFixed(5)}, ${back.position.lon.toFixed(5)}` : '');
+        setTypedLabel(back.position ? formatLatLon(back.position.lat, back.position.lon) : '');
       }
       setKit((k) => ({ ...k, ...back.kit }));
       wantedCell.current = back.cellId;
@@ -316,7 +316,7 @@ export default function PlannerApp({ customer, canSave }: Props) {
             onPickPosition={(p) => {
               setPosition(p);
               setAddressLabel(null);
-              setTypedLabel(`${p.lat.toFixed(5)}, ${p.lon.toFixed(5)}`);
+              setTypedLabel(formatLatLon(p.lat, p.lon));
             }}
             onSelect={setSelected}
           />
@@ -479,7 +479,7 @@ function SavePlan({
         : {
             customer: {
               name: name.trim(),
-              address_label: addressLabel ?? `${position.lat.toFixed(5)}, ${position.lon.toFixed(5)}`,
+              address_label: addressLabel ?? formatLatLon(position.lat, position.lon),
               lat: position.lat,
               lon: position.lon,
             },

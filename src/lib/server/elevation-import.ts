@@ -16,6 +16,7 @@ import {
   writeSamplesFile,
   type ElevationGridRecord,
 } from './repos/elevation';
+import { formatCount } from '../domain/format';
 
 export { MAX_ELEVATION_UPLOAD_BYTES };
 
@@ -129,7 +130,7 @@ export async function readGeoTiff(bytes: Uint8Array): Promise<ElevationGrid> {
   const width = image.getWidth();
   const height = image.getHeight();
   if (width * height > MAX_GRID_SAMPLES) {
-    throw new ElevationDataError(`The grid has ${width} × ${height} samples; at most ${MAX_GRID_SAMPLES.toLocaleString('en')} are accepted: cut it into tiles`);
+    throw new ElevationDataError(`The grid has ${width} × ${height} samples; at most ${formatCount(MAX_GRID_SAMPLES)} are accepted: cut it into tiles`);
   }
   const registration = keys.GTRasterTypeGeoKey === RASTER_PIXEL_IS_POINT ? 'point' : 'area';
   const spans = registration === 'point' ? [width - 1, height - 1] : [width, height];
