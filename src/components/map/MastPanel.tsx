@@ -7,6 +7,7 @@ import { MAST_STATUS_LABELS } from '../../lib/schemas/mast-enums';
 import { TECH_LABELS } from './MapFilters';
 import MastEditForm from './MastEditForm';
 import MastSurveys from './MastSurveys';
+import { MISSING, formatDate, formatDateTime, formatLatLon, formatNumber } from '../../lib/domain/format';
 
 interface Props {
   mastId: string;
@@ -23,9 +24,9 @@ const STATUS_BADGE: Record<MastDetailJson['status'], string> = {
   decommissioned: 'bg-ink-100 text-ink-600',
 };
 
-const fmt = (v: number | null | undefined, digits = 0, unit = '') => (v === null || v === undefined ? '—' : `${v.toFixed(digits)}${unit}`);
-const fmtDate = (iso: string | null) => (iso ? iso.slice(0, 10) : '—');
-const fmtTime = (iso: string) => new Date(iso).toLocaleString(undefined, { month: 'short', day: 'numeric', hour: '2-digit', minute: '2-digit' });
+const fmt = (v: number | null | undefined, digits = 0, unit = '') => (v === null || v === undefined ? MISSING : `${formatNumber(v, digits)}${unit}`);
+const fmtDate = formatDate;
+const fmtTime = formatDateTime;
 
 const bandOrder = (b: string) => {
   const m = /^([A-Za-z]*)(\d+)/.exec(b);
@@ -34,7 +35,7 @@ const bandOrder = (b: string) => {
 
 function CopyPosition({ lat, lon }: { lat: number; lon: number }) {
   const [copied, setCopied] = useState<string | null>(null);
-  const text = `${lat.toFixed(6)}, ${lon.toFixed(6)}`;
+  const text = formatLatLon(lat, lon, 6);
   async function copy() {
     try {
       await navigator.clipboard.writeText(text);

@@ -2,8 +2,9 @@
 import { useEffect, useState } from 'react';
 import { sightingsApi } from '../../lib/client/sightings-api';
 import type { MastSurveyJson } from '../../lib/schemas/sightings';
+import { formatDate } from '../../lib/domain/format';
 
-const fmtDate = (iso: string) => new Date(iso).toLocaleDateString(undefined, { dateStyle: 'medium' });
+const fmtDate = formatDate;
 
 export default function MastSurveys({ mastId }: { mastId: string }) {
   const [surveys, setSurveys] = useState<MastSurveyJson | null>(null);

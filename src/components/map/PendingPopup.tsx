@@ -1,5 +1,6 @@
 import { Popup } from 'react-map-gl/maplibre';
 import { SIGHTING_STRUCTURE_LABELS, type PendingSightingCollectionJson } from '../../lib/schemas/sightings';
+import { formatDate } from '../../lib/domain/format';
 
 export type PendingSightingFeature = PendingSightingCollectionJson['features'][number];
 
@@ -17,7 +18,7 @@ export default function PendingPopup({ sighting, onClose }: { sighting: PendingS
       <div className="space-y-1 pr-4 text-sm text-ink-900" data-testid="pending-popup">
         <p className="font-semibold">Pending sighting</p>
         <p>
-          {SIGHTING_STRUCTURE_LABELS[sighting.properties.structure_type]} · seen {new Date(sighting.properties.observed_at).toLocaleDateString()}
+          {SIGHTING_STRUCTURE_LABELS[sighting.properties.structure_type]} · seen {formatDate(sighting.properties.observed_at)}
         </p>
         <p>by {sighting.properties.mine ? 'you' : sighting.properties.author_name}</p>
         <p className="text-xs text-ink-600">Waiting for a reviewer; only reviewers and its author see it.</p>
