@@ -57,6 +57,17 @@ describe('map style', () => {
     expect(mastSource(ORIGIN).tiles).toEqual([`${ORIGIN}/api/tiles/masts/{z}/{x}/{y}.mvt`]);
   });
 
+  it('sends the mast filter with the tile requests, so the zoomed-out clusters count only what it keeps', () => {
+    const filtered = mastSource(ORIGIN, 3, { operators: ['4', '2'], techs: ['nr'], bands: ['n78', 'B20'], statuses: ['planned', 'active'] });
+    const url = new URL(filtered.tiles![0]!.replace(/[{}]/g, ''));
+    expect(url.pathname).toBe('/api/tiles/masts/z/x/y.mvt');
+    expect(Object.fromEntries(url.searchParams)).toEqual({ operator: '2,4', tech: 'nr', band: 'B20,n78', status: 'active,planned', v: '3' });
+    // Every status ticked is no status filter at all.
+    expect(mastSource(ORIGIN, 0, { operators: [], techs: [], bands: [], statuses: ['active', 'planned', 'decommissioned'] }).tiles).toEqual([
+      `${ORIGIN}/api/tiles/masts/{z}/{x}/{y}.mvt`,
+    ]);
+  });
+
   it('labels only with the shipped Noto Sans family', () => {
     for (const layer of fullStyle().layers) {
       const font = layer.type === 'symbol' ? layer.layout?.['text-font'] : undefined;

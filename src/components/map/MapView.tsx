@@ -81,7 +81,7 @@ export default function MapView({ canEditMasts }: Props) {
   }, []);
 
   const [tileVersion, setTileVersion] = useState(0);
-  const source = useMemo(() => mastSource(origin, tileVersion), [origin, tileVersion]);
+  const source = useMemo(() => mastSource(origin, tileVersion, filters), [origin, tileVersion, filters]);
   const mastFilter = useMemo(() => buildMastFilter(filters), [filters]);
   const selectedLayer = useMemo(() => selectedMastLayer(selectedId), [selectedId]);
   const regionData = useMemo(() => regionFeatures(regions), [regions]);
