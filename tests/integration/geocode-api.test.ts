@@ -67,6 +67,13 @@ describe('geocode API', () => {
     expect(res.body.items.map((i: { label: string }) => i.label)).toEqual(['4 Harbour Row, Port Tessary']);
   });
 
+  it('finds the words typed so far, the last one unfinished, before any near miss', async () => {
+    const res = await search('mill fa', '&limit=1');
+    expect(res.body.items.map((i: { label: string }) => i.label)).toEqual(['Mill Farm, Crake Lane, Kelvarrow']);
+    // Words in the middle of a label count as well as its first.
+    expect((await search('drum lan')).body.items[0].label).toBe('Thornfield Farm, Drum Lane, Drumhallow');
+  });
+
   it('forgives a typo', async () => {
     const res = await search('thornfeild farm');
     expect(res.body.items[0].label).toBe('Thornfield Farm, Drum Lane, Drumhallow');

@@ -161,30 +161,77 @@ export async function countAddresses(db: Tx): Promise<number> {
   return Number(row?.count ?? 0);
 }
 
-// Word similarity finds the query inside a longer label ("mill farm" in "Mill Farm,
-// Crake Lane, Kelvarrow KV3 2PL"); 0.45 lets one typo through in a short word while
-// keeping unrelated streets out. Whole similarity breaks ties towards the shorter,
-// closer label. A postcode typed in full (spaces and dashes aside) wins outright.
+// Two steps, cheapest first. Words: every word typed must start a word of the label or postcode
+// (the tsvector index; the last word may be unfinished, "mill fa" finds "Mill Farm"), or the
+// postcode typed in full (spaces and dashes aside; its expression index). Only when that finds
+// fewer than the limit does trigram word similarity look for near misses ("Crake Lnae"): it reads
+// far more of the index. Either way the score is the same: a postcode typed in full wins outright;
+// otherwise word similarity finds the query inside a longer label ("mill farm" in "Mill Farm, Crake
+// Lane, Kelvarrow KV3 2PL"), 0.45 letting one typo through in a short word while keeping unrelated
+// streets out, and whole similarity breaks ties towards the shorter, closer label.
 const WORD_SIMILARITY_THRESHOLD = 0.45;
+/** Word matches ranked per query: a street found in every town ranks its first few hundred. */
+const WORD_MATCH_CAP = 300;
 
-export async function searchGazetteer(db: Tx, q: string, limit: number): Promise<GazetteerHit[]> {
+const SCORE_SQL = `LEAST(1, CASE WHEN regexp_replace(upper(coalesce(postcode, '')), '[^A-Z0-9]', '', 'g') = regexp_replace(upper(:q), '[^A-Z0-9]', '', 'g') THEN 1
+                        ELSE 0.8 * word_similarity(:q, search_text) + 0.2 * similarity(:q, search_text) END)`;
+const POSTCODE_KEY_SQL = "regexp_replace(upper(coalesce(postcode, '')), '[^A-Z0-9]', '', 'g')";
+
+type ScoredRow = GazetteerHit & { id: string; score: string | number };
+
+/** The words of a query as a tsquery ('simple' words, the last one as a prefix), or null. */
+export function wordQuery(q: string): string | null {
+  const words = q.toLowerCase().match(/[\p{L}\p{N}]+/gu);
+  if (!words?.length) return null;
+  return words.map((w, i) => (i === words.length - 1 ? `${w}:*` : w)).join(' & ');
+}
+
+async function wordMatches(db: Tx, q: string, limit: number): Promise<ScoredRow[]> {
+  const tsq = wordQuery(q);
+  const postcodeKey = q.toUpperCase().replace(/[^A-Z0-9]/g, '');
+  if (!tsq && !postcodeKey) return [];
+  const { rows } = await db.raw<{ rows: ScoredRow[] }>(
+    `WITH found AS (
+       (SELECT id FROM addresses WHERE ${tsq ? "search_tsv @@ to_tsquery('simple', :tsq)" : 'false'} LIMIT :cap)
+       UNION
+       (SELECT id FROM addresses WHERE ${POSTCODE_KEY_SQL} = :postcodeKey LIMIT :cap))
+     SELECT a.id, a.label, a.postcode, ST_Y(a.geom) AS lat, ST_X(a.geom) AS lon, ${SCORE_SQL.replace(/postcode|search_text/g, 'a.$&')} AS score
+       FROM found f JOIN addresses a ON a.id = f.id
+      ORDER BY score DESC, a.label, a.id
+      LIMIT :limit`,
+    { q, tsq: tsq ?? '', postcodeKey: postcodeKey || '-', cap: WORD_MATCH_CAP, limit },
+  );
+  return rows;
+}
+
+async function similarMatches(db: Tx, q: string, limit: number): Promise<ScoredRow[]> {
   const run = async (trx: Tx) => {
     await trx.raw("SELECT set_config('pg_trgm.word_similarity_threshold', ?, true)", [String(WORD_SIMILARITY_THRESHOLD)]);
-    const { rows } = await trx.raw<{ rows: (GazetteerHit & { score: string | number })[] }>(
-      `SELECT label, postcode, ST_Y(geom) AS lat, ST_X(geom) AS lon,
-              LEAST(1, CASE WHEN regexp_replace(upper(coalesce(postcode, '')), '[^A-Z0-9]', '', 'g') = regexp_replace(upper(:q), '[^A-Z0-9]', '', 'g') THEN 1
-                            ELSE 0.8 * word_similarity(:q, search_text) + 0.2 * similarity(:q, search_text) END) AS score
+    const { rows } = await trx.raw<{ rows: ScoredRow[] }>(
+      `SELECT id, label, postcode, ST_Y(geom) AS lat, ST_X(geom) AS lon, ${SCORE_SQL} AS score
          FROM addresses
         WHERE :q <% search_text
-           OR regexp_replace(upper(coalesce(postcode, '')), '[^A-Z0-9]', '', 'g') = regexp_replace(upper(:q), '[^A-Z0-9]', '', 'g')
+           OR ${POSTCODE_KEY_SQL} = regexp_replace(upper(:q), '[^A-Z0-9]', '', 'g')
         ORDER BY score DESC, label, id
         LIMIT :limit`,
       { q, limit },
     );
-    return rows.map((r) => ({ ...r, score: Math.round(Number(r.score) * 1000) / 1000 }));
+    return rows;
   };
   // set_config(…, true) lasts for the transaction only, so never leaks to pooled connections.
   return 'isTransaction' in db && db.isTransaction ? run(db) : (db as import('knex').Knex).transaction(run);
+}
+
+export async function searchGazetteer(db: Tx, q: string, limit: number): Promise<GazetteerHit[]> {
+  let rows = await wordMatches(db, q, limit);
+  if (rows.length < limit) {
+    const seen = new Set(rows.map((r) => String(r.id)));
+    const more = (await similarMatches(db, q, limit)).filter((r) => !seen.has(String(r.id)));
+    rows = [...rows, ...more]
+      .sort((a, b) => Number(b.score) - Number(a.score) || (a.label < b.label ? -1 : a.label > b.label ? 1 : 0) || Number(a.id) - Number(b.id))
+      .slice(0, limit);
+  }
+  return rows.map(({ id: _id, ...r }) => ({ ...r, score: Math.round(Number(r.score) * 1000) / 1000 }));
 }
 
 /** Addresses nearest a point, closest first (KNN on the geometry index). */
