@@ -21,15 +21,18 @@ export default function AddressesAdmin() {
   const [busy, setBusy] = useState(false);
   const [outcome, setOutcome] = useState<Outcome | null>(null);
   const [query, setQuery] = useState('');
-  const [page, setPage] = useState(0);
-  const [list, setList] = useState<{ items: AddressJson[]; total: number } | null>(null);
+  // Keyset paging: the cursor each page starts after (none for the first), so a page deep in a
+  // million addresses costs what the first does.
+  const [cursors, setCursors] = useState<Array<string | undefined>>([undefined]);
+  const page = cursors.length - 1;
+  const [list, setList] = useState<{ items: AddressJson[]; total: number; total_exact: boolean; next: string | null } | null>(null);
   const [listError, setListError] = useState<string | null>(null);
   const [reload, setReload] = useState(0);
   const input = useRef<HTMLInputElement>(null);
 
   useEffect(() => {
     const t = setTimeout(() => {
-      addressesApi.list({ q: query.trim() || undefined, limit: PAGE, offset: page * PAGE }).then(
+      addressesApi.list({ q: query.trim() || undefined, limit: PAGE, after: cursors[page] }).then(
         (r) => {
           setList(r);
           setListError(null);
@@ -38,7 +41,7 @@ export default function AddressesAdmin() {
       );
     }, 200);
     return () => clearTimeout(t);
-  }, [query, page, reload]);
+  }, [query, cursors, page, reload]);
 
   async function upload(e: FormEvent) {
     e.preventDefault();
@@ -69,6 +72,7 @@ export default function AddressesAdmin() {
       setOutcome({ kind: 'done', message: `Imported ${file.name}`, summary });
       setFile(null);
       if (input.current) input.current.value = '';
+      setCursors([undefined]);
       setReload((n) => n + 1);
     } catch (err) {
       if (err instanceof ApiError) {
@@ -84,6 +88,7 @@ export default function AddressesAdmin() {
   }
 
   const pages = list ? Math.max(1, Math.ceil(list.total / PAGE)) : 1;
+  const about = list && !list.total_exact ? 'about ' : '';
 
   return (
     <div className="mt-6 grid gap-6 lg:grid-cols-[22rem_1fr]">
@@ -145,7 +150,7 @@ export default function AddressesAdmin() {
 
       <section className="card min-w-0" aria-labelledby="addresses-heading">
         <div className="mb-3 flex flex-wrap items-center gap-3">
-          <h2 id="addresses-heading">Addresses {list && <span className="font-normal text-ink-600">({list.total})</span>}</h2>
+          <h2 id="addresses-heading">Addresses {list && <span className="font-normal text-ink-600">({about + String(list.total)})</span>}</h2>
           <label className="w-full sm:ml-auto sm:w-auto">
             <span className="sr-only">Search addresses</span>
             <input
@@ -155,7 +160,7 @@ export default function AddressesAdmin() {
               value={query}
               onChange={(e) => {
                 setQuery(e.target.value);
-                setPage(0);
+                setCursors([undefined]);
               }}
             />
           </label>
@@ -212,13 +217,13 @@ export default function AddressesAdmin() {
               </table>
             </div>
             <nav className="mt-3 flex items-center justify-between text-sm" aria-label="Pages">
-              <button type="button" className="btn-secondary py-1" disabled={page === 0} onClick={() => setPage((p) => p - 1)}>
+              <button type="button" className="btn-secondary py-1" disabled={page === 0} onClick={() => setCursors((c) => c.slice(0, -1))}>
                 Previous
               </button>
               <span className="text-ink-600">
-                Page {page + 1} of {pages}
+                Page {page + 1} of {about + String(pages)}
               </span>
-              <button type="button" className="btn-secondary py-1" disabled={page + 1 >= pages} onClick={() => setPage((p) => p + 1)}>
+              <button type="button" className="btn-secondary py-1" disabled={!list?.next} onClick={() => list?.next && setCursors((c) => [...c, list.next!])}>
                 Next
               </button>
             </nav>

@@ -70,7 +70,9 @@ async function importAddressFile(file: File): Promise<AddressImportJson> {
 }
 
 export const addressesApi = {
-  list: (p: { q?: string; limit?: number; offset?: number } = {}) => get<List<AddressJson>>(`/api/addresses?${qs(p)}`),
+  /** A page of the gazetteer: `after` is the previous page's `next` (keyset paging). */
+  list: (p: { q?: string; limit?: number; after?: string } = {}) =>
+    get<List<AddressJson> & { total_exact: boolean; next: string | null }>(`/api/addresses?${qs(p)}`),
   importFile: importAddressFile,
   geocode: (q: string, limit = 8) => get<List<GeocodeMatchJson>>(`/api/geocode?${qs({ q, limit })}`),
 };
