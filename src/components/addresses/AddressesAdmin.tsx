@@ -1,7 +1,6 @@
 import { useEffect, useRef, useState, type FormEvent } from 'react';
 import { ApiError } from '../../lib/client/api';
 import { addressesApi, type AddressImportJson, type AddressJson } from '../../lib/client/planning-api';
-import { ADDRESS_PRECHECK_MAX_BYTES, MAX_REPORTED_ROW_ERRORS, parseAddressCsv } from '../../lib/schemas/addresses';
 import { MISSING, formatNumber } from '../../lib/domain/format';
 
 const PAGE = 25;
@@ -54,6 +53,8 @@ export default function AddressesAdmin() {
     try {
       // Small files get the server's checks here first, so problems show before anything is sent;
       // large ones stream straight to the server, which checks them as they arrive.
+      // The CSV checks load on the first upload, so the page itself ships without them.
+      const { ADDRESS_PRECHECK_MAX_BYTES, MAX_REPORTED_ROW_ERRORS, parseAddressCsv } = await import('../../lib/schemas/addresses');
       const checked = file.size <= ADDRESS_PRECHECK_MAX_BYTES ? parseAddressCsv(await file.text()) : null;
       if (checked?.fileErrors.length) {
         setOutcome({ kind: 'rejected', message: checked.fileErrors.join(' ') });

@@ -1,7 +1,7 @@
 import { useEffect, useState, type FormEvent, type ReactNode } from 'react';
 import { ApiError, type FieldErrors } from '../../lib/client/api';
 import { catalogueApi, checkWith, type AntennaBody, type AntennaJson, type CableBody, type CableJson } from '../../lib/client/planning-api';
-import { ANTENNA_KINDS, ANTENNA_KIND_LABELS, AntennaInputSchema, CableInputSchema, type AntennaKind } from '../../lib/schemas/catalogue';
+import { ANTENNA_KINDS, ANTENNA_KIND_LABELS, type AntennaKind } from '../../lib/domain/antenna-kinds';
 import { SortableTable, type Column } from '../ui/SortableTable';
 import { FrequencyTableEditor, toNumber, type FrequencyRow } from './FrequencyTableEditor';
 import { formatNumber } from '../../lib/domain/format';
@@ -147,6 +147,8 @@ export default function CatalogueAdmin() {
     setFormError(null);
     setNotice(null);
     const body = editing.what === 'antenna' ? antennaBody(aForm) : cableBody(cForm);
+    // The rules load when first needed, so the page itself ships without the schema library.
+    const { AntennaInputSchema, CableInputSchema } = await import('../../lib/schemas/catalogue');
     const problems = checkWith(editing.what === 'antenna' ? AntennaInputSchema : CableInputSchema, body);
     setFields(problems ?? {});
     if (problems) {

@@ -9,7 +9,6 @@ import {
   type CustomerJson,
   type OperatorChoice,
 } from '../../lib/client/planning-api';
-import { CustomerInputSchema } from '../../lib/schemas/customers';
 import AddressSearch from '../planner/AddressSearch';
 
 interface Props {
@@ -106,6 +105,8 @@ export default function CustomerForm({ customer, submitLabel, onSave, onCancel }
     e.preventDefault();
     setFormError(null);
     const body = toBody(form);
+    // The rules load when first needed, so the page itself ships without the schema library.
+    const { CustomerInputSchema } = await import('../../lib/schemas/customers');
     const problems = checkWith(CustomerInputSchema, body);
     setFields(problems ?? {});
     if (problems) {

@@ -3,13 +3,9 @@
 import { z } from 'zod';
 import { enumOf, hasAnyField, numberField as num, requiredText } from './params';
 
-export const ANTENNA_KINDS = ['directional', 'omni', 'stub'] as const;
-export type AntennaKind = (typeof ANTENNA_KINDS)[number];
-export const ANTENNA_KIND_LABELS: Record<AntennaKind, string> = {
-  directional: 'Directional',
-  omni: 'Omni',
-  stub: 'Stub / whip',
-};
+import { ANTENNA_KINDS, type AntennaKind } from '../domain/antenna-kinds';
+
+export { ANTENNA_KINDS, ANTENNA_KIND_LABELS, type AntennaKind } from '../domain/antenna-kinds';
 
 // Customer kit for 4G/5G spans roughly 700–3800 MHz; the limits leave room either side.
 export const FREQ_MIN_MHZ = 400;
