@@ -1,7 +1,7 @@
 import { useEffect, useRef, useState, type FormEvent } from 'react';
 import { ApiError, type FieldErrors } from '../../lib/client/api';
 import { elevationApi, type ElevationGridJson, type UploadProgress } from '../../lib/client/elevation-api';
-import { ELEVATION_FILE_ACCEPT, ELEVATION_FORMAT_LABELS, MAX_ELEVATION_UPLOAD_BYTES } from '../../lib/schemas/elevation';
+import { ELEVATION_FILE_ACCEPT, ELEVATION_FORMAT_LABELS, MAX_ELEVATION_UPLOAD_BYTES } from '../../lib/domain/elevation-formats';
 import { SortableTable, type Column } from '../ui/SortableTable';
 import { formatBytes, formatDate, formatMetres, formatNumber, formatPercent } from '../../lib/domain/format';
 

@@ -1,6 +1,6 @@
 import { useEffect, useMemo, useState, type FormEvent } from 'react';
 import { ApiError, operatorsApi, type FieldErrors, type OperatorJson } from '../../lib/client/api';
-import { OPERATOR_PALETTE } from '../../lib/schemas/operators';
+import { OPERATOR_PALETTE } from '../../lib/domain/operator-palette';
 import { SortableTable, type Column } from '../ui/SortableTable';
 import { mastIconDataUrl } from '../map/mast-icons';
 

@@ -1,6 +1,7 @@
 // Elevation data: request schemas (shared by endpoints and the admin page) and the JSON the API returns.
 import { z } from 'zod';
 import { numberParam } from './params';
+import type { ElevationFormat } from '../domain/elevation-formats';
 
 // Query-string numbers in decimal only: blank is missing, not 0; `0x10` is not 16.
 const coordinate = (label: string, limit: number) =>
@@ -14,14 +15,13 @@ export const ElevationSampleQuerySchema = z.object({
 });
 export type ElevationSampleQuery = z.infer<typeof ElevationSampleQuerySchema>;
 
-export const ELEVATION_FORMATS = ['geotiff', 'hgt'] as const;
-export type ElevationFormat = (typeof ELEVATION_FORMATS)[number];
-export const ELEVATION_FORMAT_LABELS: Record<ElevationFormat, string> = { geotiff: 'GeoTIFF', hgt: 'SRTM .hgt' };
-
-/** Largest upload accepted, bytes. */
-export const MAX_ELEVATION_UPLOAD_BYTES = 100 * 1024 * 1024;
-/** File endings the upload form offers (the server also recognises TIFF files by content). */
-export const ELEVATION_FILE_ACCEPT = '.tif,.tiff,.hgt';
+export {
+  ELEVATION_FORMATS,
+  ELEVATION_FORMAT_LABELS,
+  MAX_ELEVATION_UPLOAD_BYTES,
+  ELEVATION_FILE_ACCEPT,
+  type ElevationFormat,
+} from '../domain/elevation-formats';
 
 export interface ElevationGridJson {
   id: string;
