@@ -1,6 +1,7 @@
 import { useEffect, useId, useState } from 'react';
 import { ApiError } from '../../lib/client/api';
-import { plannerApi, type GeocodeMatch } from '../../lib/client/planner-api';
+import type { GeocodeMatch } from '../../lib/client/planner-api';
+import { addressesApi } from '../../lib/client/planning-api';
 import { useDebounced } from '../tools/useDebounced';
 
 interface Props {
@@ -35,7 +36,7 @@ export default function AddressSearch({ onPick, text }: Props) {
       return;
     }
     let live = true;
-    plannerApi.geocode(settled).then(
+    addressesApi.geocode(settled).then(
       (r) => {
         if (!live) return;
         setItems(r.items);
@@ -59,7 +60,7 @@ export default function AddressSearch({ onPick, text }: Props) {
   /** Enter on text the suggestions do not answer yet (a paste): search it now and take its best match. */
   async function pickTyped(typed: string) {
     try {
-      const r = await plannerApi.geocode(typed);
+      const r = await addressesApi.geocode(typed);
       setItems(r.items);
       setItemsFor(typed);
       if (r.items[0]) pick(r.items[0]);

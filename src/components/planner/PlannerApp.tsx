@@ -1,15 +1,8 @@
 import { useEffect, useMemo, useRef, useState } from 'react';
 import { ApiError } from '../../lib/client/api';
+import { catalogueApi, plansApi, referenceApi } from '../../lib/client/planning-api';
 import type { PathResult } from '../../lib/client/tools-api';
-import {
-  plannerApi,
-  planSaveApi,
-  type AntennaOption,
-  type CableOption,
-  type OperatorOption,
-  type Shortlist,
-  type ShortlistItem,
-} from '../../lib/client/planner-api';
+import { plannerApi, type AntennaOption, type CableOption, type OperatorOption, type Shortlist, type ShortlistItem } from '../../lib/client/planner-api';
 import type { LatLon } from '../../lib/domain/geodesy';
 import { checkKitForm, chooseSelection, readMetres, readPlannerUrl, writePlannerUrl, type KitForm } from '../../lib/client/planner-state';
 import { useDebounced } from '../tools/useDebounced';
@@ -80,7 +73,7 @@ export default function PlannerApp({ customer, canSave }: Props) {
   const kitValid = Object.keys(kitErrors).length === 0;
 
   useEffect(() => {
-    Promise.all([plannerApi.antennas(), plannerApi.cables(), plannerApi.operators()]).then(
+    Promise.all([catalogueApi.antennas(), catalogueApi.cables(), referenceApi.operators()]).then(
       ([a, c, o]) => {
         setAntennas(a.items);
         setCables(c.items);
@@ -486,7 +479,7 @@ function SavePlan({
           };
       // One request: the new customer and the plan are saved together or not at all, and the server
       // computes the plan's figures from the same kit the shortlist used.
-      const plan = await planSaveApi.createPlan({
+      const plan = await plansApi.create({
         ...who,
         cell_id: item.cell_id,
         antenna_id: kit.antennaId,

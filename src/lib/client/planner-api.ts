@@ -1,5 +1,6 @@
-// Client calls of the planner page.
-import { get, queryString as qs, request, type List } from './api';
+// Client calls of the planner page: the shortlist and a path profile. Antennas, cables, operators,
+// geocoding and saving a plan go through their resources' modules (planning-api.ts, api.ts).
+import { get, queryString as qs } from './api';
 import type { PathResult } from './tools-api';
 import type { AntennaJson, CableJson } from '../schemas/catalogue';
 import type { GeocodeMatchJson } from '../schemas/addresses';
@@ -32,10 +33,6 @@ export interface ShortlistParams {
 
 export const plannerApi = {
   shortlist: (p: ShortlistParams) => get<Shortlist>(`/api/shortlist?${qs({ ...p })}`),
-  antennas: () => get<List<AntennaOption>>('/api/catalogue/antennas'),
-  cables: () => get<List<CableOption>>('/api/catalogue/cables'),
-  operators: () => get<List<OperatorOption>>('/api/operators'),
-  geocode: (q: string) => get<List<GeocodeMatch>>(`/api/geocode?${qs({ q, limit: 8 })}`),
   profile: (from: { lat: number; lon: number }, item: ShortlistItem, h1: string) =>
     get<PathResult>(
       `/api/tools/path?${qs({
@@ -50,19 +47,3 @@ export const plannerApi = {
 
 export type SavedPlan = Pick<PlanJson, 'id' | 'customer_id' | 'state'>;
 export type SavedCustomer = Pick<CustomerJson, 'id' | 'name'>;
-
-export interface NewPlanBody {
-  customer_id?: string;
-  /** A new customer, saved in the same transaction as the plan. */
-  customer?: { name: string; address_label: string; lat: number; lon: number; current_antenna_id?: string | null };
-  cell_id: string;
-  antenna_id: string;
-  cable_id: string | null;
-  cable_m: number | null;
-  mount_height_m: number;
-  state: 'planned';
-}
-
-export const planSaveApi = {
-  createPlan: (input: NewPlanBody) => request<SavedPlan>('POST', '/api/plans', input),
-};

@@ -1,10 +1,11 @@
 // Typed client calls for the catalogue, gazetteer, customers and plans. Response shapes are the
 // API's own (snake_case, units in the names), declared beside the schemas.
-import { get, networkError, queryString as qs, request, toApiError, type FieldErrors, type List } from './api';
+import type { z } from 'zod';
+import { get, networkError, operatorsApi, queryString as qs, request, toApiError, type FieldErrors, type List } from './api';
 import type { AntennaJson, AntennaKind, CableJson } from '../schemas/catalogue';
 import type { AddressImportJson, AddressJson, GeocodeMatchJson } from '../schemas/addresses';
 import type { CustomerErasureJson, CustomerJson, CustomerSort, HistoryEntryJson } from '../schemas/customers';
-import type { CheckPhase, InstallCheckJson, PlanDetailJson, PlanJson } from '../schemas/plans';
+import type { CheckPhase, InstallCheckJson, PlanChangeSchema, PlanDetailJson, PlanInputSchema, PlanJson } from '../schemas/plans';
 import type { OperatorRefJson } from '../schemas/mast-responses';
 import type { PlanState } from '../domain/plan-state';
 
@@ -81,9 +82,8 @@ export const addressesApi = {
 
 export type OperatorChoice = OperatorRefJson;
 
-export const referenceApi = {
-  operators: () => get<List<OperatorChoice>>('/api/operators'),
-};
+/** Operators to choose from (the list of GET /api/operators). */
+export const referenceApi = { operators: () => operatorsApi.list() as Promise<List<OperatorChoice>> };
 
 // --- customers ----------------------------------------------------------------------------
 
@@ -113,19 +113,10 @@ export const customersApi = {
 
 // --- plans --------------------------------------------------------------------------------
 
-export interface PlanBody {
-  customer_id: string;
-  cell_id?: string | null;
-  antenna_id?: string | null;
-  cable_id?: string | null;
-  cable_m?: number | null;
-  mount_height_m?: number | null;
-  scheduled_for?: string | null;
-  notes?: string | null;
-  state?: 'enquiry' | 'planned';
-}
+/** A new plan, as POST /api/plans takes it (with `customer`, a new customer saved in the same transaction). */
+export type PlanBody = z.input<typeof PlanInputSchema>;
 
-export type PlanChangeBody = Partial<Omit<PlanBody, 'customer_id' | 'state'>> & { state?: PlanState; row_version: number };
+export type PlanChangeBody = z.input<typeof PlanChangeSchema>;
 
 export interface InstallCheckBody {
   phase: CheckPhase;
