@@ -34,6 +34,7 @@ export default defineConfig({
       DB_CONNECT_TIMEOUT_MS: envField.number({ context: 'server', access: 'secret', optional: true, int: true, gt: 0 }),
       DB_STATEMENT_TIMEOUT_MS: envField.number({ context: 'server', access: 'secret', optional: true, int: true, gt: 0 }),
       IMPORT_MAX_BYTES: envField.number({ context: 'server', access: 'secret', optional: true }),
+      EXPORT_MAX_ROWS: envField.number({ context: 'server', access: 'secret', optional: true, int: true, gt: 0 }),
     },
   },
   vite: {

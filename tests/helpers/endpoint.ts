@@ -19,6 +19,8 @@ export interface CallResult {
   status: number;
   headers: Headers;
   body: any; // eslint-disable-line @typescript-eslint/no-explicit-any
+  /** The body as sent, before any JSON parsing. */
+  text: string;
 }
 
 export async function call(route: APIRoute, opts: CallOptions = {}): Promise<CallResult> {
@@ -56,5 +58,5 @@ export async function call(route: APIRoute, opts: CallOptions = {}): Promise<Cal
   } catch {
     /* not JSON: keep the text */
   }
-  return { status: res.status, headers: res.headers, body: parsed };
+  return { status: res.status, headers: res.headers, body: parsed, text };
 }

@@ -88,6 +88,7 @@ const ACCESS: Record<string, Partial<Record<Method, Rule | Rule[]>>> = {
   'api/readings/import.ts': { POST: { path: '/api/readings/import', who: READINGS_WRITERS, status: 415 } },
   'api/readings/sample.csv.ts': { GET: { path: '/api/readings/sample.csv', who: SIGNED_IN } },
   'api/regions/[id]/summary.ts': { GET: { path: '/api/regions/1/summary', who: SIGNED_IN, status: 200 } },
+  'api/export/[file].ts': { GET: { path: '/api/export/masts.csv?region=1', who: SIGNED_IN, status: 200 } },
   'api/jobs/index.ts': { GET: { path: '/api/jobs', who: SIGNED_IN } },
   'api/jobs/[id].ts': { GET: { path: '/api/jobs/00000000-0000-4000-8000-000000000000', who: SIGNED_IN, status: 404 } },
   'api/catalogue/antennas/index.ts': {

@@ -2,6 +2,7 @@ import type { ReactNode } from 'react';
 import { type OperatorMark } from './mast-icons';
 import { MAST_STATUSES, MAST_STATUS_LABELS, type MastStatus } from '../../lib/schemas/mast-enums';
 import { NO_MAST_FILTER, isFiltering, type MastFilterState } from './layers';
+import ExportLinks from '../exports/ExportLinks';
 
 export const TECH_LABELS: Record<string, string> = { gsm: '2G GSM', umts: '3G UMTS', lte: '4G LTE', nr: '5G NR' };
 export const TECHS = ['gsm', 'umts', 'lte', 'nr'] as const;
@@ -88,6 +89,21 @@ export default function MapFilters({ operators, bands, value, onChange }: Props)
           Clear
         </button>
       </div>
+      <details className="border-t border-ink-100 pt-2" data-testid="map-export">
+        <summary className="cursor-pointer text-xs font-semibold text-ink-700">Download with these filters</summary>
+        <div className="mt-2">
+          <ExportLinks
+            layers={['masts', 'cells', 'readings', 'readings-hexagons']}
+            filter={{
+              operators: value.operators,
+              techs: value.techs,
+              bands: value.bands,
+              statuses: value.statuses.length < MAST_STATUSES.length ? value.statuses : undefined,
+            }}
+            note="Hexagons follow the operator and the band when exactly one of each is chosen."
+          />
+        </div>
+      </details>
     </form>
   );
 }

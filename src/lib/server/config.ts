@@ -15,6 +15,7 @@ import {
   DB_CONNECT_TIMEOUT_MS,
   DB_STATEMENT_TIMEOUT_MS,
   IMPORT_MAX_BYTES,
+  EXPORT_MAX_ROWS,
 } from 'astro:env/server';
 
 export const config = {
@@ -29,6 +30,8 @@ export const config = {
   publicOrigin: PUBLIC_ORIGIN,
   /** Largest CSV a gazetteer or readings import accepts, counted while it streams in (default 512 MB). */
   importMaxBytes: IMPORT_MAX_BYTES ?? 512 * 1024 * 1024,
+  /** Most rows one export file holds (default 1,000,000); more is refused or fetched in pages. */
+  exportMaxRows: EXPORT_MAX_ROWS ?? 1_000_000,
   /** S3-compatible storage for uploaded files; used when endpoint, bucket and keys are all set. */
   s3: {
     endpoint: S3_ENDPOINT,
