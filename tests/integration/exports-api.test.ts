@@ -15,7 +15,8 @@ import { buildRegionFixture, type RegionFixture } from '../helpers/region-fixtur
 
 type User = ReturnType<typeof asSessionUser>;
 
-const get = (user: User | null, file: string, query = '') => call(exportFile, { user, params: { file }, url: `/api/export/${file}${query ? `?${query}` : ''}` });
+const get = (user: User | null, file: string, query = '') =>
+  call(exportFile, { user, params: { file }, url: `/api/export/${file}${query ? `?${query}` : ''}` });
 
 /** CSV as RFC 4180 says, read back with papaparse (numbers as numbers). */
 function csvRows(res: CallResult): Array<Record<string, unknown>> {
@@ -258,4 +259,3 @@ describe('exports API', () => {
     });
   });
 });
-

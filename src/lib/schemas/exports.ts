@@ -63,16 +63,14 @@ export const ExportQuerySchema = z
     const filter = MastFilterSchema.safeParse({ operator: q.operator, band: q.band, tech: q.tech, status: q.status });
     if (!filter.success) for (const issue of filter.error.issues) ctx.addIssue(issue);
   })
-  .transform(
-    (q): ExportQuery => ({
-      bbox: q.bbox,
-      regionId: q.region,
-      filter: MastFilterSchema.parse({ operator: q.operator, band: q.band, tech: q.tech, status: q.status }),
-      hex: NO_HEX,
-      limit: q.limit,
-      afterId: q.after,
-    }),
-  );
+  .transform((q): ExportQuery => ({
+    bbox: q.bbox,
+    regionId: q.region,
+    filter: MastFilterSchema.parse({ operator: q.operator, band: q.band, tech: q.tech, status: q.status }),
+    hex: NO_HEX,
+    limit: q.limit,
+    afterId: q.after,
+  }));
 
 const notForHexagons = (what: string) =>
   z
@@ -91,15 +89,13 @@ export const HexExportQuerySchema = z
     tech: notForHexagons('tech'),
     status: notForHexagons('status'),
   })
-  .transform(
-    (q): ExportQuery => ({
-      bbox: q.bbox,
-      regionId: q.region,
-      filter: {},
-      hex: { level: q.level, operatorId: q.operator ?? null, band: q.band ?? null },
-      limit: q.limit,
-    }),
-  );
+  .transform((q): ExportQuery => ({
+    bbox: q.bbox,
+    regionId: q.region,
+    filter: {},
+    hex: { level: q.level, operatorId: q.operator ?? null, band: q.band ?? null },
+    limit: q.limit,
+  }));
 
 export interface ExportQuery {
   bbox?: Bbox;

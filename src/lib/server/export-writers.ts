@@ -40,10 +40,11 @@ function csvWriter(spec: ExportLayerSpec): ExportWriter {
   const unparse = (data: unknown[][], header: boolean) => Papa.unparse({ fields: columns, data }, { header, escapeFormulae: true, newline: '\r\n' });
   return {
     head: () => `${unparse([], true).replace(/\r\n$/, '')}\r\n`,
-    rows: (batch) => `${unparse(
-      batch.map((r) => columns.map((c) => r[c] ?? null)),
-      false,
-    )}\r\n`,
+    rows: (batch) =>
+      `${unparse(
+        batch.map((r) => columns.map((c) => r[c] ?? null)),
+        false,
+      )}\r\n`,
     tail: () => '',
   };
 }

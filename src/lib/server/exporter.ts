@@ -75,7 +75,10 @@ export async function exportLayer(db: Knex, req: ExportRequest): Promise<ExportF
           { limit: [`At most ${maxRows} rows per file`] },
         );
       }
-      const { rows } = await trx.raw<{ rows: { id: string }[] }>('SELECT t.id FROM (?) t ORDER BY t.id OFFSET ? LIMIT 1', [spec.page(size, query.afterId), size - 1]);
+      const { rows } = await trx.raw<{ rows: { id: string }[] }>('SELECT t.id FROM (?) t ORDER BY t.id OFFSET ? LIMIT 1', [
+        spec.page(size, query.afterId),
+        size - 1,
+      ]);
       if (rows[0]) headers['X-Next-After'] = String(rows[0].id);
     }
 

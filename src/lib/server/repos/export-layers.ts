@@ -314,7 +314,13 @@ function hexagonsLayer(db: Tx, query: ExportQuery, viewer: ExportViewer, regionB
 }
 
 /** `regionBbox`: the region's [west, south, east, north], where the hexagon search starts without a bbox. */
-export function getExportLayer(db: Tx, layer: ExportLayer, query: ExportQuery, viewer: ExportViewer, regionBbox: readonly number[] | null = null): ExportLayerSpec {
+export function getExportLayer(
+  db: Tx,
+  layer: ExportLayer,
+  query: ExportQuery,
+  viewer: ExportViewer,
+  regionBbox: readonly number[] | null = null,
+): ExportLayerSpec {
   switch (layer) {
     case 'masts':
       return mastsLayer(db, query);
