@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { buildSampleReadingCsv, checkReadingCsvHeader, checkReadingCsvRow, READING_CSV_COLUMNS } from '../../src/lib/domain/reading-csv';
+import { buildSampleReadingCsv, checkReadingCsvHeader, checkReadingCsvRow, READING_CSV_COLUMNS, type SampleCell } from '../../src/lib/domain/reading-csv';
+import { getDistanceM, getInitialBearing } from '../../src/lib/domain/geodesy';
 
 const NOW = new Date('2026-12-01T12:00:00Z');
 const base = {
@@ -80,13 +81,37 @@ describe('survey-log CSV rows', () => {
     expect(checkReadingCsvHeader(['time', 'lat'])[0]).toBe('Missing columns: lon, tech, channel (see the sample file for the column set)');
   });
 
-  it('ships a sample whose every row passes', () => {
-    const [header, ...rows] = buildSampleReadingCsv().trim().split('\n');
+  const SAMPLE_CELLS: SampleCell[] = [
+    // 3GPP TS 36.101: EARFCN 6300 is B20; TS 38.104: NR-ARFCN 641280 is n78; TS 25.101: UARFCN 10700 is band I.
+    { tech: 'lte', channel: 6300, pci: 101, mcc: '001', mnc: '01', lat: -47.2, lon: -128.5, sectorAzimuthDeg: 90 },
+    { tech: 'nr', channel: 641280, pci: 900, mcc: '001', mnc: '02', lat: -47.25, lon: -128.55, sectorAzimuthDeg: null },
+    { tech: 'umts', channel: 10700, pci: 215, mcc: '001', mnc: '03', lat: -47.3, lon: -128.6, sectorAzimuthDeg: 200 },
+  ];
+  const records = (csv: string) => {
+    const [header, ...rows] = csv.trim().split('\n');
     expect(header!.split(',')).toEqual(READING_CSV_COLUMNS.map((c) => c.name));
-    for (const line of rows) {
-      const values = line.split(',');
-      const record = Object.fromEntries(READING_CSV_COLUMNS.map((c, i) => [c.name, values[i]]));
-      expect(checkReadingCsvRow(record, NOW)).toMatchObject({ ok: true });
-    }
+    return rows.map((line) => Object.fromEntries(READING_CSV_COLUMNS.map((c, i) => [c.name, line.split(',')[i]])));
+  };
+
+  it.each([
+    ['without cells', [] as SampleCell[]],
+    ['made around cells', SAMPLE_CELLS],
+  ])('ships a sample whose every row passes (%s)', (_label, cells) => {
+    for (const record of records(buildSampleReadingCsv(cells))) expect(checkReadingCsvRow(record, NOW)).toMatchObject({ ok: true });
+  });
+
+  it('puts two readings in each given cell’s sector, 600 m and 1.5 km out, with its channel, PCI and operator', () => {
+    const rows = records(buildSampleReadingCsv(SAMPLE_CELLS));
+    expect(rows).toHaveLength(6);
+    SAMPLE_CELLS.forEach((cell, i) => {
+      for (const [k, distanceM] of [600, 1500].entries()) {
+        const row = rows[i * 2 + k]!;
+        expect(row).toMatchObject({ tech: cell.tech, channel: String(cell.channel), pci: String(cell.pci), mcc: cell.mcc, mnc: cell.mnc });
+        const at = { lat: Number(row.lat), lon: Number(row.lon) };
+        // 5 decimals of a degree are about a metre.
+        expect(getDistanceM(cell, at)).toBeCloseTo(distanceM, -1);
+        expect(getInitialBearing(cell, at)).toBeCloseTo(cell.sectorAzimuthDeg ?? 0, 0);
+      }
+    });
   });
 });

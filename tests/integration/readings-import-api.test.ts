@@ -127,13 +127,21 @@ describe('readings import API', () => {
     expect((await call(listJobs, { user: surveyor, url: '/api/jobs?limit=0' })).status).toBe(400);
   });
 
-  it('offers a sample CSV that imports as it is', async () => {
+  it('offers a sample CSV made around the cells on the map, that imports as it is with every row matched', async () => {
     const sample = await call(sampleCsv, { user: surveyor });
     expect(sample.status).toBe(200);
     expect(sample.headers.get('content-type')).toContain('text/csv');
+    // Two readings for each of the fixture's two cells (one per operator): Hill's and Ridge's.
+    const lines = sample.text.trim().split('\n');
+    expect(lines).toHaveLength(5);
     const res = await call(importReadings, { user: surveyor, ...csvUpload(sample.body) });
     expect(res.status).toBe(202);
-    expect((await waitForJob(res.body.job_id, surveyor)).state).toBe('completed');
-    expect(await countReadings()).toBe(5);
+    expect(await waitForJob(res.body.job_id, surveyor)).toMatchObject({ state: 'completed', counts: { rows: 4, imported: 4, matched: 4 } });
+    expect(await countReadings()).toBe(4);
+    const byCell = await testDb()('readings').select('cell_id').count('* as n').groupBy('cell_id').orderBy('cell_id');
+    expect(byCell).toEqual([
+      { cell_id: f.hillCell, n: '2' },
+      { cell_id: f.ridgeCell, n: '2' },
+    ]);
   });
 });

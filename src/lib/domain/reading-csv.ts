@@ -4,6 +4,7 @@
  */
 import { ChannelError, lookupChannel, type RadioTech } from './channels';
 import { validateMeasurement, type MeasurementKind } from './measurements';
+import { getDestination } from './geodesy';
 
 export interface ReadingCsvColumn {
   name: string;
@@ -202,15 +203,46 @@ export function checkReadingCsvRow(record: Readonly<Record<string, string | unde
   };
 }
 
-/** A few invented rows in the documented format (fictional island, test network MCC 001). */
-export function buildSampleReadingCsv(): string {
+/** A cell the sample log is made around: its mast's position, operator codes and sector. */
+export interface SampleCell {
+  tech: RadioTech;
+  channel: number;
+  pci: number;
+  mcc: string;
+  mnc: string;
+  lat: number;
+  lon: number;
+  sectorAzimuthDeg: number | null;
+}
+
+/** Distances from the mast, along its sector's azimuth, of the sample rows for each cell. */
+const SAMPLE_DISTANCES_M = [600, 1500] as const;
+const SAMPLE_START = Date.UTC(2026, 10, 30, 9, 15, 0);
+
+function sampleRow(cell: SampleCell, index: number, step: number): string {
+  const at = getDestination({ lat: cell.lat, lon: cell.lon }, SAMPLE_DISTANCES_M[step]!, cell.sectorAzimuthDeg ?? 0);
+  const time = new Date(SAMPLE_START + index * 37_000).toISOString().replace('.000Z', 'Z');
+  const position = `${at.lat.toFixed(5)},${at.lon.toFixed(5)}`;
+  // Plausible values a little weaker further out: LTE/NR RSRP, RSRQ, SINR; UMTS RSSI only.
+  const radio = cell.tech === 'umts' ? `,,,${-70 - 8 * step}` : `${-82 - 12 * step},${-10 - 2 * step},${12 - 7 * step},`;
+  return `${time},${position},${cell.tech},${cell.channel},${cell.pci},${radio},${cell.mcc},${cell.mnc},Survey phone A,,1.5`;
+}
+
+/**
+ * A small survey log in the documented format. Given cells, two readings in the sector of each
+ * (600 m and 1.5 km out along its azimuth), so that importing it matches every row; without cells,
+ * a few invented rows on the demo island's waters (fictional, test network MCC 001).
+ */
+export function buildSampleReadingCsv(cells: readonly SampleCell[] = []): string {
   const header = READING_CSV_COLUMNS.map((c) => c.name).join(',');
-  const rows = [
-    '2026-11-30T09:15:02Z,-47.2102,-128.5121,lte,6300,101,-97,-11.5,8,-68,001,01,Survey phone A,,1.5',
-    '2026-11-30T09:15:07Z,-47.2110,-128.5133,lte,6300,101,-99,-12,6.5,,001,01,Survey phone A,,1.5',
-    '2026-11-30T09:16:40Z,-47.2175,-128.5260,lte,1300,17,-108,-15.5,1,,001,01,Survey phone A,,1.5',
-    '2026-11-30T09:21:12Z,-47.2301,-128.5402,nr,641280,900,-104,-12.5,4.5,,001,02,Roof router B,9,6',
-    '2026-11-30T09:25:55Z,-47.2388,-128.5519,umts,10700,215,,,,-81,001,03,Survey phone A,,1.5',
-  ];
+  const rows = cells.length
+    ? cells.flatMap((cell, i) => SAMPLE_DISTANCES_M.map((_, step) => sampleRow(cell, i * SAMPLE_DISTANCES_M.length + step, step)))
+    : [
+        '2026-11-30T09:15:02Z,-47.2102,-128.5121,lte,6300,101,-97,-11.5,8,-68,001,01,Survey phone A,,1.5',
+        '2026-11-30T09:15:07Z,-47.2110,-128.5133,lte,6300,101,-99,-12,6.5,,001,01,Survey phone A,,1.5',
+        '2026-11-30T09:16:40Z,-47.2175,-128.5260,lte,1300,17,-108,-15.5,1,,001,01,Survey phone A,,1.5',
+        '2026-11-30T09:21:12Z,-47.2301,-128.5402,nr,641280,900,-104,-12.5,4.5,,001,02,Roof router B,9,6',
+        '2026-11-30T09:25:55Z,-47.2388,-128.5519,umts,10700,215,,,,-81,001,03,Survey phone A,,1.5',
+      ];
   return [header, ...rows].join('\n') + '\n';
 }

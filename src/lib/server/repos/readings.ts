@@ -1,6 +1,8 @@
 // Readings: measured samples at a place and time, optionally matched to a cell.
 import type { Tx } from '../db';
 import { READING, type Reading } from '../../schemas/mast-responses';
+import type { Tech } from '../../schemas/mast-enums';
+import type { SampleCell } from '../../domain/reading-csv';
 import { recordColumns } from './record-sql';
 
 export type { Reading };
@@ -22,4 +24,48 @@ export async function listRecentReadingsForMast(db: Tx, mastId: string, limit: n
     ])
     .limit(limit);
   return rows.map((r) => READING.fromRow(r));
+}
+
+/**
+ * Cells to make the sample survey log around: one per operator and technology (LTE, NR, UMTS, with a
+ * PCI or scrambling code) on active masts, lowest id first, at most `limit`.
+ */
+export async function listSampleLogCells(db: Tx, limit: number): Promise<SampleCell[]> {
+  const rows: Array<{ tech: Tech; channel: number; pci: number; mcc: string; mnc: string; lat: number; lon: number; sector_azimuth_deg: number | null }> =
+    await db
+      .select('*')
+      .from(
+        db('cells as c')
+          .join('masts as m', 'm.id', 'c.mast_id')
+          .join('operators as o', 'o.id', 'c.operator_id')
+          .distinctOn('c.operator_id', 'c.tech')
+          .select(
+            'c.id',
+            'c.tech',
+            'c.channel',
+            'c.pci',
+            'o.mcc',
+            'o.mnc',
+            'c.sector_azimuth_deg',
+            db.raw('ST_Y(m.geom) AS lat'),
+            db.raw('ST_X(m.geom) AS lon'),
+          )
+          .whereIn('c.tech', ['lte', 'nr', 'umts'])
+          .whereNotNull('c.pci')
+          .where('m.status', 'active')
+          .orderBy(['c.operator_id', 'c.tech', 'c.id'])
+          .as('one_per_operator_and_tech'),
+      )
+      .orderBy('id')
+      .limit(limit);
+  return rows.map((r) => ({
+    tech: r.tech,
+    channel: r.channel,
+    pci: r.pci,
+    mcc: r.mcc,
+    mnc: r.mnc,
+    lat: r.lat,
+    lon: r.lon,
+    sectorAzimuthDeg: r.sector_azimuth_deg,
+  }));
 }
