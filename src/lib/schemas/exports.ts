@@ -1,7 +1,7 @@
 // Exports of a map layer as a file: `GET /api/export/:layer.:format`, filtered like the map
 // (bbox, operator, band, tech, status, as on /api/masts) and by region.
 import { z } from 'zod';
-import { BboxSchema, MastFilterSchema, type Bbox, type MastFilter } from './masts';
+import { BboxSchema, MastFilterSchema, type Bbox, type MastFilter } from './mast-query';
 import { idParam, intParam } from './params';
 import { SignalTileQuerySchema } from './signal-map';
 import { HEX_LEVELS } from '../domain/signal-map';

@@ -5,7 +5,7 @@ import type { Knex } from 'knex';
 import type { Tx } from '../db';
 import { applyMastFilter } from './masts';
 import type { ExportLayer, ExportQuery } from '../../schemas/exports';
-import type { MastFilter } from '../../schemas/masts';
+import type { MastFilter } from '../../schemas/mast-query';
 import { readingHexesQuery } from './reading-hexes';
 import { fromWebMercator, getHexCentre, getHexLevel, getSignalClass } from '../../domain/signal-map';
 
