@@ -89,6 +89,7 @@ describe('exports API', () => {
       ['readings-hexagons.csv', 'tech=lte', 'tech'],
       ['readings-hexagons.csv', 'operator=1,2', 'operator'],
       ['readings-hexagons.csv', 'band=20', 'band'],
+      ['readings-hexagons.csv', 'band=B20', 'band'],
       ['readings-hexagons.csv', 'after=5', 'after'],
     ])('%s?%s is a 400 naming %s', async (file, query, field) => {
       const res = await get(planner, file, query);

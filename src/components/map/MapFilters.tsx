@@ -100,7 +100,7 @@ export default function MapFilters({ operators, bands, value, onChange }: Props)
               bands: value.bands,
               statuses: value.statuses.length < MAST_STATUSES.length ? value.statuses : undefined,
             }}
-            note="Hexagons follow the operator and the band when exactly one of each is chosen."
+            note="Hexagons follow the operator when exactly one is chosen, and then its band when exactly one is chosen."
           />
         </div>
       </details>

@@ -84,16 +84,21 @@ export const HexExportQuerySchema = z
     ...area,
     limit: paging.limit,
     after: notForHexagons('after (they come in one file)'),
-    ...SignalTileQuerySchema.innerType().shape,
+    operator: z.string().optional(),
+    band: z.string().optional(),
     level: intParam('Level', 0, HEX_LEVELS.length - 1, HEX_EXPORT_DEFAULT_LEVEL),
     tech: notForHexagons('tech'),
     status: notForHexagons('status'),
+  })
+  .superRefine((q, ctx) => {
+    const signal = SignalTileQuerySchema.safeParse({ operator: q.operator, band: q.band });
+    if (!signal.success) for (const issue of signal.error.issues) ctx.addIssue(issue);
   })
   .transform((q): ExportQuery => ({
     bbox: q.bbox,
     regionId: q.region,
     filter: {},
-    hex: { level: q.level, operatorId: q.operator ?? null, band: q.band ?? null },
+    hex: { level: q.level, ...SignalTileQuerySchema.parse({ operator: q.operator, band: q.band }) },
     limit: q.limit,
   }));
 
