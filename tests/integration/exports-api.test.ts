@@ -88,7 +88,7 @@ describe('exports API', () => {
       ['readings-hexagons.csv', 'level=9', 'level'],
       ['readings-hexagons.csv', 'tech=lte', 'tech'],
       ['readings-hexagons.csv', 'operator=1,2', 'operator'],
-      ['readings-hexagons.csv', 'band=20', 'band'],
+      ['readings-hexagons.csv', 'operator=1&band=20', 'band'],
       ['readings-hexagons.csv', 'band=B20', 'band'],
       ['readings-hexagons.csv', 'after=5', 'after'],
     ])('%s?%s is a 400 naming %s', async (file, query, field) => {
