@@ -3,7 +3,7 @@
 // position (by its order in the operator list) as well as its admin-set
 // colour, so the mark reads without relying on colour alone.
 
-import { MAST_STATUSES, type MastStatus } from '../../lib/schemas/mast-enums';
+import { MAST_STATUSES, type MastStatus } from '../../lib/domain/mast-lists';
 
 export interface OperatorMark {
   id: string;
