@@ -1,6 +1,6 @@
 import 'maplibre-gl/dist/maplibre-gl.css';
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
-import Map, { Layer, NavigationControl, ScaleControl, Source, type MapLayerMouseEvent, type MapRef } from 'react-map-gl/maplibre';
+import Map, { Layer, Marker, NavigationControl, ScaleControl, Source, type MapLayerMouseEvent, type MapRef, type MarkerDragEvent } from 'react-map-gl/maplibre';
 import type { Map as MaplibreMap } from 'maplibre-gl';
 import { mastsApi, type SearchHitJson } from '../../lib/client/api';
 import { readMapUrl } from '../../lib/client/map-url';
@@ -35,9 +35,11 @@ import { useIsPhone } from './use-is-phone';
 import { useMapSetup } from './use-map-setup';
 import { useMastSelection } from './use-mast-selection';
 import { useSeenBands } from './use-seen-bands';
+import AddMastControl from './AddMastControl';
 import MapFilters from './MapFilters';
 import MapLegend from './MapLegend';
 import MapSearch from './MapSearch';
+import MastCreateForm, { type LatLon } from './MastCreateForm';
 import MastImages from './MastImages';
 import MastPanel from './MastPanel';
 import PendingPopup, { type PendingSightingFeature } from './PendingPopup';
@@ -74,6 +76,9 @@ export default function MapView({ canEditMasts }: Props) {
   const isPhone = useIsPhone();
   const [filtersOpen, setFiltersOpen] = useState(false);
   const [signal, setSignal] = useState<SignalState>(SIGNAL_OFF);
+  // Adding a mast: first a click on the map (placing), then the form at that position.
+  const [placing, setPlacing] = useState(false);
+  const [newMastAt, setNewMastAt] = useState<LatLon | null>(null);
   const origin = typeof window !== 'undefined' ? window.location.origin : '';
 
   useEffect(() => {
@@ -114,6 +119,11 @@ export default function MapView({ canEditMasts }: Props) {
 
   const onClick = useCallback(
     (e: MapLayerMouseEvent) => {
+      if (placing || newMastAt) {
+        setPlacing(false);
+        setNewMastAt({ lat: e.lngLat.lat, lon: e.lngLat.lng });
+        return;
+      }
       const cluster = e.features?.find((x) => x.layer.id === MAST_CLUSTER_LAYER_ID);
       if (cluster && cluster.geometry.type === 'Point') {
         const map = mapRef.current;
@@ -136,19 +146,54 @@ export default function MapView({ canEditMasts }: Props) {
       if (isUnderPanel(e.point, rect, isPhone, offset))
         map.easeTo({ center: f.geometry.coordinates as [number, number], offset, duration: 400, essential: false });
     },
-    [isPhone, panelOffset, pending, select],
+    [isPhone, panelOffset, pending, select, placing, newMastAt],
   );
 
   const onPick = useCallback(
     (hit: SearchHitJson) => {
       const mast = hit.kind === 'mast';
       mapRef.current?.flyTo({ center: [hit.lon, hit.lat], zoom: mast ? 14 : 13, offset: mast ? panelOffset() : [0, 0], essential: false });
-      if (mast) select(hit.id);
+      if (mast) {
+        setPlacing(false);
+        setNewMastAt(null);
+        select(hit.id);
+      }
     },
     [panelOffset, select],
   );
 
   const closePanel = useCallback(() => select(null), [select]);
+
+  const startAdding = useCallback(() => {
+    select(null);
+    setPendingPick(null);
+    setPlacing(true);
+  }, [select]);
+  const placeAtCentre = useCallback(() => {
+    const c = mapRef.current?.getCenter();
+    setPlacing(false);
+    if (c) setNewMastAt({ lat: c.lat, lon: c.lng });
+  }, []);
+  const cancelAdding = useCallback(() => {
+    setPlacing(false);
+    setNewMastAt(null);
+  }, []);
+  const onMastCreated = useCallback(
+    (mast: { id: string }) => {
+      setNewMastAt(null);
+      setTileVersion((v) => v + 1);
+      select(mast.id);
+    },
+    [select],
+  );
+
+  useEffect(() => {
+    if (!placing) return;
+    const onKey = (e: KeyboardEvent) => e.key === 'Escape' && setPlacing(false);
+    window.addEventListener('keydown', onKey);
+    return () => window.removeEventListener('keydown', onKey);
+  }, [placing]);
+  const panelOpen = !!selectedId || !!newMastAt;
   const onMastChanged = useCallback(() => setTileVersion((v) => v + 1), []);
 
   const filterCount = filters.operators.length + filters.techs.length + filters.bands.length + (filters.statuses.length < 3 ? 1 : 0);
@@ -159,7 +204,7 @@ export default function MapView({ canEditMasts }: Props) {
       className={[
         'relative w-full overflow-hidden bg-[#c9d9e3]',
         // Keep the zoom buttons clear of the side panel.
-        selectedId ? 'sm:[&_.maplibregl-ctrl-top-right]:right-[29rem] lg:[&_.maplibregl-ctrl-top-right]:right-[33rem]' : '',
+        panelOpen ? 'sm:[&_.maplibregl-ctrl-top-right]:right-[29rem] lg:[&_.maplibregl-ctrl-top-right]:right-[33rem]' : '',
       ].join(' ')}
       style={{ height: `calc(100dvh - ${top}px)`, minHeight: 360 }}
       data-testid="map-frame"
@@ -176,7 +221,7 @@ export default function MapView({ canEditMasts }: Props) {
           initialViewState={{ ...initialView, fitBoundsOptions: { padding: isPhone ? 24 : { top: 70, bottom: 30, left: 270, right: 60 } } }}
           mapStyle={style}
           interactiveLayerIds={[PENDING_SYMBOL_LAYER_ID, MAST_SYMBOL_LAYER_ID, MAST_CLUSTER_LAYER_ID]}
-          cursor={hovering ? 'pointer' : 'grab'}
+          cursor={placing ? 'crosshair' : hovering ? 'pointer' : 'grab'}
           onMouseEnter={() => setHovering(true)}
           onMouseLeave={() => setHovering(false)}
           onClick={onClick}
@@ -208,6 +253,20 @@ export default function MapView({ canEditMasts }: Props) {
             <Layer {...PENDING_SYMBOL_LAYER} />
           </Source>
           {pendingPick && <PendingPopup sighting={pendingPick} onClose={() => setPendingPick(null)} />}
+          {newMastAt && (
+            <Marker
+              longitude={newMastAt.lon}
+              latitude={newMastAt.lat}
+              anchor="bottom"
+              draggable
+              onDragEnd={(e: MarkerDragEvent) => setNewMastAt({ lat: e.lngLat.lat, lon: e.lngLat.lng })}
+            >
+              <svg aria-hidden="true" width="28" height="36" viewBox="0 0 28 36" data-testid="new-mast-marker">
+                <path d="M14 35C14 35 26 21 26 13A12 12 0 0 0 2 13C2 21 14 35 14 35Z" fill="#a13424" stroke="white" strokeWidth="2" />
+                <circle cx="14" cy="13" r="4.5" fill="white" />
+              </svg>
+            </Marker>
+          )}
         </Map>
       )}
 
@@ -233,17 +292,25 @@ export default function MapView({ canEditMasts }: Props) {
           >
             <MapFilters operators={operators} bands={sortBands(new Set([...bands, ...filters.bands]))} value={filters} onChange={setFilters} />
           </div>
+          {canEditMasts && !newMastAt && (
+            <div className="pointer-events-auto flex flex-col">
+              <AddMastControl placing={placing} onStart={startAdding} onUseCentre={placeAtCentre} onCancel={cancelAdding} />
+            </div>
+          )}
           <SignalPanel operators={operators} bands={bands} value={signal} onChange={setSignal} compact={isPhone} />
         </div>
       )}
 
-      {operators && !(isPhone && selectedId) && (
+      {operators && !(isPhone && panelOpen) && (
         <div className="pointer-events-none absolute bottom-8 left-3 z-10">
           <MapLegend operators={operators} defaultOpen={!isPhone} />
         </div>
       )}
 
-      {selectedId && operators && <MastPanel mastId={selectedId} operators={operators} canEdit={canEditMasts} onClose={closePanel} onChanged={onMastChanged} />}
+      {newMastAt && <MastCreateForm position={newMastAt} onPositionChange={setNewMastAt} onCreated={onMastCreated} onCancel={cancelAdding} />}
+      {selectedId && !newMastAt && operators && (
+        <MastPanel mastId={selectedId} operators={operators} canEdit={canEditMasts} onClose={closePanel} onChanged={onMastChanged} />
+      )}
       <p className="sr-only" aria-live="polite">
         {selectedId ? '' : 'Select a mast on the map, or search for one by name, to see its cells.'}
       </p>

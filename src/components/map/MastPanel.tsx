@@ -1,13 +1,14 @@
-import { useEffect, useMemo, useRef, useState } from 'react';
-import { ApiError, mastsApi, type CellJson, type MastDetailJson, type ReadingJson } from '../../lib/client/api';
+import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import { ApiError, mastsApi, type MastDetailJson, type ReadingJson } from '../../lib/client/api';
 import { STRUCTURE_TYPE_LABELS, type StructureType } from '../../lib/schemas/mast-enums';
 import { SortableTable, type Column } from '../ui/SortableTable';
 import { mastIconDataUrl, type OperatorMark } from './mast-icons';
 import { MAST_STATUS_LABELS } from '../../lib/schemas/mast-enums';
-import { TECH_LABELS } from './MapFilters';
+import MastCells from './MastCells';
 import MastEditForm from './MastEditForm';
 import MastSurveys from './MastSurveys';
-import { MISSING, formatDate, formatDateTime, formatLatLon, formatNumber } from '../../lib/domain/format';
+import { MISSING, formatDateTime, formatLatLon, formatNumber } from '../../lib/domain/format';
+import PanelFrame from './PanelFrame';
 
 interface Props {
   mastId: string;
@@ -25,13 +26,7 @@ const STATUS_BADGE: Record<MastDetailJson['status'], string> = {
 };
 
 const fmt = (v: number | null | undefined, digits = 0, unit = '') => (v === null || v === undefined ? MISSING : `${formatNumber(v, digits)}${unit}`);
-const fmtDate = formatDate;
 const fmtTime = formatDateTime;
-
-const bandOrder = (b: string) => {
-  const m = /^([A-Za-z]*)(\d+)/.exec(b);
-  return m ? `${m[1].toLowerCase() === 'n' ? 'n' : 'b'}${m[2].padStart(4, '0')}` : b;
-};
 
 function CopyPosition({ lat, lon }: { lat: number; lon: number }) {
   const [copied, setCopied] = useState<string | null>(null);
@@ -99,6 +94,11 @@ export default function MastPanel({ mastId, operators, canEdit, onClose, onChang
     return counts;
   }, [mast]);
 
+  const reload = useCallback(() => {
+    setVersion((v) => v + 1);
+    onChanged();
+  }, [onChanged]);
+
   const icon = useMemo(
     () =>
       mast
@@ -111,42 +111,6 @@ export default function MastPanel({ mastId, operators, canEdit, onClose, onChang
     [mast, operators],
   );
 
-  const cellColumns: Column<CellJson>[] = [
-    {
-      key: 'operator',
-      label: 'Operator',
-      sortValue: (c) => c.operator.name,
-      render: (c) => (
-        <span className="inline-flex items-center gap-1.5 whitespace-nowrap" title={c.operator.name}>
-          <span aria-hidden="true" className="inline-block h-2.5 w-2.5 rounded-full" style={{ background: c.operator.colour }} />
-          <span aria-hidden="true">{c.operator.name.split(/\s+/)[0]}</span>
-          <span className="sr-only">{c.operator.name}</span>
-        </span>
-      ),
-    },
-    {
-      key: 'tech',
-      label: 'Tech',
-      sortValue: (c) => ['gsm', 'umts', 'lte', 'nr'].indexOf(c.tech),
-      render: (c) => (
-        <abbr title={TECH_LABELS[c.tech]} className="no-underline">
-          {c.tech.toUpperCase()}
-        </abbr>
-      ),
-    },
-    { key: 'band', label: 'Band', sortValue: (c) => bandOrder(c.band), render: (c) => c.band },
-    { key: 'channel', label: 'Channel', sortValue: (c) => c.channel, render: (c) => c.channel, className: 'text-right' },
-    { key: 'mhz', label: 'MHz', sortValue: (c) => c.dl_mhz, render: (c) => fmt(c.dl_mhz, 1), className: 'text-right' },
-    { key: 'pci', label: 'PCI', sortValue: (c) => c.pci, render: (c) => fmt(c.pci), className: 'text-right' },
-    { key: 'azimuth', label: 'Azimuth', sortValue: (c) => c.sector_azimuth_deg, render: (c) => fmt(c.sector_azimuth_deg, 0, '°'), className: 'text-right' },
-    {
-      key: 'seen',
-      label: 'Last observed',
-      sortValue: (c) => c.last_observed_at,
-      render: (c) => <span className="whitespace-nowrap">{fmtDate(c.last_observed_at)}</span>,
-    },
-  ];
-
   const readingColumns: Column<ReadingJson>[] = [
     { key: 'time', label: 'When', sortValue: (r) => r.taken_at, render: (r) => <span className="whitespace-nowrap">{fmtTime(r.taken_at)}</span> },
     { key: 'tech', label: 'Tech', sortValue: (r) => r.tech, render: (r) => r.tech.toUpperCase() },
@@ -157,143 +121,111 @@ export default function MastPanel({ mastId, operators, canEdit, onClose, onChang
   ];
 
   return (
-    <aside
-      aria-labelledby="mast-panel-heading"
-      data-testid="mast-panel"
-      className="pointer-events-auto absolute inset-x-0 bottom-0 z-30 flex max-h-[58%] flex-col rounded-t-2xl border border-ink-200 bg-white shadow-2xl sm:inset-x-auto sm:bottom-3 sm:right-3 sm:top-3 sm:max-h-none sm:w-[28rem] sm:rounded-xl lg:w-[32rem]"
-    >
-      <div className="mx-auto mt-2 h-1.5 w-10 shrink-0 rounded-full bg-ink-200 sm:hidden" aria-hidden="true" />
-      <header className="flex items-start gap-3 border-b border-ink-100 px-4 py-3">
-        {icon && <img src={icon} alt="" width={34} height={34} className="mt-0.5 shrink-0" />}
-        <div className="min-w-0 flex-1">
-          <h2
-            id="mast-panel-heading"
-            ref={headingRef}
-            tabIndex={-1}
-            className="truncate text-lg focus:outline-none focus-visible:ring-0 focus-visible:ring-offset-0"
-          >
-            {mast?.name ?? (error ? 'Mast' : 'Loading mast…')}
-          </h2>
-          {mast && (
-            <p className="mt-0.5 flex flex-wrap items-center gap-2 text-xs text-ink-600">
-              <span className={`rounded px-1.5 py-0.5 font-semibold ${STATUS_BADGE[mast.status]}`}>{MAST_STATUS_LABELS[mast.status]}</span>
-              {mast.reference && <span>Ref. {mast.reference}</span>}
-            </p>
-          )}
-        </div>
-        <button type="button" onClick={onClose} className="rounded p-1.5 text-ink-500 hover:bg-ink-100 hover:text-ink-900" aria-label="Close mast details">
-          <svg aria-hidden="true" viewBox="0 0 20 20" width="18" height="18">
-            <path d="M5 5l10 10M15 5L5 15" stroke="currentColor" strokeWidth="2" strokeLinecap="round" />
-          </svg>
-        </button>
-      </header>
-
-      <div className="min-h-0 flex-1 space-y-4 overflow-y-auto px-4 py-3 text-sm">
-        {error && (
-          <p role="alert" className="text-alarm-700">
-            {error}
-          </p>
-        )}
-        {!mast && !error && <p className="text-ink-500">Loading…</p>}
-        {mast && editing && (
-          <MastEditForm
-            key={mast.row_version}
-            mast={mast}
-            onCancel={() => setEditing(false)}
-            onSaved={() => {
-              setVersion((v) => v + 1);
-              onChanged();
-            }}
-          />
-        )}
-        {mast && !editing && (
-          <>
-            <dl className="grid grid-cols-[6.5rem_1fr] gap-x-3 gap-y-1.5">
-              <dt className="text-ink-500">Structure</dt>
-              <dd>
-                {STRUCTURE_TYPE_LABELS[mast.structure_type as StructureType] ?? mast.structure_type}
-                {mast.structure_height_m !== null && `, ${fmt(mast.structure_height_m, 0, ' m')} high`}
-              </dd>
-              <dt className="text-ink-500">Ground</dt>
-              <dd>{fmt(mast.ground_elevation_m, 0, ' m')} above sea level</dd>
-              <dt className="self-center text-ink-500">Position</dt>
-              <dd>
-                <CopyPosition lat={mast.lat} lon={mast.lon} />
-              </dd>
-              {mast.access_notes && (
-                <>
-                  <dt className="text-ink-500">Access</dt>
-                  <dd className="whitespace-pre-line">{mast.access_notes}</dd>
-                </>
-              )}
-            </dl>
-
-            <section aria-labelledby="mast-operators-heading">
-              <h3 id="mast-operators-heading" className="mb-1.5 font-semibold text-ink-800">
-                Operators
-              </h3>
-              {mast.operators.length === 0 ? (
-                <p className="text-ink-500">No operator recorded on this mast.</p>
-              ) : (
-                <ul className="flex flex-wrap gap-1.5">
-                  {mast.operators.map((o) => (
-                    <li key={o.id} className="inline-flex items-center gap-1.5 rounded-full border border-ink-200 px-2.5 py-0.5">
-                      <span aria-hidden="true" className="inline-block h-2.5 w-2.5 rounded-full" style={{ background: o.colour }} />
-                      {o.name}
-                      <span className="text-xs text-ink-500">{cellsByOperator.get(o.id) ?? 0} cells</span>
-                    </li>
-                  ))}
-                </ul>
-              )}
-            </section>
-
-            <section
-              aria-labelledby="mast-cells-heading"
-              data-testid="mast-cells"
-              className="[&_table]:text-xs [&_td]:px-2 [&_td]:py-1.5 [&_th]:px-2 [&_th]:py-1.5"
+    <PanelFrame
+      labelledBy="mast-panel-heading"
+      testId="mast-panel"
+      closeLabel="Close mast details"
+      onClose={onClose}
+      header={
+        <>
+          {icon && <img src={icon} alt="" width={34} height={34} className="mt-0.5 shrink-0" />}
+          <div className="min-w-0 flex-1">
+            <h2
+              id="mast-panel-heading"
+              ref={headingRef}
+              tabIndex={-1}
+              className="truncate text-lg focus:outline-none focus-visible:ring-0 focus-visible:ring-offset-0"
             >
-              <h3 id="mast-cells-heading" className="mb-1.5 font-semibold text-ink-800">
-                Cells ({mast.cells.length})
-              </h3>
-              <SortableTable
-                rows={mast.cells}
-                columns={cellColumns}
-                rowKey={(c) => c.id}
-                initialSort={{ key: 'mhz', dir: 'asc' }}
-                empty="No cells recorded"
-                caption={`Cells on ${mast.name}`}
-              />
-            </section>
-
-            <section aria-labelledby="mast-readings-heading" className="[&_table]:text-xs [&_td]:px-2 [&_td]:py-1.5 [&_th]:px-2 [&_th]:py-1.5">
-              <h3 id="mast-readings-heading" className="mb-1.5 font-semibold text-ink-800">
-                Recent readings
-              </h3>
-              {mast.recent_readings.length === 0 ? (
-                <p className="text-ink-500">No readings matched to this mast yet.</p>
-              ) : (
-                <SortableTable
-                  rows={mast.recent_readings}
-                  columns={readingColumns}
-                  rowKey={(r) => r.id}
-                  initialSort={{ key: 'time', dir: 'desc' }}
-                  caption={`Recent readings for ${mast.name}`}
-                />
-              )}
-            </section>
-
-            <MastSurveys mastId={mast.id} />
-
-            {canEdit && (
-              <div className="flex flex-wrap gap-2 border-t border-ink-100 pt-3">
-                <button type="button" className="btn-secondary py-1.5" onClick={() => setEditing(true)}>
-                  Edit mast
-                </button>
-              </div>
+              {mast?.name ?? (error ? 'Mast' : 'Loading mast…')}
+            </h2>
+            {mast && (
+              <p className="mt-0.5 flex flex-wrap items-center gap-2 text-xs text-ink-600">
+                <span className={`rounded px-1.5 py-0.5 font-semibold ${STATUS_BADGE[mast.status]}`}>{MAST_STATUS_LABELS[mast.status]}</span>
+                {mast.reference && <span>Ref. {mast.reference}</span>}
+              </p>
             )}
-          </>
-        )}
-      </div>
-    </aside>
+          </div>
+        </>
+      }
+    >
+      {error && (
+        <p role="alert" className="text-alarm-700">
+          {error}
+        </p>
+      )}
+      {!mast && !error && <p className="text-ink-500">Loading…</p>}
+      {mast && editing && <MastEditForm key={mast.row_version} mast={mast} onCancel={() => setEditing(false)} onSaved={reload} />}
+      {mast && !editing && (
+        <>
+          <dl className="grid grid-cols-[6.5rem_1fr] gap-x-3 gap-y-1.5">
+            <dt className="text-ink-500">Structure</dt>
+            <dd>
+              {STRUCTURE_TYPE_LABELS[mast.structure_type as StructureType] ?? mast.structure_type}
+              {mast.structure_height_m !== null && `, ${fmt(mast.structure_height_m, 0, ' m')} high`}
+            </dd>
+            <dt className="text-ink-500">Ground</dt>
+            <dd>{fmt(mast.ground_elevation_m, 0, ' m')} above sea level</dd>
+            <dt className="self-center text-ink-500">Position</dt>
+            <dd>
+              <CopyPosition lat={mast.lat} lon={mast.lon} />
+            </dd>
+            {mast.access_notes && (
+              <>
+                <dt className="text-ink-500">Access</dt>
+                <dd className="whitespace-pre-line">{mast.access_notes}</dd>
+              </>
+            )}
+          </dl>
+
+          <section aria-labelledby="mast-operators-heading">
+            <h3 id="mast-operators-heading" className="mb-1.5 font-semibold text-ink-800">
+              Operators
+            </h3>
+            {mast.operators.length === 0 ? (
+              <p className="text-ink-500">No operator recorded on this mast.</p>
+            ) : (
+              <ul className="flex flex-wrap gap-1.5">
+                {mast.operators.map((o) => (
+                  <li key={o.id} className="inline-flex items-center gap-1.5 rounded-full border border-ink-200 px-2.5 py-0.5">
+                    <span aria-hidden="true" className="inline-block h-2.5 w-2.5 rounded-full" style={{ background: o.colour }} />
+                    {o.name}
+                    <span className="text-xs text-ink-500">{cellsByOperator.get(o.id) ?? 0} cells</span>
+                  </li>
+                ))}
+              </ul>
+            )}
+          </section>
+
+          <MastCells mast={mast} operators={operators} canEdit={canEdit} onChanged={reload} />
+
+          <section aria-labelledby="mast-readings-heading" className="[&_table]:text-xs [&_td]:px-2 [&_td]:py-1.5 [&_th]:px-2 [&_th]:py-1.5">
+            <h3 id="mast-readings-heading" className="mb-1.5 font-semibold text-ink-800">
+              Recent readings
+            </h3>
+            {mast.recent_readings.length === 0 ? (
+              <p className="text-ink-500">No readings matched to this mast yet.</p>
+            ) : (
+              <SortableTable
+                rows={mast.recent_readings}
+                columns={readingColumns}
+                rowKey={(r) => r.id}
+                initialSort={{ key: 'time', dir: 'desc' }}
+                caption={`Recent readings for ${mast.name}`}
+              />
+            )}
+          </section>
+
+          <MastSurveys mastId={mast.id} />
+
+          {canEdit && (
+            <div className="flex flex-wrap gap-2 border-t border-ink-100 pt-3">
+              <button type="button" className="btn-secondary py-1.5" onClick={() => setEditing(true)}>
+                Edit mast
+              </button>
+            </div>
+          )}
+        </>
+      )}
+    </PanelFrame>
   );
 }

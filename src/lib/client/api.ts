@@ -102,8 +102,19 @@ export const mastsApi = {
   list: (filter: { bbox?: string; operator?: string[]; band?: string[]; tech?: string[]; status?: string[]; limit?: number } = {}) =>
     get<MastFeatureCollectionJson>(`/api/masts${query(filter)}`),
   get: (id: string) => get<MastDetailJson>(`/api/masts/${encodeURIComponent(id)}`),
+  /** A new mast (body as MastInputSchema); answers 201 with the mast. */
+  create: (input: Record<string, unknown>) => request<MastJson>('POST', '/api/masts', input),
   /** Partial change; `row_version` must be the one last read, or the answer is 409 (CONFLICT). */
   update: (id: string, change: Record<string, unknown> & { row_version: number }) => request<MastJson>('PATCH', `/api/masts/${encodeURIComponent(id)}`, change),
+};
+
+export const cellsApi = {
+  /** A new cell on a mast (body as CellInputSchema: the channel must lie in the band). */
+  create: (mastId: string, input: Record<string, unknown>) => request<CellJson>('POST', `/api/masts/${encodeURIComponent(mastId)}/cells`, input),
+  /** Partial change, checked again as a whole; a stale `row_version` is refused with 409. */
+  update: (id: string, change: Record<string, unknown> & { row_version: number }) => request<CellJson>('PATCH', `/api/cells/${encodeURIComponent(id)}`, change),
+  /** Refused with 409 while a plan has chosen the cell. */
+  remove: (id: string) => request<void>('DELETE', `/api/cells/${encodeURIComponent(id)}`),
 };
 
 export const regionsApi = {

@@ -1,0 +1,112 @@
+import { useEffect, useRef, useState, type FormEvent } from 'react';
+import { ApiError, mastsApi, type FieldErrors, type MastJson } from '../../lib/client/api';
+import { checkWith } from '../../lib/client/planning-api';
+import { MastInputSchema } from '../../lib/schemas/masts';
+import { FormAlert, withoutFields } from './form-parts';
+import { mastInputOf, newMastDraft, readNumber, type MastDraft } from './mast-form';
+import MastFormFields from './MastFormFields';
+import PanelFrame from './PanelFrame';
+
+export interface LatLon {
+  lat: number;
+  lon: number;
+}
+
+interface Props {
+  /** Where the new mast is marked on the map (a click, or the marker dragged). */
+  position: LatLon;
+  /** Typed coordinates move the marker. */
+  onPositionChange: (position: LatLon) => void;
+  onCreated: (mast: MastJson) => void;
+  onCancel: () => void;
+}
+
+const near = (a: number, b: number) => Math.abs(a - b) < 5e-7;
+
+/** Adds a mast where the map was clicked, with the API's checks before sending and its answers beside the fields. */
+export default function MastCreateForm({ position, onPositionChange, onCreated, onCancel }: Props) {
+  const [draft, setDraft] = useState<MastDraft>(() => newMastDraft(position.lat, position.lon));
+  const [errors, setErrors] = useState<FieldErrors>({});
+  const [formError, setFormError] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+  const headingRef = useRef<HTMLHeadingElement>(null);
+
+  useEffect(() => headingRef.current?.focus(), []);
+
+  // A new click or a dragged marker moves the position; typed coordinates already there are kept.
+  useEffect(() => {
+    setDraft((d) =>
+      near(Number(d.lat), position.lat) && near(Number(d.lon), position.lon) ? d : { ...d, lat: position.lat.toFixed(6), lon: position.lon.toFixed(6) },
+    );
+  }, [position.lat, position.lon]);
+
+  useEffect(() => {
+    const onKey = (e: KeyboardEvent) => e.key === 'Escape' && !(e.target instanceof HTMLElement && e.target.closest('form')) && onCancel();
+    window.addEventListener('keydown', onKey);
+    return () => window.removeEventListener('keydown', onKey);
+  }, [onCancel]);
+
+  function change(key: keyof MastDraft, value: string) {
+    const next = { ...draft, [key]: value } as MastDraft;
+    setDraft(next);
+    setErrors((e) => withoutFields(e, key === 'lat' || key === 'lon' ? ['lat', 'lon'] : [key]));
+    if (key !== 'lat' && key !== 'lon') return;
+    const lat = readNumber(next.lat, false);
+    const lon = readNumber(next.lon, false);
+    if (typeof lat === 'number' && typeof lon === 'number' && Math.abs(lat) <= 90 && Math.abs(lon) <= 180) onPositionChange({ lat, lon });
+  }
+
+  async function submit(e: FormEvent) {
+    e.preventDefault();
+    setErrors({});
+    setFormError(null);
+    const body = mastInputOf(draft);
+    const fields = checkWith(MastInputSchema, body);
+    if (fields) {
+      setErrors(fields);
+      setFormError('Some fields need attention');
+      return;
+    }
+    setBusy(true);
+    try {
+      onCreated(await mastsApi.create(body));
+    } catch (err) {
+      if (err instanceof ApiError) {
+        setErrors(err.fields);
+        setFormError(err.message);
+      } else setFormError('Could not add the mast');
+    } finally {
+      setBusy(false);
+    }
+  }
+
+  return (
+    <PanelFrame
+      labelledBy="new-mast-heading"
+      testId="new-mast-panel"
+      closeLabel="Cancel the new mast"
+      onClose={onCancel}
+      header={
+        <div className="min-w-0 flex-1">
+          <h2 id="new-mast-heading" ref={headingRef} tabIndex={-1} className="text-lg focus:outline-none">
+            New mast
+          </h2>
+          <p className="mt-0.5 text-xs text-ink-600">Click the map or drag the marker to move it, or type the position.</p>
+        </div>
+      }
+    >
+      <form onSubmit={submit} noValidate className="space-y-3" aria-labelledby="new-mast-heading" data-testid="new-mast-form">
+        <FormAlert message={formError} errors={errors._} />
+        <MastFormFields prefix="new-mast" draft={draft} errors={errors} onChange={change} />
+        <div className="flex flex-wrap gap-2">
+          <button type="submit" className="btn-primary" disabled={busy}>
+            Add mast
+          </button>
+          <button type="button" className="btn-secondary" onClick={onCancel} disabled={busy}>
+            Cancel
+          </button>
+        </div>
+      </form>
+    </PanelFrame>
+  );
+}

@@ -1,0 +1,66 @@
+import type { ReactNode } from 'react';
+import type { FieldErrors } from '../../lib/client/api';
+
+/** A labelled input with its errors below it, tied to the input by `${id}-error`. */
+export function Field({ id, label, errors, hint, children }: { id: string; label: string; errors?: string[]; hint?: ReactNode; children: ReactNode }) {
+  return (
+    <div>
+      <label htmlFor={id} className="field-label">
+        {label}
+      </label>
+      {children}
+      {hint && (
+        <p id={`${id}-hint`} className="mt-1 text-xs text-ink-600">
+          {hint}
+        </p>
+      )}
+      {errors && errors.length > 0 && (
+        <p id={`${id}-error`} className="field-error">
+          {errors.join(' ')}
+        </p>
+      )}
+    </div>
+  );
+}
+
+/** Props that tie an input to its draft value and its errors. */
+export function inputProps<D extends Record<string, string>>(
+  prefix: string,
+  draft: D,
+  errors: FieldErrors,
+  onChange: (key: keyof D & string, value: string) => void,
+  key: keyof D & string,
+  extra: Record<string, unknown> = {},
+) {
+  const id = `${prefix}-${key}`;
+  return {
+    id,
+    name: key,
+    value: draft[key],
+    onChange: (e: { target: { value: string } }) => onChange(key, e.target.value),
+    className: 'field-input',
+    'aria-invalid': !!errors[key],
+    'aria-describedby': errors[key] ? `${id}-error` : undefined,
+    ...extra,
+  };
+}
+
+/** The errors left once the named fields have been changed (their old messages no longer apply). */
+export function withoutFields(errors: FieldErrors, keys: readonly string[]): FieldErrors {
+  if (!keys.some((k) => k in errors)) return errors;
+  return Object.fromEntries(Object.entries(errors).filter(([k]) => !keys.includes(k)));
+}
+
+/** The form's own message (and messages not tied to a field) above the fields. */
+export function FormAlert({ message, errors, children }: { message: string | null; errors?: string[]; children?: ReactNode }) {
+  if (!message) return null;
+  return (
+    <div role="alert" className="rounded-md border border-alarm-100 bg-alarm-50 p-2 text-sm text-alarm-700">
+      {message}
+      {errors?.map((m) => (
+        <p key={m}>{m}</p>
+      ))}
+      {children}
+    </div>
+  );
+}
