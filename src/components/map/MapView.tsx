@@ -122,6 +122,10 @@ export default function MapView({ canEditMasts }: Props) {
       if (placing || newMastAt) {
         setPlacing(false);
         setNewMastAt({ lat: e.lngLat.lat, lon: e.lngLat.lng });
+        const rect = frameRef.current?.getBoundingClientRect();
+        const offset = panelOffset();
+        if (rect && isUnderPanel(e.point, rect, isPhone, offset))
+          mapRef.current?.easeTo({ center: [e.lngLat.lng, e.lngLat.lat], offset, duration: 400, essential: false });
         return;
       }
       const cluster = e.features?.find((x) => x.layer.id === MAST_CLUSTER_LAYER_ID);
@@ -169,11 +173,16 @@ export default function MapView({ canEditMasts }: Props) {
     setPendingPick(null);
     setPlacing(true);
   }, [select]);
+  // The centre of what the panel leaves in view, not of the whole map.
   const placeAtCentre = useCallback(() => {
-    const c = mapRef.current?.getCenter();
+    const map = mapRef.current;
+    const rect = frameRef.current?.getBoundingClientRect();
     setPlacing(false);
-    if (c) setNewMastAt({ lat: c.lat, lon: c.lng });
-  }, []);
+    if (!map || !rect) return;
+    const [dx, dy] = panelOffset();
+    const c = map.unproject([rect.width / 2 + dx, rect.height / 2 + dy]);
+    setNewMastAt({ lat: c.lat, lon: c.lng });
+  }, [panelOffset]);
   const cancelAdding = useCallback(() => {
     setPlacing(false);
     setNewMastAt(null);

@@ -88,7 +88,7 @@ export default function MastCreateForm({ position, onPositionChange, onCreated, 
       onClose={onCancel}
       header={
         <div className="min-w-0 flex-1">
-          <h2 id="new-mast-heading" ref={headingRef} tabIndex={-1} className="text-lg focus:outline-none">
+          <h2 id="new-mast-heading" ref={headingRef} tabIndex={-1} className="text-lg focus:outline-none focus-visible:ring-0 focus-visible:ring-offset-0">
             New mast
           </h2>
           <p className="mt-0.5 text-xs text-ink-600">Click the map or drag the marker to move it, or type the position.</p>

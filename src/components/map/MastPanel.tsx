@@ -189,7 +189,9 @@ export default function MastPanel({ mastId, operators, canEdit, onClose, onChang
                   <li key={o.id} className="inline-flex items-center gap-1.5 rounded-full border border-ink-200 px-2.5 py-0.5">
                     <span aria-hidden="true" className="inline-block h-2.5 w-2.5 rounded-full" style={{ background: o.colour }} />
                     {o.name}
-                    <span className="text-xs text-ink-500">{cellsByOperator.get(o.id) ?? 0} cells</span>
+                    <span className="text-xs text-ink-500">
+                      {cellsByOperator.get(o.id) ?? 0} {cellsByOperator.get(o.id) === 1 ? 'cell' : 'cells'}
+                    </span>
                   </li>
                 ))}
               </ul>
