@@ -38,7 +38,7 @@ describe('planner journey', () => {
     // Ranked by RSRP and SINR: every row shows its SINR and expected throughput.
     const sinr = await page.locator('table tbody tr [data-testid=sinr]').allInnerTexts();
     expect(sinr.length).toBe(values.length);
-    expect(sinr.every((t) => /^-?\d+ · \d+$/.test(t.trim()))).toBe(true);
+    expect(sinr.every((t) => /^-?\d+\.\d · \d+$/.test(t.trim()))).toBe(true);
 
     // Pick the second candidate and see its terrain profile and budget.
     await rows.nth(1).locator('button').first().click();
