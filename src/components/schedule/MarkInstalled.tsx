@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useEffect, useState } from 'react';
 import { ApiError } from '../../lib/client/api';
 import { plansApi, type PlanDetailJson } from '../../lib/client/planning-api';
 
@@ -17,6 +17,9 @@ interface Props {
 export default function MarkInstalled({ planId, rowVersion, customerId, onInstalled }: Props) {
   const [step, setStep] = useState<'idle' | 'confirm' | 'busy' | 'done'>('idle');
   const [error, setError] = useState<{ message: string; stale: boolean } | null>(null);
+  // The server-rendered button stays disabled until the island is live, so an early tap is not lost.
+  const [live, setLive] = useState(false);
+  useEffect(() => setLive(true), []);
 
   async function confirm() {
     setStep('busy');
@@ -59,7 +62,7 @@ export default function MarkInstalled({ planId, rowVersion, customerId, onInstal
           </button>
         </div>
       ) : (
-        <button type="button" className="btn-secondary py-1.5" onClick={() => setStep('confirm')}>
+        <button type="button" className="btn-secondary py-1.5" disabled={!live} onClick={() => setStep('confirm')}>
           Mark installed
         </button>
       )}
