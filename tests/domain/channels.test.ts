@@ -403,3 +403,13 @@ describe('isChannelInBand', () => {
     expect(isChannelInBand(tech, channel, band)).toBe(expected);
   });
 });
+
+describe('findChannelsForFrequency at a band edge', () => {
+  // 3GPP TS 45.005 §2: E-GSM 900 ARFCN 0 is 935.0 MHz downlink. A frequency a rounding error below it
+  // still names channel 0, and never −0 (which would not equal 0 under Object.is).
+  it('gives channel 0, not −0, just below 935 MHz', () => {
+    const hit = findChannelsForFrequency('gsm', 934.9999999999999).find((c) => c.band === 'E-GSM900' && c.direction === 'DL');
+    expect(hit).toBeDefined();
+    expect(Object.is(hit!.channel, 0)).toBe(true);
+  });
+});

@@ -14,7 +14,19 @@ export async function truncateAll(): Promise<void> {
     `SELECT tablename FROM pg_tables WHERE schemaname = 'public'
        AND tablename NOT LIKE 'knex_%' AND tablename <> 'spatial_ref_sys'`,
   );
-  if (rows.length) await db.raw(`TRUNCATE ${rows.map((r) => `"${r.tablename}"`).join(', ')} RESTART IDENTITY CASCADE`);
+  if (!rows.length) return;
+  const sql = `TRUNCATE ${rows.map((r) => `"${r.tablename}"`).join(', ')} RESTART IDENTITY CASCADE`;
+  // A background job of the app under test (the signal map's sweep, the job queue) may hold locks on
+  // some of these tables; PostgreSQL then picks one side of the deadlock (40P01) and the other goes on.
+  for (let attempt = 1; ; attempt++) {
+    try {
+      await db.raw(sql);
+      return;
+    } catch (err) {
+      if ((err as { code?: string }).code !== '40P01' || attempt >= 5) throw err;
+      await new Promise((resolve) => setTimeout(resolve, 100 * attempt));
+    }
+  }
 }
 
 /** The row_version a row has now (1 when there is no such row), for PATCH bodies in tests. */

@@ -828,7 +828,8 @@ export function findChannelsForFrequency(tech: RadioTech, freqMhz: number): Freq
   const candidates: FrequencyCandidate[] = [];
   const push = (def: BandDef, exactChannel: number, ranges: ChannelRange[] | null, isDl: boolean) => {
     if (!Number.isFinite(exactChannel)) return;
-    const channel = Math.round(exactChannel);
+    // `+ 0` turns the −0 that rounding a tiny negative gives into 0.
+    const channel = Math.round(exactChannel) + 0;
     if (!isIn(ranges, channel)) return;
     const exact = Math.abs(channel - exactChannel) < 1e-6;
     candidates.push({ tech, band: def.band, channel, direction: directionOf(def, isDl, false), exact });
