@@ -1,4 +1,4 @@
-import { useState, type FormEvent } from 'react';
+import { useEffect, useState, type FormEvent } from 'react';
 import { accountsApi } from '../../lib/client/accounts-api';
 import { SignupSchema } from '../../lib/schemas/accounts';
 import { PASSWORD_MIN } from '../../lib/schemas/users';
@@ -10,6 +10,9 @@ import { useAccountSubmit } from './useAccountSubmit';
 export default function SignupForm() {
   const [form, setForm] = useState({ name: '', email: '', password: '' });
   const [done, setDone] = useState<string | null>(null);
+  // The server-rendered button stays disabled until the island is live, so an early submit is not lost.
+  const [live, setLive] = useState(false);
+  useEffect(() => setLive(true), []);
   const { busy, fields, error, submit } = useAccountSubmit(SignupSchema, (b) => accountsApi.signup({ name: b.name!, email: b.email!, password: b.password! }));
 
   async function onSubmit(e: FormEvent) {
@@ -59,7 +62,7 @@ export default function SignupForm() {
         onChange={(e) => setForm({ ...form, password: e.target.value })}
         errors={fields.password}
       />
-      <button type="submit" className="btn-primary min-h-11 w-full" disabled={busy}>
+      <button type="submit" className="btn-primary min-h-11 w-full" disabled={busy || !live}>
         {busy ? 'Sending…' : 'Sign up'}
       </button>
     </form>
