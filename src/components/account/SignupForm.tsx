@@ -1,4 +1,5 @@
-import { useEffect, useState, type FormEvent } from 'react';
+import { useState, type FormEvent } from 'react';
+import { useIsLive } from '../ui/use-is-live';
 import { accountsApi } from '../../lib/client/accounts-api';
 import { SignupSchema } from '../../lib/schemas/accounts';
 import { PASSWORD_MIN } from '../../lib/schemas/users';
@@ -10,9 +11,7 @@ import { useAccountSubmit } from './useAccountSubmit';
 export default function SignupForm() {
   const [form, setForm] = useState({ name: '', email: '', password: '' });
   const [done, setDone] = useState<string | null>(null);
-  // The server-rendered button stays disabled until the island is live, so an early submit is not lost.
-  const [live, setLive] = useState(false);
-  useEffect(() => setLive(true), []);
+  const live = useIsLive();
   const { busy, fields, error, submit } = useAccountSubmit(SignupSchema, (b) => accountsApi.signup({ name: b.name!, email: b.email!, password: b.password! }));
 
   async function onSubmit(e: FormEvent) {

@@ -1,4 +1,5 @@
-import { useEffect, useState } from 'react';
+import { useState } from 'react';
+import { useIsLive } from '../ui/use-is-live';
 import { ApiError } from '../../lib/client/api';
 import { plansApi, type PlanDetailJson } from '../../lib/client/planning-api';
 
@@ -17,9 +18,7 @@ interface Props {
 export default function MarkInstalled({ planId, rowVersion, customerId, onInstalled }: Props) {
   const [step, setStep] = useState<'idle' | 'confirm' | 'busy' | 'done'>('idle');
   const [error, setError] = useState<{ message: string; stale: boolean } | null>(null);
-  // The server-rendered button stays disabled until the island is live, so an early tap is not lost.
-  const [live, setLive] = useState(false);
-  useEffect(() => setLive(true), []);
+  const live = useIsLive();
 
   async function confirm() {
     setStep('busy');
