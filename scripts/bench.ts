@@ -1,4 +1,4 @@
-// npm run bench [-- --scale 0.05] [--duration 30] [--fresh] [--signal-hexes] [--out docs/benchmarks.md]
+// npm run bench [-- --scale 0.05] [--duration 30] [--fresh] [--generate-only] [--signal-hexes] [--out docs/benchmarks.md]
 // Builds a synthetic national data set (scripts/lib/bench-data.ts) in a throwaway cluster of its own
 // (BENCH_PG_PORT, default 9160; data in .data/bench-pg), serves the built app from it on
 // BENCH_APP_PORT (default 9161; the demo scenario on BENCH_APP_PORT + 1), measures every target of
@@ -34,6 +34,8 @@ function arg(name: string, fallback: string): string {
 const SCALE = Number(arg('scale', '1'));
 const LOAD_SECONDS = Number(arg('duration', '30'));
 const FRESH = process.argv.includes('--fresh');
+/** Builds (or checks) the data set and its completion marker, then stops: no server, no measurements. */
+const GENERATE_ONLY = process.argv.includes('--generate-only');
 const OUT = resolve(ROOT, arg('out', 'docs/benchmarks.md'));
 const PG_PORT = Number(process.env.BENCH_PG_PORT || 9160);
 const APP_PORT = Number(process.env.BENCH_APP_PORT || 9161);
@@ -614,6 +616,11 @@ async function main() {
     await db('readings').update({ model_residual_db: null, residual_basis: null }).whereNotNull('residual_basis');
   }
   const counts = await currentCounts(db);
+  if (GENERATE_ONLY) {
+    log(`data set ready: ${JSON.stringify(counts)}`);
+    await db.destroy();
+    return null;
+  }
   const pgVersion = (await db.raw('SELECT version() AS v')).rows[0].v.split(' on ')[0];
   const centre = await townOne(db);
 
@@ -679,6 +686,7 @@ async function main() {
 
 main()
   .then((report) => {
+    if (report === null) process.exit(0);
     const existing = existsSync(OUT) ? readFileSync(OUT, 'utf8') : '';
     const keep = existing.indexOf('\n## Findings and next steps');
     writeFileSync(OUT, report + (keep >= 0 ? existing.slice(keep) : '\n'));

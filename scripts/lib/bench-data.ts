@@ -63,7 +63,7 @@ async function timed(label: string, fn: () => Promise<unknown>, log: (m: string)
 }
 
 /** Loads indexes-off then rebuilds them: the way a bulk load is done. */
-async function withoutIndexes(db: Knex, table: string, fn: () => Promise<void>): Promise<void> {
+async function withoutIndexes(db: Knex, table: string, fn: () => Promise<void>, log?: (m: string) => void): Promise<void> {
   const { rows } = await db.raw<{ rows: Array<{ indexname: string; indexdef: string }> }>(
     `SELECT i.indexname, i.indexdef FROM pg_indexes i
       WHERE i.tablename = ? AND NOT EXISTS (SELECT 1 FROM pg_constraint c WHERE c.conname = i.indexname)`,
@@ -72,7 +72,11 @@ async function withoutIndexes(db: Knex, table: string, fn: () => Promise<void>):
   for (const r of rows) await db.raw(`DROP INDEX ${r.indexname}`);
   await fn();
   await db.raw("SET maintenance_work_mem = '256MB'");
-  for (const r of rows) await db.raw(r.indexdef);
+  for (const r of rows) {
+    const t0 = Date.now();
+    await db.raw(r.indexdef);
+    log?.(`  index ${r.indexname} rebuilt in ${((Date.now() - t0) / 1000).toFixed(1)} s`);
+  }
 }
 
 export async function generate(db: Knex, scale: number, dataDir: string, log: (m: string) => void): Promise<void> {
@@ -119,38 +123,48 @@ export async function generate(db: Knex, scale: number, dataDir: string, log: (m
   await timed(
     `${n.readings} readings (indexes rebuilt after)`,
     () =>
-      withoutIndexes(db, 'readings', async () => {
-        const { rows } = await db.raw('SELECT min(id) AS lo, max(id) AS hi FROM cells');
-        const step = 20_000;
-        for (let lo = Number(rows[0].lo); lo <= Number(rows[0].hi); lo += step) {
-          await db.raw(
-            `INSERT INTO readings (taken_at, geom, tech, channel, pci, rsrp_dbm, rsrq_db, sinr_db, cell_id, device, source)
+      withoutIndexes(
+        db,
+        'readings',
+        async () => {
+          const { rows } = await db.raw('SELECT min(id) AS lo, max(id) AS hi FROM cells');
+          const step = 20_000;
+          for (let lo = Number(rows[0].lo); lo <= Number(rows[0].hi); lo += step) {
+            await db.raw(
+              `INSERT INTO readings (taken_at, geom, tech, channel, pci, rsrp_dbm, rsrq_db, sinr_db, cell_id, device, source)
            SELECT now() - random() * interval '365 days',
              ST_SetSRID(ST_MakePoint(ST_X(m.geom) + (random() - 0.5) * 0.08, ST_Y(m.geom) + (random() - 0.5) * 0.06), 4326),
              c.tech, c.channel, c.pci, -125 + random() * 55, -15 + random() * 10, -3 + random() * 25, c.id, 'bench phone', 'bench'
            FROM cells c JOIN masts m ON m.id = c.mast_id CROSS JOIN generate_series(1, ${FULL.readingsPerCell})
            WHERE c.id BETWEEN ? AND ?`,
-            [lo, lo + step - 1],
-          );
-        }
-      }),
+              [lo, lo + step - 1],
+            );
+          }
+        },
+        log,
+      ),
     log,
   );
   await timed(
     `${n.addresses} addresses`,
     () =>
-      withoutIndexes(db, 'addresses', async () => {
-        await db.raw(
-          `INSERT INTO addresses (label, postcode, geom, source)
+      withoutIndexes(
+        db,
+        'addresses',
+        async () => {
+          await db.raw(
+            `INSERT INTO addresses (label, postcode, geom, source)
          SELECT (1 + i % 200) || ' ' ||
            (ARRAY['Mill','Crake','Harrow','Fen','Brook','Ash','Kiln','Tanner','Marsh','Holt','Wick','Thorn','Stone','Bramble','Corrie','Lark','Heron','Otter','Birch','Rowan'])[1 + (i / 200) % 20] || ' ' ||
            (ARRAY['Lane','Road','Street','Close','Way','Row','Drove','Hill'])[1 + (i / 4000) % 8] || ', ' || t.name,
            upper(substr(t.name, 1, 2)) || (1 + (i / 200) % 9) || ' ' || (i % 10) || chr(65 + (i / 7) % 26) || chr(65 + (i / 11) % 26),
            ST_SetSRID(ST_MakePoint(t.lon + (random() - 0.5) * 0.1, t.lat + (random() - 0.5) * 0.07), 4326), 'bench'
          FROM generate_series(0, ? - 1) i JOIN (${TOWNS_SQL}) t ON t.id = 1 + (i / 32000) % ${TOWN_COUNT}`,
-          [n.addresses],
-        );
-      }),
+            [n.addresses],
+          );
+        },
+        log,
+      ),
     log,
   );
   await timed('elevation grid around town 1', () => importGrid(db, dataDir), log);
