@@ -339,6 +339,54 @@ describe('mast tiles zoomed out, cached and compressed', () => {
     await db('masts').where({ id: c }).update({ status: 'active' });
   });
 
+  it('cut unfiltered low zooms from squares counted ahead, which follow inserts, moves and deletes', async () => {
+    const db = testDb();
+    const mast = async (name: string, lat: number, lon: number) => (await createMast(db, MastInputSchema.parse({ name, lat, lon }), null)).id;
+    const near = await mast('Square D', FAR.lat + 0.001, FAR.lon - 0.001);
+    const mover = await mast('Square E', FAR.lat + 0.5, FAR.lon + 0.5);
+    // The unfiltered tile reads mast_cluster_squares; asking for every status takes the grouping query.
+    // Both must draw the same clusters at the same places, and the same lone masts.
+    const both = async (z: number) => {
+      const t = tileOf(FAR.lat, FAR.lon, z);
+      const view = async (query?: string) => {
+        const bytes = (await fetchTile('masts', t, { user: contributor, query })).bytes;
+        return {
+          clusters: layerFeatures(bytes, 'mast_clusters')
+            .map((f) => `${f.properties.point_count}@${JSON.stringify(f.loadGeometry())}`)
+            .sort(),
+          masts: layerFeatures(bytes, 'masts')
+            .map((f) => f.properties.name)
+            .sort(),
+        };
+      };
+      return { counted: await view(), grouped: await view('status=active,planned,decommissioned') };
+    };
+    const counts = async () => Number((await db('mast_cluster_squares').where({ zoom: 5 }).sum('n as n'))[0]!.n);
+    const total = Number((await db('masts').count('* as n'))[0]!.n);
+    expect(await counts()).toBe(total);
+    for (const z of [3, 5, 8]) {
+      const { counted, grouped } = await both(z);
+      expect(counted).toEqual(grouped);
+    }
+    expect((await both(5)).counted.clusters.map((c) => c.split('@')[0])).toEqual(['4']);
+    // A move takes the mast out of one square and into another; a rename changes no count.
+    await db('masts')
+      .where({ id: mover })
+      .update({ geom: db.raw('ST_SetSRID(ST_MakePoint(?, ?), 4326)', [FAR.lon + 0.002, FAR.lat - 0.002]) });
+    await db('masts').where({ id: near }).update({ name: 'Square D renamed' });
+    expect(await counts()).toBe(total);
+    const moved = await both(5);
+    expect(moved.counted).toEqual(moved.grouped);
+    expect(moved.counted.clusters.map((c) => c.split('@')[0])).toEqual(['5']);
+    await db('masts').whereIn('id', [near, mover]).delete();
+    expect(await counts()).toBe(total - 2);
+    const after = await both(5);
+    expect(after.counted).toEqual(after.grouped);
+    expect(after.counted.clusters.map((c) => c.split('@')[0])).toEqual(['3']);
+    // Emptied squares go: none is left with a count of zero or less.
+    expect(Number((await db('mast_cluster_squares').where('n', '<=', 0).count('* as n'))[0]!.n)).toBe(0);
+  });
+
   it('show every cell write at once although tiles are cached (the summary follows the cells)', async () => {
     const db = testDb();
     const t = tileOf(FAR.lat, FAR.lon, 12);

@@ -67,7 +67,11 @@ export async function getBasemapTile(db: Tx, t: TileAddress): Promise<Buffer> {
   return rows[0]?.tile ?? Buffer.alloc(0);
 }
 
-/** Below this zoom masts that share a grid square are drawn as one cluster with a count. */
+/**
+ * Below this zoom masts that share a grid square are drawn as one cluster with a count. This and
+ * MAST_CLUSTER_GRID are also fixed in the migration that counts the squares ahead
+ * (mast_cluster_squares): change them together.
+ */
 export const MAST_CLUSTER_BELOW_ZOOM = 9;
 /** Grid squares per tile side for clustering (a square is 1/32 of the tile, ~16 px on a 512 px tile). */
 export const MAST_CLUSTER_GRID = 32;
@@ -107,6 +111,7 @@ export function mastsTileQuery(db: Tx, t: TileAddress, filter: MastFilter): Tile
     .select('m.id', 'm.geom_3857')
     .whereRaw(`m.geom_3857 && ST_TileEnvelope(?, ?, ?${clustered ? '' : `, margin => ${margin}`})`, [t.z, t.x, t.y]);
   applyMastFilter(db, inTile, filter);
+  if (clustered && !hasMastFilter(filter)) return precountedClustersQuery(db, t);
   const sql = clustered
     ? `WITH bounds AS (SELECT ST_TileEnvelope(:z, :x, :y) AS env),
             grid AS (SELECT ST_XMin(env) AS x0, ST_YMin(env) AS y0, (ST_XMax(env) - ST_XMin(env)) / ${MAST_CLUSTER_GRID} AS size FROM bounds),
@@ -124,4 +129,41 @@ export function mastsTileQuery(db: Tx, t: TileAddress, filter: MastFilter): Tile
     : `WITH bounds AS (SELECT ST_TileEnvelope(:z, :x, :y) AS env), pts AS (:inTile)
        SELECT ${mastFeaturesSql('SELECT id FROM pts')} AS tile`;
   return db.raw(sql, { z: t.z, x: t.x, y: t.y, inTile });
+}
+
+/** Half the width of the Web Mercator square (EPSG:3857), in metres. */
+const MERCATOR_HALF = 20037508.342789244;
+
+function hasMastFilter(filter: MastFilter): boolean {
+  return !!(filter.statuses?.length || filter.operatorIds?.length || filter.techs?.length || filter.bands?.length);
+}
+
+/**
+ * An unfiltered low-zoom masts tile from the squares counted ahead (mast_cluster_squares, kept by
+ * triggers on masts; its grid is the one above: 2^(z+5) squares per side of the Web Mercator
+ * square, 32 per tile). Squares holding one mast become that mast's feature; the others a cluster
+ * at the mean position of their masts.
+ */
+function precountedClustersQuery(db: Tx, t: TileAddress): TileQuery {
+  const size = (2 * MERCATOR_HALF) / (MAST_CLUSTER_GRID * 2 ** t.z);
+  const gx0 = t.x * MAST_CLUSTER_GRID;
+  const gy0 = (2 ** t.z - 1 - t.y) * MAST_CLUSTER_GRID;
+  const squareOf = (axis: 'X' | 'Y') => `floor((ST_${axis}(m.geom_3857) + ${MERCATOR_HALF}) / ${size})::int`;
+  const sql = `WITH bounds AS (SELECT ST_TileEnvelope(:z, :x, :y) AS env),
+      squares AS (
+        SELECT q.gx, q.gy, q.n, q.sum_x / q.n AS cx, q.sum_y / q.n AS cy FROM mast_cluster_squares q
+         WHERE q.zoom = :z AND q.gx BETWEEN :gx0 AND :gx1 AND q.gy BETWEEN :gy0 AND :gy1 AND q.n > 0),
+      singles AS (
+        SELECT m.id FROM squares sq JOIN masts m
+          ON m.geom_3857 && ST_MakeEnvelope(${-MERCATOR_HALF} + sq.gx * ${size}, ${-MERCATOR_HALF} + sq.gy * ${size},
+                                            ${-MERCATOR_HALF} + (sq.gx + 1) * ${size}, ${-MERCATOR_HALF} + (sq.gy + 1) * ${size}, 3857)
+         AND ${squareOf('X')} = sq.gx AND ${squareOf('Y')} = sq.gy
+         WHERE sq.n = 1)
+    SELECT ${mastFeaturesSql('SELECT id FROM singles')}
+      || (SELECT coalesce(ST_AsMVT(k, 'mast_clusters', ${TILE_EXTENT}, 'geom'), ''::bytea) FROM (
+           SELECT sq.n AS point_count,
+             ST_AsMVTGeom(ST_SetSRID(ST_MakePoint(sq.cx, sq.cy), 3857), (SELECT env FROM bounds), ${TILE_EXTENT}, ${TILE_BUFFER}, true) AS geom
+           FROM squares sq WHERE sq.n > 1 ORDER BY sq.n DESC, sq.gx, sq.gy
+         ) k WHERE k.geom IS NOT NULL) AS tile`;
+  return db.raw(sql, { z: t.z, x: t.x, y: t.y, gx0, gx1: gx0 + MAST_CLUSTER_GRID - 1, gy0, gy1: gy0 + MAST_CLUSTER_GRID - 1 });
 }
