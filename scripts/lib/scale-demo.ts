@@ -1,7 +1,7 @@
 // The scaling rehearsal on one machine, all on loopback: a PostgreSQL primary and a hot standby fed
 // by streaming replication, two app instances (each reads through the standby, writes to the primary)
 // and nginx in front of them, balancing, retrying an idempotent request on the other instance when
-// one fails, and caching the public basemap tiles. Ports: SCALE_PORT_BASE (default 9162) and up.
+// one fails, and caching the public basemap tiles. Ports: SCALE_PORT_BASE (default 9163: five ports, clear of the benchmark's 9160–9162) and up.
 import { spawnSync, type ChildProcess } from 'node:child_process';
 import { chownSync, existsSync, mkdirSync, rmSync, writeFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
@@ -20,7 +20,7 @@ export interface ScaleDemoPorts {
   nginx: number;
 }
 
-export function scaleDemoPorts(base = Number(process.env.SCALE_PORT_BASE || 9162)): ScaleDemoPorts {
+export function scaleDemoPorts(base = Number(process.env.SCALE_PORT_BASE || 9163)): ScaleDemoPorts {
   return { primary: base, standby: base + 1, apps: [base + 2, base + 3], nginx: base + 4 };
 }
 
