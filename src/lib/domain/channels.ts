@@ -115,6 +115,11 @@ function normaliseLabel(label: string): string {
     .replace(/[\s_-]/g, '');
 }
 
+const PUB: Provenance = 'published';
+const MEM: Provenance = 'from memory, verify';
+type Triple = [number, number, number];
+type Pair = [number, number];
+
 // ---------------------------------------------------------------------------------------------------------
 // LTE — 3GPP TS 36.101 §5.7.3, Table 5.7.3-1: F = F_low + 0.1·(N − N_Offs) [MHz].
 
@@ -130,118 +135,49 @@ interface LteRow {
 
 // Published rows: 3GPP TS 36.101 Table 5.7.3-1 (= TS 36.521-1 Table 5.4.4-1), matching open-source tables. Memory rows: band
 // offsets also match one open-source implementation's table, ranges derived from the band edges.
-const LTE_ROWS: LteRow[] = [
-  { band: 1, duplex: 'FDD', fDlLow: 2110, nOffsDl: 0, nDlLast: 599, ul: { fUlLow: 1920, nOffsUl: 18000, nUlLast: 18599 }, provenance: 'published' },
-  {
-    band: 2,
-    duplex: 'FDD',
-    fDlLow: 1930,
-    nOffsDl: 600,
-    nDlLast: 1199,
-    ul: { fUlLow: 1850, nOffsUl: 18600, nUlLast: 19199 },
-    provenance: 'from memory, verify',
-  },
-  { band: 3, duplex: 'FDD', fDlLow: 1805, nOffsDl: 1200, nDlLast: 1949, ul: { fUlLow: 1710, nOffsUl: 19200, nUlLast: 19949 }, provenance: 'published' },
-  {
-    band: 4,
-    duplex: 'FDD',
-    fDlLow: 2110,
-    nOffsDl: 1950,
-    nDlLast: 2399,
-    ul: { fUlLow: 1710, nOffsUl: 19950, nUlLast: 20399 },
-    provenance: 'from memory, verify',
-  },
-  { band: 5, duplex: 'FDD', fDlLow: 869, nOffsDl: 2400, nDlLast: 2649, ul: { fUlLow: 824, nOffsUl: 20400, nUlLast: 20649 }, provenance: 'from memory, verify' },
-  { band: 7, duplex: 'FDD', fDlLow: 2620, nOffsDl: 2750, nDlLast: 3449, ul: { fUlLow: 2500, nOffsUl: 20750, nUlLast: 21449 }, provenance: 'published' },
-  { band: 8, duplex: 'FDD', fDlLow: 925, nOffsDl: 3450, nDlLast: 3799, ul: { fUlLow: 880, nOffsUl: 21450, nUlLast: 21799 }, provenance: 'published' },
-  {
-    band: 12,
-    duplex: 'FDD',
-    fDlLow: 729,
-    nOffsDl: 5010,
-    nDlLast: 5179,
-    ul: { fUlLow: 699, nOffsUl: 23010, nUlLast: 23179 },
-    provenance: 'from memory, verify',
-  },
-  {
-    band: 13,
-    duplex: 'FDD',
-    fDlLow: 746,
-    nOffsDl: 5180,
-    nDlLast: 5279,
-    ul: { fUlLow: 777, nOffsUl: 23180, nUlLast: 23279 },
-    provenance: 'from memory, verify',
-  },
-  {
-    band: 14,
-    duplex: 'FDD',
-    fDlLow: 758,
-    nOffsDl: 5280,
-    nDlLast: 5379,
-    ul: { fUlLow: 788, nOffsUl: 23280, nUlLast: 23379 },
-    provenance: 'from memory, verify',
-  },
-  {
-    band: 17,
-    duplex: 'FDD',
-    fDlLow: 734,
-    nOffsDl: 5730,
-    nDlLast: 5849,
-    ul: { fUlLow: 704, nOffsUl: 23730, nUlLast: 23849 },
-    provenance: 'from memory, verify',
-  },
-  { band: 19, duplex: 'FDD', fDlLow: 875, nOffsDl: 6000, nDlLast: 6149, ul: { fUlLow: 830, nOffsUl: 24000, nUlLast: 24149 }, provenance: 'published' },
-  // Band 20 is "reverse" duplex: the uplink lies above the downlink.
-  { band: 20, duplex: 'FDD', fDlLow: 791, nOffsDl: 6150, nDlLast: 6449, ul: { fUlLow: 832, nOffsUl: 24150, nUlLast: 24449 }, provenance: 'published' },
-  {
-    band: 25,
-    duplex: 'FDD',
-    fDlLow: 1930,
-    nOffsDl: 8040,
-    nDlLast: 8689,
-    ul: { fUlLow: 1850, nOffsUl: 26040, nUlLast: 26689 },
-    provenance: 'from memory, verify',
-  },
-  {
-    band: 26,
-    duplex: 'FDD',
-    fDlLow: 859,
-    nOffsDl: 8690,
-    nDlLast: 9039,
-    ul: { fUlLow: 814, nOffsUl: 26690, nUlLast: 27039 },
-    provenance: 'from memory, verify',
-  },
-  { band: 28, duplex: 'FDD', fDlLow: 758, nOffsDl: 9210, nDlLast: 9659, ul: { fUlLow: 703, nOffsUl: 27210, nUlLast: 27659 }, provenance: 'published' },
-  { band: 29, duplex: 'SDL', fDlLow: 717, nOffsDl: 9660, nDlLast: 9769, provenance: 'from memory, verify' },
-  { band: 32, duplex: 'SDL', fDlLow: 1452, nOffsDl: 9920, nDlLast: 10359, provenance: 'published' },
-  { band: 38, duplex: 'TDD', fDlLow: 2570, nOffsDl: 37750, nDlLast: 38249, provenance: 'published' },
-  { band: 39, duplex: 'TDD', fDlLow: 1880, nOffsDl: 38250, nDlLast: 38649, provenance: 'from memory, verify' },
-  { band: 40, duplex: 'TDD', fDlLow: 2300, nOffsDl: 38650, nDlLast: 39649, provenance: 'published' },
-  { band: 41, duplex: 'TDD', fDlLow: 2496, nOffsDl: 39650, nDlLast: 41589, provenance: 'published' },
-  { band: 42, duplex: 'TDD', fDlLow: 3400, nOffsDl: 41590, nDlLast: 43589, provenance: 'published' },
-  { band: 43, duplex: 'TDD', fDlLow: 3600, nOffsDl: 43590, nDlLast: 45589, provenance: 'published' },
-  { band: 48, duplex: 'TDD', fDlLow: 3550, nOffsDl: 55240, nDlLast: 56739, provenance: 'from memory, verify' },
-  // Bands ≥ 65 use the extended EARFCN range (above 65535). Band 66's downlink is 20 MHz wider than its
-  // uplink; the top downlink channels have no paired uplink.
-  {
-    band: 66,
-    duplex: 'FDD',
-    fDlLow: 2110,
-    nOffsDl: 66436,
-    nDlLast: 67335,
-    ul: { fUlLow: 1710, nOffsUl: 131972, nUlLast: 132671 },
-    provenance: 'from memory, verify',
-  },
-  {
-    band: 71,
-    duplex: 'FDD',
-    fDlLow: 617,
-    nOffsDl: 68586,
-    nDlLast: 68935,
-    ul: { fUlLow: 663, nOffsUl: 133122, nUlLast: 133471 },
-    provenance: 'from memory, verify',
-  },
-];
+// Columns: band, duplex, downlink [F_DL_low MHz, N_Offs-DL, last N_DL], uplink [F_UL_low MHz, N_Offs-UL, last N_UL] or null.
+const LTE_ROWS: LteRow[] = (
+  [
+    [1, 'FDD', [2110, 0, 599], [1920, 18000, 18599], PUB],
+    [2, 'FDD', [1930, 600, 1199], [1850, 18600, 19199], MEM],
+    [3, 'FDD', [1805, 1200, 1949], [1710, 19200, 19949], PUB],
+    [4, 'FDD', [2110, 1950, 2399], [1710, 19950, 20399], MEM],
+    [5, 'FDD', [869, 2400, 2649], [824, 20400, 20649], MEM],
+    [7, 'FDD', [2620, 2750, 3449], [2500, 20750, 21449], PUB],
+    [8, 'FDD', [925, 3450, 3799], [880, 21450, 21799], PUB],
+    [12, 'FDD', [729, 5010, 5179], [699, 23010, 23179], MEM],
+    [13, 'FDD', [746, 5180, 5279], [777, 23180, 23279], MEM],
+    [14, 'FDD', [758, 5280, 5379], [788, 23280, 23379], MEM],
+    [17, 'FDD', [734, 5730, 5849], [704, 23730, 23849], MEM],
+    [19, 'FDD', [875, 6000, 6149], [830, 24000, 24149], PUB],
+    // Band 20 is "reverse" duplex: the uplink lies above the downlink.
+    [20, 'FDD', [791, 6150, 6449], [832, 24150, 24449], PUB],
+    [25, 'FDD', [1930, 8040, 8689], [1850, 26040, 26689], MEM],
+    [26, 'FDD', [859, 8690, 9039], [814, 26690, 27039], MEM],
+    [28, 'FDD', [758, 9210, 9659], [703, 27210, 27659], PUB],
+    [29, 'SDL', [717, 9660, 9769], null, MEM],
+    [32, 'SDL', [1452, 9920, 10359], null, PUB],
+    [38, 'TDD', [2570, 37750, 38249], null, PUB],
+    [39, 'TDD', [1880, 38250, 38649], null, MEM],
+    [40, 'TDD', [2300, 38650, 39649], null, PUB],
+    [41, 'TDD', [2496, 39650, 41589], null, PUB],
+    [42, 'TDD', [3400, 41590, 43589], null, PUB],
+    [43, 'TDD', [3600, 43590, 45589], null, PUB],
+    [48, 'TDD', [3550, 55240, 56739], null, MEM],
+    // Bands ≥ 65 use the extended EARFCN range (above 65535). Band 66's downlink is 20 MHz wider than its
+    // uplink; the top downlink channels have no paired uplink.
+    [66, 'FDD', [2110, 66436, 67335], [1710, 131972, 132671], MEM],
+    [71, 'FDD', [617, 68586, 68935], [663, 133122, 133471], MEM],
+  ] satisfies [number, Duplex, Triple, Triple | null, Provenance][]
+).map(([band, duplex, [fDlLow, nOffsDl, nDlLast], ul, provenance]) => ({
+  band,
+  duplex,
+  fDlLow,
+  nOffsDl,
+  nDlLast,
+  ul: ul ? { fUlLow: ul[0], nOffsUl: ul[1], nUlLast: ul[2] } : undefined,
+  provenance,
+}));
 
 function createLteBand(row: LteRow, index: number): BandDef {
   const dlTenths = Math.round(row.fDlLow * 10);
@@ -343,141 +279,49 @@ interface NrRow {
   provenance: Provenance;
 }
 
-const step20 = (first: number, last: number): NrRaster[] => [{ first, step: 20, last }];
+const raster = (first: number, step: number, last: number): NrRaster => ({ first, step, last });
+const step20 = (first: number, last: number): NrRaster[] => [raster(first, 20, last)];
 
 // Published rows: 3GPP TS 38.104 (Tables 5.2-1 and 5.4.2.3-1/-2, as quoted by an open-source gNB).
 // Memory rows: FR1 ranges also match that implementation; FR2 n257/n260/n261 convert to their band edges.
-const NR_ROWS: NrRow[] = [
-  {
-    band: 1,
-    duplex: 'FDD',
-    dlMhz: { low: 2110, high: 2170 },
-    ulMhz: { low: 1920, high: 1980 },
-    dl: step20(422_000, 434_000),
-    ul: step20(384_000, 396_000),
-    provenance: 'published',
-  },
-  {
-    band: 2,
-    duplex: 'FDD',
-    dlMhz: { low: 1930, high: 1990 },
-    ulMhz: { low: 1850, high: 1910 },
-    dl: step20(386_000, 398_000),
-    ul: step20(370_000, 382_000),
-    provenance: 'from memory, verify',
-  },
-  {
-    band: 3,
-    duplex: 'FDD',
-    dlMhz: { low: 1805, high: 1880 },
-    ulMhz: { low: 1710, high: 1785 },
-    dl: step20(361_000, 376_000),
-    ul: step20(342_000, 357_000),
-    provenance: 'published',
-  },
-  {
-    band: 5,
-    duplex: 'FDD',
-    dlMhz: { low: 869, high: 894 },
-    ulMhz: { low: 824, high: 849 },
-    dl: step20(173_800, 178_800),
-    ul: step20(164_800, 169_800),
-    provenance: 'from memory, verify',
-  },
-  {
-    band: 7,
-    duplex: 'FDD',
-    dlMhz: { low: 2620, high: 2690 },
-    ulMhz: { low: 2500, high: 2570 },
-    dl: step20(524_000, 538_000),
-    ul: step20(500_000, 514_000),
-    provenance: 'published',
-  },
-  {
-    band: 8,
-    duplex: 'FDD',
-    dlMhz: { low: 925, high: 960 },
-    ulMhz: { low: 880, high: 915 },
-    dl: step20(185_000, 192_000),
-    ul: step20(176_000, 183_000),
-    provenance: 'published',
-  },
-  {
-    band: 12,
-    duplex: 'FDD',
-    dlMhz: { low: 729, high: 746 },
-    ulMhz: { low: 699, high: 716 },
-    dl: step20(145_800, 149_200),
-    ul: step20(139_800, 143_200),
-    provenance: 'from memory, verify',
-  },
-  {
-    band: 20,
-    duplex: 'FDD',
-    dlMhz: { low: 791, high: 821 },
-    ulMhz: { low: 832, high: 862 },
-    dl: step20(158_200, 164_200),
-    ul: step20(166_400, 172_400),
-    provenance: 'published',
-  },
-  {
-    band: 25,
-    duplex: 'FDD',
-    dlMhz: { low: 1930, high: 1995 },
-    ulMhz: { low: 1850, high: 1915 },
-    dl: step20(386_000, 399_000),
-    ul: step20(370_000, 383_000),
-    provenance: 'from memory, verify',
-  },
-  {
-    band: 28,
-    duplex: 'FDD',
-    dlMhz: { low: 758, high: 803 },
-    ulMhz: { low: 703, high: 748 },
-    dl: step20(151_600, 160_600),
-    ul: step20(140_600, 149_600),
-    extra: [155_608],
-    provenance: 'published',
-  },
-  { band: 38, duplex: 'TDD', dlMhz: { low: 2570, high: 2620 }, dl: step20(514_000, 524_000), provenance: 'published' },
-  { band: 40, duplex: 'TDD', dlMhz: { low: 2300, high: 2400 }, dl: step20(460_000, 480_000), provenance: 'published' },
-  {
-    band: 41,
-    duplex: 'TDD',
-    dlMhz: { low: 2496, high: 2690 },
-    dl: [
-      { first: 499_200, step: 3, last: 537_999 },
-      { first: 499_200, step: 6, last: 537_996 },
-    ],
-    provenance: 'published',
-  },
-  { band: 48, duplex: 'TDD', dlMhz: { low: 3550, high: 3700 }, dl: [{ first: 636_667, step: 1, last: 646_666 }], provenance: 'from memory, verify' },
-  {
-    band: 66,
-    duplex: 'FDD',
-    dlMhz: { low: 2110, high: 2200 },
-    ulMhz: { low: 1710, high: 1780 },
-    dl: step20(422_000, 440_000),
-    ul: step20(342_000, 356_000),
-    provenance: 'from memory, verify',
-  },
-  {
-    band: 71,
-    duplex: 'FDD',
-    dlMhz: { low: 617, high: 652 },
-    ulMhz: { low: 663, high: 698 },
-    dl: step20(123_400, 130_400),
-    ul: step20(132_600, 139_600),
-    provenance: 'from memory, verify',
-  },
-  { band: 77, duplex: 'TDD', dlMhz: { low: 3300, high: 4200 }, dl: [{ first: 620_000, step: 1, last: 680_000 }], provenance: 'published' },
-  { band: 78, duplex: 'TDD', dlMhz: { low: 3300, high: 3800 }, dl: [{ first: 620_000, step: 1, last: 653_333 }], provenance: 'published' },
-  { band: 79, duplex: 'TDD', dlMhz: { low: 4400, high: 5000 }, dl: [{ first: 693_334, step: 1, last: 733_333 }], provenance: 'from memory, verify' },
-  { band: 257, duplex: 'TDD', dlMhz: { low: 26500, high: 29500 }, dl: [{ first: 2_054_166, step: 1, last: 2_104_165 }], provenance: 'from memory, verify' },
-  { band: 258, duplex: 'TDD', dlMhz: { low: 24250, high: 27500 }, dl: [{ first: 2_016_667, step: 1, last: 2_070_832 }], provenance: 'published' },
-  { band: 260, duplex: 'TDD', dlMhz: { low: 37000, high: 40000 }, dl: [{ first: 2_229_166, step: 1, last: 2_279_165 }], provenance: 'from memory, verify' },
-  { band: 261, duplex: 'TDD', dlMhz: { low: 27500, high: 28350 }, dl: [{ first: 2_070_833, step: 1, last: 2_084_999 }], provenance: 'from memory, verify' },
-];
+// Columns: band, duplex, downlink edges [low, high] MHz, uplink edges or null, downlink rasters, uplink rasters or null,
+// provenance, extra allowed downlink values (n28's 40 MHz carrier).
+const NR_ROWS: NrRow[] = (
+  [
+    [1, 'FDD', [2110, 2170], [1920, 1980], step20(422_000, 434_000), step20(384_000, 396_000), PUB],
+    [2, 'FDD', [1930, 1990], [1850, 1910], step20(386_000, 398_000), step20(370_000, 382_000), MEM],
+    [3, 'FDD', [1805, 1880], [1710, 1785], step20(361_000, 376_000), step20(342_000, 357_000), PUB],
+    [5, 'FDD', [869, 894], [824, 849], step20(173_800, 178_800), step20(164_800, 169_800), MEM],
+    [7, 'FDD', [2620, 2690], [2500, 2570], step20(524_000, 538_000), step20(500_000, 514_000), PUB],
+    [8, 'FDD', [925, 960], [880, 915], step20(185_000, 192_000), step20(176_000, 183_000), PUB],
+    [12, 'FDD', [729, 746], [699, 716], step20(145_800, 149_200), step20(139_800, 143_200), MEM],
+    [20, 'FDD', [791, 821], [832, 862], step20(158_200, 164_200), step20(166_400, 172_400), PUB],
+    [25, 'FDD', [1930, 1995], [1850, 1915], step20(386_000, 399_000), step20(370_000, 383_000), MEM],
+    [28, 'FDD', [758, 803], [703, 748], step20(151_600, 160_600), step20(140_600, 149_600), PUB, [155_608]],
+    [38, 'TDD', [2570, 2620], null, step20(514_000, 524_000), null, PUB],
+    [40, 'TDD', [2300, 2400], null, step20(460_000, 480_000), null, PUB],
+    [41, 'TDD', [2496, 2690], null, [raster(499_200, 3, 537_999), raster(499_200, 6, 537_996)], null, PUB],
+    [48, 'TDD', [3550, 3700], null, [raster(636_667, 1, 646_666)], null, MEM],
+    [66, 'FDD', [2110, 2200], [1710, 1780], step20(422_000, 440_000), step20(342_000, 356_000), MEM],
+    [71, 'FDD', [617, 652], [663, 698], step20(123_400, 130_400), step20(132_600, 139_600), MEM],
+    [77, 'TDD', [3300, 4200], null, [raster(620_000, 1, 680_000)], null, PUB],
+    [78, 'TDD', [3300, 3800], null, [raster(620_000, 1, 653_333)], null, PUB],
+    [79, 'TDD', [4400, 5000], null, [raster(693_334, 1, 733_333)], null, MEM],
+    [257, 'TDD', [26500, 29500], null, [raster(2_054_166, 1, 2_104_165)], null, MEM],
+    [258, 'TDD', [24250, 27500], null, [raster(2_016_667, 1, 2_070_832)], null, PUB],
+    [260, 'TDD', [37000, 40000], null, [raster(2_229_166, 1, 2_279_165)], null, MEM],
+    [261, 'TDD', [27500, 28350], null, [raster(2_070_833, 1, 2_084_999)], null, MEM],
+  ] satisfies [number, Duplex, Pair, Pair | null, NrRaster[], NrRaster[] | null, Provenance, number[]?][]
+).map(([band, duplex, [dlLow, dlHigh], ulEdges, dl, ul, provenance, extra]) => ({
+  band,
+  duplex,
+  dlMhz: { low: dlLow, high: dlHigh },
+  ulMhz: ulEdges ? { low: ulEdges[0], high: ulEdges[1] } : undefined,
+  dl,
+  ul: ul ?? undefined,
+  extra,
+  provenance,
+}));
 
 function spanOf(rasters: NrRaster[]): ChannelRange {
   return { first: Math.min(...rasters.map((r) => r.first)), last: Math.max(...rasters.map((r) => r.last)) };
@@ -534,28 +378,23 @@ interface UmtsRow {
   ulMhz: MhzRange;
 }
 
-const UMTS_ROWS: UmtsRow[] = [
-  {
-    band: 'I',
-    number: 1,
-    offsetMhz: 0,
-    duplexMhz: 190,
-    dl: { first: 10_562, last: 10_838 },
-    ul: { first: 9612, last: 9888 },
-    dlMhz: { low: 2110, high: 2170 },
-    ulMhz: { low: 1920, high: 1980 },
-  },
-  {
-    band: 'VIII',
-    number: 8,
-    offsetMhz: 340,
-    duplexMhz: 45,
-    dl: { first: 2937, last: 3088 },
-    ul: { first: 2712, last: 2863 },
-    dlMhz: { low: 925, high: 960 },
-    ulMhz: { low: 880, high: 915 },
-  },
-];
+// Columns: band, number, F_Offset MHz, duplex spacing MHz, downlink and uplink UARFCN [first, last], downlink and
+// uplink band edges [low, high] MHz.
+const UMTS_ROWS: UmtsRow[] = (
+  [
+    ['I', 1, 0, 190, [10_562, 10_838], [9612, 9888], [2110, 2170], [1920, 1980]],
+    ['VIII', 8, 340, 45, [2937, 3088], [2712, 2863], [925, 960], [880, 915]],
+  ] satisfies [string, number, number, number, Pair, Pair, Pair, Pair][]
+).map(([band, number, offsetMhz, duplexMhz, dl, ul, dlMhz, ulMhz]) => ({
+  band,
+  number,
+  offsetMhz,
+  duplexMhz,
+  dl: { first: dl[0], last: dl[1] },
+  ul: { first: ul[0], last: ul[1] },
+  dlMhz: { low: dlMhz[0], high: dlMhz[1] },
+  ulMhz: { low: ulMhz[0], high: ulMhz[1] },
+}));
 
 function createUmtsBand(row: UmtsRow, index: number): BandDef {
   const toMhz = (n: number) => (5 * row.offsetMhz + n) / 5;
@@ -603,51 +442,18 @@ interface GsmRow {
 const PCS_CAUTION = 'ARFCN 512–810 is also PCS 1900 (uplink 1850.2 + 0.2·(n − 512) MHz); DCS 1800 is assumed unless the band is given';
 
 // Row order is the preference when ARFCN ranges overlap: P-GSM before E-GSM, DCS 1800 before PCS 1900.
-const GSM_ROWS: GsmRow[] = [
-  {
-    band: 'P-GSM900',
-    aliases: ['PGSM900', 'PGSM', 'GSM900', '900'],
-    segments: [{ first: 1, last: 124, ulFirstMhz: 890.2 }],
-    duplexMhz: 45,
-    ulMhz: { low: 890, high: 915 },
-    provenance: 'published',
-  },
-  {
-    band: 'E-GSM900',
-    aliases: ['EGSM900', 'EGSM'],
-    segments: [
-      { first: 0, last: 124, ulFirstMhz: 890 },
-      { first: 975, last: 1023, ulFirstMhz: 880.2 },
-    ],
-    duplexMhz: 45,
-    ulMhz: { low: 880, high: 915 },
-    provenance: 'published',
-  },
-  {
-    band: 'DCS1800',
-    aliases: ['DCS', '1800', 'GSM1800'],
-    segments: [{ first: 512, last: 885, ulFirstMhz: 1710.2 }],
-    duplexMhz: 95,
-    ulMhz: { low: 1710, high: 1785 },
-    provenance: 'published',
-  },
-  {
-    band: 'PCS1900',
-    aliases: ['PCS', '1900', 'GSM1900'],
-    segments: [{ first: 512, last: 810, ulFirstMhz: 1850.2 }],
-    duplexMhz: 80,
-    ulMhz: { low: 1850, high: 1910 },
-    provenance: 'published',
-  },
-  {
-    band: 'GSM850',
-    aliases: ['850'],
-    segments: [{ first: 128, last: 251, ulFirstMhz: 824.2 }],
-    duplexMhz: 45,
-    ulMhz: { low: 824, high: 849 },
-    provenance: 'from memory, verify',
-  },
-];
+const segment = (first: number, last: number, ulFirstMhz: number): GsmSegment => ({ first, last, ulFirstMhz });
+
+// Columns: band, other accepted labels, ARFCN segments, duplex spacing MHz, uplink band edges [low, high] MHz.
+const GSM_ROWS: GsmRow[] = (
+  [
+    ['P-GSM900', ['PGSM900', 'PGSM', 'GSM900', '900'], [segment(1, 124, 890.2)], 45, [890, 915], PUB],
+    ['E-GSM900', ['EGSM900', 'EGSM'], [segment(0, 124, 890), segment(975, 1023, 880.2)], 45, [880, 915], PUB],
+    ['DCS1800', ['DCS', '1800', 'GSM1800'], [segment(512, 885, 1710.2)], 95, [1710, 1785], PUB],
+    ['PCS1900', ['PCS', '1900', 'GSM1900'], [segment(512, 810, 1850.2)], 80, [1850, 1910], PUB],
+    ['GSM850', ['850'], [segment(128, 251, 824.2)], 45, [824, 849], MEM],
+  ] satisfies [string, string[], GsmSegment[], number, Pair, Provenance][]
+).map(([band, aliases, segments, duplexMhz, [low, high], provenance]) => ({ band, aliases, segments, duplexMhz, ulMhz: { low, high }, provenance }));
 
 function createGsmBand(row: GsmRow, index: number): BandDef {
   const segmentOf = (n: number) => row.segments.find((s) => n >= s.first && n <= s.last) ?? row.segments[0]!;
