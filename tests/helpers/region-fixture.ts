@@ -9,6 +9,7 @@ import { CellInputSchema, MastInputSchema } from '../../src/lib/schemas/masts';
 import type { User } from '../../src/lib/server/repos/users';
 import { testDb } from './db';
 import { makeUser } from './factories';
+import { square } from './geojson';
 
 export interface RegionFixture {
   region: string;
@@ -27,19 +28,6 @@ export interface RegionFixture {
   gapCustomer: string;
   gapPlan: string;
 }
-
-const square = (west: number, south: number, size: number) => ({
-  type: 'Polygon' as const,
-  coordinates: [
-    [
-      [west, south],
-      [west + size, south],
-      [west + size, south + size],
-      [west, south + size],
-      [west, south],
-    ] as [number, number][],
-  ],
-});
 
 /** Square lon −128.6…−128.4, lat −47.3…−47.1 (counter-clockwise, RFC 7946 §3.1.6). */
 export const FIXTURE_SQUARE = square(-128.6, -47.3, 0.2);

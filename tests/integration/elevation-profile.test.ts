@@ -1,4 +1,3 @@
-import { writeArrayBuffer } from 'geotiff';
 import { beforeEach, describe, expect, it } from 'vitest';
 import { getElevationAt, getElevationProfile } from '../../src/lib/server/elevation-service';
 import { importElevationFile } from '../../src/lib/server/elevation-import';
@@ -7,22 +6,11 @@ import { config } from '../../src/lib/server/config';
 import { getDemoElevationM } from '../../src/lib/demo/elevation';
 import { DEMO_ELEVATION_FILE_NAME, buildDemoElevationTiff, seed } from '../../seeds/08_demo_elevation';
 import { testDb, truncateAll } from '../helpers/db';
+import { heightTiff } from '../helpers/geotiff';
 
 /** A point-registered float32 GeoTIFF whose height is a plane: 1000 + 2000·(lon − west). */
 function planeTiff(west: number, north: number, size: number, stepDeg: number): Uint8Array {
-  const values = new Float32Array(size * size);
-  for (let r = 0; r < size; r++) for (let c = 0; c < size; c++) values[r * size + c] = 1000 + 2000 * c * stepDeg;
-  return new Uint8Array(
-    writeArrayBuffer(values, {
-      width: size,
-      height: size,
-      ModelPixelScale: [stepDeg, stepDeg, 0],
-      ModelTiepoint: [0, 0, 0, west, north, 0],
-      GTModelTypeGeoKey: 2,
-      GTRasterTypeGeoKey: 2,
-      GeographicTypeGeoKey: 4326,
-    }),
-  );
+  return heightTiff({ west, north, step: stepDeg, width: size, height: size }, (_lat, _lon, c) => 1000 + 2000 * c * stepDeg);
 }
 
 const importTiff = (name: string, bytes: Uint8Array) => importElevationFile(testDb(), { fileName: name, bytes }, { dataDir: config.dataDir, actorId: null });

@@ -55,6 +55,7 @@ import type { SessionUser } from '../../src/lib/server/session-user';
 import { call, type CallResult } from '../helpers/endpoint';
 import { testDb, truncateAll } from '../helpers/db';
 import { asSessionUser, makeUser } from '../helpers/factories';
+import { SEA_SQUARE } from '../helpers/geojson';
 
 const RUNS = { numRuns: 15 };
 // Tables a request may touch without storing anything of the client's: throttling counters and sessions.
@@ -155,18 +156,7 @@ interface BodyCase {
   signedOut?: boolean;
 }
 
-const SQUARE = {
-  type: 'Polygon',
-  coordinates: [
-    [
-      [-128.6, -47.3],
-      [-128.5, -47.3],
-      [-128.5, -47.2],
-      [-128.6, -47.2],
-      [-128.6, -47.3],
-    ],
-  ],
-};
+const SQUARE = SEA_SQUARE;
 const TOKEN = 'A'.repeat(43);
 
 const bodyCases: BodyCase[] = [

@@ -5,30 +5,16 @@ import { GET as listChecks, POST as addCheck } from '../../src/pages/api/plans/[
 import { call } from '../helpers/endpoint';
 import { currentRowVersion, testDb, truncateAll } from '../helpers/db';
 import { asSessionUser, makeUser } from '../helpers/factories';
+import { insertPlanKit, type PlanKit } from '../helpers/plan-kit';
 import type { SessionUser } from '../../src/lib/server/session-user';
 
-interface Fixture {
+interface Fixture extends PlanKit {
   customerId: string;
-  cellId: string;
-  antennaId: string;
-  cableId: string;
 }
 
 async function fixture(): Promise<Fixture> {
   const db = testDb();
-  const [op] = await db('operators').insert({ name: 'Test Mobile', mcc: '001', mnc: '01', colour: '#336699' }).returning('id');
-  const [mast] = await db('masts')
-    .insert({ name: 'Test Hill', geom: db.raw('ST_SetSRID(ST_MakePoint(-128.5, -47.1), 4326)') })
-    .returning('id');
-  const [cell] = await db('cells')
-    .insert({ mast_id: mast.id, operator_id: op.id, tech: 'lte', band: 'B20', channel: 6300, dl_mhz: 806, pci: 101, sector_azimuth_deg: 180 })
-    .returning('id');
-  const [ant] = await db('antennas')
-    .insert({ name: 'Panel', kind: 'directional', ports: 2, horizontal_beamwidth_deg: 40, gain_table: JSON.stringify([{ freq_mhz: 800, gain_dbi: 7.5 }]) })
-    .returning('id');
-  const [cable] = await db('cables')
-    .insert({ name: 'Feeder', loss_table: JSON.stringify([{ freq_mhz: 800, loss_db_per_m: 0.12 }]) })
-    .returning('id');
+  const planKit = await insertPlanKit(db);
   const [stub] = await db('antennas')
     .insert({ name: 'Router stub', kind: 'stub', ports: 1, horizontal_beamwidth_deg: 360, gain_table: JSON.stringify([{ freq_mhz: 800, gain_dbi: 2 }]) })
     .returning('id');
@@ -40,7 +26,7 @@ async function fixture(): Promise<Fixture> {
       current_antenna_id: stub.id,
     })
     .returning('id');
-  return { customerId: String(cust.id), cellId: String(cell.id), antennaId: String(ant.id), cableId: String(cable.id) };
+  return { ...planKit, customerId: String(cust.id) };
 }
 
 describe('plans API', () => {

@@ -4,33 +4,12 @@ import { GET as getRegion, PATCH as patchRegion, DELETE as deleteRegion } from '
 import { call } from '../helpers/endpoint';
 import { testDb, truncateAll } from '../helpers/db';
 import { asSessionUser, makeUser } from '../helpers/factories';
+import { SEA_SQUARE, multiPolygon, polygon } from '../helpers/geojson';
 
 // A 0.1° square in open sea near the demo island (counter-clockwise exterior ring, RFC 7946 §3.1.6).
-const SQUARE = {
-  type: 'Polygon',
-  coordinates: [
-    [
-      [-128.6, -47.3],
-      [-128.5, -47.3],
-      [-128.5, -47.2],
-      [-128.6, -47.2],
-      [-128.6, -47.3],
-    ],
-  ],
-};
+const SQUARE = SEA_SQUARE;
 // Self-intersecting "bow tie": well-formed GeoJSON, invalid as a polygon (OGC Simple Features).
-const BOW_TIE = {
-  type: 'Polygon',
-  coordinates: [
-    [
-      [-128.6, -47.3],
-      [-128.5, -47.2],
-      [-128.5, -47.3],
-      [-128.6, -47.2],
-      [-128.6, -47.3],
-    ],
-  ],
-};
+const BOW_TIE = polygon([-128.6, -47.3], [-128.5, -47.2], [-128.5, -47.3], [-128.6, -47.2], [-128.6, -47.3]);
 
 describe('regions API', () => {
   beforeEach(truncateAll);
@@ -64,41 +43,9 @@ describe('regions API', () => {
   });
 
   it.each([
-    [
-      {
-        name: 'Open',
-        geometry: {
-          type: 'Polygon',
-          coordinates: [
-            [
-              [-128.6, -47.3],
-              [-128.5, -47.3],
-              [-128.5, -47.2],
-              [-128.6, -47.2],
-            ],
-          ],
-        },
-      },
-      'geometry.coordinates.0',
-    ],
+    [{ name: 'Open', geometry: polygon([-128.6, -47.3], [-128.5, -47.3], [-128.5, -47.2], [-128.6, -47.2]) }, 'geometry.coordinates.0'],
     [{ name: 'Point', geometry: { type: 'Point', coordinates: [-128.6, -47.3] } }, 'geometry.type'],
-    [
-      {
-        name: 'Far',
-        geometry: {
-          ...SQUARE,
-          coordinates: [
-            [
-              [-128.6, -47.3],
-              [-128.5, -97.3],
-              [-128.5, -47.2],
-              [-128.6, -47.3],
-            ],
-          ],
-        },
-      },
-      'geometry.coordinates.0.1',
-    ],
+    [{ name: 'Far', geometry: polygon([-128.6, -47.3], [-128.5, -97.3], [-128.5, -47.2], [-128.6, -47.3]) }, 'geometry.coordinates.0.1'],
     [{ geometry: SQUARE }, 'name'],
   ])('answers 400 with fields for malformed GeoJSON (%#)', async (body, field) => {
     const admin = asSessionUser(await makeUser('admin'));
@@ -112,19 +59,7 @@ describe('regions API', () => {
     const { id } = (await call(createRegion, { user: admin, json: { name: 'One', geometry: SQUARE } })).body;
     await call(createRegion, { user: admin, json: { name: 'Two', geometry: SQUARE } });
     expect((await call(patchRegion, { method: 'PATCH', user: admin, params: { id }, json: { name: 'two' } })).status).toBe(409);
-    const smaller = {
-      type: 'MultiPolygon',
-      coordinates: [
-        [
-          [
-            [-128.6, -47.3],
-            [-128.55, -47.3],
-            [-128.55, -47.25],
-            [-128.6, -47.3],
-          ],
-        ],
-      ],
-    };
+    const smaller = multiPolygon([-128.6, -47.3], [-128.55, -47.3], [-128.55, -47.25], [-128.6, -47.3]);
     const res = await call(patchRegion, { method: 'PATCH', user: admin, params: { id }, json: { name: 'Uno', geometry: smaller } });
     expect(res.status).toBe(200);
     expect(res.body.name).toBe('Uno');

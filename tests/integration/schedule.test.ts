@@ -8,37 +8,23 @@ import { groupVisits } from '../../src/lib/domain/schedule';
 import { call } from '../helpers/endpoint';
 import { currentRowVersion, testDb, truncateAll } from '../helpers/db';
 import { asSessionUser, makeUser } from '../helpers/factories';
+import { insertPlanKit, type PlanKit } from '../helpers/plan-kit';
 import type { SessionUser } from '../../src/lib/server/session-user';
 
-interface Fixture {
-  cellId: string;
-  antennaId: string;
-  cableId: string;
+interface Fixture extends PlanKit {
   customer: (name: string) => Promise<string>;
 }
 
 async function fixture(): Promise<Fixture> {
   const db = testDb();
-  const [op] = await db('operators').insert({ name: 'Test Mobile', mcc: '001', mnc: '01', colour: '#336699' }).returning('id');
-  const [mast] = await db('masts')
-    .insert({ name: 'Test Hill', geom: db.raw('ST_SetSRID(ST_MakePoint(-128.5, -47.1), 4326)') })
-    .returning('id');
-  const [cell] = await db('cells')
-    .insert({ mast_id: mast.id, operator_id: op.id, tech: 'lte', band: 'B20', channel: 6300, dl_mhz: 806, pci: 101, sector_azimuth_deg: 180 })
-    .returning('id');
-  const [ant] = await db('antennas')
-    .insert({ name: 'Panel', kind: 'directional', ports: 2, horizontal_beamwidth_deg: 40, gain_table: JSON.stringify([{ freq_mhz: 800, gain_dbi: 7.5 }]) })
-    .returning('id');
-  const [cable] = await db('cables')
-    .insert({ name: 'Feeder', loss_table: JSON.stringify([{ freq_mhz: 800, loss_db_per_m: 0.12 }]) })
-    .returning('id');
+  const kit = await insertPlanKit(db);
   const customer = async (name: string) => {
     const [c] = await db('customers')
       .insert({ name, address_label: `${name} Farm`, phone: '+001 555 0101', geom: db.raw('ST_SetSRID(ST_MakePoint(-128.52, -47.21), 4326)') })
       .returning('id');
     return String(c.id);
   };
-  return { cellId: String(cell.id), antennaId: String(ant.id), cableId: String(cable.id), customer };
+  return { ...kit, customer };
 }
 
 describe('installer schedule', () => {

@@ -1,4 +1,3 @@
-import { writeArrayBuffer } from 'geotiff';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { GET as shortlist } from '../../src/pages/api/shortlist/index';
 import { importElevationFile } from '../../src/lib/server/elevation-import';
@@ -8,6 +7,7 @@ import { getDestination } from '../../src/lib/domain/geodesy';
 import { call } from '../helpers/endpoint';
 import { testDb, truncateAll } from '../helpers/db';
 import { asSessionUser, makeUser } from '../helpers/factories';
+import { heightTiff } from '../helpers/geotiff';
 import type { SessionUser } from '../../src/lib/server/session-user';
 
 // Invented fixture: customer on flat 100 m ground; a 180 m ridge 3 km north of it; one mast 6 km
@@ -23,27 +23,10 @@ const STEP = 0.001;
 const W = 401;
 const H = 301;
 
-function fixtureTiff(): Uint8Array {
-  const values = new Float32Array(W * H);
-  for (let r = 0; r < H; r++) {
-    for (let c = 0; c < W; c++) {
-      const lat = NORTH - r * STEP;
-      const lon = WEST + c * STEP;
-      values[r * W + c] = Math.abs(lat - ridgeLat) < 0.0025 && Math.abs(lon - customer.lon) < 0.03 ? 180 : 100;
-    }
-  }
-  return new Uint8Array(
-    writeArrayBuffer(values, {
-      width: W,
-      height: H,
-      ModelPixelScale: [STEP, STEP, 0],
-      ModelTiepoint: [0, 0, 0, WEST, NORTH, 0],
-      GTModelTypeGeoKey: 2,
-      GTRasterTypeGeoKey: 2,
-      GeographicTypeGeoKey: 4326,
-    }),
+const fixtureTiff = () =>
+  heightTiff({ west: WEST, north: NORTH, step: STEP, width: W, height: H }, (lat, lon) =>
+    Math.abs(lat - ridgeLat) < 0.0025 && Math.abs(lon - customer.lon) < 0.03 ? 180 : 100,
   );
-}
 
 const ids: Record<string, string> = {};
 let planner: SessionUser;
