@@ -43,24 +43,21 @@ const flat = (lengthM: number, n = 30): ProfileSample[] => Array.from({ length: 
 const ridge = (lengthM: number, n = 30): ProfileSample[] =>
   flat(lengthM, n).map((s) => (Math.abs(s.distanceM - lengthM / 2) <= lengthM / n ? { ...s, groundM: 160 } : s));
 
+/** The same gain across 700–2700 MHz. */
+const flatGain = (gainDbi: number) => [700, 2700].map((freqMhz) => ({ freqMhz, gainDbi }));
+
 // Common-practice demo kit: 8 dBi panel, 0.35 dB/m cable, 2 dBi stub for "before".
 const kit: Kit = {
   antenna: {
     id: 'a1',
     name: 'Panel',
-    gainTable: [
-      { freqMhz: 700, gainDbi: 8 },
-      { freqMhz: 2700, gainDbi: 8 },
-    ],
+    gainTable: flatGain(8),
     horizontalBeamwidthDeg: 40,
   },
   cable: {
     id: 'c1',
     name: 'Cable',
-    lossTable: [
-      { freqMhz: 700, dbPerM: 0.35 },
-      { freqMhz: 2700, dbPerM: 0.35 },
-    ],
+    lossTable: [700, 2700].map((freqMhz) => ({ freqMhz, dbPerM: 0.35 })),
     connectorLossDb: 0.15,
     connectors: 2,
   },
@@ -71,10 +68,7 @@ const stub: Kit = {
   antenna: {
     id: 'a0',
     name: 'Stub',
-    gainTable: [
-      { freqMhz: 700, gainDbi: 2 },
-      { freqMhz: 2700, gainDbi: 2 },
-    ],
+    gainTable: flatGain(2),
     horizontalBeamwidthDeg: null,
   },
   cable: null,
@@ -204,10 +198,7 @@ describe('SINR, throughput and the rank score', () => {
       antenna: {
         ...kit.antenna,
         name: 'Stub',
-        gainTable: [
-          { freqMhz: 700, gainDbi: 2 },
-          { freqMhz: 2700, gainDbi: 2 },
-        ],
+        gainTable: flatGain(2),
       },
       cableM: 25,
     };

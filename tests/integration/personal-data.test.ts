@@ -80,15 +80,15 @@ async function buildFixture(planner: SessionUser) {
   return { mast, cell, customer: customer.id, plan: String(plan.id), check: String(check.id) };
 }
 
-describe('install-check positions on the mast panel', () => {
-  let planner: SessionUser;
-  let f: Awaited<ReturnType<typeof buildFixture>>;
-  beforeEach(async () => {
-    await truncateAll();
-    planner = asSessionUser(await makeUser('planner'));
-    f = await buildFixture(planner);
-  });
+let planner: SessionUser;
+let f: Awaited<ReturnType<typeof buildFixture>>;
+beforeEach(async () => {
+  await truncateAll();
+  planner = asSessionUser(await makeUser('planner'));
+  f = await buildFixture(planner);
+});
 
+describe('install-check positions on the mast panel', () => {
   it.each(ROLES)('shows readings taken at a home only to roles that see customers (%s)', async (role) => {
     const user = asSessionUser(await makeUser(role));
     const res = await call(getMast, { user, params: { id: f.mast } });
@@ -101,14 +101,6 @@ describe('install-check positions on the mast panel', () => {
 });
 
 describe('erasing a customer on request', () => {
-  let planner: SessionUser;
-  let f: Awaited<ReturnType<typeof buildFixture>>;
-  beforeEach(async () => {
-    await truncateAll();
-    planner = asSessionUser(await makeUser('planner'));
-    f = await buildFixture(planner);
-  });
-
   it('answers 401 signed out and 403 to roles that do not write plans, changing nothing', async () => {
     expect((await call(eraseCustomer, { method: 'POST', params: { id: f.customer } })).status).toBe(401);
     for (const role of ['surveyor', 'reviewer', 'contributor'] as const) {

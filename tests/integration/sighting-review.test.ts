@@ -29,7 +29,16 @@ let seq = 0;
 let op1: string;
 let op2: string;
 
-async function mast(name: string, lat: number, cells: Array<{ op: string; channel: number; pci: number | null; observed?: string }>) {
+interface CellSeen {
+  op: string;
+  channel: number;
+  pci: number | null;
+  observed?: string;
+}
+/** An LTE cell by operator, EARFCN and PCI (and when it was last observed). */
+const lte = (op: string, channel: number, pci: number | null, observed?: string): CellSeen => ({ op, channel, pci, observed });
+
+async function mast(name: string, lat: number, cells: CellSeen[]) {
   const m = await createMast(testDb(), MastInputSchema.parse({ name, lat, lon: LON, structure_type: 'monopole' }), null);
   for (const c of cells) {
     await createCell(
@@ -57,11 +66,7 @@ const photo = (n: number): NewSightingPhoto => ({
   takenAt: new Date('2026-11-30T09:59:00Z'),
 });
 
-async function sighting(
-  authorId: string,
-  cells: Array<{ op: string; channel: number; pci: number | null }>,
-  opts: { lat?: number; photos?: number; observed?: string } = {},
-) {
+async function sighting(authorId: string, cells: CellSeen[], opts: { lat?: number; photos?: number; observed?: string } = {}) {
   const input = SightingInputSchema.parse({
     client_uuid: randomUUID(),
     lat: opts.lat ?? LAT,
@@ -91,20 +96,10 @@ beforeEach(async () => {
 describe('review queue', () => {
   it('lists pending sightings oldest first with ranked duplicates within 300 m and the submitter record', async () => {
     const { surveyor, reviewer } = await people();
-    const near = await mast('Near, nothing shared', north(40), [{ op: op1, channel: 6300, pci: 1 }]);
-    const shared = await mast('Shares two cells', north(250), [
-      { op: op1, channel: 6300, pci: 101 },
-      { op: op2, channel: 1300, pci: 7 },
-    ]);
-    await mast('Too far', north(330), [{ op: op1, channel: 6300, pci: 101 }]);
-    const first = await sighting(
-      surveyor.id,
-      [
-        { op: op1, channel: 6300, pci: 101 },
-        { op: op2, channel: 1300, pci: 7 },
-      ],
-      { photos: 2 },
-    );
+    const near = await mast('Near, nothing shared', north(40), [lte(op1, 6300, 1)]);
+    const shared = await mast('Shares two cells', north(250), [lte(op1, 6300, 101), lte(op2, 1300, 7)]);
+    await mast('Too far', north(330), [lte(op1, 6300, 101)]);
+    const first = await sighting(surveyor.id, [lte(op1, 6300, 101), lte(op2, 1300, 7)], { photos: 2 });
     const second = await sighting(surveyor.id, [], { lat: north(5000) });
     const done = await sighting(surveyor.id, [], { lat: north(9000) });
     await testDb()('sightings')
@@ -149,15 +144,7 @@ describe('review queue', () => {
 describe('deciding a sighting', () => {
   it('approves: a new active mast with the sighting cells, audited, and the submitter is mailed', async () => {
     const { surveyor, reviewer } = await people();
-    const s = await sighting(
-      surveyor.id,
-      [
-        { op: op1, channel: 6300, pci: 101 },
-        { op: op1, channel: 6300, pci: 101 },
-        { op: op2, channel: 1300, pci: 7 },
-      ],
-      { photos: 1 },
-    );
+    const s = await sighting(surveyor.id, [lte(op1, 6300, 101), lte(op1, 6300, 101), lte(op2, 1300, 7)], { photos: 1 });
     const res = await call(decide, { user: reviewer, params: { id: s.id }, json: { decision: 'approve', name: 'Kestrel Hill lattice' } });
     expect(res.status).toBe(200);
     expect(res.body.sighting).toMatchObject({ status: 'approved', decided_by: { id: reviewer.id }, mast_id: res.body.mast.id });
@@ -190,19 +177,8 @@ describe('deciding a sighting', () => {
 
   it('merges: adds only new cells, marks the known ones observed, attaches the photos', async () => {
     const { surveyor, reviewer } = await people();
-    const target = await mast('Harrow Point', north(60), [
-      { op: op1, channel: 6300, pci: 101, observed: '2025-05-01T00:00:00Z' },
-      { op: op2, channel: 1300, pci: 7, observed: '2027-01-01T00:00:00Z' },
-    ]);
-    const s = await sighting(
-      surveyor.id,
-      [
-        { op: op1, channel: 6300, pci: 101 },
-        { op: op2, channel: 1300, pci: 7 },
-        { op: op2, channel: 3350, pci: 12 },
-      ],
-      { photos: 2 },
-    );
+    const target = await mast('Harrow Point', north(60), [lte(op1, 6300, 101, '2025-05-01T00:00:00Z'), lte(op2, 1300, 7, '2027-01-01T00:00:00Z')]);
+    const s = await sighting(surveyor.id, [lte(op1, 6300, 101), lte(op2, 1300, 7), lte(op2, 3350, 12)], { photos: 2 });
     const res = await call(decide, {
       user: reviewer,
       params: { id: s.id },
@@ -228,7 +204,7 @@ describe('deciding a sighting', () => {
 
   it('rejects with a reason, makes no mast, and mails the reason', async () => {
     const { surveyor, reviewer } = await people();
-    const s = await sighting(surveyor.id, [{ op: op1, channel: 6300, pci: 101 }]);
+    const s = await sighting(surveyor.id, [lte(op1, 6300, 101)]);
     const masts = await testDb()('masts').count('* as n').first();
     const noReason = await call(decide, { user: reviewer, params: { id: s.id }, json: { decision: 'reject' } });
     expect(noReason.status).toBe(400);
@@ -245,7 +221,7 @@ describe('deciding a sighting', () => {
   it('lets only one of two reviewers deciding at the same moment win; the other gets 409 and nothing changes twice', async () => {
     const { surveyor, reviewer } = await people();
     const other = asSessionUser(await makeUser('admin'));
-    const s = await sighting(surveyor.id, [{ op: op1, channel: 6300, pci: 101 }]);
+    const s = await sighting(surveyor.id, [lte(op1, 6300, 101)]);
     const [a, b] = await Promise.all([
       call(decide, { user: reviewer, params: { id: s.id }, json: { decision: 'approve' } }),
       call(decide, { user: other, params: { id: s.id }, json: { decision: 'approve' } }),
@@ -286,7 +262,7 @@ describe('deciding a sighting', () => {
 
   it('refuses a merge into an unknown mast (400) and changes nothing; unknown sighting 404', async () => {
     const { surveyor, reviewer } = await people();
-    const s = await sighting(surveyor.id, [{ op: op1, channel: 6300, pci: 101 }]);
+    const s = await sighting(surveyor.id, [lte(op1, 6300, 101)]);
     const res = await call(decide, { user: reviewer, params: { id: s.id }, json: { decision: 'merge', mast_id: '987654' } });
     expect(res.status).toBe(400);
     expect(res.body.error.fields).toEqual({ mast_id: ['No such mast'] });
