@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { formatMhz } from '../../lib/domain/format';
 import { toolsApi, type ChannelResult, type FrequencyResult } from '../../lib/client/tools-api';
 import { useDebounced } from './useDebounced';
-import { useQueryResult } from './useQueryResult';
+import { useQuery } from '../ui/use-api';
 import { ResultRow } from './ResultRow';
 
 const TECHS = [
@@ -20,10 +20,12 @@ export default function ChannelCalculator() {
   const [value, setValue] = useState('6300');
   const settled = useDebounced(`${tech}|${mode}|${value.trim()}`);
   const [sTech, sMode, sValue] = settled.split('|');
-  const result = useQueryResult<ChannelResult | FrequencyResult>(sValue ? settled : null, () =>
-    sMode === 'channel' ? toolsApi.channel(sTech, sValue) : toolsApi.frequency(sTech, sValue),
+  const result = useQuery<ChannelResult | FrequencyResult>(
+    sValue ? settled : null,
+    () => (sMode === 'channel' ? toolsApi.channel(sTech, sValue) : toolsApi.frequency(sTech, sValue)),
+    { failed: 'Could not calculate', keepOnError: false },
   );
-  const fieldError = result.fields.channel?.[0] ?? result.fields.freq_mhz?.[0] ?? result.fields.tech?.[0] ?? result.error;
+  const fieldError = result.fields.channel?.[0] ?? result.fields.freq_mhz?.[0] ?? result.fields.tech?.[0] ?? result.error?.message;
   // The number alone: the unit is printed beside it.
   const fmt = (mhz: number | null) => formatMhz(mhz, { unit: false });
 

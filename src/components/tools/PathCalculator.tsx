@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { toolsApi, type PathResult } from '../../lib/client/tools-api';
 import { useDebounced } from './useDebounced';
-import { useQueryResult } from './useQueryResult';
+import { useQuery } from '../ui/use-api';
 import { ResultRow } from './ResultRow';
 import { formatNumber } from '../../lib/domain/format';
 
@@ -36,7 +36,7 @@ export default function PathCalculator({ today, initialFrom, initialTo }: { toda
   });
   const settled = useDebounced(form);
   const key = settled.from.trim() && settled.to.trim() ? JSON.stringify(settled) : null;
-  const result = useQueryResult<PathResult>(key, () => toolsApi.path(settled));
+  const result = useQuery<PathResult>(key, () => toolsApi.path(settled), { failed: 'Could not calculate', keepOnError: false });
 
   return (
     <section className="card" aria-labelledby="path-heading">
@@ -77,7 +77,7 @@ export default function PathCalculator({ today, initialFrom, initialTo }: { toda
       </form>
       {result.error && Object.keys(result.fields).length === 0 && (
         <p className="field-error mt-3" role="alert">
-          {result.error}
+          {result.error.message}
         </p>
       )}
       {!key && <p className="mt-4 text-sm text-ink-500">Enter both ends to see the figures.</p>}

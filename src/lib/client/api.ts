@@ -29,6 +29,32 @@ export function toApiError(status: number, data: ErrorBody, failed: string): Api
   return new ApiError(status, err?.code ?? 'UNKNOWN', err?.message ?? `${failed} (${status})`, err?.fields ?? {});
 }
 
+/** Any failure as an ApiError: an API answer as it is, anything else (a bug, a parse error) with the `failed` message. */
+export function asApiError(e: unknown, failed: string): ApiError {
+  return e instanceof ApiError ? e : new ApiError(0, 'UNKNOWN', failed);
+}
+
+/** The message for inputs a form's own check (`checkWith`) refused before anything was sent. */
+export const LOCAL_CHECK_MESSAGE = 'Some fields need attention';
+
+/** Field problems found in the browser, shaped like the server's 400 answer. */
+export const localCheckError = (fields: FieldErrors, message = LOCAL_CHECK_MESSAGE) => new ApiError(400, 'BAD_REQUEST', message, fields);
+
+/** Runs the endpoint's schema in the browser; returns field messages keyed like the server's. */
+export function checkWith(
+  schema: { safeParse: (v: unknown) => { success: true } | { success: false; error: { issues: { path: (string | number)[]; message: string }[] } } },
+  body: unknown,
+): FieldErrors | null {
+  const result = schema.safeParse(body);
+  if (result.success) return null;
+  const fields: FieldErrors = {};
+  for (const issue of result.error.issues) {
+    const key = issue.path.length ? issue.path.join('.') : '_';
+    (fields[key] ??= []).push(issue.message);
+  }
+  return fields;
+}
+
 export const networkError = () => new ApiError(0, 'NETWORK', 'The server could not be reached. Check your connection and try again.');
 
 export async function request<T>(method: string, url: string, body?: unknown): Promise<T> {

@@ -1,7 +1,7 @@
 // Typed client calls for the catalogue, gazetteer, customers and plans. Response shapes are the
 // API's own (snake_case, units in the names), declared beside the schemas.
 import type { z } from 'zod';
-import { get, networkError, operatorsApi, queryString as qs, request, toApiError, type FieldErrors, type List } from './api';
+import { get, networkError, operatorsApi, queryString as qs, request, toApiError, type List } from './api';
 import type { AntennaJson, AntennaKind, CableJson } from '../schemas/catalogue';
 import type { AddressImportJson, AddressJson, GeocodeMatchJson } from '../schemas/addresses';
 import type { CustomerErasureJson, CustomerJson, CustomerSort, HistoryEntryJson } from '../schemas/customers';
@@ -137,19 +137,4 @@ export const plansApi = {
   markInstalled: (id: string, rowVersion: number) => request<PlanDetailJson>('POST', `/api/plans/${id}/installed`, { row_version: rowVersion }),
 };
 
-// --- form checks ----------------------------------------------------------------------------
-
-/** Runs the endpoint's schema in the browser; returns field messages keyed like the server's. */
-export function checkWith(
-  schema: { safeParse: (v: unknown) => { success: true } | { success: false; error: { issues: { path: (string | number)[]; message: string }[] } } },
-  body: unknown,
-): FieldErrors | null {
-  const result = schema.safeParse(body);
-  if (result.success) return null;
-  const fields: FieldErrors = {};
-  for (const issue of result.error.issues) {
-    const key = issue.path.length ? issue.path.join('.') : '_';
-    (fields[key] ??= []).push(issue.message);
-  }
-  return fields;
-}
+export { checkWith } from './api';
