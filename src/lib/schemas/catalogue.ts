@@ -1,7 +1,9 @@
-// Catalogue of customer antennas and cables: input schemas (shared by endpoints and the
-// admin forms) and the JSON shapes the API returns.
+// Catalogue of customer antennas and cables: one field declaration each, the input schemas
+// derived from it (shared by endpoints and the admin forms) and the JSON the API returns.
 import { z } from 'zod';
+import type { CableLossPoint, GainPoint } from '../domain/link-budget';
 import { enumOf, hasAnyField, numberField as num, requiredText } from './params';
+import { defineRecord, field, type JsonOf, type ValueOf } from './record';
 
 import { ANTENNA_KINDS, type AntennaKind } from '../domain/antenna-kinds';
 
@@ -66,15 +68,45 @@ export function getBeamwidthProblem(k: AntennaKind, beamwidthDeg: number): strin
   return null;
 }
 
+/** A frequency table: rows as in the API and the column ([{freq_mhz, …}]), held as points, stored as JSON text. */
+function tableField<R, P>(schema: z.ZodType<R[], z.ZodTypeDef, unknown>, toPoints: (rows: R[]) => P[], toRows: (points: P[]) => R[]) {
+  return field.input(schema.transform(toPoints), { fromRow: (v) => toPoints(v as R[]), toJson: toRows, toRow: (t) => JSON.stringify(toRows(t)) });
+}
+type GainRow = { freq_mhz: number; gain_dbi: number };
+type LossRow = { freq_mhz: number; loss_db_per_m: number };
+const gainTable = tableField<GainRow, GainPoint>(
+  GainTableSchema,
+  (rows) => rows.map((r) => ({ freqMhz: r.freq_mhz, gainDbi: r.gain_dbi })),
+  (points) => points.map((p) => ({ freq_mhz: p.freqMhz, gain_dbi: p.gainDbi })),
+);
+const lossTable = tableField<LossRow, CableLossPoint>(
+  LossTableSchema,
+  (rows) => rows.map((r) => ({ freqMhz: r.freq_mhz, dbPerM: r.loss_db_per_m })),
+  (points) => points.map((p) => ({ freq_mhz: p.freqMhz, loss_db_per_m: p.dbPerM })),
+);
+
+/** The fields every catalogue item ends with. */
+const notesAndTimes = { notes: field.input(notes), created_at: field.time(), updated_at: field.time() };
+
+/** A customer antenna, field by field: body and JSON name (= column), how it is written and read. */
+export const ANTENNA = defineRecord({
+  id: field.id(),
+  name: field.input(name),
+  kind: field.input(kind),
+  ports: field.input(ports.default(1)),
+  // Left out on create: 360° (omni and stub); a directional antenna must give it.
+  horizontal_beamwidth_deg: field.input(beamwidth.optional(), { fromRow: (v) => v as number }),
+  gain_table: gainTable,
+  ...notesAndTimes,
+});
+
+export type Antenna = ValueOf<typeof ANTENNA.fields>;
+export type AntennaJson = JsonOf<typeof ANTENNA.fields>;
+/** The audit trail keeps an antenna as the API shows it. */
+export const antennaJson = (a: Antenna): AntennaJson => ANTENNA.toJson(a);
+
 export const AntennaInputSchema = z
-  .object({
-    name,
-    kind,
-    ports: ports.default(1),
-    horizontal_beamwidth_deg: beamwidth.optional(),
-    gain_table: GainTableSchema,
-    notes,
-  })
+  .object(ANTENNA.inputShape)
   .superRefine((v, ctx) => {
     if (v.horizontal_beamwidth_deg === undefined) {
       if (v.kind === 'directional') ctx.addIssue({ code: 'custom', path: ['horizontal_beamwidth_deg'], message: 'Required for a directional antenna' });
@@ -83,96 +115,39 @@ export const AntennaInputSchema = z
     const problem = getBeamwidthProblem(v.kind, v.horizontal_beamwidth_deg);
     if (problem) ctx.addIssue({ code: 'custom', path: ['horizontal_beamwidth_deg'], message: problem });
   })
-  .transform((v) => ({
-    name: v.name,
-    kind: v.kind,
-    ports: v.ports,
-    horizontalBeamwidthDeg: v.horizontal_beamwidth_deg ?? 360,
-    gainTable: v.gain_table.map((r) => ({ freqMhz: r.freq_mhz, gainDbi: r.gain_dbi })),
-    notes: v.notes,
-  }));
+  .transform((v) => ({ ...ANTENNA.toInput(v), horizontalBeamwidthDeg: v.horizontal_beamwidth_deg ?? 360 }));
 export type AntennaInput = z.output<typeof AntennaInputSchema>;
 
 export const AntennaChangeSchema = z
-  .object({
-    name: name.optional(),
-    kind: kind.optional(),
-    ports: ports.optional(),
-    horizontal_beamwidth_deg: beamwidth.optional(),
-    gain_table: GainTableSchema.optional(),
-    notes: notes.optional(),
-  })
+  .object(ANTENNA.changeShape)
   .refine(hasAnyField, { message: 'Nothing to change' })
-  .transform((v) => ({
-    name: v.name,
-    kind: v.kind,
-    ports: v.ports,
-    horizontalBeamwidthDeg: v.horizontal_beamwidth_deg,
-    gainTable: v.gain_table?.map((r) => ({ freqMhz: r.freq_mhz, gainDbi: r.gain_dbi })),
-    notes: v.notes,
-  }));
+  .transform((v) => ANTENNA.toChange(v));
 export type AntennaChange = Partial<z.output<typeof AntennaChangeSchema>>;
 
 const connectorLoss = num('Connector loss').min(0, 'Cannot be negative').max(3, 'At most 3 dB per connector');
 const connectors = num('Connectors').int('Connectors must be a whole number').min(0, 'Cannot be negative').max(10, 'At most 10 connectors');
 
-export const CableInputSchema = z
-  .object({
-    name,
-    loss_table: LossTableSchema,
-    // 0.1–0.2 dB per mated pair below 3 GHz — common practice, no source.
-    connector_loss_db: connectorLoss.default(0.15),
-    connectors: connectors.default(2),
-    notes,
-  })
-  .transform((v) => ({
-    name: v.name,
-    lossTable: v.loss_table.map((r) => ({ freqMhz: r.freq_mhz, dbPerM: r.loss_db_per_m })),
-    connectorLossDb: v.connector_loss_db,
-    connectors: v.connectors,
-    notes: v.notes,
-  }));
+/** A feeder cable, field by field: body and JSON name (= column), how it is written and read. */
+export const CABLE = defineRecord({
+  id: field.id(),
+  name: field.input(name),
+  loss_table: lossTable,
+  // 0.1–0.2 dB per mated pair below 3 GHz — common practice, no source.
+  connector_loss_db: field.input(connectorLoss.default(0.15)),
+  connectors: field.input(connectors.default(2)),
+  ...notesAndTimes,
+});
+
+export type Cable = ValueOf<typeof CABLE.fields>;
+export type CableJson = JsonOf<typeof CABLE.fields>;
+/** The audit trail keeps a cable as the API shows it. */
+export const cableJson = (c: Cable): CableJson => CABLE.toJson(c);
+
+export const CableInputSchema = z.object(CABLE.inputShape).transform((v) => CABLE.toInput(v));
 export type CableInput = z.output<typeof CableInputSchema>;
 
 export const CableChangeSchema = z
-  .object({
-    name: name.optional(),
-    loss_table: LossTableSchema.optional(),
-    connector_loss_db: connectorLoss.optional(),
-    connectors: connectors.optional(),
-    notes: notes.optional(),
-  })
+  .object(CABLE.changeShape)
   .refine(hasAnyField, { message: 'Nothing to change' })
-  .transform((v) => ({
-    name: v.name,
-    lossTable: v.loss_table?.map((r) => ({ freqMhz: r.freq_mhz, dbPerM: r.loss_db_per_m })),
-    connectorLossDb: v.connector_loss_db,
-    connectors: v.connectors,
-    notes: v.notes,
-  }));
+  .transform((v) => CABLE.toChange(v));
 export type CableChange = Partial<z.output<typeof CableChangeSchema>>;
-
-// --- JSON the API returns ---------------------------------------------------------------
-
-export interface AntennaJson {
-  id: string;
-  name: string;
-  kind: AntennaKind;
-  ports: number;
-  horizontal_beamwidth_deg: number;
-  gain_table: { freq_mhz: number; gain_dbi: number }[];
-  notes: string | null;
-  created_at: string;
-  updated_at: string;
-}
-
-export interface CableJson {
-  id: string;
-  name: string;
-  loss_table: { freq_mhz: number; loss_db_per_m: number }[];
-  connector_loss_db: number;
-  connectors: number;
-  notes: string | null;
-  created_at: string;
-  updated_at: string;
-}

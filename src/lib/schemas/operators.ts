@@ -1,6 +1,8 @@
-// Operators (MCC/MNC and map colour): input schemas and the JSON the API returns.
+// Operators (MCC/MNC and map colour): the one field declaration, the input schemas derived from
+// it, and the JSON the API returns.
 import { z } from 'zod';
 import { hasAnyField, requiredText } from './params';
+import { defineRecord, field, type JsonOf, type ValueOf } from './record';
 
 export { OPERATOR_PALETTE, pickDefaultColour } from '../domain/operator-palette';
 
@@ -20,23 +22,28 @@ const colour = z
   .regex(/^#[0-9a-fA-F]{6}$/, 'Give a colour like #0072b2')
   .transform((c) => c.toLowerCase());
 
-export const OperatorInputSchema = z.object({ name, mcc, mnc, colour: colour.optional() });
+/** An operator, field by field: body and JSON name (= column), how it is written, read and audited. */
+export const OPERATOR = defineRecord({
+  id: field.id(),
+  name: field.input(name),
+  mcc: field.input(mcc),
+  mnc: field.input(mnc),
+  /** MCC-MNC as usually written, e.g. "001-01". */
+  plmn: field.value<string>({ sql: "{t}.mcc || '-' || {t}.mnc" }),
+  // Left out on create: the repo picks a colour not yet in use.
+  colour: field.input(colour.optional(), { fromRow: (v) => v as string }),
+  cell_count: field.count({ sql: '(SELECT count(*) FROM cells c WHERE c.operator_id = {t}.id)' }),
+  created_at: field.time(),
+  updated_at: field.time(),
+});
+
+export type Operator = ValueOf<typeof OPERATOR.fields>;
+export type OperatorJson = JsonOf<typeof OPERATOR.fields>;
+
+export const operatorJson = (o: Operator): OperatorJson => OPERATOR.toJson(o);
+
+export const OperatorInputSchema = z.object(OPERATOR.inputShape);
 export type OperatorInput = z.output<typeof OperatorInputSchema>;
 
-export const OperatorChangeSchema = z
-  .object({ name: name.optional(), mcc: mcc.optional(), mnc: mnc.optional(), colour: colour.optional() })
-  .refine(hasAnyField, { message: 'Nothing to change' });
+export const OperatorChangeSchema = z.object(OPERATOR.changeShape).refine(hasAnyField, { message: 'Nothing to change' });
 export type OperatorChange = z.output<typeof OperatorChangeSchema>;
-
-export interface OperatorJson {
-  id: string;
-  name: string;
-  mcc: string;
-  mnc: string;
-  /** MCC-MNC as usually written, e.g. "001-01". */
-  plmn: string;
-  colour: string;
-  cell_count: number;
-  created_at: string;
-  updated_at: string;
-}

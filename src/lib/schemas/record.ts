@@ -28,6 +28,8 @@ export interface Field<T, J = T, I extends z.ZodTypeAny | undefined = z.ZodTypeA
   readonly json: boolean;
   readonly fromRow: (stored: unknown) => T;
   readonly toJson: (value: T) => J;
+  /** How the insert and patch store the value (default: as it is; e.g. a table as JSON text). */
+  readonly toRow?: (value: T) => unknown;
 }
 
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
@@ -65,15 +67,18 @@ const same = <T>(v: T) => v;
 /** `fromRow` may give a narrower type than the body's (e.g. a band label the repo resolved). */
 function input<I extends z.ZodTypeAny, T = z.output<I>, J = T, P extends boolean = true>(
   schema: I,
-  options: Options<P> & { fromRow?: (stored: unknown) => T; toJson?: (value: T) => J } = {},
+  options: Options<P> & { fromRow?: (stored: unknown) => T; toJson?: (value: T) => J; toRow?: (value: T) => unknown } = {},
 ): NoInfer<Field<T, J, I, P>> {
   const { fromRow = asIs<T>, toJson = same as (value: T) => J, ...rest } = options;
   return { input: schema, patch: true as P, column: true, audit: true, json: true, write: true, ...rest, fromRow, toJson };
 }
 
-/** A field the server keeps (row version, derived values), read and shown as stored. */
-function value<T>(options: Omit<Options<false>, 'patch'> = {}): NoInfer<Field<T, T, undefined, false>> {
-  return { input: undefined, patch: false, column: true, audit: false, json: true, write: false, ...options, fromRow: asIs<T>, toJson: same };
+/** A field the server keeps (row version, derived values), read and shown as stored unless told otherwise. */
+function value<T, J = T>(
+  options: Omit<Options<false>, 'patch'> & { fromRow?: (stored: unknown) => T; toJson?: (value: T) => J; toRow?: (value: T) => unknown } = {},
+): NoInfer<Field<T, J, undefined, false>> {
+  const { fromRow = asIs<T>, toJson = same as (value: T) => J, ...rest } = options;
+  return { input: undefined, patch: false, column: true, audit: false, json: true, write: false, ...rest, fromRow, toJson };
 }
 
 function kept<T, J>(fromRow: (stored: unknown) => T, toJson: (value: T) => J) {
@@ -136,6 +141,8 @@ export interface RecordDeclaration<F extends Fields> {
   toChange(body: Record<string, unknown>): ChangeOf<F>;
   /** Columns (and SQL expressions) to select, for `db.raw` or a select list. */
   columns(alias: string): { plain: string[]; sql: string[] };
+  /** The same columns as one JSON object (`json_build_object`), to select a record inside another. */
+  objectSql(alias: string): string;
   fromRow(row: Record<string, unknown>): ValueOf<F>;
   toJson(value: ValueOf<F>): JsonOf<F>;
   /** Columns written on insert, from a create value (and values the server derives). */
@@ -155,6 +162,7 @@ export function defineRecord<F extends Fields>(fields: F): RecordDeclaration<F> 
   const written = entries.filter((e) => e.spec.column && e.spec.write);
   const pick = (list: Entry[], from: Record<string, unknown>, by: 'name' | 'key', to: 'name' | 'key') =>
     Object.fromEntries(list.map((e) => [e[to], from[e[by]]]));
+  const stored = (e: Entry, v: unknown) => (e.spec.toRow && v !== undefined && v !== null ? e.spec.toRow(v) : v);
   return {
     fields,
     inputShape: Object.fromEntries(inputs.map((e) => [e.name, e.spec.input])) as RecordDeclaration<F>['inputShape'],
@@ -165,16 +173,21 @@ export function defineRecord<F extends Fields>(fields: F): RecordDeclaration<F> 
       plain: entries.filter((e) => !e.spec.sql).map((e) => `${alias}.${e.name}`),
       sql: entries.filter((e) => e.spec.sql).map((e) => `${e.spec.sql!.replaceAll('{t}', alias)} AS ${e.name}`),
     }),
+    objectSql: (alias) =>
+      `json_build_object(${entries.map((e) => `'${e.name}', ${e.spec.sql ? e.spec.sql.replaceAll('{t}', alias) : `${alias}.${e.name}`}`).join(', ')})`,
     fromRow: (row) => Object.fromEntries(entries.map((e) => [e.key, e.spec.fromRow(row[e.name])])) as ValueOf<F>,
     toJson: (v) => {
       const values = v as Record<string, unknown>;
       return Object.fromEntries(entries.filter((e) => e.spec.json).map((e) => [e.name, e.spec.toJson(values[e.key])])) as JsonOf<F>;
     },
-    insertRow: (input) => pick(written, input, 'key', 'name'),
+    insertRow: (input) => {
+      const values = input as Record<string, unknown>;
+      return Object.fromEntries(written.map((e) => [e.name, stored(e, values[e.key])]));
+    },
     asBody: (v) => pick(inputs, v as Record<string, unknown>, 'key', 'name'),
     patchRow: (change) => {
       const values = change as Record<string, unknown>;
-      return Object.fromEntries(written.filter((e) => e.spec.patch && values[e.key] !== undefined).map((e) => [e.name, values[e.key]]));
+      return Object.fromEntries(written.filter((e) => e.spec.patch && values[e.key] !== undefined).map((e) => [e.name, stored(e, values[e.key])]));
     },
     auditView: (v) =>
       pick(

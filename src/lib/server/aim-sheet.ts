@@ -2,7 +2,7 @@
 import { getDb } from './db';
 import { findPlan, type Plan } from './repos/plans';
 import { findCustomer, type Customer } from './repos/customers';
-import { evaluatePlannedCell } from './shortlist-service';
+import { evaluatePlanKit } from './plan-service';
 import { getElevationProfile } from './elevation-service';
 import type { ShortlistEntry } from '../domain/shortlist';
 
@@ -17,23 +17,7 @@ export async function getAimSheet(planId: string, date: Date): Promise<AimSheet>
   const db = getDb();
   const plan = await findPlan(db, planId);
   const customer = await findCustomer(db, plan.customerId);
-  // The same inputs as the plan's saved figures (plan-service.ts): no defaults fill a missing kit.
-  const entry =
-    plan.cellId && plan.antennaId && plan.mountHeightM !== null
-      ? await evaluatePlannedCell(
-          db,
-          plan.cellId,
-          {
-            at: { lat: customer.lat, lon: customer.lon },
-            heightM: plan.mountHeightM,
-            antennaId: plan.antennaId,
-            cableId: plan.cableId ?? undefined,
-            cableM: plan.cableId ? (plan.cableM ?? 0) : 0,
-            currentAntennaId: customer.currentAntennaId ?? undefined,
-            date,
-          },
-          getElevationProfile,
-        )
-      : null;
+  // The same inputs as the plan's saved figures.
+  const entry = await evaluatePlanKit(db, customer, plan, date, getElevationProfile);
   return { plan, customer, entry, date };
 }

@@ -2,7 +2,8 @@
 // planner saw, what is saved and what the aim sheet prints come from one computation.
 import type { Tx } from './db';
 import type { PlanChange, PlanFiguresFieldJson, PlanInput } from '../schemas/plans';
-import { createCustomer, findCustomer } from './repos/customers';
+import type { ShortlistEntry } from '../domain/shortlist';
+import { createCustomer, findCustomer, type Customer } from './repos/customers';
 import { createPlan, findPlan, updatePlan, type Plan } from './repos/plans';
 import { evaluatePlannedCell, type ProfileProvider } from './shortlist-service';
 import { shortlistItemJson } from './shortlist-json';
@@ -16,18 +17,16 @@ export interface PlanKit {
 }
 
 /**
- * The shortlist row of the plan's cell for the customer's position and the plan's kit; empty
- * until a cell, an antenna and a mount height are chosen (there is nothing to predict before).
+ * The shortlist entry of the plan's cell for the customer's position and the plan's kit; null
+ * until a cell, an antenna and a mount height are chosen (no defaults fill a missing kit).
  */
-export async function computePlanFigures(db: Tx, customerId: string, kit: PlanKit, date: Date, profileFor: ProfileProvider): Promise<PlanFiguresFieldJson> {
-  if (!kit.cellId || !kit.antennaId || kit.mountHeightM === null) return {};
-  const customer = await findCustomer(db, customerId);
-  const at = { lat: customer.lat, lon: customer.lon };
-  const entry = await evaluatePlannedCell(
+export async function evaluatePlanKit(db: Tx, customer: Customer, kit: PlanKit, date: Date, profileFor: ProfileProvider): Promise<ShortlistEntry | null> {
+  if (!kit.cellId || !kit.antennaId || kit.mountHeightM === null) return null;
+  return evaluatePlannedCell(
     db,
     kit.cellId,
     {
-      at,
+      at: { lat: customer.lat, lon: customer.lon },
       heightM: kit.mountHeightM,
       antennaId: kit.antennaId,
       cableId: kit.cableId ?? undefined,
@@ -37,10 +36,17 @@ export async function computePlanFigures(db: Tx, customerId: string, kit: PlanKi
     },
     profileFor,
   );
+}
+
+/** The saved form of `evaluatePlanKit`: the shortlist row with the position and kit it was computed for, or empty. */
+export async function computePlanFigures(db: Tx, customerId: string, kit: PlanKit, date: Date, profileFor: ProfileProvider): Promise<PlanFiguresFieldJson> {
+  if (!kit.cellId || !kit.antennaId || kit.mountHeightM === null) return {};
+  const customer = await findCustomer(db, customerId);
+  const entry = await evaluatePlanKit(db, customer, kit, date, profileFor);
   if (!entry) return {};
   return {
     ...shortlistItemJson(entry, 1),
-    customer_position: at,
+    customer_position: { lat: customer.lat, lon: customer.lon },
     kit: { antenna_id: kit.antennaId, cable_id: kit.cableId, cable_m: kit.cableM, mount_height_m: kit.mountHeightM },
     computed_at: date.toISOString(),
   };

@@ -1,7 +1,7 @@
 import { getDb } from '../../../lib/server/db';
 import { handler, json, parseBody, parseWith, requirePermission } from '../../../lib/server/http';
-import { findOperator, operatorJson, updateOperator } from '../../../lib/server/repos/operators';
-import { OperatorChangeSchema } from '../../../lib/schemas/operators';
+import { findOperator, updateOperator } from '../../../lib/server/repos/operators';
+import { OperatorChangeSchema, operatorJson } from '../../../lib/schemas/operators';
 import { IdParamSchema } from '../../../lib/schemas/params';
 
 export const GET = handler(async ({ locals, params }) => {

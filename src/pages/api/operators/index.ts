@@ -1,7 +1,7 @@
 import { getDb } from '../../../lib/server/db';
 import { handler, json, parseBody, requirePermission } from '../../../lib/server/http';
-import { createOperator, listOperators, operatorJson } from '../../../lib/server/repos/operators';
-import { OperatorInputSchema } from '../../../lib/schemas/operators';
+import { createOperator, listOperators } from '../../../lib/server/repos/operators';
+import { OperatorInputSchema, operatorJson } from '../../../lib/schemas/operators';
 
 export const GET = handler(async ({ locals }) => {
   requirePermission(locals, 'map:view');

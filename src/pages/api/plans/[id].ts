@@ -1,9 +1,9 @@
 import { getDb } from '../../../lib/server/db';
 import { handler, json, parseBody, parseWith, requirePermission } from '../../../lib/server/http';
-import { findPlanDetail, planDetailJson } from '../../../lib/server/repos/plans';
+import { findPlanDetail } from '../../../lib/server/repos/plans';
 import { changePlan } from '../../../lib/server/plan-service';
 import { getElevationProfile } from '../../../lib/server/elevation-service';
-import { PlanChangeSchema } from '../../../lib/schemas/plans';
+import { PlanChangeSchema, planDetailJson } from '../../../lib/schemas/plans';
 import { syncInstallReadings } from '../../../lib/server/repos/install-feedback';
 import { IdParamSchema } from '../../../lib/schemas/params';
 

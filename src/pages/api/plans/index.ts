@@ -1,9 +1,9 @@
 import { getDb } from '../../../lib/server/db';
 import { handler, json, parseBody, parseQuery, requirePermission } from '../../../lib/server/http';
-import { listPlans, planJson } from '../../../lib/server/repos/plans';
+import { listPlans } from '../../../lib/server/repos/plans';
 import { savePlan } from '../../../lib/server/plan-service';
 import { getElevationProfile } from '../../../lib/server/elevation-service';
-import { PlanInputSchema, PlanListQuerySchema } from '../../../lib/schemas/plans';
+import { PlanInputSchema, PlanListQuerySchema, planJson } from '../../../lib/schemas/plans';
 
 export const GET = handler(async ({ locals, url }) => {
   requirePermission(locals, 'plans:view');

@@ -1,7 +1,7 @@
 import { getDb } from '../../../../lib/server/db';
 import { handler, json, parseBody, parseWith, requirePermission } from '../../../../lib/server/http';
-import { antennaJson, deleteAntenna, findAntenna, updateAntenna } from '../../../../lib/server/repos/catalogue';
-import { AntennaChangeSchema } from '../../../../lib/schemas/catalogue';
+import { deleteAntenna, findAntenna, updateAntenna } from '../../../../lib/server/repos/catalogue';
+import { AntennaChangeSchema, antennaJson } from '../../../../lib/schemas/catalogue';
 import { IdParamSchema } from '../../../../lib/schemas/params';
 
 export const GET = handler(async ({ locals, params }) => {

@@ -1,7 +1,7 @@
 import { getDb } from '../../../../lib/server/db';
 import { handler, json, parseBody, requirePermission } from '../../../../lib/server/http';
-import { antennaJson, createAntenna, listAntennas } from '../../../../lib/server/repos/catalogue';
-import { AntennaInputSchema } from '../../../../lib/schemas/catalogue';
+import { createAntenna, listAntennas } from '../../../../lib/server/repos/catalogue';
+import { AntennaInputSchema, antennaJson } from '../../../../lib/schemas/catalogue';
 
 // Every signed-in role reads the catalogue (planner kit picker, map tools); admins edit it.
 export const GET = handler(async ({ locals }) => {

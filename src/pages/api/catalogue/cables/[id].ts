@@ -1,7 +1,7 @@
 import { getDb } from '../../../../lib/server/db';
 import { handler, json, parseBody, parseWith, requirePermission } from '../../../../lib/server/http';
-import { cableJson, deleteCable, findCable, updateCable } from '../../../../lib/server/repos/catalogue';
-import { CableChangeSchema } from '../../../../lib/schemas/catalogue';
+import { deleteCable, findCable, updateCable } from '../../../../lib/server/repos/catalogue';
+import { CableChangeSchema, cableJson } from '../../../../lib/schemas/catalogue';
 import { IdParamSchema } from '../../../../lib/schemas/params';
 
 export const GET = handler(async ({ locals, params }) => {

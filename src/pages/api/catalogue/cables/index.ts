@@ -1,7 +1,7 @@
 import { getDb } from '../../../../lib/server/db';
 import { handler, json, parseBody, requirePermission } from '../../../../lib/server/http';
-import { cableJson, createCable, listCables } from '../../../../lib/server/repos/catalogue';
-import { CableInputSchema } from '../../../../lib/schemas/catalogue';
+import { createCable, listCables } from '../../../../lib/server/repos/catalogue';
+import { CableInputSchema, cableJson } from '../../../../lib/schemas/catalogue';
 
 // Every signed-in role reads the catalogue (planner kit picker, map tools); admins edit it.
 export const GET = handler(async ({ locals }) => {

@@ -1,8 +1,8 @@
 import { getDb } from '../../../../lib/server/db';
 import { handler, json, parseBody, parseWith, requirePermission } from '../../../../lib/server/http';
 import { RECORD_CHECKS_PERMISSIONS } from '../../../../lib/domain/plan-state';
-import { addInstallCheck, findPlan, installCheckJson, listInstallChecks } from '../../../../lib/server/repos/plans';
-import { InstallCheckInputSchema } from '../../../../lib/schemas/plans';
+import { addInstallCheck, findPlan, listInstallChecks } from '../../../../lib/server/repos/plans';
+import { InstallCheckInputSchema, installCheckJson } from '../../../../lib/schemas/plans';
 import { syncInstallReadings } from '../../../../lib/server/repos/install-feedback';
 import { IdParamSchema } from '../../../../lib/schemas/params';
 

@@ -1,8 +1,8 @@
 import { getDb } from '../../../../lib/server/db';
 import { handler, json, parseBody, parseWith, requirePermission } from '../../../../lib/server/http';
 import { MARK_INSTALLED_PERMISSIONS } from '../../../../lib/domain/plan-state';
-import { findPlanDetail, planDetailJson, updatePlan } from '../../../../lib/server/repos/plans';
-import { PlanInstalledSchema } from '../../../../lib/schemas/plans';
+import { findPlanDetail, updatePlan } from '../../../../lib/server/repos/plans';
+import { PlanInstalledSchema, planDetailJson } from '../../../../lib/schemas/plans';
 import { syncInstallReadings } from '../../../../lib/server/repos/install-feedback';
 import { IdParamSchema } from '../../../../lib/schemas/params';
 
