@@ -49,6 +49,8 @@ interface RiverSpec {
   fromLake?: string;
 }
 
+const polar = (theta: number, rho: number): PolarSpot => ({ theta, rho });
+
 export const DEMO_RECIPE = {
   shape: {
     semiMajorKm: 19,
@@ -97,44 +99,11 @@ export const DEMO_RECIPE = {
       name: 'River Tessa',
       kind: 'river',
       fromLake: 'Lake Ennerlow',
-      path: [
-        { theta: 238, rho: 0.2 },
-        { theta: 268, rho: 0.34 },
-        { theta: 296, rho: 0.56 },
-        { theta: 309, rho: 0.8 },
-        { theta: 311, rho: 1.04 },
-      ],
+      path: [polar(238, 0.2), polar(268, 0.34), polar(296, 0.56), polar(309, 0.8), polar(311, 1.04)],
     },
-    {
-      name: 'Kelder Beck',
-      kind: 'river',
-      path: [
-        { theta: 62, rho: 0.38 },
-        { theta: 80, rho: 0.58 },
-        { theta: 91, rho: 0.84 },
-        { theta: 92, rho: 1.04 },
-      ],
-    },
-    {
-      name: 'Fenn Water',
-      kind: 'river',
-      path: [
-        { theta: 178, rho: 0.3 },
-        { theta: 196, rho: 0.56 },
-        { theta: 210, rho: 0.8 },
-        { theta: 212, rho: 1.04 },
-      ],
-    },
-    {
-      name: 'Ald Burn',
-      kind: 'stream',
-      fromLake: 'Aldwater',
-      path: [
-        { theta: 52, rho: 0.76 },
-        { theta: 40, rho: 0.9 },
-        { theta: 36, rho: 1.04 },
-      ],
-    },
+    { name: 'Kelder Beck', kind: 'river', path: [polar(62, 0.38), polar(80, 0.58), polar(91, 0.84), polar(92, 1.04)] },
+    { name: 'Fenn Water', kind: 'river', path: [polar(178, 0.3), polar(196, 0.56), polar(210, 0.8), polar(212, 1.04)] },
+    { name: 'Ald Burn', kind: 'stream', fromLake: 'Aldwater', path: [polar(52, 0.76), polar(40, 0.9), polar(36, 1.04)] },
   ] satisfies RiverSpec[],
 };
 

@@ -33,29 +33,36 @@ interface Carrier {
   rsPowerDbm: number;
 }
 
+/** A carrier of one technology; reference-signal power 15.2 dBm unless given. */
+const carrier =
+  (tech: Carrier['tech']) =>
+  (band: string, channel: number, bandwidthMhz: number, rsPowerDbm = 15.2): Carrier => ({ tech, band, channel, bandwidthMhz, rsPowerDbm });
+const lte = carrier('lte');
+const nr = carrier('nr');
+
 // Each operator's licensed carriers (invented assignments inside real 3GPP bands).
 const SPECTRUM: Record<number, Partial<Record<Layer, Carrier>>> = {
   1: {
-    low: { tech: 'lte', band: 'B20', channel: 6200, bandwidthMhz: 10, rsPowerDbm: 15.2 },
-    mid: { tech: 'lte', band: 'B3', channel: 1300, bandwidthMhz: 20, rsPowerDbm: 15.2 },
-    high: { tech: 'lte', band: 'B7', channel: 2850, bandwidthMhz: 20, rsPowerDbm: 15.2 },
-    'nr-mid': { tech: 'nr', band: 'n78', channel: 630000, bandwidthMhz: 100, rsPowerDbm: 18 },
+    low: lte('B20', 6200, 10),
+    mid: lte('B3', 1300, 20),
+    high: lte('B7', 2850, 20),
+    'nr-mid': nr('n78', 630000, 100, 18),
   },
   2: {
-    low: { tech: 'lte', band: 'B20', channel: 6300, bandwidthMhz: 10, rsPowerDbm: 15.2 },
-    low2: { tech: 'lte', band: 'B8', channel: 3500, bandwidthMhz: 10, rsPowerDbm: 15.2 },
-    mid: { tech: 'lte', band: 'B3', channel: 1500, bandwidthMhz: 20, rsPowerDbm: 15.2 },
-    mid2: { tech: 'lte', band: 'B1', channel: 100, bandwidthMhz: 20, rsPowerDbm: 15.2 },
-    'nr-low': { tech: 'nr', band: 'n28', channel: 154600, bandwidthMhz: 10, rsPowerDbm: 15.2 },
+    low: lte('B20', 6300, 10),
+    low2: lte('B8', 3500, 10),
+    mid: lte('B3', 1500, 20),
+    mid2: lte('B1', 100, 20),
+    'nr-low': nr('n28', 154600, 10),
   },
   3: {
-    low: { tech: 'lte', band: 'B8', channel: 3700, bandwidthMhz: 10, rsPowerDbm: 15.2 },
-    low2: { tech: 'lte', band: 'B20', channel: 6400, bandwidthMhz: 10, rsPowerDbm: 15.2 },
-    mid: { tech: 'lte', band: 'B3', channel: 1700, bandwidthMhz: 20, rsPowerDbm: 15.2 },
-    mid2: { tech: 'lte', band: 'B1', channel: 300, bandwidthMhz: 15, rsPowerDbm: 15.2 },
-    high: { tech: 'lte', band: 'B7', channel: 3050, bandwidthMhz: 20, rsPowerDbm: 15.2 },
-    'nr-low': { tech: 'nr', band: 'n28', channel: 152600, bandwidthMhz: 10, rsPowerDbm: 15.2 },
-    'nr-mid': { tech: 'nr', band: 'n78', channel: 640000, bandwidthMhz: 100, rsPowerDbm: 18 },
+    low: lte('B8', 3700, 10),
+    low2: lte('B20', 6400, 10),
+    mid: lte('B3', 1700, 20),
+    mid2: lte('B1', 300, 15),
+    high: lte('B7', 3050, 20),
+    'nr-low': nr('n28', 152600, 10),
+    'nr-mid': nr('n78', 640000, 100, 18),
   },
 };
 
