@@ -4,12 +4,16 @@ import {
   createSighting,
   findSighting,
   findSightingByClientUuid,
-  listPendingSightingFeatures,
+  listPendingSightings,
   listSightings,
-  sightingJson,
   type NewSightingPhoto,
+  type PendingViewer,
 } from '../../src/lib/server/repos/sightings';
-import { SightingInputSchema } from '../../src/lib/schemas/sightings';
+import { SightingInputSchema, pendingSightingsJson, sightingJson } from '../../src/lib/schemas/sightings';
+import type { Bbox } from '../../src/lib/schemas/mast-query';
+
+const listPendingSightingFeatures = async (db: Parameters<typeof listPendingSightings>[0], viewer: PendingViewer, bbox?: Bbox) =>
+  pendingSightingsJson(await listPendingSightings(db, viewer, bbox), viewer.userId);
 import { testDb, truncateAll } from '../helpers/db';
 import { makeUser } from '../helpers/factories';
 

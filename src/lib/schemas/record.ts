@@ -98,6 +98,7 @@ function kept<T, J>(fromRow: (stored: unknown) => T, toJson: (value: T) => J) {
 const toId = (v: unknown) => String(v);
 const toIdOrNull = (v: unknown) => (v === null || v === undefined ? null : String(v));
 const toNumberOrNull = (v: unknown) => (v === null || v === undefined ? null : Number(v));
+const toDate = (v: unknown) => (v instanceof Date ? v : new Date(v as string));
 const iso = (d: Date) => d.toISOString();
 const isoOrNull = (d: Date | null) => (d ? d.toISOString() : null);
 
@@ -112,10 +113,10 @@ export const field = {
   count: kept<number, number>((v) => Number(v), same),
   /** A bigint that fits a JavaScript number (e.g. a 36-bit cell identity). */
   bigNumber: kept<number | null, number | null>(toNumberOrNull, same),
-  /** A timestamp: a Date in the value, ISO 8601 in JSON. */
-  time: kept<Date, string>(asIs<Date>, iso),
+  /** A timestamp: a Date in the value, ISO 8601 in JSON (and in a record read as JSON, `objectSql`). */
+  time: kept<Date, string>(toDate, iso),
   /** A nullable timestamp. */
-  maybeTime: kept<Date | null, string | null>(asIs<Date | null>, isoOrNull),
+  maybeTime: kept<Date | null, string | null>((v) => (v === null || v === undefined ? null : toDate(v)), isoOrNull),
 };
 
 /** ISO 8601 in JSON for a written timestamp (`field.input(schema, { toJson: isoTime })`). */
@@ -145,8 +146,8 @@ export interface RecordDeclaration<F extends Fields> {
   objectSql(alias: string): string;
   fromRow(row: Record<string, unknown>): ValueOf<F>;
   toJson(value: ValueOf<F>): JsonOf<F>;
-  /** Columns written on insert, from a create value (and values the server derives). */
-  insertRow(input: Partial<ValueOf<F>>): Record<string, unknown>;
+  /** Columns written on insert, from a create value (and values the server derives); the repo writes what is not a plain column. */
+  insertRow(input: Partial<Record<keyof ValueOf<F>, unknown>>): Record<string, unknown>;
   /** The written fields of a value as a create body (snake_case), to check a merged change again. */
   asBody(value: ValueOf<F>): Record<string, unknown>;
   /** Columns a change sets (fields left out are not touched). */

@@ -1,13 +1,14 @@
-// Sightings: a field report of a mast, pending review. The input schema is shared by the form on
-// the phone and the endpoint; the JSON shapes are what the API returns.
+// Sightings: a field report of a mast, pending review. One field declaration each for the sighting,
+// the cells seen (the cell declaration's own fields) and the photos; the input schema derived from
+// it is shared by the form on the phone and the endpoint, and the JSON is what the API returns.
 import { z } from 'zod';
 import { getMeasurementRange, type MeasurementKind } from '../domain/measurements';
-import { AzimuthSchema, ChannelSchema, LatSchema, LonSchema, OperatorIdSchema, PciSchema } from './masts';
+import { CELL, LatSchema, LonSchema, OperatorIdSchema, type OperatorRef } from './masts';
 import { BboxSchema } from './mast-query';
-import { TechSchema, type Tech } from './mast-enums';
+import type { Tech } from './mast-enums';
 import { checkRadio } from './radio';
-import { type OperatorRefJson } from './mast-responses';
 import { enumOf, idParam, numberField, optionalText, pageParams } from './params';
+import { defineRecord, field, orNull, type InputOf, type JsonOf, type ValueOf } from './record';
 
 export const SIGHTING_STATUSES = ['pending', 'approved', 'merged', 'rejected'] as const;
 export type SightingStatus = (typeof SIGHTING_STATUSES)[number];
@@ -67,33 +68,29 @@ const READING_FIELDS = [
   ['sinr_db', 'sinr', 'SINR'],
 ] as const;
 
-const sightingCellFields = {
-  operator_id: OperatorIdSchema,
-  tech: TechSchema,
-  band: z.string().trim().max(20, 'At most 20 characters').nullish(),
-  channel: ChannelSchema,
-  pci: PciSchema,
-  sector_azimuth_deg: AzimuthSchema,
-  rsrp_dbm: num('RSRP').nullish(),
-  rsrq_db: num('RSRQ').nullish(),
-  sinr_db: num('SINR').nullish(),
-};
+/** A cell seen in a sighting: the cell declaration's fields and what the surveyor measured. Selected with its operator joined as `o`. */
+export const SIGHTING_CELL = defineRecord({
+  id: CELL.fields.id,
+  operator_id: CELL.fields.operator_id,
+  operator: CELL.fields.operator,
+  tech: CELL.fields.tech,
+  band: CELL.fields.band,
+  channel: CELL.fields.channel,
+  dl_mhz: CELL.fields.dl_mhz,
+  pci: CELL.fields.pci,
+  sector_azimuth_deg: CELL.fields.sector_azimuth_deg,
+  rsrp_dbm: field.input(num('RSRP').nullish().transform(orNull)),
+  rsrq_db: field.input(num('RSRQ').nullish().transform(orNull)),
+  sinr_db: field.input(num('SINR').nullish().transform(orNull)),
+});
 
-export interface SightingCellInput {
-  operatorId: string;
-  tech: Tech;
-  band: string;
-  channel: number;
-  dlMhz: number;
-  pci: number | null;
-  sectorAzimuthDeg: number | null;
-  rsrpDbm: number | null;
-  rsrqDb: number | null;
-  sinrDb: number | null;
-}
+export type SightingCell = ValueOf<typeof SIGHTING_CELL.fields>;
+export type SightingCellJson = JsonOf<typeof SIGHTING_CELL.fields>;
+/** A checked cell: the band resolved and its downlink frequency (NaN when the channel is in no band). */
+export type SightingCellInput = Omit<InputOf<typeof SIGHTING_CELL.fields>, 'band'> & { band: string; dlMhz: number };
 
-export const SightingCellInputSchema = z.object(sightingCellFields).transform((v, ctx): SightingCellInput => {
-  const { band, dlMhz } = checkRadio(v, ctx);
+export const SightingCellInputSchema = z.object(SIGHTING_CELL.inputShape).transform((v, ctx): SightingCellInput => {
+  const radio = checkRadio(v, ctx);
   for (const [key, field, label] of READING_FIELDS) {
     const value = v[key];
     if (value === null || value === undefined) continue;
@@ -103,62 +100,165 @@ export const SightingCellInputSchema = z.object(sightingCellFields).transform((v
       ctx.addIssue({ code: 'custom', path: [key], message: `${label} must be ${range.min} … ${range.max} ${range.unit}` });
     }
   }
-  return {
-    operatorId: v.operator_id,
-    tech: v.tech,
-    band,
-    channel: v.channel,
-    dlMhz,
-    pci: v.pci ?? null,
-    sectorAzimuthDeg: v.sector_azimuth_deg ?? null,
-    rsrpDbm: v.rsrp_dbm ?? null,
-    rsrqDb: v.rsrq_db ?? null,
-    sinrDb: v.sinr_db ?? null,
-  };
+  return { ...SIGHTING_CELL.toInput(v), ...radio };
 });
+
+export const PHOTO_URL_PREFIX = '/api/sightings/photos';
+
+/** A stored photo of a sighting: the file's facts and its keys in the photo storage (not shown). */
+export const SIGHTING_PHOTO = defineRecord({
+  id: field.id(),
+  sighting_id: field.id({ json: false }),
+  sha256: field.value<string>({ write: true }),
+  mime: field.value<PhotoMime>({ write: true }),
+  byte_size: field.value<number>({ write: true, fromRow: Number }),
+  width: field.value<number>({ write: true }),
+  height: field.value<number>({ write: true }),
+  original_name: field.value<string | null>({ write: true, json: false }),
+  original_key: field.value<string>({ write: true, json: false }),
+  display_key: field.value<string>({ write: true, json: false }),
+  thumb_key: field.value<string>({ write: true, json: false }),
+  gps_lat: field.value<number | null>({ write: true, json: false }),
+  gps_lon: field.value<number | null>({ write: true, json: false }),
+  taken_at: field.maybeTime({ write: true }),
+  created_at: field.time({ json: false }),
+});
+
+export type SightingPhoto = ValueOf<typeof SIGHTING_PHOTO.fields>;
+/** A photo stored before its sighting is written (keys into the photo storage). */
+export type NewSightingPhoto = Omit<SightingPhoto, 'id' | 'sightingId' | 'createdAt'>;
+export type SightingPhotoJson = JsonOf<typeof SIGHTING_PHOTO.fields> & {
+  /** Re-encoded without metadata. */
+  display_url: string;
+  thumb_url: string;
+  /** The file as uploaded, with its metadata; only reviewers and admins are given it. */
+  original_url: string | null;
+};
+
+export function photoJson(p: SightingPhoto, withOriginal: boolean): SightingPhotoJson {
+  return {
+    ...SIGHTING_PHOTO.toJson(p),
+    display_url: `${PHOTO_URL_PREFIX}/${p.id}/display`,
+    thumb_url: `${PHOTO_URL_PREFIX}/${p.id}/thumb`,
+    original_url: withOriginal ? `${PHOTO_URL_PREFIX}/${p.id}/original` : null,
+  };
+}
+
+export interface UserRefJson {
+  id: string;
+  name: string;
+}
+export type UserRef = UserRefJson;
+
+/** Child rows as one JSON list in id order (`{t}` is the sighting). */
+const listOf = (object: string, from: string, order: string) => `(SELECT coalesce(json_agg(${object} ORDER BY ${order}), '[]'::json) FROM ${from})`;
 
 /** Photos may be timestamped a little ahead of the server's clock; more than a day is a wrong date. */
 const FUTURE_SLACK_MS = 24 * 3600 * 1000;
 
-export const SightingInputSchema = z
-  .object({
-    client_uuid: z
+/**
+ * A sighting, field by field: body and JSON name (= column), how it is written and read. Selected
+ * with its author joined as `a` and the reviewer who decided it as `d`.
+ */
+export const SIGHTING = defineRecord({
+  id: field.id(),
+  client_uuid: field.input(
+    z
       .string({ required_error: 'Required' })
       .uuid('Not a valid UUID')
       .transform((s) => s.toLowerCase()),
-    lat: LatSchema,
-    lon: LonSchema,
-    position_source: enumOf(POSITION_SOURCES),
-    position_accuracy_m: num('Accuracy').min(0, 'Cannot be negative').max(100_000, 'At most 100 km').nullish(),
-    structure_type: enumOf(SIGHTING_STRUCTURE_TYPES),
-    estimated_height_m: num('Height').min(1, 'At least 1 m').max(700, 'At most 700 m').nullish(),
+  ),
+  status: field.value<SightingStatus>(),
+  author: field.value<UserRef>({ sql: "json_build_object('id', {t}.author_id::text, 'name', a.name)" }),
+  // The position is stored as one point (`geom`): the repo writes it from lat and lon together.
+  lat: field.input(LatSchema, { column: false, sql: 'ST_Y({t}.geom::geometry)' }),
+  lon: field.input(LonSchema, { column: false, sql: 'ST_X({t}.geom::geometry)' }),
+  position_source: field.input(enumOf(POSITION_SOURCES)),
+  position_accuracy_m: field.input(num('Accuracy').min(0, 'Cannot be negative').max(100_000, 'At most 100 km').nullish().transform(orNull)),
+  structure_type: field.input(enumOf(SIGHTING_STRUCTURE_TYPES)),
+  estimated_height_m: field.input(num('Height').min(1, 'At least 1 m').max(700, 'At most 700 m').nullish().transform(orNull)),
+  // Written by the repo from `operator_ids` and the cells' operators.
+  operators: field.value<OperatorRef[]>({
+    sql: listOf(
+      "json_build_object('id', o.id::text, 'name', o.name, 'colour', o.colour)",
+      'sighting_operators so JOIN operators o ON o.id = so.operator_id WHERE so.sighting_id = {t}.id',
+      'o.id',
+    ),
+  }),
+  cells: field.input(
+    z.array(SightingCellInputSchema, { invalid_type_error: 'Must be a list' }).max(MAX_SIGHTING_CELLS, `At most ${MAX_SIGHTING_CELLS} cells`).default([]),
+    {
+      column: false,
+      sql: listOf(SIGHTING_CELL.objectSql('c'), 'sighting_cells c JOIN operators o ON o.id = c.operator_id WHERE c.sighting_id = {t}.id', 'c.id'),
+      fromRow: (v) => (v as Record<string, unknown>[]).map((c) => SIGHTING_CELL.fromRow(c)),
+      toJson: (cells: SightingCell[]) => cells.map((c) => SIGHTING_CELL.toJson(c)),
+    },
+  ),
+  // Uploaded with the sighting and stored before it (photos.ts); originals are linked for reviewers only (sightingJson).
+  photos: field.value<SightingPhoto[], SightingPhotoJson[]>({
+    sql: listOf(SIGHTING_PHOTO.objectSql('ph'), 'sighting_photos ph WHERE ph.sighting_id = {t}.id', 'ph.id'),
+    fromRow: (v) => (v as Record<string, unknown>[]).map((p) => SIGHTING_PHOTO.fromRow(p)),
+    toJson: (photos) => photos.map((p) => photoJson(p, false)),
+  }),
+  notes: field.input(optionalText(2000)),
+  observed_at: field.input(
+    z.coerce
+      .date({ errorMap: () => ({ message: 'Give a date and time' }) })
+      .refine((d) => d.getTime() <= Date.now() + FUTURE_SLACK_MS, 'This is in the future')
+      .refine((d) => d.getUTCFullYear() >= 2000, 'This is too long ago'),
+    { toJson: (d: Date) => d.toISOString() },
+  ),
+  created_at: field.time(),
+  decided_by: field.value<UserRef | null>({
+    sql: "CASE WHEN {t}.decided_by IS NULL THEN NULL ELSE json_build_object('id', {t}.decided_by::text, 'name', coalesce(d.name, '')) END",
+  }),
+  decided_at: field.maybeTime(),
+  decision_reason: field.value<string | null>(),
+  mast_id: field.ref(),
+});
+
+export type Sighting = ValueOf<typeof SIGHTING.fields>;
+export type SightingJson = JsonOf<typeof SIGHTING.fields>;
+
+/** `withOriginals`: link the photos as uploaded (reviewers and admins only). */
+export function sightingJson(s: Sighting, options: { withOriginals: boolean }): SightingJson {
+  return { ...SIGHTING.toJson(s), photos: s.photos.map((p) => photoJson(p, options.withOriginals)) };
+}
+
+/** What the audit trail keeps of a sighting: its fields, the operators, cells and photos by what identifies them. */
+export function sightingAuditView(s: Sighting) {
+  return {
+    client_uuid: s.clientUuid,
+    status: s.status,
+    lat: s.lat,
+    lon: s.lon,
+    position_source: s.positionSource,
+    structure_type: s.structureType,
+    estimated_height_m: s.estimatedHeightM,
+    operator_ids: s.operators.map((o) => o.id),
+    cells: s.cells.map((c) => ({ operator_id: c.operator.id, tech: c.tech, band: c.band, channel: c.channel, pci: c.pci })),
+    photos: s.photos.map((p) => p.sha256),
+    notes: s.notes,
+    observed_at: s.observedAt.toISOString(),
+    decided_by: s.decidedBy?.id ?? null,
+    decided_at: s.decidedAt?.toISOString() ?? null,
+    decision_reason: s.decisionReason,
+    mast_id: s.mastId,
+  };
+}
+
+export const SightingInputSchema = z
+  .object({
+    ...SIGHTING.inputShape,
     operator_ids: z
       .array(OperatorIdSchema, { invalid_type_error: 'Must be a list' })
       .max(MAX_SIGHTING_OPERATORS, `At most ${MAX_SIGHTING_OPERATORS} operators`)
       .default([]),
-    cells: z
-      .array(SightingCellInputSchema, { invalid_type_error: 'Must be a list' })
-      .max(MAX_SIGHTING_CELLS, `At most ${MAX_SIGHTING_CELLS} cells`)
-      .default([]),
-    notes: optionalText(2000),
-    observed_at: z.coerce
-      .date({ errorMap: () => ({ message: 'Give a date and time' }) })
-      .refine((d) => d.getTime() <= Date.now() + FUTURE_SLACK_MS, 'This is in the future')
-      .refine((d) => d.getUTCFullYear() >= 2000, 'This is too long ago'),
   })
   .transform((v) => ({
-    clientUuid: v.client_uuid,
-    lat: v.lat,
-    lon: v.lon,
-    positionSource: v.position_source,
-    positionAccuracyM: v.position_accuracy_m ?? null,
-    structureType: v.structure_type,
-    estimatedHeightM: v.estimated_height_m ?? null,
+    ...SIGHTING.toInput(v),
     // Operators of the cells count as seen too.
     operatorIds: [...new Set([...v.operator_ids, ...v.cells.map((c) => c.operatorId)])],
-    cells: v.cells,
-    notes: v.notes,
-    observedAt: v.observed_at,
   }));
 export type SightingInput = z.output<typeof SightingInputSchema>;
 /** What the form sends in the `sighting` part of the multipart body (JSON). */
@@ -173,63 +273,6 @@ export const SightingListQuerySchema = z.object({
 export const SightingIdParamSchema = z.object({ id: idParam });
 
 // --- JSON the API returns ------------------------------------------------------------------------
-
-export interface UserRefJson {
-  id: string;
-  name: string;
-}
-
-export interface SightingCellJson {
-  id: string;
-  operator: OperatorRefJson;
-  tech: Tech;
-  band: string;
-  channel: number;
-  dl_mhz: number | null;
-  pci: number | null;
-  sector_azimuth_deg: number | null;
-  rsrp_dbm: number | null;
-  rsrq_db: number | null;
-  sinr_db: number | null;
-}
-
-export interface SightingPhotoJson {
-  id: string;
-  sha256: string;
-  mime: PhotoMime;
-  byte_size: number;
-  width: number;
-  height: number;
-  taken_at: string | null;
-  /** Re-encoded without metadata. */
-  display_url: string;
-  thumb_url: string;
-  /** The file as uploaded, with its metadata; only reviewers and admins are given it. */
-  original_url: string | null;
-}
-
-export interface SightingJson {
-  id: string;
-  client_uuid: string;
-  status: SightingStatus;
-  author: UserRefJson;
-  lat: number;
-  lon: number;
-  position_source: PositionSource;
-  position_accuracy_m: number | null;
-  structure_type: SightingStructureType;
-  estimated_height_m: number | null;
-  operators: OperatorRefJson[];
-  cells: SightingCellJson[];
-  photos: SightingPhotoJson[];
-  notes: string | null;
-  observed_at: string;
-  created_at: string;
-  decided_by: UserRefJson | null;
-  decided_at: string | null;
-  decision_reason: string | null;
-  mast_id: string | null;
-}
 
 export interface SightingCreatedJson {
   id: string;
@@ -259,6 +302,49 @@ export interface MastSurveyJson {
   surveyors: Array<UserRefJson & { last_observed_at: string }>;
   last_observed_at: string | null;
   photos: Array<SightingPhotoJson & { sighting_id: string }>;
+}
+
+export interface MastSurveys {
+  surveyors: Array<UserRef & { lastObservedAt: Date }>;
+  lastObservedAt: Date | null;
+  photos: SightingPhoto[];
+}
+
+export function mastSurveyJson(m: MastSurveys, options: { withOriginals: boolean }): MastSurveyJson {
+  return {
+    surveyors: m.surveyors.map((u) => ({ id: u.id, name: u.name, last_observed_at: u.lastObservedAt.toISOString() })),
+    last_observed_at: m.lastObservedAt ? m.lastObservedAt.toISOString() : null,
+    photos: m.photos.map((p) => ({ ...photoJson(p, options.withOriginals), sighting_id: p.sightingId })),
+  };
+}
+
+/** A pending sighting as the map shows it. */
+export interface PendingSighting {
+  id: string;
+  structureType: SightingStructureType;
+  authorId: string;
+  authorName: string;
+  observedAt: Date;
+  lat: number;
+  lon: number;
+}
+
+export function pendingSightingsJson(rows: PendingSighting[], viewerId: string): PendingSightingCollectionJson {
+  return {
+    type: 'FeatureCollection',
+    features: rows.map((r) => ({
+      type: 'Feature',
+      id: Number(r.id),
+      geometry: { type: 'Point', coordinates: [r.lon, r.lat] },
+      properties: {
+        id: r.id,
+        structure_type: r.structureType,
+        author_name: r.authorName,
+        observed_at: r.observedAt.toISOString(),
+        mine: r.authorId === viewerId,
+      },
+    })),
+  };
 }
 
 export const PHOTO_VARIANTS = ['display', 'thumb', 'original'] as const;

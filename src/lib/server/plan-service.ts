@@ -2,7 +2,6 @@
 // planner saw, what is saved and what the aim sheet prints come from one computation.
 import type { Tx } from './db';
 import type { PlanChange, PlanFiguresFieldJson, PlanInput } from '../schemas/plans';
-import type { ShortlistEntry } from '../domain/shortlist';
 import { createCustomer, findCustomer, type Customer } from './repos/customers';
 import { createPlan, findPlan, updatePlan, type Plan } from './repos/plans';
 import { evaluatePlannedCell, type ProfileProvider } from './shortlist-service';
@@ -20,7 +19,7 @@ export interface PlanKit {
  * The shortlist entry of the plan's cell for the customer's position and the plan's kit; null
  * until a cell, an antenna and a mount height are chosen (no defaults fill a missing kit).
  */
-export async function evaluatePlanKit(db: Tx, customer: Customer, kit: PlanKit, date: Date, profileFor: ProfileProvider): Promise<ShortlistEntry | null> {
+export async function evaluatePlanKit(db: Tx, customer: Customer, kit: PlanKit, date: Date, profileFor: ProfileProvider) {
   if (!kit.cellId || !kit.antennaId || kit.mountHeightM === null) return null;
   return evaluatePlannedCell(
     db,

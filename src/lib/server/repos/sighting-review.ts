@@ -13,7 +13,8 @@ import { recordAudit } from './audit';
 import { createCell, listCellsForMast, updateCell, type Cell } from './cells';
 import { createMast, markMastConfirmed } from './masts';
 import { cellJson } from '../../schemas/mast-responses';
-import { auditView, findSighting, listSightings, sightingJson, type Sighting, type SightingCell } from './sightings';
+import { sightingAuditView as auditView, sightingJson } from '../../schemas/sightings';
+import { findSighting, listSightings, type Sighting, type SightingCell } from './sightings';
 
 interface NearbyRow {
   id: string;

@@ -1,8 +1,8 @@
 import { getDb } from '../../../lib/server/db';
 import { handler, json, parseWith, requireUser } from '../../../lib/server/http';
 import { ForbiddenError, NotFoundError } from '../../../lib/server/errors';
-import { findSighting, sightingJson } from '../../../lib/server/repos/sightings';
-import { SightingIdParamSchema } from '../../../lib/schemas/sightings';
+import { findSighting } from '../../../lib/server/repos/sightings';
+import { SightingIdParamSchema, sightingJson } from '../../../lib/schemas/sightings';
 import { can } from '../../../lib/domain/roles';
 
 /** One sighting: reviewers and admins see every one, those who submit sightings their own (others' do not exist for them). */

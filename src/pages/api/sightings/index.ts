@@ -3,8 +3,8 @@ import { getStorage } from '../../../lib/server/files';
 import { handler, json, parseQuery, requirePermission } from '../../../lib/server/http';
 import { readMultipartFiles } from '../../../lib/server/request-body';
 import { SIGHTING_UPLOAD_LIMITS, submitSighting } from '../../../lib/server/sighting-service';
-import { listSightings, sightingJson } from '../../../lib/server/repos/sightings';
-import { SightingListQuerySchema, type SightingCreatedJson, type SightingListJson } from '../../../lib/schemas/sightings';
+import { listSightings } from '../../../lib/server/repos/sightings';
+import { SightingListQuerySchema, sightingJson, type SightingCreatedJson, type SightingListJson } from '../../../lib/schemas/sightings';
 import { can } from '../../../lib/domain/roles';
 
 /**

@@ -1,7 +1,8 @@
 import { getDb } from '../../../../lib/server/db';
 import { handler, json, parseWith, requirePermission } from '../../../../lib/server/http';
 import { findMast } from '../../../../lib/server/repos/masts';
-import { listMastSurveys, mastSurveyJson } from '../../../../lib/server/repos/sightings';
+import { listMastSurveys } from '../../../../lib/server/repos/sightings';
+import { mastSurveyJson } from '../../../../lib/schemas/sightings';
 import { IdParamSchema } from '../../../../lib/schemas/params';
 import { can } from '../../../../lib/domain/roles';
 

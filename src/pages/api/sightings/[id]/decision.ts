@@ -1,7 +1,7 @@
 import { getDb } from '../../../../lib/server/db';
 import { handler, json, parseBody, parseWith, requirePermission } from '../../../../lib/server/http';
 import { decideSighting } from '../../../../lib/server/repos/sighting-review';
-import { sightingJson } from '../../../../lib/server/repos/sightings';
+import { sightingJson } from '../../../../lib/schemas/sightings';
 import { mastJson } from '../../../../lib/schemas/mast-responses';
 import { notifySubmitter } from '../../../../lib/server/review-mail';
 import { linkOrigin } from '../../../../lib/server/accounts';
