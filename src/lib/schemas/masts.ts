@@ -50,6 +50,19 @@ export type MastJson = JsonOf<typeof MAST.fields>;
 export type MastInput = InputOf<typeof MAST.fields>;
 export type MastChange = ChangeOf<typeof MAST.fields> & { rowVersion: number };
 
+/** A mast as lists, exports and the review's candidates name it: who it is and where. */
+export const MAST_PLACE = defineRecord({
+  id: MAST.fields.id,
+  name: MAST.fields.name,
+  reference: MAST.fields.reference,
+  status: MAST.fields.status,
+  structure_type: MAST.fields.structure_type,
+  lat: MAST.fields.lat,
+  lon: MAST.fields.lon,
+});
+export type MastPlace = ValueOf<typeof MAST_PLACE.fields>;
+export type MastPlaceJson = JsonOf<typeof MAST_PLACE.fields>;
+
 export const MastInputSchema = z.object(MAST.inputShape).transform((v): MastInput => MAST.toInput(v));
 
 export const MastChangeSchema = z

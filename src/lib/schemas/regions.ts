@@ -100,3 +100,30 @@ export interface RegionJson {
   created_at: string;
   updated_at: string;
 }
+
+/** A region as repos return it. */
+export interface Region {
+  id: string;
+  name: string;
+  geometry: RegionJson['geometry'];
+  simplifiedForZoom: number | null;
+  bbox: RegionJson['bbox'];
+  vertexCount: number;
+  areaKm2: number;
+  createdAt: Date;
+  updatedAt: Date;
+}
+
+export function regionJson(r: Region): RegionJson {
+  return {
+    id: r.id,
+    name: r.name,
+    geometry: r.geometry,
+    simplified_for_zoom: r.simplifiedForZoom,
+    bbox: r.bbox,
+    vertex_count: r.vertexCount,
+    area_km2: r.areaKm2,
+    created_at: r.createdAt.toISOString(),
+    updated_at: r.updatedAt.toISOString(),
+  };
+}

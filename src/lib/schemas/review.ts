@@ -1,8 +1,7 @@
 // The review queue and a reviewer's decision on a sighting: schemas shared by the endpoint and
 // the review page, and the JSON shapes the API returns.
 import { z } from 'zod';
-import type { CellJson, MastJson } from './masts';
-import type { MastStatus, StructureType } from './mast-enums';
+import type { CellJson, MastJson, MastPlaceJson } from './masts';
 import type { SightingJson } from './sightings';
 import { IdRefSchema, enumOf, optionalText, pageParams } from './params';
 
@@ -47,15 +46,7 @@ export interface SubmitterRecordJson {
   pending: number;
 }
 
-export interface CandidateMastJson {
-  id: string;
-  name: string;
-  reference: string | null;
-  status: MastStatus;
-  structure_type: StructureType;
-  lat: number;
-  lon: number;
-}
+export type CandidateMastJson = MastPlaceJson;
 
 /** An existing mast near the sighting that it may duplicate. */
 export interface DuplicateCandidateJson {

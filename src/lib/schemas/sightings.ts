@@ -5,7 +5,7 @@ import { z } from 'zod';
 import { getMeasurementRange, type MeasurementKind } from '../domain/measurements';
 import { CELL, LatSchema, LonSchema, OperatorIdSchema, type OperatorRef } from './masts';
 import { BboxSchema } from './mast-query';
-import type { Tech } from './mast-enums';
+import { STRUCTURE_TYPE_LABELS, type StructureType, type Tech } from './mast-enums';
 import { checkRadio } from './radio';
 import { enumOf, idParam, numberField, optionalText, pageParams } from './params';
 import { defineRecord, field, orNull, type InputOf, type JsonOf, type ValueOf } from './record';
@@ -20,15 +20,13 @@ export const SIGHTING_STATUS_LABELS: Record<SightingStatus, string> = {
 };
 
 /** The structures a surveyor chooses from (a subset of the mast structure types). */
-export const SIGHTING_STRUCTURE_TYPES = ['lattice_tower', 'monopole', 'rooftop', 'water_tower', 'other'] as const;
+export const SIGHTING_STRUCTURE_TYPES = ['lattice_tower', 'monopole', 'rooftop', 'water_tower', 'other'] as const satisfies readonly StructureType[];
 export type SightingStructureType = (typeof SIGHTING_STRUCTURE_TYPES)[number];
-export const SIGHTING_STRUCTURE_LABELS: Record<SightingStructureType, string> = {
-  lattice_tower: 'Lattice tower',
-  monopole: 'Monopole',
-  rooftop: 'Rooftop',
-  water_tower: 'Water tower',
-  other: 'Other',
-};
+/** The mast's own words for each. */
+export const SIGHTING_STRUCTURE_LABELS = Object.fromEntries(SIGHTING_STRUCTURE_TYPES.map((t) => [t, STRUCTURE_TYPE_LABELS[t]])) as Record<
+  SightingStructureType,
+  string
+>;
 
 /** Where the position came from: a photo's GPS tags, the device's location, or a click on the map. */
 export const POSITION_SOURCES = ['photo', 'device', 'map'] as const;
@@ -85,7 +83,7 @@ export const SIGHTING_CELL = defineRecord({
 });
 
 export type SightingCell = ValueOf<typeof SIGHTING_CELL.fields>;
-export type SightingCellJson = JsonOf<typeof SIGHTING_CELL.fields>;
+export type SightingCellJson = Omit<JsonOf<typeof SIGHTING_CELL.fields>, 'operator_id'>; // answered as `operator`
 /** A checked cell: the band resolved and its downlink frequency (NaN when the channel is in no band). */
 export type SightingCellInput = Omit<InputOf<typeof SIGHTING_CELL.fields>, 'band'> & { band: string; dlMhz: number };
 
@@ -127,7 +125,9 @@ export const SIGHTING_PHOTO = defineRecord({
 export type SightingPhoto = ValueOf<typeof SIGHTING_PHOTO.fields>;
 /** A photo stored before its sighting is written (keys into the photo storage). */
 export type NewSightingPhoto = Omit<SightingPhoto, 'id' | 'sightingId' | 'createdAt'>;
-export type SightingPhotoJson = JsonOf<typeof SIGHTING_PHOTO.fields> & {
+/** The keys of the photo storage and the file's metadata stay on the server. */
+type HiddenPhotoFields = 'sighting_id' | 'original_name' | 'original_key' | 'display_key' | 'thumb_key' | 'gps_lat' | 'gps_lon' | 'created_at';
+export type SightingPhotoJson = Omit<JsonOf<typeof SIGHTING_PHOTO.fields>, HiddenPhotoFields> & {
   /** Re-encoded without metadata. */
   display_url: string;
   thumb_url: string;
@@ -168,13 +168,15 @@ export const SIGHTING = defineRecord({
       .uuid('Not a valid UUID')
       .transform((s) => s.toLowerCase()),
   ),
-  status: field.value<SightingStatus>(),
+  status: field.value<SightingStatus>({ audit: true }),
   author: field.value<UserRef>({ sql: "json_build_object('id', {t}.author_id::text, 'name', a.name)" }),
   // The position is stored as one point (`geom`): the repo writes it from lat and lon together.
   lat: field.input(LatSchema, { column: false, sql: 'ST_Y({t}.geom::geometry)' }),
   lon: field.input(LonSchema, { column: false, sql: 'ST_X({t}.geom::geometry)' }),
   position_source: field.input(enumOf(POSITION_SOURCES)),
-  position_accuracy_m: field.input(num('Accuracy').min(0, 'Cannot be negative').max(100_000, 'At most 100 km').nullish().transform(orNull)),
+  position_accuracy_m: field.input(num('Accuracy').min(0, 'Cannot be negative').max(100_000, 'At most 100 km').nullish().transform(orNull), {
+    audit: false,
+  }),
   structure_type: field.input(enumOf(SIGHTING_STRUCTURE_TYPES)),
   estimated_height_m: field.input(num('Height').min(1, 'At least 1 m').max(700, 'At most 700 m').nullish().transform(orNull)),
   // Written by the repo from `operator_ids` and the cells' operators.
@@ -210,11 +212,12 @@ export const SIGHTING = defineRecord({
   ),
   created_at: field.time(),
   decided_by: field.value<UserRef | null>({
+    audit: true,
     sql: "CASE WHEN {t}.decided_by IS NULL THEN NULL ELSE json_build_object('id', {t}.decided_by::text, 'name', coalesce(d.name, '')) END",
   }),
-  decided_at: field.maybeTime(),
-  decision_reason: field.value<string | null>(),
-  mast_id: field.ref(),
+  decided_at: field.maybeTime({ audit: true }),
+  decision_reason: field.value<string | null>({ audit: true }),
+  mast_id: field.ref({ audit: true }),
 });
 
 export type Sighting = ValueOf<typeof SIGHTING.fields>;
@@ -225,25 +228,14 @@ export function sightingJson(s: Sighting, options: { withOriginals: boolean }): 
   return { ...SIGHTING.toJson(s), photos: s.photos.map((p) => photoJson(p, options.withOriginals)) };
 }
 
-/** What the audit trail keeps of a sighting: its fields, the operators, cells and photos by what identifies them. */
+/** What the audit trail keeps of a sighting: its audited fields, the operators, cells, photos and reviewer by what identifies them. */
 export function sightingAuditView(s: Sighting) {
   return {
-    client_uuid: s.clientUuid,
-    status: s.status,
-    lat: s.lat,
-    lon: s.lon,
-    position_source: s.positionSource,
-    structure_type: s.structureType,
-    estimated_height_m: s.estimatedHeightM,
+    ...SIGHTING.auditView(s),
     operator_ids: s.operators.map((o) => o.id),
     cells: s.cells.map((c) => ({ operator_id: c.operator.id, tech: c.tech, band: c.band, channel: c.channel, pci: c.pci })),
     photos: s.photos.map((p) => p.sha256),
-    notes: s.notes,
-    observed_at: s.observedAt.toISOString(),
     decided_by: s.decidedBy?.id ?? null,
-    decided_at: s.decidedAt?.toISOString() ?? null,
-    decision_reason: s.decisionReason,
-    mast_id: s.mastId,
   };
 }
 

@@ -4,6 +4,8 @@
 import type { Knex } from 'knex';
 import type { Tx } from '../db';
 import { applyMastFilter } from './masts';
+import { recordColumns } from './record-sql';
+import { MAST_PLACE } from '../../schemas/masts';
 import type { ExportLayer, ExportQuery } from '../../schemas/exports';
 import type { MastFilter } from '../../schemas/mast-query';
 import { readingHexesQuery } from './reading-hexes';
@@ -62,13 +64,7 @@ function mastsLayer(db: Tx, query: ExportQuery): ExportLayerSpec {
   const q = db('masts as m')
     .leftJoin('mast_cell_summaries as s', 's.mast_id', 'm.id')
     .select(
-      'm.id',
-      'm.name',
-      'm.reference',
-      'm.status',
-      'm.structure_type',
-      db.raw('ST_Y(m.geom) AS lat'),
-      db.raw('ST_X(m.geom) AS lon'),
+      ...recordColumns(db, MAST_PLACE, 'm'),
       'm.ground_elevation_m',
       'm.structure_height_m',
       db.raw('coalesce(s.cell_count, 0)::int AS cell_count'),

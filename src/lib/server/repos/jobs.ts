@@ -1,91 +1,12 @@
 // Background jobs as people see them (state, progress, counts, errors); pg-boss delivers them.
 import type { Tx } from '../db';
-import type { JobJson, JobState } from '../../schemas/jobs';
+import { JOB, type JobRecord } from '../../schemas/jobs';
 import type { RowError } from '../csv-copy';
+import { recordColumns } from './record-sql';
 
-export interface JobRecord {
-  id: string;
-  queue: string;
-  ownerId: string | null;
-  title: string;
-  state: JobState;
-  progress: number;
-  phase: string | null;
-  counts: Record<string, number>;
-  errors: RowError[];
-  errorCount: number;
-  message: string | null;
-  attempts: number;
-  createdAt: Date;
-  startedAt: Date | null;
-  finishedAt: Date | null;
-}
+export type { JobRecord };
 
-type JobRow = Omit<JobJson, 'id' | 'owner_id' | 'created_at' | 'started_at' | 'finished_at'> & {
-  id: string;
-  owner_id: string | null;
-  created_at: Date;
-  started_at: Date | null;
-  finished_at: Date | null;
-};
-
-function toJob(r: JobRow): JobRecord {
-  return {
-    id: r.id,
-    queue: r.queue,
-    ownerId: r.owner_id === null ? null : String(r.owner_id),
-    title: r.title,
-    state: r.state,
-    progress: r.progress,
-    phase: r.phase,
-    counts: r.counts,
-    errors: r.errors,
-    errorCount: r.error_count,
-    message: r.message,
-    attempts: r.attempts,
-    createdAt: r.created_at,
-    startedAt: r.started_at,
-    finishedAt: r.finished_at,
-  };
-}
-
-export function jobJson(j: JobRecord): JobJson {
-  return {
-    id: j.id,
-    queue: j.queue,
-    owner_id: j.ownerId,
-    title: j.title,
-    state: j.state,
-    progress: j.progress,
-    phase: j.phase,
-    counts: j.counts,
-    errors: j.errors,
-    error_count: j.errorCount,
-    message: j.message,
-    attempts: j.attempts,
-    created_at: j.createdAt.toISOString(),
-    started_at: j.startedAt?.toISOString() ?? null,
-    finished_at: j.finishedAt?.toISOString() ?? null,
-  };
-}
-
-const COLUMNS = [
-  'id',
-  'queue',
-  'owner_id',
-  'title',
-  'state',
-  'progress',
-  'phase',
-  'counts',
-  'errors',
-  'error_count',
-  'message',
-  'attempts',
-  'created_at',
-  'started_at',
-  'finished_at',
-];
+const selectJobs = (db: Tx) => db('jobs as j').select(recordColumns(db, JOB, 'j'));
 
 export async function createJobRecord(
   db: Tx,
@@ -95,20 +16,18 @@ export async function createJobRecord(
 }
 
 export async function findJob(db: Tx, id: string): Promise<JobRecord | null> {
-  const row: JobRow | undefined = await db('jobs').select(COLUMNS).where({ id }).first();
-  return row ? toJob(row) : null;
+  const row = await selectJobs(db).where('j.id', id).first();
+  return row ? JOB.fromRow(row) : null;
 }
 
 export async function listJobs(db: Tx, opts: { limit: number; offset: number; ownerId?: string }): Promise<{ items: JobRecord[]; total: number }> {
-  const base = db('jobs');
-  if (opts.ownerId) base.where({ owner_id: opts.ownerId });
-  const [{ count }] = await base.clone().count<{ count: string }[]>('* as count');
-  const rows: JobRow[] = await base
-    .select(COLUMNS)
-    .orderBy([{ column: 'created_at', order: 'desc' }, { column: 'id' }])
+  const filtered = (q: ReturnType<Tx>) => (opts.ownerId ? q.where('j.owner_id', opts.ownerId) : q);
+  const [{ count }] = await filtered(db('jobs as j')).count<{ count: string }[]>('* as count');
+  const rows = await filtered(selectJobs(db))
+    .orderBy([{ column: 'j.created_at', order: 'desc' }, { column: 'j.id' }])
     .limit(opts.limit)
     .offset(opts.offset);
-  return { items: rows.map(toJob), total: Number(count) };
+  return { items: rows.map((r: Record<string, unknown>) => JOB.fromRow(r)), total: Number(count) };
 }
 
 /** A worker takes the job (again, after a retry): attempts + 1, progress from 0. */

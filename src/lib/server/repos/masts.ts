@@ -3,8 +3,8 @@
 import type { Knex } from 'knex';
 import type { Tx } from '../db';
 import type { MastFilter, Bbox } from '../../schemas/mast-query';
-import type { MastStatus, StructureType, Tech } from '../../schemas/mast-enums';
-import { MAST, type Mast, type MastChange, type MastInput, type OperatorRef } from '../../schemas/masts';
+import type { Tech } from '../../schemas/mast-enums';
+import { MAST, MAST_PLACE, type Mast, type MastChange, type MastInput, type OperatorRef } from '../../schemas/masts';
 import type { MastDetail, MastSummary } from '../../schemas/mast-responses';
 import { ConflictError, NotFoundError } from '../errors';
 import { recordAudit } from './audit';
@@ -47,13 +47,7 @@ export interface MastListOptions extends MastFilter {
 export async function listMasts(db: Tx, options: MastListOptions): Promise<{ items: MastSummary[]; truncated: boolean }> {
   const q = db('masts as m')
     .select(
-      'm.id',
-      'm.name',
-      'm.reference',
-      'm.status',
-      'm.structure_type',
-      db.raw('ST_Y(m.geom) AS lat'),
-      db.raw('ST_X(m.geom) AS lon'),
+      ...recordColumns(db, MAST_PLACE, 'm'),
       db.raw('coalesce(s.cell_count, 0) AS cell_count'),
       db.raw("coalesce(s.op_ids, '{}') AS op_ids"),
       db.raw("coalesce(s.bands, '{}') AS bands"),
@@ -72,13 +66,7 @@ export async function listMasts(db: Tx, options: MastListOptions): Promise<{ ite
   applyMastFilter(db, q, options);
   const [rows, operators] = await Promise.all([q, loadOperatorRefs(db)]);
   const items = (rows as Array<Record<string, unknown>>).slice(0, options.limit).map((r): MastSummary => ({
-    id: String(r.id),
-    name: r.name as string,
-    reference: r.reference as string | null,
-    status: r.status as MastStatus,
-    structureType: r.structure_type as StructureType,
-    lat: r.lat as number,
-    lon: r.lon as number,
+    ...MAST_PLACE.fromRow(r),
     operators: (r.op_ids as string[]).map((id) => operators.get(String(id))).filter((o): o is OperatorRef => o !== undefined),
     bands: r.bands as string[],
     techs: r.techs as Tech[],

@@ -1,21 +1,11 @@
 // Regions: named areas (GeoJSON polygons) the team serves; geometry checked by PostGIS.
 import type { Tx } from '../db';
-import type { PolygonGeometry, RegionChange, RegionInput, RegionJson } from '../../schemas/regions';
+import type { PolygonGeometry, Region, RegionChange, RegionInput, RegionJson } from '../../schemas/regions';
 import { ConflictError, NotFoundError, ValidationError } from '../errors';
 import { recordAudit } from './audit';
 import { getPixelToleranceDeg } from '../../domain/region-outline';
 
-export interface Region {
-  id: string;
-  name: string;
-  geometry: RegionJson['geometry'];
-  simplifiedForZoom: number | null;
-  bbox: RegionJson['bbox'];
-  vertexCount: number;
-  areaKm2: number;
-  createdAt: Date;
-  updatedAt: Date;
-}
+export type { Region };
 
 interface RegionRow {
   id: string;
@@ -42,20 +32,6 @@ function toRegion(r: RegionRow, zoom: number | undefined): Region {
     areaKm2: Math.round(r.area_km2 * 100) / 100,
     createdAt: r.created_at,
     updatedAt: r.updated_at,
-  };
-}
-
-export function regionJson(r: Region): RegionJson {
-  return {
-    id: r.id,
-    name: r.name,
-    geometry: r.geometry,
-    simplified_for_zoom: r.simplifiedForZoom,
-    bbox: r.bbox,
-    vertex_count: r.vertexCount,
-    area_km2: r.areaKm2,
-    created_at: r.createdAt.toISOString(),
-    updated_at: r.updatedAt.toISOString(),
   };
 }
 

@@ -4,50 +4,34 @@
 // and a second reviewer deciding at the same moment gets 409 and changes nothing.
 import type { Tx } from '../db';
 import { DUPLICATE_RADIUS_M, rankDuplicates, splitForMerge, type CellIdentity } from '../../domain/duplicates';
-import { CellInputSchema, MastInputSchema, type Mast } from '../../schemas/masts';
-import { STRUCTURE_TYPE_LABELS, type MastStatus, type StructureType } from '../../schemas/mast-enums';
+import { CellInputSchema, MAST_PLACE, MastInputSchema, type Mast, type MastPlace } from '../../schemas/masts';
+import { STRUCTURE_TYPE_LABELS } from '../../schemas/mast-enums';
 import type { DecisionInput, DuplicateCandidateJson, ReviewItemJson, SubmitterRecordJson } from '../../schemas/review';
 import { SIGHTING_STATUS_LABELS, type SightingStatus } from '../../schemas/sightings';
 import { ConflictError, NotFoundError, ValidationError } from '../errors';
 import { recordAudit } from './audit';
+import { recordColumns } from './record-sql';
 import { createCell, listCellsForMast, updateCell, type Cell } from './cells';
 import { createMast, markMastConfirmed } from './masts';
 import { cellJson } from '../../schemas/mast-responses';
 import { sightingAuditView as auditView, sightingJson } from '../../schemas/sightings';
 import { findSighting, listSightings, type Sighting, type SightingCell } from './sightings';
 
-interface NearbyRow {
-  id: string;
-  name: string;
-  reference: string | null;
-  status: MastStatus;
-  structure_type: StructureType;
-  lat: number;
-  lon: number;
-  distance_m: number;
-}
+type NearbyMast = MastPlace & { distanceM: number };
 
 /** Masts within the radius of a point, nearest first (PostGIS geography, metres). */
-async function listNearbyMasts(db: Tx, lat: number, lon: number, radiusM: number, limit = 20): Promise<NearbyRow[]> {
+async function listNearbyMasts(db: Tx, lat: number, lon: number, radiusM: number, limit = 20): Promise<NearbyMast[]> {
   // The box in degrees lets the GiST index on masts.geom pick the few masts near the point
   // before the exact geodesic distance is taken.
   const degrees = radiusM / (111_000 * Math.max(Math.cos((lat * Math.PI) / 180), 0.01));
   const point = db.raw('ST_SetSRID(ST_MakePoint(?, ?), 4326)', [lon, lat]);
-  return (await db('masts as m')
-    .select(
-      'm.id',
-      'm.name',
-      'm.reference',
-      'm.status',
-      'm.structure_type',
-      db.raw('ST_Y(m.geom) AS lat'),
-      db.raw('ST_X(m.geom) AS lon'),
-      db.raw('ST_Distance(m.geom::geography, ?::geography) AS distance_m', [point]),
-    )
+  const rows = await db('masts as m')
+    .select(...recordColumns(db, MAST_PLACE, 'm'), db.raw('ST_Distance(m.geom::geography, ?::geography) AS distance_m', [point]))
     .whereRaw('m.geom && ST_Expand(?, ?)', [point, degrees])
     .whereRaw('ST_DWithin(m.geom::geography, ?::geography, ?)', [point, radiusM])
     .orderBy('distance_m')
-    .limit(limit)) as NearbyRow[];
+    .limit(limit);
+  return rows.map((r: Record<string, unknown>) => ({ ...MAST_PLACE.fromRow(r), distanceM: Number(r.distance_m) }));
 }
 
 const identity = (c: { operator: { id: string }; tech: string; channel: number; pci: number | null }): CellIdentity => ({
@@ -62,15 +46,15 @@ export async function listDuplicateCandidates(db: Tx, sighting: Sighting, radius
   const nearby = await listNearbyMasts(db, sighting.lat, sighting.lon, radiusM);
   const withCells = await Promise.all(
     nearby.map(async (m) => {
-      const cells = await listCellsForMast(db, String(m.id));
-      return { mastId: String(m.id), distanceM: m.distance_m, cells: cells.map((c) => ({ ...identity(c), cell: c })), row: m };
+      const cells = await listCellsForMast(db, m.id);
+      return { mastId: m.id, distanceM: m.distanceM, cells: cells.map((c) => ({ ...identity(c), cell: c })), row: m };
     }),
   );
   const ranked = rankDuplicates(sighting.cells.map(identity), withCells, radiusM);
   return ranked.map((r) => {
     const m = withCells.find((w) => w.mastId === r.mastId)!.row;
     return {
-      mast: { id: String(m.id), name: m.name, reference: m.reference, status: m.status, structure_type: m.structure_type, lat: m.lat, lon: m.lon },
+      mast: MAST_PLACE.toJson(m),
       distance_m: Math.round(r.distanceM * 10) / 10,
       shared_cells: r.sharedCells,
       cells: r.cells.map((c) => cellJson(c.cell)),

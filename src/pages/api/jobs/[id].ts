@@ -1,8 +1,8 @@
 import { getDb } from '../../../lib/server/db';
 import { handler, json, parseWith, requireUser } from '../../../lib/server/http';
 import { NotFoundError } from '../../../lib/server/errors';
-import { findJob, jobJson } from '../../../lib/server/repos/jobs';
-import { JobIdParamSchema } from '../../../lib/schemas/jobs';
+import { findJob } from '../../../lib/server/repos/jobs';
+import { JobIdParamSchema, jobJson } from '../../../lib/schemas/jobs';
 
 /** A job's state, progress 0–100, counts and errors: for the person who started it, or an admin. */
 export const GET = handler(async ({ locals, params }) => {

@@ -1,7 +1,7 @@
 import { getDb } from '../../../lib/server/db';
 import { handler, json, parseQuery, requireUser } from '../../../lib/server/http';
-import { jobJson, listJobs } from '../../../lib/server/repos/jobs';
-import { JobListQuerySchema } from '../../../lib/schemas/jobs';
+import { listJobs } from '../../../lib/server/repos/jobs';
+import { JobListQuerySchema, jobJson } from '../../../lib/schemas/jobs';
 
 /** Recent jobs, newest first: an admin sees everyone's, anyone else their own. */
 export const GET = handler(async ({ locals, url }) => {

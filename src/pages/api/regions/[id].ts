@@ -1,7 +1,7 @@
 import { getDb } from '../../../lib/server/db';
 import { handler, json, parseBody, parseQuery, parseWith, requirePermission } from '../../../lib/server/http';
-import { deleteRegion, findRegion, regionJson, updateRegion } from '../../../lib/server/repos/regions';
-import { REGION_BODY_MAX_BYTES, RegionChangeSchema, RegionOutlineQuerySchema } from '../../../lib/schemas/regions';
+import { deleteRegion, findRegion, updateRegion } from '../../../lib/server/repos/regions';
+import { REGION_BODY_MAX_BYTES, RegionChangeSchema, RegionOutlineQuerySchema, regionJson } from '../../../lib/schemas/regions';
 import { IdParamSchema } from '../../../lib/schemas/params';
 
 /** One region, its outline in full or simplified to one pixel at `?zoom=`. */

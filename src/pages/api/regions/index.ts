@@ -1,7 +1,7 @@
 import { getDb } from '../../../lib/server/db';
 import { handler, json, parseBody, parseQuery, requirePermission } from '../../../lib/server/http';
-import { createRegion, listRegions, regionJson } from '../../../lib/server/repos/regions';
-import { REGION_BODY_MAX_BYTES, RegionInputSchema, RegionListQuerySchema } from '../../../lib/schemas/regions';
+import { createRegion, listRegions } from '../../../lib/server/repos/regions';
+import { REGION_BODY_MAX_BYTES, RegionInputSchema, RegionListQuerySchema, regionJson } from '../../../lib/schemas/regions';
 
 /** Every region with its outline simplified to one pixel at `?zoom=` (default 8) and its bbox. */
 export const GET = handler(async ({ locals, url }) => {
