@@ -2,6 +2,7 @@
 // search queries, and the JSON shapes the API returns.
 import Papa from 'papaparse';
 import { z } from 'zod';
+import { defineRecord, field, type JsonOf, type ValueOf } from './record';
 import { intParam, pageParams, searchParam } from './params';
 
 /** Files up to this size are checked in the browser before upload; the server checks every file. */
@@ -153,15 +154,20 @@ export interface GeocodeMatchJson {
   kind: 'address' | 'coordinates';
 }
 
-export interface AddressJson {
-  id: string;
-  label: string;
-  postcode: string | null;
-  lat: number;
-  lon: number;
-  source: string;
-  updated_at: string;
-}
+/** A gazetteer address, field by field (imported from CSV, so nothing is written through a body). */
+export const ADDRESS = defineRecord({
+  id: field.id(),
+  label: field.value<string>(),
+  postcode: field.value<string | null>(),
+  lat: field.value<number>({ sql: 'ST_Y({t}.geom)' }),
+  lon: field.value<number>({ sql: 'ST_X({t}.geom)' }),
+  source: field.value<string>(),
+  updated_at: field.time(),
+});
+
+export type Address = ValueOf<typeof ADDRESS.fields>;
+export type AddressJson = JsonOf<typeof ADDRESS.fields>;
+export const addressJson = (a: Address): AddressJson => ADDRESS.toJson(a);
 
 export interface AddressImportJson {
   rows: number;

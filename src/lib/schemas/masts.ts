@@ -122,6 +122,11 @@ export const CELL = defineRecord({
   updated_at: field.time(),
 });
 
+/** A cell's radio fields, in the records that show a cell (a plan's cell, a sighting's cells). */
+export const CELL_RADIO = (({ tech, band, channel, dl_mhz, pci, sector_azimuth_deg }) => ({ tech, band, channel, dl_mhz, pci, sector_azimuth_deg }))(
+  CELL.fields,
+);
+
 export type Cell = ValueOf<typeof CELL.fields>;
 export type CellJson = Omit<JsonOf<typeof CELL.fields>, 'operator_id'>; // operator_id is json: false (answered as `operator`)
 /** A checked cell: the band resolved and its downlink frequency (NaN when the channel is in no band). */

@@ -3,7 +3,7 @@
 import { z } from 'zod';
 import { getAllowedTransitions, PLAN_STATES, type MeasuredGain, type PlanState, type SpeedSummary } from '../domain/plan-state';
 import { CustomerInputSchema } from './customers';
-import { CELL } from './masts';
+import { CELL, CELL_RADIO } from './masts';
 import type { ShortlistItemJson } from './shortlist';
 import { defineRecord, field, idOrNull, orNull, type Fields, type JsonOf, type RecordDeclaration, type ValueOf } from './record';
 import { ID_PATTERN, IdRefSchema, dateField, dateTimeField, enumOf, hasChange, numberField as num, optionalText, pageParams, RowVersionSchema } from './params';
@@ -35,12 +35,7 @@ export const PLAN_CELL = defineRecord({
   mast_name: field.value<string>({ sql: 'm.name' }),
   operator_id: field.id(),
   operator_name: field.value<string>({ sql: 'o.name' }),
-  tech: CELL.fields.tech,
-  band: CELL.fields.band,
-  channel: CELL.fields.channel,
-  dl_mhz: CELL.fields.dl_mhz,
-  pci: CELL.fields.pci,
-  sector_azimuth_deg: CELL.fields.sector_azimuth_deg,
+  ...CELL_RADIO,
   lat: field.value<number>({ sql: 'ST_Y(m.geom)' }),
   lon: field.value<number>({ sql: 'ST_X(m.geom)' }),
 });

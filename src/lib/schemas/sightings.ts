@@ -3,7 +3,7 @@
 // it is shared by the form on the phone and the endpoint, and the JSON is what the API returns.
 import { z } from 'zod';
 import { getMeasurementRange, type MeasurementKind } from '../domain/measurements';
-import { CELL, LatSchema, LonSchema, OperatorIdSchema, type OperatorRef } from './masts';
+import { CELL, CELL_RADIO, LatSchema, LonSchema, OperatorIdSchema, type OperatorRef } from './masts';
 import { BboxSchema } from './mast-query';
 import { STRUCTURE_TYPE_LABELS, type StructureType, type Tech } from './mast-enums';
 import { checkRadio } from './radio';
@@ -71,12 +71,7 @@ export const SIGHTING_CELL = defineRecord({
   id: CELL.fields.id,
   operator_id: CELL.fields.operator_id,
   operator: CELL.fields.operator,
-  tech: CELL.fields.tech,
-  band: CELL.fields.band,
-  channel: CELL.fields.channel,
-  dl_mhz: CELL.fields.dl_mhz,
-  pci: CELL.fields.pci,
-  sector_azimuth_deg: CELL.fields.sector_azimuth_deg,
+  ...CELL_RADIO,
   rsrp_dbm: field.input(num('RSRP').nullish().transform(orNull)),
   rsrq_db: field.input(num('RSRQ').nullish().transform(orNull)),
   sinr_db: field.input(num('SINR').nullish().transform(orNull)),

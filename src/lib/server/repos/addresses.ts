@@ -1,19 +1,12 @@
 // The gazetteer: addresses with a position, imported from CSV and searched by the geocoder.
 import type { Tx } from '../db';
-import type { AddressJson, AddressRow } from '../../schemas/addresses';
+import { ADDRESS, type Address, type AddressRow } from '../../schemas/addresses';
 import { recordAudit } from './audit';
 import { ValidationError } from '../errors';
 import { escapeLike } from './masts';
+import { recordColumns } from './record-sql';
 
-export interface Address {
-  id: string;
-  label: string;
-  postcode: string | null;
-  lat: number;
-  lon: number;
-  source: string;
-  updatedAt: Date;
-}
+export type { Address };
 
 export interface GazetteerHit {
   label: string;
@@ -21,26 +14,6 @@ export interface GazetteerHit {
   lat: number;
   lon: number;
   score: number;
-}
-
-interface AddressRowDb {
-  id: string;
-  label: string;
-  postcode: string | null;
-  lat: number;
-  lon: number;
-  source: string;
-  updated_at: Date;
-}
-
-const COLUMNS = ['id', 'label', 'postcode', 'source', 'updated_at'];
-
-function toAddress(r: AddressRowDb): Address {
-  return { id: String(r.id), label: r.label, postcode: r.postcode, lat: r.lat, lon: r.lon, source: r.source, updatedAt: r.updated_at };
-}
-
-export function addressJson(a: Address): AddressJson {
-  return { id: a.id, label: a.label, postcode: a.postcode, lat: a.lat, lon: a.lon, source: a.source, updated_at: a.updatedAt.toISOString() };
 }
 
 /** Above this many rows the unfiltered list reports the planner's estimate instead of counting. */
@@ -72,7 +45,7 @@ export async function listAddresses(
 ): Promise<{ items: Address[]; total: number; totalExact: boolean; next: string | null }> {
   const base = db('addresses');
   if (query.q) base.whereRaw('search_text ILIKE ?', [`%${escapeLike(query.q)}%`]);
-  const page = base.clone().select<AddressRowDb[]>([...COLUMNS, db.raw('ST_Y(geom) AS lat'), db.raw('ST_X(geom) AS lon')]);
+  const page = base.clone().select(recordColumns(db, ADDRESS, 'addresses'));
   if (query.after) page.whereRaw('(label, id) > (?, ?)', decodeCursor(query.after));
   else page.offset(query.offset);
   const rows = await page.orderBy([{ column: 'label' }, { column: 'id' }]).limit(query.limit + 1);
@@ -92,7 +65,7 @@ export async function listAddresses(
     total = Number(counted[0].n);
     totalExact = total <= EXACT_COUNT_BELOW;
   }
-  const items = rows.slice(0, query.limit).map(toAddress);
+  const items = rows.slice(0, query.limit).map((r: Record<string, unknown>) => ADDRESS.fromRow(r));
   const last = items[items.length - 1];
   return { items, total, totalExact, next: rows.length > query.limit && last ? encodeCursor(last.label, last.id) : null };
 }

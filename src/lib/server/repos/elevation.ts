@@ -13,139 +13,35 @@ import { mkdir, readFile, readdir, rename, rm, stat, writeFile } from 'node:fs/p
 import { endianness } from 'node:os';
 import { join } from 'node:path';
 import type { Tx } from '../db';
-import {
-  getGridSpacingDeg,
-  getGridSpacingM,
-  getGridSpacingMetres,
-  type ElevationGrid,
-  type ElevationSamples,
-  type GridRegistration,
-} from '../../domain/elevation-grid';
+import type { ElevationGrid, ElevationSamples } from '../../domain/elevation-grid';
 import { listPointsAlong, type LatLon } from '../../domain/geodesy';
-import type { ElevationFormat, ElevationGridJson } from '../../schemas/elevation';
+import { ELEVATION_GRID, type ElevationFormat, type ElevationGridRecord, type SampleType } from '../../schemas/elevation';
 import { NotFoundError } from '../errors';
 import { recordAudit } from './audit';
+import { recordColumns } from './record-sql';
 
-export type SampleType = 'int16' | 'float32';
-
-export interface ElevationGridRecord {
-  id: string;
-  name: string;
-  format: ElevationFormat;
-  sha256: string;
-  byteSize: number;
-  width: number;
-  height: number;
-  registration: GridRegistration;
-  west: number;
-  south: number;
-  east: number;
-  north: number;
-  nodata: number | null;
-  sampleType: SampleType;
-  minM: number | null;
-  maxM: number | null;
-  nodataCount: number;
-  samplesFile: string;
-  samplesSha256: string;
-  uploadedBy: { id: string; name: string } | null;
-  createdAt: Date;
-}
-
-interface ElevationGridRow {
-  id: string;
-  name: string;
-  format: ElevationFormat;
-  sha256: string;
-  byte_size: string | number;
-  width: number;
-  height: number;
-  registration: GridRegistration;
-  west: number;
-  south: number;
-  east: number;
-  north: number;
-  nodata: number | null;
-  sample_type: SampleType;
-  min_m: number | null;
-  max_m: number | null;
-  nodata_count: string | number;
-  samples_file: string;
-  samples_sha256: string;
-  uploaded_by: string | null;
-  uploaded_by_name?: string | null;
-  created_at: Date;
-}
-
-function toRecord(r: ElevationGridRow): ElevationGridRecord {
-  return {
-    id: String(r.id),
-    name: r.name,
-    format: r.format,
-    sha256: r.sha256,
-    byteSize: Number(r.byte_size),
-    width: r.width,
-    height: r.height,
-    registration: r.registration,
-    west: r.west,
-    south: r.south,
-    east: r.east,
-    north: r.north,
-    nodata: r.nodata,
-    sampleType: r.sample_type,
-    minM: r.min_m,
-    maxM: r.max_m,
-    nodataCount: Number(r.nodata_count),
-    samplesFile: r.samples_file,
-    samplesSha256: r.samples_sha256,
-    uploadedBy: r.uploaded_by === null ? null : { id: String(r.uploaded_by), name: r.uploaded_by_name ?? '' },
-    createdAt: r.created_at,
-  };
-}
-
-const COLUMNS = [
-  'g.id',
-  'g.name',
-  'g.format',
-  'g.sha256',
-  'g.byte_size',
-  'g.width',
-  'g.height',
-  'g.registration',
-  'g.west',
-  'g.south',
-  'g.east',
-  'g.north',
-  'g.nodata',
-  'g.sample_type',
-  'g.min_m',
-  'g.max_m',
-  'g.nodata_count',
-  'g.samples_file',
-  'g.samples_sha256',
-  'g.uploaded_by',
-  'u.name as uploaded_by_name',
-  'g.created_at',
-];
+export type { ElevationGridRecord, SampleType };
 
 function selectGrids(db: Tx) {
-  return db<ElevationGridRow>({ g: 'elevation_grids' }).leftJoin({ u: 'users' }, 'u.id', 'g.uploaded_by').select(COLUMNS);
+  return db('elevation_grids as g')
+    .leftJoin('users as u', 'u.id', 'g.uploaded_by')
+    .select(recordColumns(db, ELEVATION_GRID, 'g'));
 }
 
 export async function listElevationGrids(db: Tx): Promise<ElevationGridRecord[]> {
-  const rows: ElevationGridRow[] = await selectGrids(db).orderBy([{ column: 'g.name' }, { column: 'g.id' }]);
-  return rows.map(toRecord);
+  const rows: Record<string, unknown>[] = await selectGrids(db).orderBy([{ column: 'g.name' }, { column: 'g.id' }]);
+  return rows.map((r) => ELEVATION_GRID.fromRow(r));
 }
 
 export async function findElevationGrid(db: Tx, id: string): Promise<ElevationGridRecord> {
-  const row: ElevationGridRow | undefined = await selectGrids(db).where('g.id', id).first();
+  const row: Record<string, unknown> | undefined = await selectGrids(db).where('g.id', id).first();
   if (!row) throw new NotFoundError('Elevation grid not found');
-  return toRecord(row);
+  return ELEVATION_GRID.fromRow(row);
 }
 
 export async function findElevationGridBySha256(db: Tx, sha256: string): Promise<ElevationGridRecord | null> {
-  const row: ElevationGridRow | undefined = await selectGrids(db).where('g.sha256', sha256).first();
-  return row ? toRecord(row) : null;
+  const row: Record<string, unknown> | undefined = await selectGrids(db).where('g.sha256', sha256).first();
+  return row ? ELEVATION_GRID.fromRow(row) : null;
 }
 
 /** Grids whose bounds meet the great-circle path from `from` to `to` (or the point, when they are equal). */
@@ -154,18 +50,18 @@ export async function findGridsCovering(db: Tx, from: LatLon, to: LatLon): Promi
   const geometry = same
     ? { type: 'Point', coordinates: [from.lon, from.lat] }
     : { type: 'LineString', coordinates: listPointsAlong(from, to, 17).map((p) => [p.lon, p.lat]) };
-  const rows: ElevationGridRow[] = await selectGrids(db)
+  const rows: Record<string, unknown>[] = await selectGrids(db)
     .whereRaw('ST_Intersects(g.bounds, ST_SetSRID(ST_GeomFromGeoJSON(?), 4326))', [JSON.stringify(geometry)])
     .orderBy('g.id');
-  return rows.map(toRecord);
+  return rows.map((r) => ELEVATION_GRID.fromRow(r));
 }
 
 /** Grids meeting a longitude/latitude box (west, south, east, north). */
 export async function findGridsInBox(db: Tx, box: readonly [number, number, number, number]): Promise<ElevationGridRecord[]> {
-  const rows: ElevationGridRow[] = await selectGrids(db)
+  const rows: Record<string, unknown>[] = await selectGrids(db)
     .whereRaw('ST_Intersects(g.bounds, ST_MakeEnvelope(?, ?, ?, ?, 4326))', [...box])
     .orderBy('g.id');
-  return rows.map(toRecord);
+  return rows.map((r) => ELEVATION_GRID.fromRow(r));
 }
 
 export async function findGridsAt(db: Tx, point: LatLon): Promise<ElevationGridRecord[]> {
@@ -188,24 +84,7 @@ export async function insertElevationGrid(db: Tx, input: NewElevationGrid, actor
   const { grid } = input;
   const [inserted] = await db('elevation_grids')
     .insert({
-      name: input.name,
-      format: input.format,
-      sha256: input.sha256,
-      byte_size: input.byteSize,
-      width: grid.width,
-      height: grid.height,
-      registration: grid.registration,
-      west: grid.west,
-      south: grid.south,
-      east: grid.east,
-      north: grid.north,
-      nodata: grid.nodata,
-      sample_type: input.sampleType,
-      min_m: input.stats.minM,
-      max_m: input.stats.maxM,
-      nodata_count: input.stats.nodataCount,
-      samples_file: input.samplesFile,
-      samples_sha256: input.samplesSha256,
+      ...ELEVATION_GRID.insertRow({ ...input, ...grid, ...input.stats }),
       bounds: db.raw('ST_MakeEnvelope(?, ?, ?, ?, 4326)', [grid.west, grid.south, grid.east, grid.north]),
       uploaded_by: actorId,
     })
@@ -225,34 +104,6 @@ export async function deleteElevationGrid(db: Tx, id: string, actorId: string): 
 
 function auditView(r: ElevationGridRecord) {
   return { name: r.name, format: r.format, sha256: r.sha256, bbox: [r.west, r.south, r.east, r.north], width: r.width, height: r.height };
-}
-
-const round = (n: number, d: number) => Math.round(n * 10 ** d) / 10 ** d;
-
-export function elevationGridJson(r: ElevationGridRecord): ElevationGridJson {
-  const spacing = getGridSpacingDeg(r);
-  return {
-    id: r.id,
-    name: r.name,
-    format: r.format,
-    bbox: [r.west, r.south, r.east, r.north],
-    width: r.width,
-    height: r.height,
-    registration: r.registration,
-    resolution_arcsec: { lon: round(spacing.lonDeg * 3600, 4), lat: round(spacing.latDeg * 3600, 4) },
-    resolution_m: round(getGridSpacingM(r), 1),
-    resolution_ew_m: round(getGridSpacingMetres(r).eastWestM, 1),
-    resolution_ns_m: round(getGridSpacingMetres(r).northSouthM, 1),
-    sample_type: r.sampleType,
-    nodata: r.nodata,
-    nodata_count: r.nodataCount,
-    min_m: r.minM,
-    max_m: r.maxM,
-    byte_size: r.byteSize,
-    sha256: r.sha256,
-    uploaded_by: r.uploadedBy,
-    created_at: r.createdAt.toISOString(),
-  };
 }
 
 // ── Samples files ────────────────────────────────────────────────────────────────────────

@@ -1,7 +1,7 @@
 import { getDb } from '../../../lib/server/db';
 import { handler, json, parseQuery, requirePermission } from '../../../lib/server/http';
-import { addressJson, listAddresses } from '../../../lib/server/repos/addresses';
-import { AddressListQuerySchema } from '../../../lib/schemas/addresses';
+import { listAddresses } from '../../../lib/server/repos/addresses';
+import { AddressListQuerySchema, addressJson } from '../../../lib/schemas/addresses';
 
 // The gazetteer page by page (admin page; the planner searches through /api/geocode): ?offset= or
 // keyset ?after=<next of the previous page>; total_exact is false when total is an estimate.

@@ -1,7 +1,8 @@
 import { getDb } from '../../../lib/server/db';
 import { handler, json, parseWith, requirePermission } from '../../../lib/server/http';
 import { removeElevationGrid } from '../../../lib/server/elevation-service';
-import { elevationGridJson, findElevationGrid } from '../../../lib/server/repos/elevation';
+import { findElevationGrid } from '../../../lib/server/repos/elevation';
+import { elevationGridJson } from '../../../lib/schemas/elevation';
 import { IdParamSchema } from '../../../lib/schemas/params';
 
 export const GET = handler(async ({ locals, params }) => {

@@ -2,7 +2,8 @@ import { getDb } from '../../../lib/server/db';
 import { handler, json, requirePermission } from '../../../lib/server/http';
 import { readElevationUpload } from '../../../lib/server/elevation-import';
 import { importUploadedElevation } from '../../../lib/server/elevation-service';
-import { elevationGridJson, listElevationGrids } from '../../../lib/server/repos/elevation';
+import { listElevationGrids } from '../../../lib/server/repos/elevation';
+import { elevationGridJson } from '../../../lib/schemas/elevation';
 
 // Every signed-in role may see which ground has elevation data; admins import and delete.
 export const GET = handler(async ({ locals }) => {
