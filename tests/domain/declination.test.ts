@@ -92,6 +92,17 @@ describe('model validity window', () => {
   });
 });
 
+describe('the model carried to a date is kept for the next call', () => {
+  it('answers alternating dates exactly as a first call for each date does', () => {
+    // WMM2025 secular variation changes D between dates, so a model kept for the wrong date would show (geomagnetism 0.2.0 values above)
+    const a = { lat: 52.2053, lon: 0.1218, date: new Date('2026-01-01T00:00:00Z') };
+    const b = { ...a, date: new Date('2027-01-01T00:00:00Z') };
+    const first = [getGeomagneticField(a), getGeomagneticField(b)];
+    expect(first[0]!.declinationDeg).not.toBe(first[1]!.declinationDeg);
+    expect([getGeomagneticField(a), getGeomagneticField(b), getGeomagneticField(b), getGeomagneticField(a)]).toEqual([first[0], first[1], first[1], first[0]]);
+  });
+});
+
 describe('getMagneticBearing', () => {
   // magnetic bearing = true − D (WMM sign convention), calculated (±0.01°), incl. wrap-around both ways
   it.each([

@@ -12,6 +12,7 @@ import {
 import { shrinkCalibration } from '../../src/lib/domain/calibration';
 import { getDestination, getDistanceM } from '../../src/lib/domain/geodesy';
 import { getFreeSpacePathLossDb } from '../../src/lib/domain/link-budget';
+import { getDeclination } from '../../src/lib/domain/declination';
 import type { ProfileSample } from '../../src/lib/domain/terrain';
 
 // Hand-built fixture (invented): a customer on flat ground at 100 m, a mast 6 km due north behind a
@@ -106,6 +107,14 @@ describe('shortlist', () => {
     // Turf's east destination follows the great circle, so the bearing back is close to 270°.
     expect(Math.abs(east.bearingTrueDeg - 90)).toBeLessThan(0.1);
     expect(east.bearingMagneticDeg).toBeCloseTo((((east.bearingTrueDeg - east.declinationDeg) % 360) + 360) % 360, 9);
+  });
+
+  it('gives the same entry when the caller passes the declination it worked out once for the shortlist', () => {
+    // One customer and date have one declination (WMM2025), so a shortlist computes it once for all its cells.
+    const declinationDeg = getDeclination({ lat: customer.lat, lon: customer.lon, date: settings.date });
+    const given = evaluateCandidate(cell('N', northMast, 180), { profile: ridge(6000), calibration: null }, { ...settings, declinationDeg });
+    expect(given).toEqual(north);
+    expect(given.declinationDeg).toBe(declinationDeg);
   });
 
   it('sums the link budget of the shortlist model for a clear path', () => {

@@ -22,6 +22,20 @@ export interface GeomagneticField {
   isWithinModelValidity: boolean;
 }
 
+type TimedModel = ReturnType<typeof geomagnetism.model>;
+let lastModel: { time: number; model: TimedModel } | null = null;
+
+/**
+ * The model's coefficients carried to a date. Building them costs as much as evaluating a point, and
+ * a shortlist or a plan asks for one date many times, so the last one is kept (reading a point does
+ * not change the model).
+ */
+function modelAt(date: Date): TimedModel {
+  const time = date.getTime();
+  if (lastModel?.time !== time) lastModel = { time, model: geomagnetism.model(date, { allowOutOfBoundsModel: true }) };
+  return lastModel.model;
+}
+
 /**
  * Main-field elements from the World Magnetic Model (WMM2025 for 2025–2029, NOAA NCEI / BGS, through the `geomagnetism` package).
  *
@@ -30,7 +44,7 @@ export interface GeomagneticField {
  * crustal anomalies can differ from the model by well over 0.1°.
  */
 export function getGeomagneticField({ lat, lon, heightM = 0, date }: GeomagneticInput): GeomagneticField {
-  const model = geomagnetism.model(date, { allowOutOfBoundsModel: true });
+  const model = modelAt(date);
   // The package takes height in km, above the WGS84 ellipsoid (read from its source).
   const field = model.point([lat, lon, heightM / 1000]);
   const validFrom = Date.UTC(model.epoch, 0, 1);

@@ -138,16 +138,17 @@ export function sampleElevation(grid: ElevationGrid, lat: number, lon: number): 
   const r0 = Math.min(Math.floor(fr), maxRow - 1);
   const tc = fc - c0;
   const tr = fr - r0;
-  const corners: Array<[number, number, number]> = [
-    [r0, c0, (1 - tr) * (1 - tc)],
-    [r0, c0 + 1, (1 - tr) * tc],
-    [r0 + 1, c0, tr * (1 - tc)],
-    [r0 + 1, c0 + 1, tr * tc],
-  ];
+  const { values, width } = grid;
+  const top = r0 * width + c0;
+  // The four neighbours in a fixed order (north-west, north-east, south-west, south-east); a zero
+  // weight skips its sample, so a void there does not matter.
   let sum = 0;
-  for (const [r, c, w] of corners) {
+  for (let k = 0; k < 4; k++) {
+    const south = k >> 1;
+    const east = k & 1;
+    const w = (south ? tr : 1 - tr) * (east ? tc : 1 - tc);
     if (w === 0) continue;
-    const v = grid.values[r * grid.width + c]!;
+    const v = values[top + south * width + east]!;
     if (isNodata(grid, v)) return null;
     sum += w * v;
   }

@@ -96,6 +96,11 @@ export interface ShortlistSettings {
   customer: LatLon;
   customerGroundM: number | null;
   date: Date;
+  /**
+   * The magnetic declination at the customer on `date`, when the caller has it: the same for every
+   * candidate of one shortlist, so it is worked out once (`getDeclination`) rather than per cell.
+   */
+  declinationDeg?: number;
   kit: Kit;
   /** The customer's current antenna (e.g. the router's own) for the expected improvement. */
   currentKit: Kit | null;
@@ -203,7 +208,7 @@ export function evaluateCandidate(cell: CandidateCell, ctx: CandidateContext, s:
   const mastHeightM = cell.antennaHeightM ?? DEFAULT_MAST_ANTENNA_HEIGHT_M;
   if (cell.antennaHeightM === null) warnings.push(`Mast antenna height unknown; ${DEFAULT_MAST_ANTENNA_HEIGHT_M} m assumed`);
   const bearingTrueDeg = getInitialBearing(s.customer, cell.mastPosition);
-  const declinationDeg = getDeclination({ lat: s.customer.lat, lon: s.customer.lon, date: s.date });
+  const declinationDeg = s.declinationDeg ?? getDeclination({ lat: s.customer.lat, lon: s.customer.lon, date: s.date });
 
   // A position on the mast itself has a profile of zero length: there is no path to analyse.
   const terrain =

@@ -177,38 +177,42 @@ export function analysePathProfile(input: PathProfileInput): PathProfileAnalysis
   const totalM = last.distanceM;
   const txM = first.groundM + txHeightM;
   const rxM = last.groundM + rxHeightM;
-  const obstacleM = samples.map((s) => s.groundM + (s.clutterM ?? 0) + getEarthBulgeM(s.distanceM, totalM - s.distanceM, k));
+  const lastIndex = samples.length - 1;
 
-  const analysed: AnalysedSample[] = samples.map((s, i) => {
+  // One pass, no intermediate arrays: the shortlist analyses a few hundred samples for every candidate.
+  const analysed: AnalysedSample[] = new Array(samples.length);
+  const obstacleM: number[] = new Array(samples.length);
+  for (let i = 0; i < samples.length; i++) {
+    const s = samples[i]!;
     const d1 = s.distanceM;
     const d2 = totalM - d1;
+    const bulgeM = getEarthBulgeM(d1, d2, k);
+    obstacleM[i] = s.groundM + (s.clutterM ?? 0) + bulgeM;
     const losM = txM + ((rxM - txM) * d1) / totalM;
     const fresnelM = getFresnelRadiusM(d1, d2, freqMhz);
     const clearanceM = losM - obstacleM[i]!;
-    const interior = i > 0 && i < samples.length - 1;
-    return {
+    const interior = i > 0 && i < lastIndex;
+    analysed[i] = {
       distanceM: d1,
       groundM: s.groundM,
-      bulgeM: getEarthBulgeM(d1, d2, k),
+      bulgeM,
       losM,
       fresnelM,
       clearanceM,
       clearanceRatio: interior && fresnelM > 0 ? clearanceM / fresnelM : null,
     };
-  });
+  }
 
   const worst = findWorstSample(analysed);
 
-  const heights = obstacleM.map((h, i) => (i === 0 ? txM : i === samples.length - 1 ? rxM : h));
-  const distances = samples.map((s) => s.distanceM);
-  const edges =
-    method === 'deygout'
-      ? findDeygoutEdges(distances, heights, 0, samples.length - 1, freqMhz, 0)
-      : method === 'bullington'
-        ? findBullingtonEdge(distances, heights, freqMhz)
-        : worst
-          ? [pickEdge(worst)]
-          : [];
+  let edges: DiffractionEdge[];
+  if (method === 'single') {
+    edges = worst ? [pickEdge(worst)] : [];
+  } else {
+    const heights = obstacleM.map((h, i) => (i === 0 ? txM : i === lastIndex ? rxM : h));
+    const distances = samples.map((s) => s.distanceM);
+    edges = method === 'deygout' ? findDeygoutEdges(distances, heights, 0, lastIndex, freqMhz, 0) : findBullingtonEdge(distances, heights, freqMhz);
+  }
 
   return {
     totalDistanceM: totalM,
@@ -223,10 +227,10 @@ export function analysePathProfile(input: PathProfileInput): PathProfileAnalysis
 
 function findWorstSample(samples: AnalysedSample[]): PathProfileAnalysis['worst'] {
   let worstIndex = -1;
-  samples.forEach((sample, index) => {
-    const ratio = sample.clearanceRatio;
+  for (let index = 0; index < samples.length; index++) {
+    const ratio = samples[index]!.clearanceRatio;
     if (ratio !== null && (worstIndex < 0 || ratio < samples[worstIndex]!.clearanceRatio!)) worstIndex = index;
-  });
+  }
   const sample = samples[worstIndex];
   if (!sample || sample.clearanceRatio === null) return null;
   // ν = √2·h/r1 with h = −clearance.
@@ -246,10 +250,13 @@ function pickEdge({ index, distanceM, nu, lossDb }: DiffractionEdge): Diffractio
 }
 
 function classifyPath(samples: AnalysedSample[]): PathClassification {
-  const ratios = samples.map((s) => s.clearanceRatio).filter((r): r is number => r !== null);
-  if (ratios.some((r) => r < 0)) return 'obstructed';
-  if (ratios.some((r) => r < FRESNEL_CLEARANCE_RATIO)) return 'fresnel';
-  return 'clear';
+  let fresnel = false;
+  for (const { clearanceRatio: r } of samples) {
+    if (r === null) continue;
+    if (r < 0) return 'obstructed';
+    if (r < FRESNEL_CLEARANCE_RATIO) fresnel = true;
+  }
+  return fresnel ? 'fresnel' : 'clear';
 }
 
 /**

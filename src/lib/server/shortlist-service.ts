@@ -22,6 +22,7 @@ import { getDataVersion } from './data-version';
 import { ValidationError } from './errors';
 import { findAntenna, findCable, listAntennas, type Antenna, type Cable } from './repos/catalogue';
 import { formatMetres } from '../domain/format';
+import { getDeclination } from '../domain/declination';
 
 export type ProfileProvider = (from: LatLon, to: LatLon, options: { maxSamples: number }) => Promise<ElevationProfile | null>;
 
@@ -200,7 +201,15 @@ async function evaluateCells(
     [...profiles.values()].find((p) => p?.points[0]?.groundM != null)?.points[0]?.groundM ??
     (await profileFor(req.at, req.at, { maxSamples: 2 }))?.points[0]?.groundM ??
     null;
-  const settings = { customer: req.at, customerGroundM, date: req.date, kit, currentKit, preferredOperatorId: req.preferredOperatorId ?? null };
+  const settings = {
+    customer: req.at,
+    customerGroundM,
+    date: req.date,
+    declinationDeg: getDeclination({ lat: req.at.lat, lon: req.at.lon, date: req.date }),
+    kit,
+    currentKit,
+    preferredOperatorId: req.preferredOperatorId ?? null,
+  };
   const evaluated = cells.map((cell) => ({
     ...evaluateCandidate(cell, { profile: toSamples(profiles.get(cell.mastId) ?? null), calibration: calibration.get(cell.cellId) ?? null }, settings),
     operatorColour: cell.operatorColour,
