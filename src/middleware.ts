@@ -11,6 +11,7 @@ import { config } from './lib/server/config';
 import { getDb } from './lib/server/db';
 import { startResidualJob } from './lib/server/residual-job';
 import { startBackgroundWork } from './lib/server/background';
+import { warmShortlist } from './lib/server/shortlist-warmup';
 import { startJobQueueInBackground } from './lib/server/jobs/runtime';
 import { DATABASE_UNAVAILABLE_MESSAGE, isDatabaseUnavailable } from './lib/server/db-errors';
 import { allowedApiMethods, methodNotAllowed, PAGE_METHODS } from './lib/server/methods';
@@ -23,6 +24,8 @@ const isApiPath = (pathname: string) => pathname === '/api' || pathname.startsWi
 export const onRequest = defineMiddleware(async (context, next) => {
   // Stores model residuals for new or changed readings in the background (once per process).
   if (config.databaseUrl) startResidualJob(getDb(), config.dataDir);
+  // Elevation grids in memory and the shortlist's code run once, before the first planner asks.
+  if (config.databaseUrl) void warmShortlist();
   // Tells reviewers that sightings wait (at most hourly each; once per process).
   if (config.databaseUrl) startBackgroundWork(context.url.origin);
   // The job queue and this instance's workers (imports), once per process.

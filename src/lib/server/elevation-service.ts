@@ -5,13 +5,16 @@ import { sampleElevationProfile, type ElevationGrid, type ElevationProfile, type
 import type { LatLon } from '../domain/geodesy';
 import { config } from './config';
 import { getDb } from './db';
+import { getDataVersion } from './data-version';
 import { importElevationFile, type ElevationUpload } from './elevation-import';
 import {
   deleteElevationGrid,
   findGridsCovering,
-  findGridsInBox,
+  listElevationGrids,
   loadElevationGrid,
   removeSamplesFileIfUnused,
+  CACHE_LIMIT_BYTES,
+  getSamplesBytes,
   type ElevationGridRecord,
 } from './repos/elevation';
 
@@ -38,15 +41,53 @@ export async function getElevationProfile(from: LatLon, to: LatLon, options: Pic
   return sampleElevationProfile(grids, from, to, { maxSamples: options.maxSamples });
 }
 
+type Box = readonly [west: number, south: number, east: number, north: number];
+
+/** Every grid's record as of one elevation data version: a handful of rows, read once per version. */
+let gridRecords: { version: string; records: Promise<ElevationGridRecord[]> } | null = null;
+
+async function listGridRecords(): Promise<ElevationGridRecord[]> {
+  const db = getDb();
+  const version = await getDataVersion(db, 'elevation');
+  if (gridRecords?.version !== version) {
+    const records = listElevationGrids(db).then((list) => [...list].sort((a, b) => Number(a.id) - Number(b.id)));
+    gridRecords = { version, records };
+    records.catch(() => {
+      if (gridRecords?.records === records) gridRecords = null;
+    });
+  }
+  return gridRecords.records;
+}
+
+/** Grids whose bounds meet the box (edges touching count, as ST_Intersects has it), in id order. */
+export function selectGridsInBox<T extends Pick<ElevationGridRecord, 'west' | 'south' | 'east' | 'north'>>(
+  records: readonly T[],
+  [west, south, east, north]: Box,
+): T[] {
+  return records.filter((r) => r.west <= east && west <= r.east && r.south <= north && south <= r.north);
+}
+
 /**
  * A profile sampler over one area: the grids meeting the box are loaded once, so many profiles
- * inside it (a shortlist and its calibration readings) cost no further queries.
+ * inside it (a shortlist and its calibration readings) cost no further queries. The grid list comes
+ * from memory while the elevation data version stands.
  */
 export async function getAreaProfileSampler(
-  box: readonly [number, number, number, number],
+  box: Box,
 ): Promise<(from: LatLon, to: LatLon, options?: Pick<ProfileOptions, 'maxSamples'>) => Promise<ElevationProfile>> {
-  const grids = await loadGrids(await findGridsInBox(getDb(), box));
+  const grids = await loadGrids(selectGridsInBox(await listGridRecords(), box));
   return async (from, to, options = {}) => sampleElevationProfile(grids, from, to, { maxSamples: options.maxSamples });
+}
+
+/**
+ * Reads the grids' samples into the in-process cache at start, so a first shortlist does not wait for
+ * them: as many as fill half the cache (the rest load when a path needs them). Returns how many.
+ */
+export async function warmElevationGrids(): Promise<number> {
+  const records = await listGridRecords();
+  let bytes = 0;
+  const fitting = records.filter((r) => (bytes += getSamplesBytes(r)) <= CACHE_LIMIT_BYTES / 2);
+  return (await loadGrids(fitting)).length;
 }
 
 /** Ground height at one point from the finest grid with data there, or null. */

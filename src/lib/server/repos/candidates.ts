@@ -160,3 +160,23 @@ export async function listCandidateCellsByIds(db: Tx, cellIds: string[]): Promis
   const rows = await selectCandidates(db).whereIn('c.id', cellIds).whereNotNull('c.dl_mhz');
   return rows.map(toCandidate);
 }
+
+/**
+ * A position to run a first shortlist at when a process starts: beside an active mast inside the first
+ * elevation grid (so terrain is worked too), or beside any active mast; null without masts.
+ */
+export async function findWarmupPosition(db: Tx): Promise<LatLon | null> {
+  const { rows } = await db.raw<{ rows: Array<{ lat: number; lon: number }> }>(
+    `SELECT ST_Y(m.geom) AS lat, ST_X(m.geom) AS lon
+       FROM masts m
+       LEFT JOIN LATERAL (SELECT bounds FROM elevation_grids ORDER BY id LIMIT 1) g ON true
+      WHERE m.status = 'active'
+      ORDER BY (g.bounds IS NOT NULL AND m.geom && g.bounds) DESC, m.id
+      LIMIT 1`,
+  );
+  const mast = rows[0];
+  // A little way off the mast, so the paths to it and its neighbours have a length.
+  return mast ? { lat: Number(mast.lat) + WARMUP_OFFSET_DEG, lon: Number(mast.lon) } : null;
+}
+
+const WARMUP_OFFSET_DEG = 0.01;

@@ -176,7 +176,7 @@ export async function removeOrphanSampleFiles(db: Tx, dataDir: string, now = Dat
 
 // In-process cache of loaded samples, keyed by their checksum and bounded by size (least recently
 // used goes first). Sized for a handful of 1 arc-second tiles (~26–52 MB each).
-const CACHE_LIMIT_BYTES = 512 * 1024 * 1024;
+export const CACHE_LIMIT_BYTES = 512 * 1024 * 1024;
 const cache = new Map<string, ElevationSamples>();
 const loading = new Map<string, Promise<ElevationSamples>>();
 let cachedBytes = 0;
@@ -191,13 +191,17 @@ function remember(key: string, values: ElevationSamples): void {
   }
 }
 
+/** Bytes a grid's samples take in memory (and in the cache). */
+export function getSamplesBytes(record: Pick<ElevationGridRecord, 'width' | 'height' | 'sampleType'>): number {
+  return record.width * record.height * (record.sampleType === 'int16' ? 2 : 4);
+}
+
 async function readSamples(record: ElevationGridRecord, dataDir: string): Promise<ElevationSamples> {
   assertLittleEndianHost();
   const path = join(dataDir, SAMPLES_FOLDER, record.samplesFile);
   const buffer = await readFile(path);
-  const perSample = record.sampleType === 'int16' ? 2 : 4;
-  if (buffer.byteLength !== record.width * record.height * perSample) {
-    throw new Error(`Elevation samples ${path} have ${buffer.byteLength} bytes; ${record.width * record.height * perSample} expected`);
+  if (buffer.byteLength !== getSamplesBytes(record)) {
+    throw new Error(`Elevation samples ${path} have ${buffer.byteLength} bytes; ${getSamplesBytes(record)} expected`);
   }
   if (sha256Hex(buffer) !== record.samplesSha256) throw new Error(`Elevation samples ${path} do not match their checksum`);
   // A fresh, aligned copy: Buffers may start at any offset of a shared pool.
