@@ -1,9 +1,21 @@
-import { useEffect, useRef, useState, type FormEvent } from 'react';
+import { useRef, useState, type FormEvent } from 'react';
 import { ApiError } from '../../lib/client/api';
 import { addressesApi, type AddressImportJson, type AddressJson } from '../../lib/client/planning-api';
 import { MISSING, formatNumber } from '../../lib/domain/format';
+import { SortableTable, type Column } from '../ui/SortableTable';
+import { useQuery } from '../ui/use-api';
+import { useDebounced } from '../tools/useDebounced';
+import { InputField, SearchBox, SubmitButton } from '../admin/parts';
 
 const PAGE = 25;
+
+const COLUMNS: Column<AddressJson>[] = [
+  { key: 'label', label: 'Label', render: (a) => a.label },
+  { key: 'postcode', label: 'Postcode', render: (a) => a.postcode ?? MISSING, className: 'whitespace-nowrap' },
+  { key: 'lat', label: 'Lat', render: (a) => formatNumber(a.lat, 5), className: 'text-right tabular-nums' },
+  { key: 'lon', label: 'Lon', render: (a) => formatNumber(a.lon, 5), className: 'text-right tabular-nums' },
+  { key: 'source', label: 'Source', render: (a) => a.source },
+];
 
 interface Outcome {
   kind: 'done' | 'rejected' | 'error';
@@ -24,23 +36,10 @@ export default function AddressesAdmin() {
   // million addresses costs what the first does.
   const [cursors, setCursors] = useState<Array<string | undefined>>([undefined]);
   const page = cursors.length - 1;
-  const [list, setList] = useState<{ items: AddressJson[]; total: number; total_exact: boolean; next: string | null } | null>(null);
-  const [listError, setListError] = useState<string | null>(null);
-  const [reload, setReload] = useState(0);
+  const q = useDebounced(query.trim(), 200);
+  const addresses = useQuery(JSON.stringify({ q, after: cursors[page] }), () => addressesApi.list({ q: q || undefined, limit: PAGE, after: cursors[page] }));
+  const list = addresses.data;
   const input = useRef<HTMLInputElement>(null);
-
-  useEffect(() => {
-    const t = setTimeout(() => {
-      addressesApi.list({ q: query.trim() || undefined, limit: PAGE, after: cursors[page] }).then(
-        (r) => {
-          setList(r);
-          setListError(null);
-        },
-        (e: ApiError) => setListError(e.message),
-      );
-    }, 200);
-    return () => clearTimeout(t);
-  }, [query, cursors, page, reload]);
 
   async function upload(e: FormEvent) {
     e.preventDefault();
@@ -74,7 +73,7 @@ export default function AddressesAdmin() {
       setFile(null);
       if (input.current) input.current.value = '';
       setCursors([undefined]);
-      setReload((n) => n + 1);
+      addresses.refetch();
     } catch (err) {
       if (err instanceof ApiError) {
         const lines = Object.entries(err.fields)
@@ -96,27 +95,18 @@ export default function AddressesAdmin() {
       <section className="card min-w-0 self-start" aria-labelledby="import-heading">
         <h2 id="import-heading">Import a CSV</h2>
         <form className="mt-3 space-y-3" onSubmit={upload} noValidate>
-          <div>
-            <label htmlFor="addr-file" className="field-label">
-              File
-            </label>
-            <input
-              ref={input}
-              id="addr-file"
-              type="file"
-              accept=".csv,text/csv"
-              className="block w-full text-sm file:mr-3 file:rounded-md file:border file:border-ink-300 file:bg-white file:px-3 file:py-1.5 file:text-sm file:font-semibold"
-              onChange={(e) => setFile(e.target.files?.[0] ?? null)}
-            />
-            <p className="mt-1 text-xs text-ink-600">
-              Any size up to the configured limit (512 MB unless IMPORT_MAX_BYTES says otherwise). First line: label,postcode,lat,lon
-            </p>
-          </div>
+          <InputField
+            id="addr-file"
+            label="File"
+            inputRef={input}
+            type="file"
+            accept=".csv,text/csv"
+            onChange={(e) => setFile(e.target.files?.[0] ?? null)}
+            hint="Any size up to the configured limit (512 MB unless IMPORT_MAX_BYTES says otherwise). First line: label,postcode,lat,lon"
+          />
           <pre className="whitespace-pre-wrap break-all rounded bg-ink-50 p-2 text-xs text-ink-700" aria-label="Example">{`label,postcode,lat,lon
 "Alder Farm, Crake Lane",KLV-9001,-47.2101,-128.5203`}</pre>
-          <button type="submit" className="btn-primary w-full" disabled={busy}>
-            {busy ? 'Importing…' : 'Import addresses'}
-          </button>
+          <SubmitButton pending={busy} label={busy ? 'Importing…' : 'Import addresses'} />
         </form>
         <div aria-live="polite" className="mt-4" data-testid="import-outcome">
           {outcome && (
@@ -152,71 +142,32 @@ export default function AddressesAdmin() {
       <section className="card min-w-0" aria-labelledby="addresses-heading">
         <div className="mb-3 flex flex-wrap items-center gap-3">
           <h2 id="addresses-heading">Addresses {list && <span className="font-normal text-ink-600">({about + String(list.total)})</span>}</h2>
-          <label className="w-full sm:ml-auto sm:w-auto">
-            <span className="sr-only">Search addresses</span>
-            <input
-              type="search"
-              placeholder="Search label or postcode"
-              className="field-input w-full sm:w-72"
-              value={query}
-              onChange={(e) => {
-                setQuery(e.target.value);
-                setCursors([undefined]);
-              }}
-            />
-          </label>
+          <SearchBox
+            label="Search addresses"
+            placeholder="Search label or postcode"
+            className="sm:w-72"
+            value={query}
+            onChange={(v) => {
+              setQuery(v);
+              setCursors([undefined]);
+            }}
+          />
         </div>
-        {listError ? (
+        {addresses.error ? (
           <p role="alert" className="text-alarm-700">
-            {listError}
+            {addresses.error.message}
           </p>
         ) : !list ? (
           <p className="text-ink-500">Loading addresses…</p>
         ) : (
           <>
-            <div className="overflow-x-auto">
-              <table className="data-table stack">
-                <caption className="sr-only">Addresses</caption>
-                <thead>
-                  <tr>
-                    <th scope="col">Label</th>
-                    <th scope="col">Postcode</th>
-                    <th scope="col" className="text-right">
-                      Lat
-                    </th>
-                    <th scope="col" className="text-right">
-                      Lon
-                    </th>
-                    <th scope="col">Source</th>
-                  </tr>
-                </thead>
-                <tbody>
-                  {list.items.length === 0 ? (
-                    <tr>
-                      <td colSpan={5} className="py-6 text-center text-ink-500">
-                        {query ? 'No address matches your search' : 'No addresses yet'}
-                      </td>
-                    </tr>
-                  ) : (
-                    list.items.map((a) => (
-                      <tr key={a.id}>
-                        <td data-label="Label">{a.label}</td>
-                        <td className="whitespace-nowrap" data-label="Postcode">
-                          {a.postcode ?? MISSING}
-                        </td>
-                        <td className="text-right tabular-nums" data-label="Lat">
-                          {formatNumber(a.lat, 5)}
-                        </td>
-                        <td className="text-right tabular-nums" data-label="Lon">
-                          {formatNumber(a.lon, 5)}
-                        </td>
-                        <td data-label="Source">{a.source}</td>
-                      </tr>
-                    ))
-                  )}
-                </tbody>
-              </table>
-            </div>
+            <SortableTable
+              rows={list.items}
+              columns={COLUMNS}
+              rowKey={(a) => a.id}
+              caption="Addresses"
+              empty={q ? 'No address matches your search' : 'No addresses yet'}
+            />
             <nav className="mt-3 flex items-center justify-between text-sm" aria-label="Pages">
               <button type="button" className="btn-secondary py-1" disabled={page === 0} onClick={() => setCursors((c) => c.slice(0, -1))}>
                 Previous

@@ -1,8 +1,10 @@
-import { useEffect, useRef, useState, type FormEvent } from 'react';
-import { ApiError, type FieldErrors } from '../../lib/client/api';
+import { useRef, useState } from 'react';
+import { localCheckError } from '../../lib/client/api';
 import { elevationApi, type ElevationGridJson, type UploadProgress } from '../../lib/client/elevation-api';
 import { ELEVATION_FILE_ACCEPT, ELEVATION_FORMAT_LABELS, MAX_ELEVATION_UPLOAD_BYTES } from '../../lib/domain/elevation-formats';
-import { SortableTable, type Column } from '../ui/SortableTable';
+import type { Column } from '../ui/SortableTable';
+import { useQuery, useSubmit } from '../ui/use-api';
+import { DeleteAction, FormCard, InputField, ListCard, SubmitButton, upsertById, withoutId, useNotice } from './parts';
 import { formatBytes, formatDate, formatMetres, formatNumber, formatPercent } from '../../lib/domain/format';
 
 const fmtLat = (v: number) => `${formatNumber(Math.abs(v), 3)}° ${v < 0 ? 'S' : 'N'}`;
@@ -72,156 +74,112 @@ function PointCheck() {
   const [lat, setLat] = useState('');
   const [lon, setLon] = useState('');
   const [answer, setAnswer] = useState<string | null>(null);
-  const [fieldErrors, setFieldErrors] = useState<FieldErrors>({});
+  const checking = useSubmit({ failed: 'Could not check the point' });
 
-  async function check(e: FormEvent) {
-    e.preventDefault();
-    setFieldErrors({});
+  async function check() {
     setAnswer(null);
     // An empty box is not 0°: ask for both numbers instead of checking the point 0, 0.
-    const missing: FieldErrors = {};
-    if (lat.trim() === '' || !Number.isFinite(Number(lat))) missing.lat = [lat.trim() === '' ? 'Enter a latitude' : 'Latitude must be a number'];
-    if (lon.trim() === '' || !Number.isFinite(Number(lon))) missing.lon = [lon.trim() === '' ? 'Enter a longitude' : 'Longitude must be a number'];
-    if (Object.keys(missing).length) {
-      setFieldErrors(missing);
-      return;
-    }
-    try {
-      const r = await elevationApi.sample(Number(lat), Number(lon));
-      setAnswer(r.height_m === null ? 'No elevation data at this point' : `${formatMetres(r.height_m)} above sea level`);
-    } catch (err) {
-      if (err instanceof ApiError) {
-        setFieldErrors(err.fields);
-        setAnswer(Object.keys(err.fields).length ? null : err.message);
-      } else setAnswer('Could not check the point');
-    }
+    const need = (v: string, what: string) =>
+      v.trim() === '' ? [`Enter a ${what}`] : Number.isFinite(Number(v)) ? null : [`${capitalise(what)} must be a number`];
+    const result = await checking.submit(() => elevationApi.sample(Number(lat), Number(lon)), {
+      check: () => {
+        const missing = { lat: need(lat, 'latitude'), lon: need(lon, 'longitude') };
+        return Object.fromEntries(Object.entries(missing).filter((e): e is [string, string[]] => e[1] !== null));
+      },
+    });
+    if (result.ok) setAnswer(result.data.height_m === null ? 'No elevation data at this point' : `${formatMetres(result.data.height_m)} above sea level`);
+    // A refusal that names no field (the server down) is the answer line's to tell.
+    else if (!Object.keys(result.error.fields).length) setAnswer(result.error.message);
   }
 
-  const err = (k: string) =>
-    fieldErrors[k]?.map((m) => (
-      <p key={m} className="field-error" id={`elev-${k}-error`}>
-        {m}
-      </p>
-    ));
   return (
-    <form className="mt-3 space-y-3" onSubmit={check} noValidate>
+    <FormCard
+      id="check-elevation"
+      title="Check a point"
+      intro="The ground height the planner’s terrain profiles will use at a position."
+      onSubmit={check}
+      error={null}
+      pending={checking.pending}
+      submitLabel="Check height"
+      actions={
+        <>
+          <SubmitButton pending={checking.pending} label="Check height" className="btn-secondary w-full" />
+          <p aria-live="polite" className="min-h-5 text-sm text-ink-700" data-testid="elevation-point-answer">
+            {answer}
+          </p>
+        </>
+      }
+    >
       <div className="grid grid-cols-2 gap-3">
-        <div>
-          <label htmlFor="elev-lat" className="field-label">
-            Latitude
-          </label>
-          <input
-            id="elev-lat"
-            inputMode="decimal"
-            className="field-input"
-            placeholder="-47.2"
-            value={lat}
-            onChange={(e) => setLat(e.target.value)}
-            aria-invalid={!!fieldErrors.lat}
-            aria-describedby="elev-lat-error"
-          />
-          {err('lat')}
-        </div>
-        <div>
-          <label htmlFor="elev-lon" className="field-label">
-            Longitude
-          </label>
-          <input
-            id="elev-lon"
-            inputMode="decimal"
-            className="field-input"
-            placeholder="-128.5"
-            value={lon}
-            onChange={(e) => setLon(e.target.value)}
-            aria-invalid={!!fieldErrors.lon}
-            aria-describedby="elev-lon-error"
-          />
-          {err('lon')}
-        </div>
+        <InputField
+          id="elev-lat"
+          label="Latitude"
+          inputMode="decimal"
+          placeholder="-47.2"
+          value={lat}
+          onChange={(e) => setLat(e.target.value)}
+          errors={checking.fields.lat}
+        />
+        <InputField
+          id="elev-lon"
+          label="Longitude"
+          inputMode="decimal"
+          placeholder="-128.5"
+          value={lon}
+          onChange={(e) => setLon(e.target.value)}
+          errors={checking.fields.lon}
+        />
       </div>
-      <button type="submit" className="btn-secondary w-full">
-        Check height
-      </button>
-      <p aria-live="polite" className="min-h-5 text-sm text-ink-700" data-testid="elevation-point-answer">
-        {answer}
-      </p>
-    </form>
+    </FormCard>
   );
 }
 
+const capitalise = (s: string) => s.charAt(0).toUpperCase() + s.slice(1);
+const tooLarge = `The file is larger than ${MAX_ELEVATION_UPLOAD_BYTES / (1024 * 1024)} MB: cut the area into tiles`;
+
 export default function ElevationAdmin() {
-  const [grids, setGrids] = useState<ElevationGridJson[] | null>(null);
-  const [loadError, setLoadError] = useState<string | null>(null);
-  const [notice, setNotice] = useState<string | null>(null);
+  const grids = useQuery('elevation', () => elevationApi.list().then((r) => r.items));
+  const uploading = useSubmit({ failed: 'Could not upload the file' });
+  const { notice, setNotice, attempt } = useNotice();
   const [file, setFile] = useState<File | null>(null);
-  const [fieldErrors, setFieldErrors] = useState<FieldErrors>({});
-  const [formError, setFormError] = useState<string | null>(null);
   const [progress, setProgress] = useState<UploadProgress | null>(null);
-  const [confirming, setConfirming] = useState<string | null>(null);
   const fileRef = useRef<HTMLInputElement>(null);
   const abortRef = useRef<AbortController | null>(null);
   const busy = progress !== null;
-
-  useEffect(() => {
-    elevationApi.list().then(
-      (r) => setGrids(r.items),
-      (e: ApiError) => setLoadError(e.message),
-    );
-  }, []);
+  const refuseFile = (message: string) => uploading.fail(localCheckError({ file: [message] }));
 
   function choose(f: File | undefined) {
-    setFieldErrors({});
-    setFormError(null);
+    uploading.fail(null);
     setFile(f ?? null);
-    if (f && f.size > MAX_ELEVATION_UPLOAD_BYTES) {
-      setFieldErrors({ file: [`The file is larger than ${MAX_ELEVATION_UPLOAD_BYTES / (1024 * 1024)} MB: cut the area into tiles`] });
-    }
+    if (f && f.size > MAX_ELEVATION_UPLOAD_BYTES) refuseFile(tooLarge);
   }
 
-  async function upload(e: FormEvent) {
-    e.preventDefault();
-    setFieldErrors({});
-    setFormError(null);
-    if (!file) {
-      setFieldErrors({ file: ['Choose a GeoTIFF or .hgt file'] });
-      return;
-    }
-    if (file.size > MAX_ELEVATION_UPLOAD_BYTES) {
-      setFieldErrors({ file: [`The file is larger than ${MAX_ELEVATION_UPLOAD_BYTES / (1024 * 1024)} MB: cut the area into tiles`] });
-      return;
-    }
+  async function upload() {
+    if (!file) return refuseFile('Choose a GeoTIFF or .hgt file');
+    if (file.size > MAX_ELEVATION_UPLOAD_BYTES) return refuseFile(tooLarge);
     const controller = new AbortController();
     abortRef.current = controller;
     setProgress({ loaded: 0, total: file.size });
-    try {
-      const created = await elevationApi.upload(file, setProgress, controller.signal);
-      setGrids((list) => [...(list ?? []), created]);
-      setNotice(`Imported ${created.name}: ${created.width} × ${created.height} samples`);
-      setFile(null);
-      if (fileRef.current) fileRef.current.value = '';
-    } catch (err) {
-      if (err instanceof ApiError) {
-        if (err.code !== 'ABORTED') {
-          setFormError(err.message);
-          if (err.fields.file) setFieldErrors({ file: err.fields.file });
-        }
-      } else setFormError('Could not upload the file');
-    } finally {
-      abortRef.current = null;
-      setProgress(null);
+    const result = await uploading.submit(() => elevationApi.upload(file, setProgress, controller.signal));
+    abortRef.current = null;
+    setProgress(null);
+    if (!result.ok) {
+      // Cancelled by the person uploading: nothing to report.
+      if (result.error.code === 'ABORTED') uploading.fail(null);
+      return;
     }
+    grids.setData((list) => upsertById(list, result.data));
+    setNotice(`Imported ${result.data.name}: ${result.data.width} × ${result.data.height} samples`);
+    setFile(null);
+    if (fileRef.current) fileRef.current.value = '';
   }
 
-  async function remove(g: ElevationGridJson) {
-    setConfirming(null);
-    try {
+  const remove = (g: ElevationGridJson) =>
+    attempt(async () => {
       await elevationApi.remove(g.id);
-      setGrids((list) => (list ?? []).filter((x) => x.id !== g.id));
-      setNotice(`Deleted ${g.name}`);
-    } catch (e) {
-      setNotice(e instanceof ApiError ? e.message : 'Could not delete the grid');
-    }
-  }
+      grids.setData((list) => withoutId(list, g.id));
+      return `Deleted ${g.name}`;
+    }, 'Could not delete the grid');
 
   const columns: Column<ElevationGridJson>[] = [
     {
@@ -286,117 +244,64 @@ export default function ElevationAdmin() {
         </span>
       ),
     },
-    {
-      key: 'actions',
-      label: 'Actions',
-      render: (g) =>
-        confirming === g.id ? (
-          <span className="flex flex-wrap gap-2">
-            <button type="button" className="btn-danger py-1" onClick={() => remove(g)}>
-              Delete {g.name}
-            </button>
-            <button type="button" className="btn-secondary py-1" onClick={() => setConfirming(null)}>
-              Keep
-            </button>
-          </span>
-        ) : (
-          <button type="button" className="btn-secondary py-1" onClick={() => setConfirming(g.id)}>
-            Delete
-          </button>
-        ),
-    },
+    { key: 'actions', label: 'Actions', render: (g) => <DeleteAction name={g.name} onDelete={() => remove(g)} /> },
   ];
-
-  const err = (k: string) =>
-    fieldErrors[k]?.map((m) => (
-      <p key={m} className="field-error" id={`elevation-${k}-error`}>
-        {m}
-      </p>
-    ));
 
   return (
     <div className="mt-6 space-y-6">
-      <section className="card min-w-0" aria-labelledby="elevation-heading">
-        <h2 id="elevation-heading" className="mb-3">
-          Elevation grids
-        </h2>
-        <p aria-live="polite" className="mb-2 min-h-5 text-sm text-ink-600" data-testid="elevation-notice">
-          {notice}
-        </p>
-        {loadError ? (
-          <p role="alert" className="text-alarm-700">
-            {loadError}
-          </p>
-        ) : grids === null ? (
-          <p className="text-ink-500">Loading elevation grids…</p>
-        ) : (
-          <SortableTable
-            rows={grids}
-            columns={columns}
-            rowKey={(g) => g.id}
-            initialSort={{ key: 'name', dir: 'asc' }}
-            caption="Elevation grids"
-            empty={
-              <span className="block max-w-md mx-auto">
-                <span className="block font-semibold text-ink-700">No elevation data yet</span>
-                Until a grid covers a path, terrain profiles and clearance checks report the ground there as missing. Import a GeoTIFF or .hgt tile to start.
-              </span>
-            }
-          />
-        )}
-      </section>
+      <ListCard
+        id="elevation"
+        title="Elevation grids"
+        notice={notice}
+        rows={grids.data}
+        error={grids.error}
+        loadingText="Loading elevation grids…"
+        columns={columns}
+        rowKey={(g) => g.id}
+        initialSort={{ key: 'name', dir: 'asc' }}
+        caption="Elevation grids"
+        empty={
+          <span className="block max-w-md mx-auto">
+            <span className="block font-semibold text-ink-700">No elevation data yet</span>
+            Until a grid covers a path, terrain profiles and clearance checks report the ground there as missing. Import a GeoTIFF or .hgt tile to start.
+          </span>
+        }
+      />
       <div className="grid gap-6 md:grid-cols-2">
-        <section className="card" aria-labelledby="upload-elevation-heading">
-          <h2 id="upload-elevation-heading">Import a grid</h2>
-          <p className="mt-1 text-sm text-ink-600">
-            A single-band GeoTIFF in EPSG:4326 (WGS 84 latitude/longitude) with heights in metres, or an SRTM .hgt tile named by its south-west corner (e.g.
-            S48W129.hgt). Up to {MAX_ELEVATION_UPLOAD_BYTES / (1024 * 1024)} MB.
-          </p>
-          <form className="mt-3 space-y-3" onSubmit={upload} noValidate>
-            {formError && (
-              <p role="alert" className="text-sm text-alarm-700">
-                {formError}
-              </p>
-            )}
-            <div>
-              <label htmlFor="elevation-file" className="field-label">
-                Elevation file
-              </label>
-              <input
-                id="elevation-file"
-                ref={fileRef}
-                type="file"
-                accept={ELEVATION_FILE_ACCEPT}
-                disabled={busy}
-                className="block w-full text-sm file:mr-3 file:rounded-md file:border file:border-ink-300 file:bg-white file:px-3 file:py-1.5 file:text-sm file:font-semibold file:text-ink-800"
-                onChange={(e) => choose(e.target.files?.[0])}
-                aria-invalid={!!fieldErrors.file}
-                aria-describedby="elevation-file-error"
-              />
-              {file && !fieldErrors.file && (
-                <p className="mt-1 text-xs text-ink-500">
-                  {file.name} · {fmtBytes(file.size)}
-                </p>
+        <FormCard
+          id="upload-elevation"
+          title="Import a grid"
+          intro={`A single-band GeoTIFF in EPSG:4326 (WGS 84 latitude/longitude) with heights in metres, or an SRTM .hgt tile named by its south-west corner (e.g. S48W129.hgt). Up to ${MAX_ELEVATION_UPLOAD_BYTES / (1024 * 1024)} MB.`}
+          onSubmit={upload}
+          error={uploading.error?.message}
+          pending={busy}
+          submitLabel="Import grid"
+          actions={
+            <>
+              {busy && <ProgressBar progress={progress} />}
+              {busy ? (
+                <button type="button" className="btn-secondary w-full" onClick={() => abortRef.current?.abort()}>
+                  Cancel upload
+                </button>
+              ) : (
+                <SubmitButton label="Import grid" />
               )}
-              {err('file')}
-            </div>
-            {busy && <ProgressBar progress={progress} />}
-            {busy ? (
-              <button type="button" className="btn-secondary w-full" onClick={() => abortRef.current?.abort()}>
-                Cancel upload
-              </button>
-            ) : (
-              <button type="submit" className="btn-primary w-full">
-                Import grid
-              </button>
-            )}
-          </form>
-        </section>
-        <section className="card" aria-labelledby="check-elevation-heading">
-          <h2 id="check-elevation-heading">Check a point</h2>
-          <p className="mt-1 text-sm text-ink-600">The ground height the planner’s terrain profiles will use at a position.</p>
-          <PointCheck />
-        </section>
+            </>
+          }
+        >
+          <InputField
+            id="elevation-file"
+            label="Elevation file"
+            inputRef={fileRef}
+            type="file"
+            accept={ELEVATION_FILE_ACCEPT}
+            disabled={busy}
+            onChange={(e) => choose(e.target.files?.[0])}
+            errors={uploading.fields.file}
+            hint={file && !uploading.fields.file ? `${file.name} · ${fmtBytes(file.size)}` : undefined}
+          />
+        </FormCard>
+        <PointCheck />
       </div>
     </div>
   );

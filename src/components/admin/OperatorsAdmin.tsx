@@ -1,7 +1,9 @@
-import { useEffect, useMemo, useState, type FormEvent } from 'react';
-import { ApiError, operatorsApi, type FieldErrors, type OperatorJson } from '../../lib/client/api';
+import { useEffect, useMemo, useState, type ChangeEvent } from 'react';
+import { operatorsApi, type OperatorJson } from '../../lib/client/api';
 import { OPERATOR_PALETTE } from '../../lib/domain/operator-palette';
-import { SortableTable, type Column } from '../ui/SortableTable';
+import type { Column } from '../ui/SortableTable';
+import { useQuery, useSubmit } from '../ui/use-api';
+import { FieldErrorText, FormCard, fieldAria, InputField, ListCard, upsertById, useNotice } from './parts';
 import { mastIconDataUrl } from '../map/mast-icons';
 
 const HEX = /^#[0-9a-fA-F]{6}$/;
@@ -17,24 +19,16 @@ function colourDistance(a: string, b: string): number {
 
 function ColourEditor({ op, all, onSaved }: { op: OperatorJson; all: OperatorJson[]; onSaved: (o: OperatorJson) => void }) {
   const [draft, setDraft] = useState(op.colour);
-  const [errors, setErrors] = useState<string[]>([]);
-  const [busy, setBusy] = useState(false);
+  const saving = useSubmit({ failed: 'Could not save the colour' });
   useEffect(() => setDraft(op.colour), [op.colour]);
   const dirty = draft.toLowerCase() !== op.colour.toLowerCase();
   const inputId = `colour-${op.id}`;
-  const errId = `colour-${op.id}-error`;
+  const errors = saving.error ? (saving.fields.colour ?? [saving.error.message]) : [];
   const lookalike = HEX.test(draft) ? all.find((o) => o.id !== op.id && colourDistance(o.colour, draft) < 60) : undefined;
 
   async function save() {
-    setBusy(true);
-    setErrors([]);
-    try {
-      onSaved(await operatorsApi.update(op.id, { colour: draft }));
-    } catch (e) {
-      setErrors(e instanceof ApiError ? (e.fields.colour ?? [e.message]) : ['Could not save the colour']);
-    } finally {
-      setBusy(false);
-    }
+    const result = await saving.submit(() => operatorsApi.update(op.id, { colour: draft }));
+    if (result.ok) onSaved(result.data);
   }
 
   return (
@@ -51,19 +45,17 @@ function ColourEditor({ op, all, onSaved }: { op: OperatorJson; all: OperatorJso
           Hex colour of {op.name}
         </label>
         <input
-          id={inputId}
           className="field-input w-24 py-1 font-mono"
           value={draft}
           maxLength={7}
           onChange={(e) => setDraft(e.target.value.trim())}
           onKeyDown={(e) => e.key === 'Enter' && dirty && save()}
-          aria-invalid={errors.length > 0}
-          aria-describedby={errors.length ? errId : undefined}
+          {...fieldAria({ id: inputId, errors })}
           data-testid={`colour-input-${op.id}`}
         />
         {dirty && (
           <>
-            <button type="button" className="btn-primary px-3 py-1" onClick={save} disabled={busy}>
+            <button type="button" className="btn-primary px-3 py-1" onClick={save} disabled={saving.pending}>
               Save
             </button>
             <button
@@ -71,9 +63,9 @@ function ColourEditor({ op, all, onSaved }: { op: OperatorJson; all: OperatorJso
               className="btn-secondary px-3 py-1"
               onClick={() => {
                 setDraft(op.colour);
-                setErrors([]);
+                saving.fail(null);
               }}
-              disabled={busy}
+              disabled={saving.pending}
             >
               Undo
             </button>
@@ -93,11 +85,7 @@ function ColourEditor({ op, all, onSaved }: { op: OperatorJson; all: OperatorJso
           />
         ))}
       </div>
-      {errors.map((m) => (
-        <p key={m} id={errId} className="field-error">
-          {m}
-        </p>
-      ))}
+      <FieldErrorText id={inputId} errors={errors} />
       {!errors.length && lookalike && (
         <p className="mt-1 text-xs text-ember-700">
           Close to {lookalike.name}’s colour; the clock position still tells them apart, but a clearer colour helps.
@@ -110,22 +98,13 @@ function ColourEditor({ op, all, onSaved }: { op: OperatorJson; all: OperatorJso
 const EMPTY_FORM = { name: '', mcc: '001', mnc: '' };
 
 export default function OperatorsAdmin() {
-  const [operators, setOperators] = useState<OperatorJson[] | null>(null);
-  const [loadError, setLoadError] = useState<string | null>(null);
-  const [notice, setNotice] = useState<string | null>(null);
+  const operators = useQuery('operators', () => operatorsApi.list().then((r) => r.items));
+  const adding = useSubmit({ failed: 'Could not add the operator' });
+  const { notice, setNotice } = useNotice();
   const [form, setForm] = useState(EMPTY_FORM);
-  const [fieldErrors, setFieldErrors] = useState<FieldErrors>({});
-  const [formError, setFormError] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
+  const list = operators.data;
 
-  useEffect(() => {
-    operatorsApi.list().then(
-      (r) => setOperators(r.items),
-      (e: ApiError) => setLoadError(e.message),
-    );
-  }, []);
-
-  const marks = useMemo(() => (operators ?? []).map((o) => ({ id: o.id, name: o.name, colour: o.colour })), [operators]);
+  const marks = useMemo(() => (list ?? []).map((o) => ({ id: o.id, name: o.name, colour: o.colour })), [list]);
   const preview = useMemo(
     () =>
       marks.length
@@ -139,28 +118,16 @@ export default function OperatorsAdmin() {
   );
 
   const replace = (o: OperatorJson) => {
-    setOperators((list) => (list ?? []).map((x) => (x.id === o.id ? o : x)));
+    operators.setData((l) => upsertById(l, o));
     setNotice(`${o.name}: colour set to ${o.colour}`);
   };
 
-  async function create(e: FormEvent) {
-    e.preventDefault();
-    setBusy(true);
-    setFieldErrors({});
-    setFormError(null);
-    try {
-      const created = await operatorsApi.create(form);
-      setOperators((list) => [...(list ?? []), created]);
-      setForm(EMPTY_FORM);
-      setNotice(`Added ${created.name} (${created.plmn})`);
-    } catch (err) {
-      if (err instanceof ApiError) {
-        setFieldErrors(err.fields);
-        setFormError(err.message);
-      } else setFormError('Could not add the operator');
-    } finally {
-      setBusy(false);
-    }
+  async function create() {
+    const result = await adding.submit(() => operatorsApi.create(form));
+    if (!result.ok) return;
+    operators.setData((l) => upsertById(l, result.data));
+    setForm(EMPTY_FORM);
+    setNotice(`Added ${result.data.name} (${result.data.plmn})`);
   }
 
   const columns: Column<OperatorJson>[] = [
@@ -186,107 +153,52 @@ export default function OperatorsAdmin() {
       ),
     },
     { key: 'cells', label: 'Cells', sortValue: (o) => o.cell_count, render: (o) => o.cell_count, className: 'text-right' },
-    { key: 'colour', label: 'Map colour', render: (o) => <ColourEditor op={o} all={operators ?? []} onSaved={replace} /> },
+    { key: 'colour', label: 'Map colour', render: (o) => <ColourEditor op={o} all={list ?? []} onSaved={replace} /> },
   ];
 
-  const err = (k: string) =>
-    fieldErrors[k]?.map((m) => (
-      <p key={m} className="field-error" id={`op-${k}-error`}>
-        {m}
-      </p>
-    ));
+  const field = (key: keyof typeof EMPTY_FORM) => ({
+    value: form[key],
+    onChange: (e: ChangeEvent<HTMLInputElement>) => setForm({ ...form, [key]: e.target.value }),
+    errors: adding.fields[key],
+  });
 
   return (
     <div className="mt-6 grid gap-6 lg:grid-cols-[1fr_20rem]">
-      <section className="card min-w-0" aria-labelledby="operators-heading">
-        <div className="mb-3 flex flex-wrap items-center gap-3">
-          <h2 id="operators-heading">Operators</h2>
-          {preview && (
+      <ListCard
+        id="operators"
+        title="Operators"
+        tools={
+          preview && (
             <span className="ml-auto inline-flex items-center gap-2 text-sm text-ink-600">
               A mast with all of them: <img src={preview} alt="" width={34} height={34} />
             </span>
-          )}
+          )
+        }
+        notice={notice}
+        rows={list}
+        error={operators.error}
+        loadingText="Loading operators…"
+        columns={columns}
+        rowKey={(o) => o.id}
+        initialSort={{ key: 'plmn', dir: 'asc' }}
+        empty="No operators yet"
+        caption="Operators"
+      />
+      <FormCard
+        id="new-operator"
+        title="New operator"
+        intro="It takes the first unused colour of the colour-blind-safe palette; change it afterwards if you like."
+        onSubmit={create}
+        error={adding.error?.message}
+        pending={adding.pending}
+        submitLabel="Add operator"
+      >
+        <InputField id="op-name" label="Name" {...field('name')} />
+        <div className="grid grid-cols-2 gap-3">
+          <InputField id="op-mcc" label="MCC" inputMode="numeric" className="font-mono" {...field('mcc')} />
+          <InputField id="op-mnc" label="MNC" inputMode="numeric" className="font-mono" {...field('mnc')} />
         </div>
-        <p aria-live="polite" className="mb-2 min-h-5 text-sm text-ink-600" data-testid="operators-notice">
-          {notice}
-        </p>
-        {loadError ? (
-          <p role="alert" className="text-alarm-700">
-            {loadError}
-          </p>
-        ) : operators === null ? (
-          <p className="text-ink-500">Loading operators…</p>
-        ) : (
-          <SortableTable
-            rows={operators}
-            columns={columns}
-            rowKey={(o) => o.id}
-            initialSort={{ key: 'plmn', dir: 'asc' }}
-            empty="No operators yet"
-            caption="Operators"
-          />
-        )}
-      </section>
-      <section className="card" aria-labelledby="new-operator-heading">
-        <h2 id="new-operator-heading">New operator</h2>
-        <p className="mt-1 text-sm text-ink-600">It takes the first unused colour of the colour-blind-safe palette; change it afterwards if you like.</p>
-        <form className="mt-3 space-y-3" onSubmit={create} noValidate>
-          {formError && (
-            <p role="alert" className="text-sm text-alarm-700">
-              {formError}
-            </p>
-          )}
-          <div>
-            <label htmlFor="op-name" className="field-label">
-              Name
-            </label>
-            <input
-              id="op-name"
-              className="field-input"
-              value={form.name}
-              onChange={(e) => setForm({ ...form, name: e.target.value })}
-              aria-invalid={!!fieldErrors.name}
-              aria-describedby="op-name-error"
-            />
-            {err('name')}
-          </div>
-          <div className="grid grid-cols-2 gap-3">
-            <div>
-              <label htmlFor="op-mcc" className="field-label">
-                MCC
-              </label>
-              <input
-                id="op-mcc"
-                inputMode="numeric"
-                className="field-input font-mono"
-                value={form.mcc}
-                onChange={(e) => setForm({ ...form, mcc: e.target.value })}
-                aria-invalid={!!fieldErrors.mcc}
-                aria-describedby="op-mcc-error"
-              />
-              {err('mcc')}
-            </div>
-            <div>
-              <label htmlFor="op-mnc" className="field-label">
-                MNC
-              </label>
-              <input
-                id="op-mnc"
-                inputMode="numeric"
-                className="field-input font-mono"
-                value={form.mnc}
-                onChange={(e) => setForm({ ...form, mnc: e.target.value })}
-                aria-invalid={!!fieldErrors.mnc}
-                aria-describedby="op-mnc-error"
-              />
-              {err('mnc')}
-            </div>
-          </div>
-          <button type="submit" className="btn-primary w-full" disabled={busy}>
-            Add operator
-          </button>
-        </form>
-      </section>
+      </FormCard>
     </div>
   );
 }

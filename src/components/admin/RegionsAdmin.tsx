@@ -1,6 +1,8 @@
-import { useEffect, useMemo, useRef, useState, type FormEvent } from 'react';
-import { ApiError, regionsApi, type FieldErrors, type RegionJson } from '../../lib/client/api';
-import { SortableTable, type Column } from '../ui/SortableTable';
+import { useMemo, useRef, useState } from 'react';
+import { localCheckError, regionsApi, type RegionJson } from '../../lib/client/api';
+import type { Column } from '../ui/SortableTable';
+import { useQuery, useSubmit } from '../ui/use-api';
+import { DeleteAction, FormCard, InputField, ListCard, SelectField, upsertById, withoutId, useNotice } from './parts';
 import { formatArea, formatCount, formatDate } from '../../lib/domain/format';
 
 type Rings = number[][][];
@@ -81,92 +83,57 @@ function findCandidates(doc: unknown, fileName: string): Candidate[] {
 const MAX_FILE_BYTES = 10 * 1024 * 1024;
 
 export default function RegionsAdmin() {
-  const [regions, setRegions] = useState<RegionJson[] | null>(null);
-  const [loadError, setLoadError] = useState<string | null>(null);
-  const [notice, setNotice] = useState<string | null>(null);
+  const regions = useQuery('regions', () => regionsApi.list(OUTLINE_PREVIEW_ZOOM).then((r) => r.items));
+  const importing = useSubmit({ failed: 'Could not import the region' });
+  const { notice, setNotice, attempt } = useNotice();
   const [candidates, setCandidates] = useState<Candidate[]>([]);
   const [choice, setChoice] = useState(0);
   const [name, setName] = useState('');
-  const [fieldErrors, setFieldErrors] = useState<FieldErrors>({});
-  const [formError, setFormError] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
-  const [confirming, setConfirming] = useState<string | null>(null);
   const fileRef = useRef<HTMLInputElement>(null);
 
-  useEffect(() => {
-    regionsApi.list(OUTLINE_PREVIEW_ZOOM).then(
-      (r) => setRegions(r.items),
-      (e: ApiError) => setLoadError(e.message),
-    );
-  }, []);
-
   const chosen = candidates[choice];
+  const refuseFile = (message: string) => importing.fail(localCheckError({ file: [message] }));
 
   async function readFile(file: File | undefined) {
-    setFieldErrors({});
-    setFormError(null);
+    importing.fail(null);
     setCandidates([]);
     if (!file) return;
-    if (file.size > MAX_FILE_BYTES) {
-      setFieldErrors({ file: ['The file is larger than 10 MB'] });
-      return;
-    }
+    if (file.size > MAX_FILE_BYTES) return refuseFile('The file is larger than 10 MB');
     let doc: unknown;
     try {
       doc = JSON.parse(await file.text());
     } catch {
-      setFieldErrors({ file: ['This file is not valid JSON'] });
-      return;
+      return refuseFile('This file is not valid JSON');
     }
     const found = findCandidates(doc, file.name);
-    if (!found.length) {
-      setFieldErrors({ file: ['No Polygon or MultiPolygon found in this GeoJSON'] });
-      return;
-    }
+    if (!found.length) return refuseFile('No Polygon or MultiPolygon found in this GeoJSON');
     setCandidates(found);
     setChoice(0);
     setName(found[0].name);
   }
 
-  async function importRegion(e: FormEvent) {
-    e.preventDefault();
-    setFieldErrors({});
-    setFormError(null);
-    if (!chosen) {
-      setFieldErrors({ file: ['Choose a GeoJSON file with a polygon'] });
-      return;
-    }
-    setBusy(true);
-    try {
-      const created = await regionsApi.create({ name, geometry: chosen.geometry });
-      setRegions((list) => [...(list ?? []), created]);
-      setNotice(`Imported ${created.name} (${formatArea(created.area_km2)})`);
-      setCandidates([]);
-      setName('');
-      if (fileRef.current) fileRef.current.value = '';
-    } catch (err) {
-      if (err instanceof ApiError) {
-        const fields: FieldErrors = {};
-        for (const [k, v] of Object.entries(err.fields))
-          (fields[k === 'name' ? 'name' : 'file'] ??= []).push(...v.map((m) => (k === 'name' || k === '_' ? m : `${k}: ${m}`)));
-        setFieldErrors(fields);
-        setFormError(err.message);
-      } else setFormError('Could not import the region');
-    } finally {
-      setBusy(false);
-    }
+  async function importRegion() {
+    if (!chosen) return refuseFile('Choose a GeoJSON file with a polygon');
+    const result = await importing.submit(() => regionsApi.create({ name, geometry: chosen.geometry }));
+    if (!result.ok) return;
+    regions.setData((list) => upsertById(list, result.data));
+    setNotice(`Imported ${result.data.name} (${formatArea(result.data.area_km2)})`);
+    setCandidates([]);
+    setName('');
+    if (fileRef.current) fileRef.current.value = '';
   }
 
-  async function remove(r: RegionJson) {
-    setConfirming(null);
-    try {
+  // The server names problems inside the geometry by their path: show them beside the file.
+  const fileErrors = Object.entries(importing.fields)
+    .filter(([k]) => k !== 'name')
+    .flatMap(([k, v]) => v.map((m) => (k === 'file' || k === '_' ? m : `${k}: ${m}`)));
+
+  const remove = (r: RegionJson) =>
+    attempt(async () => {
       await regionsApi.remove(r.id);
-      setRegions((list) => (list ?? []).filter((x) => x.id !== r.id));
-      setNotice(`Deleted ${r.name}`);
-    } catch (e) {
-      setNotice(e instanceof ApiError ? e.message : 'Could not delete the region');
-    }
-  }
+      regions.setData((list) => withoutId(list, r.id));
+      return `Deleted ${r.name}`;
+    }, 'Could not delete the region');
 
   const columns: Column<RegionJson>[] = [
     { key: 'shape', label: 'Outline', render: (r) => <PolygonPreview geometry={r.geometry} size={44} /> },
@@ -177,134 +144,70 @@ export default function RegionsAdmin() {
     {
       key: 'actions',
       label: 'Actions',
-      render: (r) =>
-        confirming === r.id ? (
-          <span className="flex flex-wrap gap-2">
-            <button type="button" className="btn-danger py-1" onClick={() => remove(r)}>
-              Delete {r.name}
-            </button>
-            <button type="button" className="btn-secondary py-1" onClick={() => setConfirming(null)}>
-              Keep
-            </button>
-          </span>
-        ) : (
-          <span className="flex flex-wrap gap-2">
-            <a className="btn-secondary py-1" href={`/map?region=${r.id}`}>
-              Show on map
-            </a>
-            <button type="button" className="btn-secondary py-1" onClick={() => setConfirming(r.id)}>
-              Delete
-            </button>
-          </span>
-        ),
+      render: (r) => (
+        <DeleteAction name={r.name} onDelete={() => remove(r)}>
+          <a className="btn-secondary py-1" href={`/map?region=${r.id}`}>
+            Show on map
+          </a>
+        </DeleteAction>
+      ),
     },
   ];
 
-  const err = (k: string) =>
-    fieldErrors[k]?.map((m) => (
-      <p key={m} className="field-error" id={`region-${k}-error`}>
-        {m}
-      </p>
-    ));
-
   return (
     <div className="mt-6 grid gap-6 lg:grid-cols-[1fr_22rem]">
-      <section className="card min-w-0" aria-labelledby="regions-heading">
-        <h2 id="regions-heading" className="mb-3">
-          Regions
-        </h2>
-        <p aria-live="polite" className="mb-2 min-h-5 text-sm text-ink-600" data-testid="regions-notice">
-          {notice}
-        </p>
-        {loadError ? (
-          <p role="alert" className="text-alarm-700">
-            {loadError}
-          </p>
-        ) : regions === null ? (
-          <p className="text-ink-500">Loading regions…</p>
-        ) : (
-          <SortableTable
-            rows={regions}
-            columns={columns}
-            rowKey={(r) => r.id}
-            initialSort={{ key: 'name', dir: 'asc' }}
-            empty="No regions yet: import one"
-            caption="Regions"
+      <ListCard
+        id="regions"
+        title="Regions"
+        notice={notice}
+        rows={regions.data}
+        error={regions.error}
+        loadingText="Loading regions…"
+        columns={columns}
+        rowKey={(r) => r.id}
+        initialSort={{ key: 'name', dir: 'asc' }}
+        empty="No regions yet: import one"
+        caption="Regions"
+      />
+      <FormCard
+        id="import-region"
+        title="Import a region"
+        intro="A GeoJSON file (WGS84 longitude, latitude) with a Polygon or MultiPolygon, bare or as a Feature."
+        onSubmit={importRegion}
+        error={importing.error?.message}
+        pending={importing.pending}
+        submitLabel="Import region"
+      >
+        <InputField
+          id="region-file"
+          label="GeoJSON file"
+          inputRef={fileRef}
+          type="file"
+          accept=".geojson,.json,application/geo+json,application/json"
+          onChange={(e) => readFile(e.target.files?.[0])}
+          errors={fileErrors}
+        />
+        {candidates.length > 1 && (
+          <SelectField
+            id="region-feature"
+            label="Polygon to import"
+            value={String(choice)}
+            options={candidates.map((_, i) => String(i))}
+            labels={Object.fromEntries(candidates.map((c, i) => [String(i), c.label]))}
+            onChange={(v) => {
+              setChoice(Number(v));
+              setName(candidates[Number(v)].name);
+            }}
           />
         )}
-      </section>
-      <section className="card" aria-labelledby="import-region-heading">
-        <h2 id="import-region-heading">Import a region</h2>
-        <p className="mt-1 text-sm text-ink-600">A GeoJSON file (WGS84 longitude, latitude) with a Polygon or MultiPolygon, bare or as a Feature.</p>
-        <form className="mt-3 space-y-3" onSubmit={importRegion} noValidate>
-          {formError && (
-            <p role="alert" className="text-sm text-alarm-700">
-              {formError}
-            </p>
-          )}
-          <div>
-            <label htmlFor="region-file" className="field-label">
-              GeoJSON file
-            </label>
-            <input
-              id="region-file"
-              ref={fileRef}
-              type="file"
-              accept=".geojson,.json,application/geo+json,application/json"
-              className="block w-full text-sm file:mr-3 file:rounded-md file:border file:border-ink-300 file:bg-white file:px-3 file:py-1.5 file:text-sm file:font-semibold file:text-ink-800"
-              onChange={(e) => readFile(e.target.files?.[0])}
-              aria-invalid={!!fieldErrors.file}
-              aria-describedby="region-file-error"
-            />
-            {err('file')}
+        {chosen && (
+          <div className="flex items-center gap-3 text-sm text-ink-600">
+            <PolygonPreview geometry={chosen.geometry} size={72} />
+            <span>{ringsOf(chosen.geometry)?.length ?? 0} ring(s)</span>
           </div>
-          {candidates.length > 1 && (
-            <div>
-              <label htmlFor="region-feature" className="field-label">
-                Polygon to import
-              </label>
-              <select
-                id="region-feature"
-                className="field-input"
-                value={choice}
-                onChange={(e) => {
-                  setChoice(Number(e.target.value));
-                  setName(candidates[Number(e.target.value)].name);
-                }}
-              >
-                {candidates.map((c, i) => (
-                  <option key={i} value={i}>
-                    {c.label}
-                  </option>
-                ))}
-              </select>
-            </div>
-          )}
-          {chosen && (
-            <div className="flex items-center gap-3 text-sm text-ink-600">
-              <PolygonPreview geometry={chosen.geometry} size={72} />
-              <span>{ringsOf(chosen.geometry)?.length ?? 0} ring(s)</span>
-            </div>
-          )}
-          <div>
-            <label htmlFor="region-name" className="field-label">
-              Name
-            </label>
-            <input
-              id="region-name"
-              className="field-input"
-              value={name}
-              onChange={(e) => setName(e.target.value)}
-              aria-invalid={!!fieldErrors.name}
-              aria-describedby="region-name-error"
-            />
-            {err('name')}
-          </div>
-          <button type="submit" className="btn-primary w-full" disabled={busy}>
-            Import region
-          </button>
-        </form>
-      </section>
+        )}
+        <InputField id="region-name" label="Name" value={name} onChange={(e) => setName(e.target.value)} errors={importing.fields.name} />
+      </FormCard>
     </div>
   );
 }

@@ -1,8 +1,10 @@
-import { useEffect, useState, type FormEvent, type ReactNode } from 'react';
-import { ApiError, type FieldErrors } from '../../lib/client/api';
-import { catalogueApi, checkWith, type AntennaBody, type AntennaJson, type CableBody, type CableJson } from '../../lib/client/planning-api';
+import { useState } from 'react';
+import { checkWith } from '../../lib/client/api';
+import { catalogueApi, type AntennaBody, type AntennaJson, type CableBody, type CableJson } from '../../lib/client/planning-api';
 import { ANTENNA_KINDS, ANTENNA_KIND_LABELS, type AntennaKind } from '../../lib/domain/antenna-kinds';
-import { SortableTable, type Column } from '../ui/SortableTable';
+import type { Column } from '../ui/SortableTable';
+import { useQuery, useSubmit } from '../ui/use-api';
+import { DeleteAction, Field, FormCard, InputField, ListCard, SelectField, SubmitButton, fieldAria, upsertById, withoutId, useNotice } from '../admin/parts';
 import { FrequencyTableEditor, toNumber, type FrequencyRow } from './FrequencyTableEditor';
 import { formatNumber } from '../../lib/domain/format';
 
@@ -94,120 +96,69 @@ const band = (rows: { freq_mhz: number }[]) =>
     0,
   );
 
-function Field({ id, label, error, children, hint }: { id: string; label: string; error?: string[]; children: ReactNode; hint?: string }) {
-  return (
-    <div>
-      <label htmlFor={id} className="field-label">
-        {label}
-      </label>
-      {children}
-      {hint && <p className="mt-1 text-xs text-ink-600">{hint}</p>}
-      {error?.map((m) => (
-        <p key={m} className="field-error" id={`${id}-error`}>
-          {m}
-        </p>
-      ))}
-    </div>
-  );
-}
-
 export default function CatalogueAdmin() {
-  const [antennas, setAntennas] = useState<AntennaJson[] | null>(null);
-  const [cables, setCables] = useState<CableJson[] | null>(null);
-  const [loadError, setLoadError] = useState<string | null>(null);
+  const antennas = useQuery('antennas', () => catalogueApi.antennas().then((r) => r.items));
+  const cables = useQuery('cables', () => catalogueApi.cables().then((r) => r.items));
+  const saving = useSubmit({ failed: 'Could not save' });
+  const { notice, setNotice, attempt } = useNotice();
   const [editing, setEditing] = useState<Editing>({ what: 'antenna', id: null });
   const [aForm, setAForm] = useState<AntennaForm>(NEW_ANTENNA);
   const [cForm, setCForm] = useState<CableForm>(NEW_CABLE);
-  const [fields, setFields] = useState<FieldErrors>({});
-  const [formError, setFormError] = useState<string | null>(null);
-  const [notice, setNotice] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
-
-  useEffect(() => {
-    Promise.all([catalogueApi.antennas(), catalogueApi.cables()]).then(
-      ([a, c]) => {
-        setAntennas(a.items);
-        setCables(c.items);
-      },
-      (e: ApiError) => setLoadError(e.message),
-    );
-  }, []);
+  const fields = saving.fields;
 
   function start(next: Editing) {
     setEditing(next);
-    setFields({});
-    setFormError(null);
-    if (next.what === 'antenna') setAForm(next.id ? antennaForm(antennas!.find((a) => a.id === next.id)!) : NEW_ANTENNA);
-    else setCForm(next.id ? cableForm(cables!.find((c) => c.id === next.id)!) : NEW_CABLE);
+    saving.fail(null);
+    if (next.what === 'antenna') setAForm(next.id ? antennaForm(antennas.data!.find((a) => a.id === next.id)!) : NEW_ANTENNA);
+    else setCForm(next.id ? cableForm(cables.data!.find((c) => c.id === next.id)!) : NEW_CABLE);
     document.getElementById('catalogue-form')?.scrollIntoView({ behavior: 'smooth', block: 'start' });
   }
 
-  async function save(e: FormEvent) {
-    e.preventDefault();
-    setFormError(null);
+  async function save() {
     setNotice(null);
-    const body = editing.what === 'antenna' ? antennaBody(aForm) : cableBody(cForm);
     // The rules load when first needed, so the page itself ships without the schema library.
     const { AntennaInputSchema, CableInputSchema } = await import('../../lib/schemas/catalogue');
-    const problems = checkWith(editing.what === 'antenna' ? AntennaInputSchema : CableInputSchema, body);
-    setFields(problems ?? {});
-    if (problems) {
-      setFormError('Some fields need attention');
-      return;
-    }
-    setBusy(true);
-    try {
-      if (editing.what === 'antenna') {
-        const b = body as AntennaBody;
-        const saved = editing.id ? await catalogueApi.updateAntenna(editing.id, b) : await catalogueApi.createAntenna(b);
-        setAntennas((list) => (editing.id ? (list ?? []).map((x) => (x.id === saved.id ? saved : x)) : [...(list ?? []), saved]));
-        setNotice(`${editing.id ? 'Saved' : 'Added'} antenna “${saved.name}”`);
-        setEditing({ what: 'antenna', id: saved.id });
-      } else {
-        const b = body as CableBody;
-        const saved = editing.id ? await catalogueApi.updateCable(editing.id, b) : await catalogueApi.createCable(b);
-        setCables((list) => (editing.id ? (list ?? []).map((x) => (x.id === saved.id ? saved : x)) : [...(list ?? []), saved]));
-        setNotice(`${editing.id ? 'Saved' : 'Added'} cable “${saved.name}”`);
-        setEditing({ what: 'cable', id: saved.id });
-      }
-      setFields({});
-    } catch (err) {
-      if (err instanceof ApiError) {
-        setFields(err.fields);
-        setFormError(err.message);
-      } else setFormError('Could not save');
-    } finally {
-      setBusy(false);
+    const { id } = editing;
+    if (editing.what === 'antenna') {
+      const body = antennaBody(aForm);
+      const result = await saving.submit(() => (id ? catalogueApi.updateAntenna(id, body) : catalogueApi.createAntenna(body)), {
+        check: () => checkWith(AntennaInputSchema, body),
+      });
+      if (!result.ok) return;
+      antennas.setData((list) => upsertById(list, result.data));
+      setNotice(`${id ? 'Saved' : 'Added'} antenna “${result.data.name}”`);
+      setEditing({ what: 'antenna', id: result.data.id });
+    } else {
+      const body = cableBody(cForm);
+      const result = await saving.submit(() => (id ? catalogueApi.updateCable(id, body) : catalogueApi.createCable(body)), {
+        check: () => checkWith(CableInputSchema, body),
+      });
+      if (!result.ok) return;
+      cables.setData((list) => upsertById(list, result.data));
+      setNotice(`${id ? 'Saved' : 'Added'} cable “${result.data.name}”`);
+      setEditing({ what: 'cable', id: result.data.id });
     }
   }
 
-  async function remove(what: 'antenna' | 'cable', id: string, name: string) {
-    if (!window.confirm(`Delete “${name}” from the catalogue?`)) return;
-    setNotice(null);
-    try {
+  const remove = (what: 'antenna' | 'cable', id: string, name: string) =>
+    attempt(async () => {
       if (what === 'antenna') {
         await catalogueApi.deleteAntenna(id);
-        setAntennas((l) => (l ?? []).filter((x) => x.id !== id));
+        antennas.setData((l) => withoutId(l, id));
       } else {
         await catalogueApi.deleteCable(id);
-        setCables((l) => (l ?? []).filter((x) => x.id !== id));
+        cables.setData((l) => withoutId(l, id));
       }
       if (editing.id === id) start({ what, id: null });
-      setNotice(`Deleted “${name}”`);
-    } catch (err) {
-      setNotice(err instanceof ApiError ? err.message : 'Could not delete');
-    }
-  }
+      return `Deleted “${name}”`;
+    }, 'Could not delete');
 
   const actions = (what: 'antenna' | 'cable', id: string, name: string) => (
-    <div className="flex gap-2">
+    <DeleteAction name={name} onDelete={() => remove(what, id, name)}>
       <button type="button" className="btn-secondary py-1" onClick={() => start({ what, id } as Editing)}>
         Edit
       </button>
-      <button type="button" className="btn-secondary py-1 text-alarm-700" onClick={() => remove(what, id, name)}>
-        Delete
-      </button>
-    </div>
+    </DeleteAction>
   );
 
   const antennaColumns: Column<AntennaJson>[] = [
@@ -248,14 +199,11 @@ export default function CatalogueAdmin() {
 
   const err = (k: string) => fields[k];
   const title = `${editing.id ? 'Edit' : 'New'} ${editing.what}`;
-
-  if (loadError)
-    return (
-      <p role="alert" className="mt-6 text-alarm-700">
-        {loadError}
-      </p>
-    );
-  if (!antennas || !cables) return <p className="mt-6 text-ink-500">Loading the catalogue…</p>;
+  const newButton = (what: 'antenna' | 'cable') => (
+    <button type="button" className="btn-secondary ml-auto py-1" onClick={() => start({ what, id: null })}>
+      New {what}
+    </button>
+  );
 
   return (
     <>
@@ -264,187 +212,145 @@ export default function CatalogueAdmin() {
       </div>
       <div className="mt-4 grid gap-6 lg:grid-cols-[1fr_24rem]">
         <div className="min-w-0 space-y-6">
-          <section className="card min-w-0" aria-labelledby="antennas-heading">
-            <div className="mb-3 flex flex-wrap items-center gap-3">
-              <h2 id="antennas-heading">Antennas</h2>
-              <button type="button" className="btn-secondary ml-auto py-1" onClick={() => start({ what: 'antenna', id: null })}>
-                New antenna
-              </button>
-            </div>
-            <SortableTable
-              rows={antennas}
-              columns={antennaColumns}
-              rowKey={(a) => a.id}
-              initialSort={{ key: 'name', dir: 'asc' }}
-              empty="No antennas yet"
-              caption="Antennas"
-            />
-          </section>
-          <section className="card min-w-0" aria-labelledby="cables-heading">
-            <div className="mb-3 flex flex-wrap items-center gap-3">
-              <h2 id="cables-heading">Cables</h2>
-              <button type="button" className="btn-secondary ml-auto py-1" onClick={() => start({ what: 'cable', id: null })}>
-                New cable
-              </button>
-            </div>
-            <SortableTable
-              rows={cables}
-              columns={cableColumns}
-              rowKey={(c) => c.id}
-              initialSort={{ key: 'name', dir: 'asc' }}
-              empty="No cables yet"
-              caption="Cables"
-            />
-          </section>
+          <ListCard
+            id="antennas"
+            title="Antennas"
+            tools={newButton('antenna')}
+            rows={antennas.data}
+            error={antennas.error}
+            loadingText="Loading antennas…"
+            columns={antennaColumns}
+            rowKey={(a) => a.id}
+            initialSort={{ key: 'name', dir: 'asc' }}
+            empty="No antennas yet"
+            caption="Antennas"
+          />
+          <ListCard
+            id="cables"
+            title="Cables"
+            tools={newButton('cable')}
+            rows={cables.data}
+            error={cables.error}
+            loadingText="Loading cables…"
+            columns={cableColumns}
+            rowKey={(c) => c.id}
+            initialSort={{ key: 'name', dir: 'asc' }}
+            empty="No cables yet"
+            caption="Cables"
+          />
         </div>
 
-        <section id="catalogue-form" className="card min-w-0 self-start" aria-labelledby="catalogue-form-heading">
-          <h2 id="catalogue-form-heading">{title}</h2>
-          <form className="mt-3 space-y-3" onSubmit={save} noValidate>
-            {formError && (
-              <p role="alert" className="text-sm text-alarm-700">
-                {formError}
-              </p>
-            )}
-            {editing.what === 'antenna' ? (
-              <>
-                <Field id="an-name" label="Name" error={err('name')}>
-                  <input
-                    id="an-name"
-                    className="field-input"
-                    value={aForm.name}
-                    onChange={(e) => setAForm({ ...aForm, name: e.target.value })}
-                    aria-invalid={!!err('name')}
-                  />
-                </Field>
-                <div className="grid grid-cols-2 gap-3">
-                  <Field id="an-kind" label="Kind" error={err('kind')}>
-                    <select
-                      id="an-kind"
-                      className="field-input"
-                      value={aForm.kind}
-                      onChange={(e) => setAForm({ ...aForm, kind: e.target.value as AntennaKind })}
-                    >
-                      {ANTENNA_KINDS.map((k) => (
-                        <option key={k} value={k}>
-                          {ANTENNA_KIND_LABELS[k]}
-                        </option>
-                      ))}
-                    </select>
-                  </Field>
-                  <Field id="an-ports" label="Ports (MIMO)" error={err('ports')}>
-                    <input
-                      id="an-ports"
-                      inputMode="numeric"
-                      className="field-input"
-                      value={aForm.ports}
-                      onChange={(e) => setAForm({ ...aForm, ports: e.target.value })}
-                      aria-invalid={!!err('ports')}
-                    />
-                  </Field>
-                </div>
-                <Field
-                  id="an-beam"
-                  label="Horizontal beamwidth, °"
-                  error={err('horizontal_beamwidth_deg')}
-                  hint={aForm.kind === 'directional' ? 'Half-power (3 dB) beam; customer panels are commonly about 40°.' : 'Omni and stub antennas cover 360°.'}
-                >
-                  <input
-                    id="an-beam"
-                    inputMode="decimal"
-                    className="field-input"
-                    value={aForm.kind === 'directional' ? aForm.beam : '360'}
-                    disabled={aForm.kind !== 'directional'}
-                    onChange={(e) => setAForm({ ...aForm, beam: e.target.value })}
-                    aria-invalid={!!err('horizontal_beamwidth_deg')}
-                  />
-                </Field>
-                <FrequencyTableEditor
-                  field="gain_table"
-                  valueKey="gain_dbi"
-                  valueLabel="Gain, dBi"
-                  valueStep="0.1"
-                  rows={aForm.rows}
-                  onChange={(rows) => setAForm({ ...aForm, rows })}
-                  errors={fields}
-                />
-                <Field id="an-notes" label="Notes" error={err('notes')}>
-                  <textarea
-                    id="an-notes"
-                    rows={2}
-                    className="field-input"
-                    value={aForm.notes}
-                    onChange={(e) => setAForm({ ...aForm, notes: e.target.value })}
-                  />
-                </Field>
-              </>
-            ) : (
-              <>
-                <Field id="cb-name" label="Name" error={err('name')}>
-                  <input
-                    id="cb-name"
-                    className="field-input"
-                    value={cForm.name}
-                    onChange={(e) => setCForm({ ...cForm, name: e.target.value })}
-                    aria-invalid={!!err('name')}
-                  />
-                </Field>
-                <FrequencyTableEditor
-                  field="loss_table"
-                  valueKey="loss_db_per_m"
-                  valueLabel="Loss, dB/m"
-                  valueStep="0.01"
-                  rows={cForm.rows}
-                  onChange={(rows) => setCForm({ ...cForm, rows })}
-                  errors={fields}
-                />
-                <div className="grid grid-cols-2 gap-3">
-                  <Field id="cb-conn" label="Connectors" error={err('connectors')}>
-                    <input
-                      id="cb-conn"
-                      inputMode="numeric"
-                      className="field-input"
-                      value={cForm.connectors}
-                      onChange={(e) => setCForm({ ...cForm, connectors: e.target.value })}
-                      aria-invalid={!!err('connectors')}
-                    />
-                  </Field>
-                  <Field id="cb-closs" label="Loss per connector, dB" error={err('connector_loss_db')}>
-                    <input
-                      id="cb-closs"
-                      inputMode="decimal"
-                      className="field-input"
-                      value={cForm.connectorLoss}
-                      onChange={(e) => setCForm({ ...cForm, connectorLoss: e.target.value })}
-                      aria-invalid={!!err('connector_loss_db')}
-                    />
-                  </Field>
-                </div>
-                <p className="text-xs text-ink-600">A mated pair below 3 GHz typically costs 0.1–0.2 dB; allow more for adapters and surge arresters.</p>
-                <Field id="cb-notes" label="Notes" error={err('notes')}>
-                  <textarea
-                    id="cb-notes"
-                    rows={2}
-                    className="field-input"
-                    value={cForm.notes}
-                    onChange={(e) => setCForm({ ...cForm, notes: e.target.value })}
-                  />
-                </Field>
-              </>
-            )}
+        <FormCard
+          id="catalogue-form"
+          className="self-start"
+          title={title}
+          onSubmit={save}
+          error={saving.error?.message}
+          pending={saving.pending}
+          submitLabel={editing.id ? 'Save changes' : `Add ${editing.what}`}
+          actions={
             <div className="flex gap-2">
-              <button type="submit" className="btn-primary flex-1" disabled={busy}>
-                {busy ? 'Saving…' : editing.id ? 'Save changes' : `Add ${editing.what}`}
-              </button>
+              <SubmitButton
+                pending={saving.pending}
+                label={saving.pending ? 'Saving…' : editing.id ? 'Save changes' : `Add ${editing.what}`}
+                className="btn-primary flex-1"
+              />
               {editing.id && (
                 <button type="button" className="btn-secondary" onClick={() => start({ what: editing.what, id: null } as Editing)}>
                   Cancel
                 </button>
               )}
             </div>
-          </form>
-        </section>
+          }
+        >
+          {editing.what === 'antenna' ? (
+            <>
+              <InputField id="an-name" label="Name" value={aForm.name} onChange={(e) => setAForm({ ...aForm, name: e.target.value })} errors={err('name')} />
+              <div className="grid grid-cols-2 gap-3">
+                <SelectField
+                  id="an-kind"
+                  label="Kind"
+                  value={aForm.kind}
+                  options={ANTENNA_KINDS}
+                  labels={ANTENNA_KIND_LABELS}
+                  onChange={(kind) => setAForm({ ...aForm, kind })}
+                  errors={err('kind')}
+                />
+                <InputField
+                  id="an-ports"
+                  label="Ports (MIMO)"
+                  inputMode="numeric"
+                  value={aForm.ports}
+                  onChange={(e) => setAForm({ ...aForm, ports: e.target.value })}
+                  errors={err('ports')}
+                />
+              </div>
+              <InputField
+                id="an-beam"
+                label="Horizontal beamwidth, °"
+                inputMode="decimal"
+                value={aForm.kind === 'directional' ? aForm.beam : '360'}
+                disabled={aForm.kind !== 'directional'}
+                onChange={(e) => setAForm({ ...aForm, beam: e.target.value })}
+                errors={err('horizontal_beamwidth_deg')}
+                hint={aForm.kind === 'directional' ? 'Half-power (3 dB) beam; customer panels are commonly about 40°.' : 'Omni and stub antennas cover 360°.'}
+              />
+              <FrequencyTableEditor
+                field="gain_table"
+                valueKey="gain_dbi"
+                valueLabel="Gain, dBi"
+                valueStep="0.1"
+                rows={aForm.rows}
+                onChange={(rows) => setAForm({ ...aForm, rows })}
+                errors={fields}
+              />
+              <NotesField id="an-notes" value={aForm.notes} onChange={(notes) => setAForm({ ...aForm, notes })} errors={err('notes')} />
+            </>
+          ) : (
+            <>
+              <InputField id="cb-name" label="Name" value={cForm.name} onChange={(e) => setCForm({ ...cForm, name: e.target.value })} errors={err('name')} />
+              <FrequencyTableEditor
+                field="loss_table"
+                valueKey="loss_db_per_m"
+                valueLabel="Loss, dB/m"
+                valueStep="0.01"
+                rows={cForm.rows}
+                onChange={(rows) => setCForm({ ...cForm, rows })}
+                errors={fields}
+              />
+              <div className="grid grid-cols-2 gap-3">
+                <InputField
+                  id="cb-conn"
+                  label="Connectors"
+                  inputMode="numeric"
+                  value={cForm.connectors}
+                  onChange={(e) => setCForm({ ...cForm, connectors: e.target.value })}
+                  errors={err('connectors')}
+                />
+                <InputField
+                  id="cb-closs"
+                  label="Loss per connector, dB"
+                  inputMode="decimal"
+                  value={cForm.connectorLoss}
+                  onChange={(e) => setCForm({ ...cForm, connectorLoss: e.target.value })}
+                  errors={err('connector_loss_db')}
+                />
+              </div>
+              <p className="text-xs text-ink-600">A mated pair below 3 GHz typically costs 0.1–0.2 dB; allow more for adapters and surge arresters.</p>
+              <NotesField id="cb-notes" value={cForm.notes} onChange={(notes) => setCForm({ ...cForm, notes })} errors={err('notes')} />
+            </>
+          )}
+        </FormCard>
       </div>
     </>
+  );
+}
+
+/** A record's free-text notes. */
+function NotesField({ id, value, onChange, errors }: { id: string; value: string; onChange: (value: string) => void; errors?: string[] }) {
+  return (
+    <Field id={id} label="Notes" errors={errors}>
+      <textarea rows={2} className="field-input" value={value} onChange={(e) => onChange(e.target.value)} {...fieldAria({ id, errors })} />
+    </Field>
   );
 }
