@@ -44,8 +44,10 @@ import MastImages from './MastImages';
 import MastPanel from './MastPanel';
 import PendingPopup, { type PendingSightingFeature } from './PendingPopup';
 import SignalLayer from './SignalLayer';
+import SignalHexPopup, { type SignalHexPick } from './SignalHexPopup';
 import SignalPanel from './SignalPanel';
-import { SIGNAL_OFF, type SignalState } from './signal-layers';
+import { SIGNAL_FILL_LAYER_ID, hexFiguresOf } from './signal-layers';
+import { useSignalUrl } from './use-signal-url';
 
 interface Props {
   canEditMasts: boolean;
@@ -75,7 +77,8 @@ export default function MapView({ canEditMasts }: Props) {
   const [pendingPick, setPendingPick] = useState<PendingSightingFeature | null>(null);
   const isPhone = useIsPhone();
   const [filtersOpen, setFiltersOpen] = useState(false);
-  const [signal, setSignal] = useState<SignalState>(SIGNAL_OFF);
+  const [signal, setSignal] = useSignalUrl();
+  const [hexPick, setHexPick] = useState<SignalHexPick | null>(null);
   // Adding a mast: first a click on the map (placing), then the form at that position.
   const [placing, setPlacing] = useState(false);
   const [newMastAt, setNewMastAt] = useState<LatLon | null>(null);
@@ -141,7 +144,12 @@ export default function MapView({ canEditMasts }: Props) {
       }
       setPendingPick(null);
       const f = e.features?.find((x) => x.layer.id === MAST_SYMBOL_LAYER_ID);
-      if (f?.properties?.id === undefined) return;
+      if (f?.properties?.id === undefined) {
+        const hex = e.features?.find((x) => x.layer.id === SIGNAL_FILL_LAYER_ID);
+        setHexPick(hex ? { lon: e.lngLat.lng, lat: e.lngLat.lat, figures: hexFiguresOf(hex.properties) } : null);
+        return;
+      }
+      setHexPick(null);
       select(String(f.properties.id));
       const map = mapRef.current;
       const rect = frameRef.current?.getBoundingClientRect();
@@ -167,6 +175,20 @@ export default function MapView({ canEditMasts }: Props) {
   );
 
   const closePanel = useCallback(() => select(null), [select]);
+
+  // Other choices on the signal layer draw other hexagons: the figures shown no longer apply.
+  useEffect(() => setHexPick(null), [signal]);
+  /** The hexagon at the centre of what the panel leaves in view: the keyboard's way to a hexagon's figures. */
+  const pickHexAtCentre = useCallback(() => {
+    const map = mapRef.current;
+    const rect = frameRef.current?.getBoundingClientRect();
+    if (!map || !rect) return;
+    const [dx, dy] = panelOffset();
+    const point: [number, number] = [rect.width / 2 + dx, rect.height / 2 + dy];
+    const at = map.unproject(point);
+    const hex = map.getLayer(SIGNAL_FILL_LAYER_ID) ? map.queryRenderedFeatures(point, { layers: [SIGNAL_FILL_LAYER_ID] })[0] : undefined;
+    setHexPick({ lon: at.lng, lat: at.lat, figures: hex ? hexFiguresOf(hex.properties) : null });
+  }, [panelOffset]);
 
   const startAdding = useCallback(() => {
     select(null);
@@ -229,7 +251,7 @@ export default function MapView({ canEditMasts }: Props) {
           ref={setMapRef}
           initialViewState={{ ...initialView, fitBoundsOptions: { padding: isPhone ? 24 : { top: 70, bottom: 30, left: 270, right: 60 } } }}
           mapStyle={style}
-          interactiveLayerIds={[PENDING_SYMBOL_LAYER_ID, MAST_SYMBOL_LAYER_ID, MAST_CLUSTER_LAYER_ID]}
+          interactiveLayerIds={[PENDING_SYMBOL_LAYER_ID, MAST_SYMBOL_LAYER_ID, MAST_CLUSTER_LAYER_ID, SIGNAL_FILL_LAYER_ID]}
           cursor={placing ? 'crosshair' : hovering ? 'pointer' : 'grab'}
           onMouseEnter={() => setHovering(true)}
           onMouseLeave={() => setHovering(false)}
@@ -262,6 +284,7 @@ export default function MapView({ canEditMasts }: Props) {
             <Layer {...PENDING_SYMBOL_LAYER} />
           </Source>
           {pendingPick && <PendingPopup sighting={pendingPick} onClose={() => setPendingPick(null)} />}
+          {hexPick && signal.on && <SignalHexPopup pick={hexPick} onClose={() => setHexPick(null)} />}
           {newMastAt && (
             <Marker
               longitude={newMastAt.lon}
@@ -306,7 +329,7 @@ export default function MapView({ canEditMasts }: Props) {
               <AddMastControl placing={placing} onStart={startAdding} onUseCentre={placeAtCentre} onCancel={cancelAdding} />
             </div>
           )}
-          <SignalPanel operators={operators} bands={bands} value={signal} onChange={setSignal} compact={isPhone} />
+          <SignalPanel operators={operators} bands={bands} value={signal} onChange={setSignal} compact={isPhone} onShowCentre={pickHexAtCentre} />
         </div>
       )}
 

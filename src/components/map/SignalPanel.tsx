@@ -12,13 +12,15 @@ interface Props {
   onChange: (next: SignalState) => void;
   /** Start with the choices and legend folded away (phones). */
   compact?: boolean;
+  /** Shows the figures of the hexagon at the map's centre (the keyboard's way to them). */
+  onShowCentre?: () => void;
 }
 
 /**
  * The measured signal layer's switch, its choice of metric, operator and band, and its legend.
  * Everything is a native control, so it works from the keyboard.
  */
-export default function SignalPanel({ operators, bands, value, onChange, compact = false }: Props) {
+export default function SignalPanel({ operators, bands, value, onChange, compact = false, onShowCentre }: Props) {
   const id = useId();
   const [folded, setFolded] = useState(compact);
   const set = (patch: Partial<SignalState>) => onChange({ ...value, ...patch });
@@ -113,6 +115,11 @@ export default function SignalPanel({ operators, bands, value, onChange, compact
             </label>
           </div>
           <SignalLegend metric={value.metric} />
+          {onShowCentre && (
+            <button type="button" className="btn-secondary w-full justify-center py-1 text-xs" onClick={onShowCentre} data-testid="signal-centre">
+              Figures at the map centre
+            </button>
+          )}
         </section>
       )}
     </div>

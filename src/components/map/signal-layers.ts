@@ -2,7 +2,7 @@
 // the colour ramp of its quality grades. Pure data; SignalLayer and SignalLegend share it.
 import type { ExpressionSpecification, FillLayerSpecification, FilterSpecification, LineLayerSpecification, VectorSourceSpecification } from 'maplibre-gl';
 import type { SignalGrade } from '../../lib/domain/measurements';
-import { SIGNAL_METRIC_UNITS, SIGNAL_MIN_READINGS, getSignalClasses, type SignalMetric } from '../../lib/domain/signal-map';
+import { SIGNAL_METRICS, SIGNAL_METRIC_UNITS, SIGNAL_MIN_READINGS, getSignalClasses, type SignalMetric } from '../../lib/domain/signal-map';
 import { tilePathTemplate } from './map-style';
 
 /**
@@ -51,6 +51,27 @@ export const SIGNAL_OFF: SignalState = { on: false, metric: 'rsrp', operatorId: 
 /** The MVT attributes of a metric: its median and how many readings it rests on. */
 export function signalAttributes(metric: SignalMetric): { median: string; count: string } {
   return { median: `${metric}_median_${SIGNAL_METRIC_UNITS[metric].toLowerCase()}`, count: `${metric}_count` };
+}
+
+/** What one hexagon of the tiles holds: all its readings, and per metric how many and their median (null: none). */
+export interface HexFigures {
+  readings: number;
+  counts: Record<SignalMetric, number>;
+  medians: Record<SignalMetric, number | null>;
+}
+
+/** A hexagon's figures from its tile attributes (missing or malformed ones count as none). */
+export function hexFiguresOf(properties: Record<string, unknown> | null | undefined): HexFigures {
+  const num = (v: unknown) => (typeof v === 'number' ? v : typeof v === 'string' && v.trim() !== '' && Number.isFinite(Number(v)) ? Number(v) : null);
+  const p = properties ?? {};
+  const counts = {} as Record<SignalMetric, number>;
+  const medians = {} as Record<SignalMetric, number | null>;
+  for (const m of SIGNAL_METRICS) {
+    const a = signalAttributes(m);
+    counts[m] = num(p[a.count]) ?? 0;
+    medians[m] = counts[m] > 0 ? num(p[a.median]) : null;
+  }
+  return { readings: num(p.readings) ?? 0, counts, medians };
 }
 
 /** The hexagon tiles for an operator and band (each '' for all). */
