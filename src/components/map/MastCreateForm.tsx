@@ -1,5 +1,6 @@
 import { useEffect, useRef, useState, type FormEvent } from 'react';
 import { ApiError, mastsApi, type FieldErrors, type MastJson } from '../../lib/client/api';
+import { elevationApi } from '../../lib/client/elevation-api';
 import { checkWith } from '../../lib/client/planning-api';
 import { MastInputSchema } from '../../lib/schemas/masts';
 import { FormAlert, withoutFields } from './form-parts';
@@ -23,15 +24,39 @@ interface Props {
 
 const near = (a: number, b: number) => Math.abs(a - b) < 5e-7;
 
+/** Where the ground field's value came from: the elevation data at the marker, or the person typing. */
+type GroundSource = 'data' | 'typed' | 'none';
+
 /** Adds a mast where the map was clicked, with the API's checks before sending and its answers beside the fields. */
 export default function MastCreateForm({ position, onPositionChange, onCreated, onCancel }: Props) {
   const [draft, setDraft] = useState<MastDraft>(() => newMastDraft(position.lat, position.lon));
   const [errors, setErrors] = useState<FieldErrors>({});
   const [formError, setFormError] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
+  const [ground, setGround] = useState<{ source: GroundSource; note: string | null }>({ source: 'none', note: null });
   const headingRef = useRef<HTMLHeadingElement>(null);
 
   useEffect(() => headingRef.current?.focus(), []);
+
+  // The ground height under the marker from the imported elevation data, each time it moves, unless
+  // a height was typed in: that one is kept.
+  const typedGround = ground.source === 'typed';
+  useEffect(() => {
+    if (typedGround) return;
+    let stale = false;
+    elevationApi.sample(position.lat, position.lon).then(
+      (s) => {
+        if (stale) return;
+        const known = s.height_m !== null;
+        setDraft((d) => ({ ...d, ground_elevation_m: known ? String(Math.round(s.height_m! * 10) / 10) : '' }));
+        setGround({ source: known ? 'data' : 'none', note: known ? 'From the elevation data' : 'No elevation data here' });
+      },
+      () => !stale && setGround({ source: 'none', note: null }),
+    );
+    return () => {
+      stale = true;
+    };
+  }, [position.lat, position.lon, typedGround]);
 
   // A new click or a dragged marker moves the position; typed coordinates already there are kept.
   useEffect(() => {
@@ -50,6 +75,8 @@ export default function MastCreateForm({ position, onPositionChange, onCreated, 
     const next = { ...draft, [key]: value } as MastDraft;
     setDraft(next);
     setErrors((e) => withoutFields(e, key === 'lat' || key === 'lon' ? ['lat', 'lon'] : [key]));
+    // A blank ground height goes back to the elevation data.
+    if (key === 'ground_elevation_m') setGround({ source: value.trim() === '' ? 'none' : 'typed', note: null });
     if (key !== 'lat' && key !== 'lon') return;
     const lat = readNumber(next.lat, false);
     const lon = readNumber(next.lon, false);
@@ -97,7 +124,7 @@ export default function MastCreateForm({ position, onPositionChange, onCreated, 
     >
       <form onSubmit={submit} noValidate className="space-y-3" aria-labelledby="new-mast-heading" data-testid="new-mast-form">
         <FormAlert message={formError} errors={errors._} />
-        <MastFormFields prefix="new-mast" draft={draft} errors={errors} onChange={change} />
+        <MastFormFields prefix="new-mast" draft={draft} errors={errors} onChange={change} hints={{ ground_elevation_m: ground.note }} />
         <div className="flex flex-wrap gap-2">
           <button type="submit" className="btn-primary" disabled={busy}>
             Add mast

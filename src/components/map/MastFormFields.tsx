@@ -1,3 +1,4 @@
+import type { ReactNode } from 'react';
 import type { FieldErrors } from '../../lib/client/api';
 import { MAST_STATUSES, MAST_STATUS_LABELS, STRUCTURE_TYPES, STRUCTURE_TYPE_LABELS } from '../../lib/schemas/mast-enums';
 import { Field, inputProps } from './form-parts';
@@ -9,10 +10,12 @@ interface Props {
   draft: MastDraft;
   errors: FieldErrors;
   onChange: (key: keyof MastDraft, value: string) => void;
+  /** A line under a field (e.g. where its value came from). */
+  hints?: Partial<Record<keyof MastDraft, ReactNode>>;
 }
 
 /** A mast's own facts, for adding and for editing. */
-export default function MastFormFields({ prefix, draft, errors, onChange }: Props) {
+export default function MastFormFields({ prefix, draft, errors, onChange, hints = {} }: Props) {
   const input = (k: keyof MastDraft, extra: Record<string, unknown> = {}) => inputProps(prefix, draft, errors, onChange, k, extra);
   const id = (k: keyof MastDraft) => `${prefix}-${k}`;
   return (
@@ -55,8 +58,17 @@ export default function MastFormFields({ prefix, draft, errors, onChange }: Prop
         <Field id={id('lon')} label="Longitude" errors={errors.lon}>
           <input {...input('lon', { inputMode: 'decimal', required: true })} />
         </Field>
-        <Field id={id('ground_elevation_m')} label="Ground (m)" errors={errors.ground_elevation_m}>
-          <input {...input('ground_elevation_m', { inputMode: 'decimal' })} />
+        <Field id={id('ground_elevation_m')} label="Ground (m)" errors={errors.ground_elevation_m} hint={hints.ground_elevation_m}>
+          <input
+            {...input('ground_elevation_m', {
+              inputMode: 'decimal',
+              'aria-describedby': errors.ground_elevation_m
+                ? `${id('ground_elevation_m')}-error`
+                : hints.ground_elevation_m
+                  ? `${id('ground_elevation_m')}-hint`
+                  : undefined,
+            })}
+          />
         </Field>
       </div>
       <Field id={id('access_notes')} label="Access notes" errors={errors.access_notes}>
