@@ -31,10 +31,46 @@ const CUSTOMERS: Array<{ name: string; target: Target; note: string | null }> = 
   { name: 'Lorcan Pellington', target: 'enquiry', note: 'Phoned in after a neighbour’s install.' },
   { name: 'Dilys Harrowby', target: 'enquiry', note: 'Wants to know if a roof antenna is needed at all.' },
   { name: 'Soren Quenby', target: null, note: 'New enquiry by e-mail; address to confirm.' },
+  { name: 'Maelis Ashcombe', target: 'scheduled', note: 'Gate code at the road end; ring ahead.' },
 ];
 
-// Scheduled dates and check times are fixed so every run gives the same scenario.
-const SCHEDULED_FOR = ['2026-11-12', '2026-11-19', '2026-11-24', '2026-11-26', '2026-12-08', '2026-12-10'];
+/**
+ * Customers who keep their operator (a contract, a work SIM) at a farm where that operator is weak
+ * on every side: the best prediction with the plan's kit stays below the "fair" floor, so each
+ * region lists a coverage gap. Addresses and operators of the demo gazetteer and network (seeds 02
+ * and 06), chosen where the operator's best predicted RSRP is about −102 to −107 dBm.
+ */
+const GAP_CUSTOMERS: Array<{ name: string; address: string; operator: string; note: string }> = [
+  {
+    name: 'Corwen Blackett',
+    address: 'Kestrel Hill Farm, West Coast Road, Sallowcombe',
+    operator: 'Orvane Mobile',
+    note: 'Stays with Orvane Mobile (work phone); calls drop indoors.',
+  },
+  {
+    name: 'Ysolde Marrable',
+    address: 'Larch Howe, West Coast Road, Sallowcombe',
+    operator: 'Quillfern Wireless',
+    note: 'Quillfern Wireless contract until next year; chimney mount only.',
+  },
+  {
+    name: 'Piran Stoddart',
+    address: 'Bracken Hill Farm, Tessary Road, Greythorn Cross',
+    operator: 'Pellimore Networks',
+    note: 'Farm SIM on Pellimore Networks; asked what the best aim can do.',
+  },
+];
+
+// Past visits and check times are fixed so every run gives the same history; the booked visits
+// still to come are set from the day the demo is loaded, so the schedule always has one past due,
+// one this week (the loading day itself) and one later.
+const SCHEDULED_FOR = ['2026-11-12', '2026-11-19', '2026-11-24', '2026-11-26'];
+const BOOKED_DAYS_FROM_LOAD = [-3, 0, 9];
+
+/** The UTC calendar day `days` after `from`, as YYYY-MM-DD. */
+function dayAfter(from: Date, days: number): string {
+  return new Date(Date.UTC(from.getUTCFullYear(), from.getUTCMonth(), from.getUTCDate() + days)).toISOString().slice(0, 10);
+}
 const SHORTLIST_DATE = new Date('2026-11-02T00:00:00Z');
 
 /** Terrain profiles straight from the demo island's elevation function. */
@@ -93,9 +129,10 @@ export async function seed(knex: Knex): Promise<void> {
     if (picked.every((p) => getDistanceM(p, a) >= 3000)) picked.push(a);
   }
   if (picked.length < 10 || town.length < 2) throw new Error('seed 07 needs the demo gazetteer of seed 06 and the masts of seed 02');
-  const addresses = [...picked, town[7]!, town[Math.floor(town.length / 2)]!];
+  const addresses = [...picked, town[7]!, town[Math.floor(town.length / 2)]!, town[Math.floor(town.length / 3)]!];
 
   const random = createRandom(hashString('bearline-customers'));
+  const loadedOn = new Date();
   let scheduled = 0;
   for (const [i, c] of CUSTOMERS.entries()) {
     const at = addresses[i]!;
@@ -151,7 +188,10 @@ export async function seed(knex: Knex): Promise<void> {
     );
     if (isEnquiry || c.target === 'planned') continue;
 
-    await updatePlan(knex, plan.id, { state: 'scheduled', scheduledFor: SCHEDULED_FOR[scheduled++ % SCHEDULED_FOR.length] }, plannerId);
+    const scheduledFor =
+      scheduled < SCHEDULED_FOR.length ? SCHEDULED_FOR[scheduled]! : dayAfter(loadedOn, BOOKED_DAYS_FROM_LOAD[scheduled - SCHEDULED_FOR.length]!);
+    scheduled++;
+    await updatePlan(knex, plan.id, { state: 'scheduled', scheduledFor }, plannerId);
     if (c.target === 'scheduled') continue;
 
     // At the visit: readings with the router's own antenna, the install, readings through the new kit.
@@ -221,5 +261,56 @@ export async function seed(knex: Knex): Promise<void> {
       await updatePlan(knex, plan.id, { state: 'verified' }, plannerId);
       await syncInstallReadings(knex, plan.id);
     }
+  }
+  // Coverage gaps: the best this operator can do at the farm, planned with a chimney-height mount.
+  for (const g of GAP_CUSTOMERS) {
+    const at = await knex('addresses').where({ label: g.address }).first('label', 'postcode', knex.raw('ST_Y(geom) AS lat'), knex.raw('ST_X(geom) AS lon'));
+    const operator = await knex('operators').where({ name: g.operator }).first('id');
+    if (!at || !operator) throw new Error(`seed 07 needs ${g.address} (seed 06) and ${g.operator} (seed 02)`);
+    const [first, last] = g.name.toLowerCase().split(' ');
+    const customer = await createCustomer(
+      knex,
+      {
+        name: g.name,
+        phone: `+00 ${random.int(100, 999)} ${random.int(100, 999)} ${random.int(1000, 9999)}`,
+        email: `${first}.${last}@example.test`,
+        addressLabel: at.label,
+        postcode: at.postcode,
+        lat: at.lat,
+        lon: at.lon,
+        currentOperatorId: String(operator.id),
+        currentAntennaId: String(stub.id),
+        notes: g.note,
+      },
+      plannerId,
+    );
+    const kit = { antennaId: String(panel.id), cableId: String(feeders[0]!.id), cableM: 15, mountHeightM: 5 };
+    const result = await buildShortlist(
+      knex,
+      {
+        at: { lat: at.lat, lon: at.lon },
+        heightM: kit.mountHeightM,
+        ...kit,
+        currentAntennaId: String(stub.id),
+        requiredOperatorId: String(operator.id),
+        date: SHORTLIST_DATE,
+      },
+      demoProfile,
+    );
+    const chosen = shortlistJson(result, { lat: at.lat, lon: at.lon }).items.find((e) => e.pci !== null);
+    if (!chosen) throw new Error(`seed 07 found no ${g.operator} cell for ${g.address}`);
+    await createPlan(
+      knex,
+      {
+        customerId: customer.id,
+        cellId: String(chosen.cell_id),
+        ...kit,
+        figures: chosen,
+        scheduledFor: null,
+        notes: `Best ${g.operator} cell: ${chosen.mast.name} ${chosen.band} PCI ${chosen.pci}, weak. Discuss another operator or a higher mast.`,
+        state: 'planned',
+      },
+      plannerId,
+    );
   }
 }

@@ -39,4 +39,30 @@ describe('the loaded demo scenario', () => {
     // Verified installs fed their after-install readings back for calibration.
     expect(await count('readings', (q) => q.whereNotNull('install_check_id'))).toBeGreaterThan(0);
   });
+
+  it('books visits from the day it was loaded: past due, this week and later', async () => {
+    const today = new Date().toISOString().slice(0, 10);
+    const days = (await db('plans').where({ state: 'scheduled' }).select(db.raw("to_char(scheduled_for, 'YYYY-MM-DD') AS day"))).map((r) => r.day as string);
+    expect(days.some((d) => d < today)).toBe(true);
+    expect(days).toContain(today);
+    expect(days.some((d) => d > today)).toBe(true);
+  });
+
+  it('has a coverage gap in every region: a customer whose best prediction is below −100 dBm (graded poor)', async () => {
+    // The rule of lib/domain/coverage-gaps.ts: the strongest predicted RSRP of a customer's plans < −100 dBm.
+    const { rows } = await db.raw(
+      `SELECT r.id, count(best.customer_id)::int AS gaps FROM regions r
+         LEFT JOIN (SELECT cu.id AS customer_id, cu.geom, max((p.figures->>'predicted_rsrp_dbm')::float8) AS rsrp
+                      FROM customers cu JOIN plans p ON p.customer_id = cu.id GROUP BY cu.id) best
+           ON ST_Contains(r.geom, best.geom) AND best.rsrp < -100
+        GROUP BY r.id`,
+    );
+    expect(rows.length).toBeGreaterThan(0);
+    for (const r of rows) expect(r.gaps).toBeGreaterThan(0);
+  });
+
+  it('writes addresses without a space before a comma', async () => {
+    expect(await count('addresses', (q) => q.whereRaw("label ~ '\\s,'"))).toBe(0);
+    expect(await count('customers', (q) => q.whereRaw("address_label ~ '\\s,'"))).toBe(0);
+  });
 });
