@@ -84,6 +84,38 @@ describe('map upkeep', () => {
       expect(await panel.getByLabel('Longitude').inputValue()).toBe(clicked.lon);
       await page.screenshot({ path: 'test-results/map-new-mast-1280.png' });
 
+      // The ground height under the marker comes from the elevation data (the demo grid of seed 08),
+      // follows the marker when it is dragged, and stays as typed once someone types it.
+      const ground = panel.getByLabel('Ground (m)');
+      const groundAt = async () => {
+        const at = { lat: await panel.getByLabel('Latitude').inputValue(), lon: await panel.getByLabel('Longitude').inputValue() };
+        const sample = await api<{ height_m: number | null }>(page, 'GET', `/api/elevation/sample?lat=${at.lat}&lon=${at.lon}`);
+        return sample.body.height_m === null ? '' : String(Math.round(sample.body.height_m * 10) / 10);
+      };
+      await page.locator('#new-mast-ground_elevation_m-hint').waitFor();
+      expect(await ground.inputValue()).toBe(await groundAt());
+      const marker = (await page.getByTestId('new-mast-marker').boundingBox())!;
+      const dragFrom = { x: marker.x + marker.width / 2, y: marker.y + marker.height / 2 };
+      const dragTo = { x: dragFrom.x + 60, y: dragFrom.y - 50 };
+      const latBefore = await panel.getByLabel('Latitude').inputValue();
+      await page.mouse.move(dragFrom.x, dragFrom.y);
+      await page.mouse.down();
+      await page.mouse.move(dragTo.x, dragTo.y, { steps: 8 });
+      await page.mouse.up();
+      await page.waitForFunction((before) => (document.querySelector('#new-mast-lat') as HTMLInputElement).value !== before, latBefore);
+      const expected = await groundAt();
+      await page.waitForFunction((want) => (document.querySelector('#new-mast-ground_elevation_m') as HTMLInputElement).value === want, expected);
+      await expect(page.locator('#new-mast-ground_elevation_m-hint').textContent()).resolves.toMatch(/elevation data/);
+      await ground.fill('123.5');
+      expect(await page.locator('#new-mast-ground_elevation_m-hint').count()).toBe(0);
+      await page.mouse.move(dragTo.x, dragTo.y);
+      await page.mouse.down();
+      await page.mouse.move(dragFrom.x, dragFrom.y, { steps: 8 });
+      await page.mouse.up();
+      await page.waitForFunction((before) => (document.querySelector('#new-mast-lat') as HTMLInputElement).value === before, latBefore);
+      await page.waitForTimeout(500);
+      expect(await ground.inputValue()).toBe('123.5');
+
       // The API's checks, in the browser, beside the fields.
       await panel.getByLabel('Height (m)').fill('tall');
       await panel.getByRole('button', { name: 'Add mast' }).click();
@@ -124,6 +156,12 @@ describe('map upkeep', () => {
       await mastPanel.getByRole('heading', { level: 3, name: 'Cells (1)' }).waitFor();
       const rows = mastPanel.getByTestId('mast-cells').locator('tbody tr');
       await expect(rows.first().textContent()).resolves.toMatch(/B20.*6300.*806\.0.*101.*120°/);
+      // Every column of the cells table fits the side panel, edit buttons included: no sideways scroll.
+      const fit = await mastPanel
+        .getByTestId('mast-cells')
+        .locator('table')
+        .evaluate((t) => ({ table: t.scrollWidth, box: t.parentElement!.clientWidth }));
+      expect(fit.table).toBeLessThanOrEqual(fit.box);
 
       // Edit it.
       await mastPanel.getByRole('button', { name: 'Edit LTE B20 cell on channel 6300 (PCI 101)' }).click();

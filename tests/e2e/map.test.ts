@@ -108,7 +108,12 @@ describe('mast map', () => {
       const rows = table.locator('tbody tr');
       expect(await rows.count()).toBeGreaterThan(0);
       const headers = await table.locator('thead th').allTextContents();
-      for (const h of ['Tech', 'Band', 'Channel', 'MHz', 'PCI', 'Azimuth', 'Last observed']) expect(headers.join('|')).toContain(h);
+      for (const h of ['Operator', 'Band', 'Channel', 'PCI', 'Azimuth', 'Last observed']) expect(headers.join('|')).toContain(h);
+      // Technology with the band, frequency under the channel number: e.g. "LTE B20", "6300 806.0 MHz".
+      await expect(rows.first().textContent()).resolves.toMatch(/(GSM|UMTS|LTE|NR) \S+.*\d+\s*\d+\.\d MHz/);
+      // Seven columns fit the side panel: nothing to scroll sideways for.
+      const fit = await table.evaluate((t) => ({ table: t.scrollWidth, box: t.parentElement!.clientWidth }));
+      expect(fit.table).toBeLessThanOrEqual(fit.box);
 
       await table.getByRole('button', { name: /PCI/ }).click();
       await expect(table.locator('th[aria-sort]').textContent()).resolves.toContain('PCI');

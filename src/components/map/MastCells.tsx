@@ -93,18 +93,30 @@ export default function MastCells({ mast, operators, canEdit, onChanged }: Props
       ),
     },
     {
-      key: 'tech',
-      label: 'Tech',
-      sortValue: (c) => ['gsm', 'umts', 'lte', 'nr'].indexOf(c.tech),
+      key: 'band',
+      label: 'Band',
+      sortValue: (c) => `${bandOrder(c.band)}:${c.tech}`,
       render: (c) => (
-        <abbr title={TECH_LABELS[c.tech]} className="no-underline">
-          {c.tech.toUpperCase()}
-        </abbr>
+        <span className="whitespace-nowrap">
+          <abbr title={TECH_LABELS[c.tech]} className="no-underline">
+            {c.tech.toUpperCase()}
+          </abbr>{' '}
+          {c.band}
+        </span>
       ),
     },
-    { key: 'band', label: 'Band', sortValue: (c) => bandOrder(c.band), render: (c) => c.band },
-    { key: 'channel', label: 'Channel', sortValue: (c) => c.channel, render: (c) => c.channel, className: 'text-right' },
-    { key: 'mhz', label: 'MHz', sortValue: (c) => c.dl_mhz, render: (c) => fmt(c.dl_mhz, 1), className: 'text-right' },
+    {
+      key: 'channel',
+      label: 'Channel',
+      sortValue: (c) => c.dl_mhz ?? c.channel,
+      render: (c) => (
+        <span className="inline-flex flex-col items-end leading-tight">
+          <span>{c.channel}</span>
+          <span className="whitespace-nowrap text-ink-500">{fmt(c.dl_mhz, 1, ' MHz')}</span>
+        </span>
+      ),
+      className: 'text-right',
+    },
     { key: 'pci', label: 'PCI', sortValue: (c) => c.pci, render: (c) => fmt(c.pci), className: 'text-right' },
     { key: 'azimuth', label: 'Azimuth', sortValue: (c) => c.sector_azimuth_deg, render: (c) => fmt(c.sector_azimuth_deg, 0, '°'), className: 'text-right' },
     {
@@ -207,12 +219,13 @@ export default function MastCells({ mast, operators, canEdit, onChanged }: Props
         />
       )}
 
-      <div className="[&_table]:text-xs [&_td]:px-2 [&_td]:py-1.5 [&_th]:px-2 [&_th]:py-1.5">
+      {/* Narrow padding, and headers that may wrap: all seven columns fit the side panel (28–32rem). */}
+      <div className="[&_table]:text-xs [&_td]:px-1.5 [&_td]:py-1.5 [&_th]:px-1.5 [&_th]:py-1.5 [&_th_button]:text-left">
         <SortableTable
           rows={mast.cells}
           columns={columns}
           rowKey={(c) => c.id}
-          initialSort={{ key: 'mhz', dir: 'asc' }}
+          initialSort={{ key: 'channel', dir: 'asc' }}
           empty="No cells recorded"
           caption={`Cells on ${mast.name}`}
         />
