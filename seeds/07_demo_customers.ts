@@ -38,7 +38,7 @@ const CUSTOMERS: Array<{ name: string; target: Target; note: string | null }> = 
  * Customers who keep their operator (a contract, a work SIM) at a farm where that operator is weak
  * on every side: the best prediction with the plan's kit stays below the "fair" floor, so each
  * region lists a coverage gap. Addresses and operators of the demo gazetteer and network (seeds 02
- * and 06), chosen where the operator's best predicted RSRP is about −102 to −107 dBm.
+ * and 06), chosen where the operator's best predicted RSRP with that kit is well below −100 dBm.
  */
 const GAP_CUSTOMERS: Array<{ name: string; address: string; operator: string; note: string }> = [
   {
@@ -55,7 +55,7 @@ const GAP_CUSTOMERS: Array<{ name: string; address: string; operator: string; no
   },
   {
     name: 'Piran Stoddart',
-    address: 'Bracken Hill Farm, Tessary Road, Greythorn Cross',
+    address: 'Lapwing Cottage, South Coast Road, Drumhallow',
     operator: 'Pellimore Networks',
     note: 'Farm SIM on Pellimore Networks; asked what the best aim can do.',
   },
