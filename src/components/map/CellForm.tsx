@@ -1,12 +1,12 @@
 import { useEffect, useRef, useState, type FormEvent } from 'react';
-import { ApiError, cellsApi, type CellJson, type FieldErrors } from '../../lib/client/api';
-import { checkWith } from '../../lib/client/planning-api';
+import { cellsApi, checkWith, type CellJson } from '../../lib/client/api';
 import { TECHS, type Tech } from '../../lib/schemas/mast-enums';
 import { CellInputSchema } from '../../lib/schemas/masts';
 import { bandChoices, bandForTech, cellDraftOf, cellInputOf, changedCellFields, describeChannel, newCellDraft, type CellDraft } from './cell-form';
-import { Field, FormAlert, inputProps, withoutFields } from './form-parts';
+import { Field, FormActions, FormAlert, OperatorOptions, inputProps } from './form-parts';
 import { TECH_LABELS } from './MapFilters';
 import type { OperatorMark } from './mast-icons';
+import { useMapForm } from './use-map-form';
 
 interface Props {
   mastId: string;
@@ -26,10 +26,8 @@ const CHANNEL_NAME: Record<Tech, string> = { gsm: 'ARFCN', umts: 'UARFCN', lte: 
 export default function CellForm({ mastId, cell, operators, onSaved, onCancel, onRemove }: Props) {
   const [initial] = useState<CellDraft>(() => (cell ? cellDraftOf(cell) : newCellDraft(operators[0]?.id ?? '')));
   const [draft, setDraft] = useState(initial);
-  const [errors, setErrors] = useState<FieldErrors>({});
-  const [formError, setFormError] = useState<string | null>(null);
-  const [stale, setStale] = useState(false);
-  const [busy, setBusy] = useState(false);
+  const form = useMapForm('Could not save the cell');
+  const errors = form.errors;
   const firstRef = useRef<HTMLSelectElement>(null);
   const title = cell ? `Edit ${cell.tech.toUpperCase()} ${cell.band} cell, channel ${cell.channel}` : 'New cell';
 
@@ -38,49 +36,31 @@ export default function CellForm({ mastId, cell, operators, onSaved, onCancel, o
   const change = (key: keyof CellDraft, value: string) => {
     setDraft((d) => (key === 'tech' ? { ...d, tech: value as Tech, band: bandForTech(value as Tech, d.band) } : ({ ...d, [key]: value } as CellDraft)));
     // Band, channel and PCI are checked together: a change to one may settle the others' errors.
-    setErrors((e) => withoutFields(e, key === 'tech' || key === 'band' || key === 'channel' ? [key, 'tech', 'band', 'channel', 'pci'] : [key]));
+    form.clear(key === 'tech' || key === 'band' || key === 'channel' ? [key, 'tech', 'band', 'channel', 'pci'] : [key]);
   };
   const input = (k: keyof CellDraft, extra: Record<string, unknown> = {}) => inputProps('cell', draft, errors, change, k, extra);
   const channelHint = describeChannel(draft.tech, draft.channel, draft.band);
 
   async function submit(e: FormEvent) {
     e.preventDefault();
-    setErrors({});
-    setFormError(null);
     // The whole cell is checked either way: the server checks an edit merged with the stored cell.
     const whole = cellInputOf(draft);
-    const fields = checkWith(CellInputSchema, whole);
-    if (fields) {
-      setErrors(fields);
-      setFormError('Some fields need attention');
-      return;
-    }
     const change = cell ? changedCellFields(initial, draft) : whole;
-    if (cell && Object.keys(change).length === 0) {
+    if (cell && Object.keys(change).length === 0 && !checkWith(CellInputSchema, whole)) {
       onCancel();
       return;
     }
-    setBusy(true);
-    try {
-      if (cell) await cellsApi.update(cell.id, { row_version: cell.row_version, ...change });
-      else await cellsApi.create(mastId, whole);
-      onSaved();
-    } catch (err) {
-      if (err instanceof ApiError) {
-        setErrors(err.fields);
-        setFormError(err.message);
-        setStale(err.status === 409);
-      } else setFormError('Could not save the cell');
-    } finally {
-      setBusy(false);
-    }
+    const sent = await form.submit(() => (cell ? cellsApi.update(cell.id, { row_version: cell.row_version, ...change }) : cellsApi.create(mastId, whole)), {
+      check: () => checkWith(CellInputSchema, whole),
+    });
+    if (sent.ok) onSaved();
   }
 
   return (
     <form onSubmit={submit} noValidate className="space-y-3 rounded-lg border border-ink-200 bg-ink-50 p-3" aria-label={title} data-testid="cell-form">
       <h4 className="font-semibold text-ink-900">{title}</h4>
-      <FormAlert message={formError} errors={errors._}>
-        {stale && (
+      <FormAlert message={form.message} errors={errors._}>
+        {form.stale && (
           <button type="button" className="btn-secondary mt-2 py-1" onClick={onSaved}>
             Load the latest version
           </button>
@@ -89,11 +69,7 @@ export default function CellForm({ mastId, cell, operators, onSaved, onCancel, o
       <div className="grid grid-cols-2 gap-3">
         <Field id="cell-operator_id" label="Operator" errors={errors.operator_id}>
           <select {...input('operator_id')} ref={firstRef}>
-            {operators.map((o) => (
-              <option key={o.id} value={o.id}>
-                {o.name}
-              </option>
-            ))}
+            <OperatorOptions operators={operators} />
           </select>
         </Field>
         <Field id="cell-tech" label="Technology" errors={errors.tech}>
@@ -144,19 +120,13 @@ export default function CellForm({ mastId, cell, operators, onSaved, onCancel, o
           <input {...input('cell_identity', { inputMode: 'numeric' })} />
         </Field>
       </div>
-      <div className="flex flex-wrap gap-2">
-        <button type="submit" className="btn-primary" disabled={busy}>
-          {cell ? 'Save cell' : 'Add cell'}
-        </button>
-        <button type="button" className="btn-secondary" onClick={onCancel} disabled={busy}>
-          Cancel
-        </button>
+      <FormActions submitLabel={cell ? 'Save cell' : 'Add cell'} busy={form.pending} onCancel={onCancel}>
         {onRemove && (
-          <button type="button" className="btn-secondary ml-auto text-alarm-700" onClick={onRemove} disabled={busy}>
+          <button type="button" className="btn-secondary ml-auto text-alarm-700" onClick={onRemove} disabled={form.pending}>
             Remove cell…
           </button>
         )}
-      </div>
+      </FormActions>
     </form>
   );
 }

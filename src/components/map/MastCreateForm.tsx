@@ -1,12 +1,13 @@
 import { useEffect, useRef, useState, type FormEvent } from 'react';
-import { ApiError, mastsApi, type FieldErrors, type MastJson } from '../../lib/client/api';
+import { checkWith, mastsApi, type MastJson } from '../../lib/client/api';
 import { elevationApi } from '../../lib/client/elevation-api';
-import { checkWith } from '../../lib/client/planning-api';
 import { MastInputSchema } from '../../lib/schemas/masts';
-import { FormAlert, withoutFields } from './form-parts';
+import { FormActions, FormAlert } from './form-parts';
 import { mastInputOf, newMastDraft, readNumber, type MastDraft } from './mast-form';
 import MastFormFields from './MastFormFields';
 import PanelFrame from './PanelFrame';
+import { useQuery } from '../ui/use-api';
+import { useMapForm } from './use-map-form';
 
 export interface LatLon {
   lat: number;
@@ -30,9 +31,7 @@ type GroundSource = 'data' | 'typed' | 'none';
 /** Adds a mast where the map was clicked, with the API's checks before sending and its answers beside the fields. */
 export default function MastCreateForm({ position, onPositionChange, onCreated, onCancel }: Props) {
   const [draft, setDraft] = useState<MastDraft>(() => newMastDraft(position.lat, position.lon));
-  const [errors, setErrors] = useState<FieldErrors>({});
-  const [formError, setFormError] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
+  const form = useMapForm('Could not add the mast');
   const [ground, setGround] = useState<{ source: GroundSource; note: string | null }>({ source: 'none', note: null });
   const headingRef = useRef<HTMLHeadingElement>(null);
 
@@ -41,22 +40,13 @@ export default function MastCreateForm({ position, onPositionChange, onCreated, 
   // The ground height under the marker from the imported elevation data, each time it moves, unless
   // a height was typed in: that one is kept.
   const typedGround = ground.source === 'typed';
-  useEffect(() => {
-    if (typedGround) return;
-    let stale = false;
-    elevationApi.sample(position.lat, position.lon).then(
-      (s) => {
-        if (stale) return;
-        const known = s.height_m !== null;
-        setDraft((d) => ({ ...d, ground_elevation_m: known ? String(Math.round(s.height_m! * 10) / 10) : '' }));
-        setGround({ source: known ? 'data' : 'none', note: known ? 'From the elevation data' : 'No elevation data here' });
-      },
-      () => !stale && setGround({ source: 'none', note: null }),
-    );
-    return () => {
-      stale = true;
-    };
-  }, [position.lat, position.lon, typedGround]);
+  useQuery(typedGround ? null : `${position.lat},${position.lon}`, () => elevationApi.sample(position.lat, position.lon), {
+    onSuccess: (s) => {
+      const known = s.height_m !== null;
+      setDraft((d) => ({ ...d, ground_elevation_m: known ? String(Math.round(s.height_m! * 10) / 10) : '' }));
+      setGround({ source: known ? 'data' : 'none', note: known ? 'From the elevation data' : 'No elevation data here' });
+    },
+  });
 
   // A new click or a dragged marker moves the position; typed coordinates already there are kept.
   useEffect(() => {
@@ -74,7 +64,7 @@ export default function MastCreateForm({ position, onPositionChange, onCreated, 
   function change(key: keyof MastDraft, value: string) {
     const next = { ...draft, [key]: value } as MastDraft;
     setDraft(next);
-    setErrors((e) => withoutFields(e, key === 'lat' || key === 'lon' ? ['lat', 'lon'] : [key]));
+    form.clear(key === 'lat' || key === 'lon' ? ['lat', 'lon'] : [key]);
     // A blank ground height goes back to the elevation data.
     if (key === 'ground_elevation_m') setGround({ source: value.trim() === '' ? 'none' : 'typed', note: null });
     if (key !== 'lat' && key !== 'lon') return;
@@ -85,26 +75,9 @@ export default function MastCreateForm({ position, onPositionChange, onCreated, 
 
   async function submit(e: FormEvent) {
     e.preventDefault();
-    setErrors({});
-    setFormError(null);
     const body = mastInputOf(draft);
-    const fields = checkWith(MastInputSchema, body);
-    if (fields) {
-      setErrors(fields);
-      setFormError('Some fields need attention');
-      return;
-    }
-    setBusy(true);
-    try {
-      onCreated(await mastsApi.create(body));
-    } catch (err) {
-      if (err instanceof ApiError) {
-        setErrors(err.fields);
-        setFormError(err.message);
-      } else setFormError('Could not add the mast');
-    } finally {
-      setBusy(false);
-    }
+    const sent = await form.submit(() => mastsApi.create(body), { check: () => checkWith(MastInputSchema, body) });
+    if (sent.ok) onCreated(sent.data);
   }
 
   return (
@@ -123,16 +96,9 @@ export default function MastCreateForm({ position, onPositionChange, onCreated, 
       }
     >
       <form onSubmit={submit} noValidate className="space-y-3" aria-labelledby="new-mast-heading" data-testid="new-mast-form">
-        <FormAlert message={formError} errors={errors._} />
-        <MastFormFields prefix="new-mast" draft={draft} errors={errors} onChange={change} hints={{ ground_elevation_m: ground.note }} />
-        <div className="flex flex-wrap gap-2">
-          <button type="submit" className="btn-primary" disabled={busy}>
-            Add mast
-          </button>
-          <button type="button" className="btn-secondary" onClick={onCancel} disabled={busy}>
-            Cancel
-          </button>
-        </div>
+        <FormAlert message={form.message} errors={form.errors._} />
+        <MastFormFields prefix="new-mast" draft={draft} errors={form.errors} onChange={change} hints={{ ground_elevation_m: ground.note }} />
+        <FormActions submitLabel="Add mast" busy={form.pending} onCancel={onCancel} />
       </form>
     </PanelFrame>
   );

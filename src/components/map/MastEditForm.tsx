@@ -1,10 +1,10 @@
 import { useState, type FormEvent } from 'react';
-import { ApiError, mastsApi, type FieldErrors, type MastDetailJson } from '../../lib/client/api';
-import { checkWith } from '../../lib/client/planning-api';
+import { checkWith, mastsApi, type MastDetailJson } from '../../lib/client/api';
 import { MastChangeSchema } from '../../lib/schemas/masts';
-import { FormAlert, withoutFields } from './form-parts';
+import { FormActions, FormAlert } from './form-parts';
 import { changedMastFields, mastDraftOf, type MastDraft } from './mast-form';
 import MastFormFields from './MastFormFields';
+import { useMapForm } from './use-map-form';
 
 interface Props {
   mast: MastDetailJson;
@@ -16,45 +16,23 @@ interface Props {
 export default function MastEditForm({ mast, onSaved, onCancel }: Props) {
   const [initial] = useState(() => mastDraftOf(mast));
   const [draft, setDraft] = useState(initial);
-  const [errors, setErrors] = useState<FieldErrors>({});
-  const [formError, setFormError] = useState<string | null>(null);
-  const [stale, setStale] = useState(false);
-  const [busy, setBusy] = useState(false);
+  const form = useMapForm('Could not save the mast');
 
   async function submit(e: FormEvent) {
     e.preventDefault();
-    setErrors({});
-    setFormError(null);
     const change = { row_version: mast.row_version, ...changedMastFields(initial, draft) };
     if (Object.keys(change).length === 1) {
       onCancel();
       return;
     }
-    const fields = checkWith(MastChangeSchema, change);
-    if (fields) {
-      setErrors(fields);
-      setFormError('Some fields need attention');
-      return;
-    }
-    setBusy(true);
-    try {
-      await mastsApi.update(mast.id, change);
-      onSaved();
-    } catch (err) {
-      if (err instanceof ApiError) {
-        setErrors(err.fields);
-        setFormError(err.message);
-        setStale(err.status === 409);
-      } else setFormError('Could not save the mast');
-    } finally {
-      setBusy(false);
-    }
+    const sent = await form.submit(() => mastsApi.update(mast.id, change), { check: () => checkWith(MastChangeSchema, change) });
+    if (sent.ok) onSaved();
   }
 
   return (
     <form onSubmit={submit} noValidate className="space-y-3" aria-label={`Edit ${mast.name}`} data-testid="mast-edit-form">
-      <FormAlert message={formError} errors={errors._}>
-        {stale && (
+      <FormAlert message={form.message} errors={form.errors._}>
+        {form.stale && (
           <button type="button" className="btn-secondary mt-2 py-1" onClick={onSaved}>
             Load the latest version
           </button>
@@ -63,20 +41,13 @@ export default function MastEditForm({ mast, onSaved, onCancel }: Props) {
       <MastFormFields
         prefix="mast"
         draft={draft}
-        errors={errors}
+        errors={form.errors}
         onChange={(k, v) => {
           setDraft((d) => ({ ...d, [k]: v }) as MastDraft);
-          setErrors((e) => withoutFields(e, k === 'lat' || k === 'lon' ? ['lat', 'lon'] : [k]));
+          form.clear(k === 'lat' || k === 'lon' ? ['lat', 'lon'] : [k]);
         }}
       />
-      <div className="flex gap-2">
-        <button type="submit" className="btn-primary" disabled={busy}>
-          Save mast
-        </button>
-        <button type="button" className="btn-secondary" onClick={onCancel} disabled={busy}>
-          Cancel
-        </button>
-      </div>
+      <FormActions submitLabel="Save mast" busy={form.pending} onCancel={onCancel} />
     </form>
   );
 }

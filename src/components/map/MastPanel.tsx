@@ -1,5 +1,6 @@
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
-import { ApiError, mastsApi, type MastDetailJson, type ReadingJson } from '../../lib/client/api';
+import { mastsApi, type MastDetailJson, type ReadingJson } from '../../lib/client/api';
+import { useQuery } from '../ui/use-api';
 import { STRUCTURE_TYPE_LABELS, type StructureType } from '../../lib/schemas/mast-enums';
 import { SortableTable, type Column } from '../ui/SortableTable';
 import { mastIconDataUrl, type OperatorMark } from './mast-icons';
@@ -57,26 +58,14 @@ function CopyPosition({ lat, lon }: { lat: number; lon: number }) {
 
 /** Details of one mast: structure, position, operators, cells and recent readings. */
 export default function MastPanel({ mastId, operators, canEdit, onClose, onChanged }: Props) {
-  const [mast, setMast] = useState<MastDetailJson | null>(null);
-  const [error, setError] = useState<string | null>(null);
+  const query = useQuery<MastDetailJson>(mastId, () => mastsApi.get(mastId), { failed: 'Could not load the mast', keepOnError: false });
+  // Another mast's details stay out of sight while this one loads.
+  const mast = query.data?.id === mastId ? query.data : null;
+  const error = query.error?.message ?? null;
   const [editing, setEditing] = useState(false);
-  const [version, setVersion] = useState(0);
   const headingRef = useRef<HTMLHeadingElement>(null);
 
-  useEffect(() => {
-    let stale = false;
-    setError(null);
-    setEditing(false);
-    mastsApi.get(mastId).then(
-      (m) => !stale && setMast(m),
-      (e: unknown) => !stale && setError(e instanceof ApiError ? e.message : 'Could not load the mast'),
-    );
-    return () => {
-      stale = true;
-    };
-  }, [mastId, version]);
-
-  useEffect(() => setMast(null), [mastId]);
+  useEffect(() => setEditing(false), [mastId]);
 
   useEffect(() => {
     if (mast) headingRef.current?.focus();
@@ -94,10 +83,12 @@ export default function MastPanel({ mastId, operators, canEdit, onClose, onChang
     return counts;
   }, [mast]);
 
+  const { refetch } = query;
   const reload = useCallback(() => {
-    setVersion((v) => v + 1);
+    setEditing(false);
+    refetch();
     onChanged();
-  }, [onChanged]);
+  }, [onChanged, refetch]);
 
   const icon = useMemo(
     () =>

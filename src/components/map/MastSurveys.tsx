@@ -1,5 +1,5 @@
 // Who surveyed a mast, when it was last observed, and the photos of its approved sightings.
-import { useEffect, useState } from 'react';
+import { useQuery } from '../ui/use-api';
 import { sightingsApi } from '../../lib/client/sightings-api';
 import type { MastSurveyJson } from '../../lib/schemas/sightings';
 import { formatDate } from '../../lib/domain/format';
@@ -7,14 +7,10 @@ import { formatDate } from '../../lib/domain/format';
 const fmtDate = formatDate;
 
 export default function MastSurveys({ mastId }: { mastId: string }) {
-  const [surveys, setSurveys] = useState<MastSurveyJson | null>(null);
-  const [failed, setFailed] = useState(false);
-
-  useEffect(() => {
-    setSurveys(null);
-    setFailed(false);
-    sightingsApi.mastSurveys(mastId).then(setSurveys, () => setFailed(true));
-  }, [mastId]);
+  const query = useQuery<MastSurveyJson>(mastId, () => sightingsApi.mastSurveys(mastId), { keepOnError: false });
+  // Another mast's surveys stay out of sight while this one's load.
+  const surveys = query.loading ? null : query.data;
+  const failed = !!query.error;
 
   return (
     <section aria-labelledby="mast-surveys-heading" data-testid="mast-surveys">

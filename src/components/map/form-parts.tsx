@@ -64,3 +64,31 @@ export function FormAlert({ message, errors, children }: { message: string | nul
     </div>
   );
 }
+
+/** The form's buttons: send, cancel, and anything else (e.g. remove) after them. */
+export function FormActions({ submitLabel, busy, onCancel, children }: { submitLabel: string; busy: boolean; onCancel: () => void; children?: ReactNode }) {
+  return (
+    <div className="flex flex-wrap gap-2">
+      <button type="submit" className="btn-primary" disabled={busy}>
+        {submitLabel}
+      </button>
+      <button type="button" className="btn-secondary" onClick={onCancel} disabled={busy}>
+        Cancel
+      </button>
+      {children}
+    </div>
+  );
+}
+
+/** The operators as a select's options. */
+export function OperatorOptions({ operators }: { operators: readonly { id: string; name: string }[] }) {
+  return (
+    <>
+      {operators.map((o) => (
+        <option key={o.id} value={o.id}>
+          {o.name}
+        </option>
+      ))}
+    </>
+  );
+}

@@ -1,6 +1,6 @@
 // Bearline's basemap style: a calm paper-and-slate palette over the app's own
 // vector tiles. Pure data; the style endpoint and the map island share it.
-import type { LayerSpecification, StyleSpecification } from 'maplibre-gl';
+import type { LayerSpecification, StyleSpecification, SymbolLayerSpecification } from 'maplibre-gl';
 
 /** The basemap colours, also used by the legend. */
 export const BASEMAP_PALETTE = {
@@ -60,6 +60,37 @@ const TRACKS = ['track', 'path', 'service', 'unpaved'];
 function roadWidth(major: number, secondary: number, minor: number, track: number) {
   const byClass = (scale: number) => ['match', kindOf, MAJOR_ROADS, major * scale, SECONDARY_ROADS, secondary * scale, TRACKS, track * scale, minor * scale];
   return ['interpolate', ['exponential', 1.5], ['zoom'], 8, byClass(0.35), 12, byClass(1), 16, byClass(3.2)];
+}
+
+/** A settlement label: placed where it fits around the point, higher-ranked places first. */
+function placeLabel(o: {
+  id: string;
+  minzoom?: number;
+  kinds: string[];
+  font: NonNullable<SymbolLayerSpecification['layout']>['text-font'];
+  size: NonNullable<SymbolLayerSpecification['layout']>['text-size'];
+  rank: number;
+  offset: number;
+  halo: number;
+}): SymbolLayerSpecification {
+  return {
+    id: o.id,
+    type: 'symbol',
+    ...src,
+    'source-layer': 'places',
+    ...(o.minzoom === undefined ? {} : { minzoom: o.minzoom }),
+    filter: kindIn(...o.kinds) as never,
+    layout: {
+      'text-field': ['get', 'name'],
+      'text-font': o.font,
+      'text-size': o.size,
+      'symbol-sort-key': ['coalesce', ['get', 'rank'], o.rank] as never,
+      'text-max-width': 8,
+      'text-variable-anchor': ['center', 'top', 'bottom', 'left', 'right'],
+      'text-radial-offset': o.offset,
+    },
+    paint: { 'text-color': P.label, 'text-halo-color': P.halo, 'text-halo-width': o.halo },
+  };
 }
 
 export const BASEMAP_LAYERS: LayerSpecification[] = [
@@ -226,41 +257,25 @@ export const BASEMAP_LAYERS: LayerSpecification[] = [
     },
     paint: { 'text-color': P.peakLabel, 'text-halo-color': P.halo, 'text-halo-width': 1.3 },
   },
-  {
+  placeLabel({
     id: 'label-place-minor',
-    type: 'symbol',
-    ...src,
-    'source-layer': 'places',
     minzoom: 9.5,
-    filter: kindIn('village', 'hamlet', 'locality') as never,
-    layout: {
-      'text-field': ['get', 'name'],
-      'text-font': ['match', kindOf, 'village', ['literal', [...LABEL_FONTS.semibold]], ['literal', [...LABEL_FONTS.regular]]] as never,
-      'text-size': ['interpolate', ['linear'], ['zoom'], 10, ['match', kindOf, 'village', 12, 10.5], 15, ['match', kindOf, 'village', 16, 13]] as never,
-      'symbol-sort-key': ['coalesce', ['get', 'rank'], 5] as never,
-      'text-max-width': 8,
-      'text-variable-anchor': ['center', 'top', 'bottom', 'left', 'right'],
-      'text-radial-offset': 0.9,
-    },
-    paint: { 'text-color': P.label, 'text-halo-color': P.halo, 'text-halo-width': 1.5 },
-  },
-  {
+    kinds: ['village', 'hamlet', 'locality'],
+    font: ['match', kindOf, 'village', ['literal', [...LABEL_FONTS.semibold]], ['literal', [...LABEL_FONTS.regular]]] as never,
+    size: ['interpolate', ['linear'], ['zoom'], 10, ['match', kindOf, 'village', 12, 10.5], 15, ['match', kindOf, 'village', 16, 13]] as never,
+    rank: 5,
+    offset: 0.9,
+    halo: 1.5,
+  }),
+  placeLabel({
     id: 'label-place-major',
-    type: 'symbol',
-    ...src,
-    'source-layer': 'places',
-    filter: kindIn('city', 'town') as never,
-    layout: {
-      'text-field': ['get', 'name'],
-      'text-font': [...LABEL_FONTS.bold],
-      'text-size': ['interpolate', ['linear'], ['zoom'], 8, 12, 12, 16, 15, 19],
-      'symbol-sort-key': ['coalesce', ['get', 'rank'], 1] as never,
-      'text-max-width': 8,
-      'text-variable-anchor': ['center', 'top', 'bottom', 'left', 'right'],
-      'text-radial-offset': 1,
-    },
-    paint: { 'text-color': P.label, 'text-halo-color': P.halo, 'text-halo-width': 1.8 },
-  },
+    kinds: ['city', 'town'],
+    font: [...LABEL_FONTS.bold],
+    size: ['interpolate', ['linear'], ['zoom'], 8, 12, 12, 16, 15, 19],
+    rank: 1,
+    offset: 1,
+    halo: 1.8,
+  }),
   {
     id: 'label-island',
     type: 'symbol',
