@@ -107,6 +107,21 @@ export async function seed(knex: Knex): Promise<void> {
   if (!panel || !stub || feeders.length === 0) throw new Error('seed 07 needs the demo catalogue of seed 05');
   const operators: { id: string }[] = await knex('operators').orderBy('id').select('id');
 
+  /** The product's own shortlist for an address and kit, with terrain from the demo island. */
+  const shortlistAt = async (
+    at: LatLon,
+    kit: { antennaId: string; cableId: string; cableM: number; mountHeightM: number },
+    operator: { preferredOperatorId?: string; requiredOperatorId?: string },
+  ) => {
+    const where = { lat: at.lat, lon: at.lon };
+    const result = await buildShortlist(
+      knex,
+      { at: where, heightM: kit.mountHeightM, ...kit, currentAntennaId: String(stub.id), ...operator, date: SHORTLIST_DATE },
+      demoProfile,
+    );
+    return shortlistJson(result, where).items;
+  };
+
   // Rural addresses (postcodes -9xxx) far from the nearest active mast — where outdoor antennas
   // are sold — at least 3 km apart, and two in town.
   const rural: Array<{ label: string; postcode: string; lat: number; lon: number }> = (
@@ -158,19 +173,7 @@ export async function seed(knex: Knex): Promise<void> {
 
     const cable = feeders[i % 3 === 0 ? feeders.length - 1 : Math.min(1, feeders.length - 1)]!;
     const kit = { antennaId: String(panel.id), cableId: String(cable.id), cableM: random.int(6, 18), mountHeightM: random.int(5, 9) };
-    const result = await buildShortlist(
-      knex,
-      {
-        at: { lat: at.lat, lon: at.lon },
-        heightM: kit.mountHeightM,
-        ...kit,
-        currentAntennaId: String(stub.id),
-        preferredOperatorId: String(operatorId),
-        date: SHORTLIST_DATE,
-      },
-      demoProfile,
-    );
-    const items = shortlistJson(result, { lat: at.lat, lon: at.lon }).items;
+    const items = await shortlistAt(at, kit, { preferredOperatorId: String(operatorId) });
     const chosen = items.find((e) => e.pci !== null);
     const isEnquiry = c.target === 'enquiry' || !chosen;
     const plan = await createPlan(
@@ -285,19 +288,7 @@ export async function seed(knex: Knex): Promise<void> {
       plannerId,
     );
     const kit = { antennaId: String(panel.id), cableId: String(feeders[0]!.id), cableM: 15, mountHeightM: 5 };
-    const result = await buildShortlist(
-      knex,
-      {
-        at: { lat: at.lat, lon: at.lon },
-        heightM: kit.mountHeightM,
-        ...kit,
-        currentAntennaId: String(stub.id),
-        requiredOperatorId: String(operator.id),
-        date: SHORTLIST_DATE,
-      },
-      demoProfile,
-    );
-    const chosen = shortlistJson(result, { lat: at.lat, lon: at.lon }).items.find((e) => e.pci !== null);
+    const chosen = (await shortlistAt(at, kit, { requiredOperatorId: String(operator.id) })).find((e) => e.pci !== null);
     if (!chosen) throw new Error(`seed 07 found no ${g.operator} cell for ${g.address}`);
     await createPlan(
       knex,

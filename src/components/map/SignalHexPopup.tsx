@@ -36,18 +36,11 @@ export default function SignalHexPopup({ pick, onClose }: { pick: SignalHexPick;
               <caption className="sr-only">Median of each measure in this hexagon</caption>
               <thead className="text-left text-ink-600">
                 <tr>
-                  <th scope="col" className="pr-2 font-semibold">
-                    Median
-                  </th>
-                  <th scope="col" className="pr-2 text-right font-semibold">
-                    Value
-                  </th>
-                  <th scope="col" className="pr-2 font-semibold">
-                    Grade
-                  </th>
-                  <th scope="col" className="text-right font-semibold">
-                    Readings
-                  </th>
+                  {['Median', 'Value', 'Grade', 'Readings'].map((h, n) => (
+                    <th key={h} scope="col" className={`font-semibold ${n === 1 || n === 3 ? 'text-right' : ''} ${n < 3 ? 'pr-2' : ''}`}>
+                      {h}
+                    </th>
+                  ))}
                 </tr>
               </thead>
               <tbody>
