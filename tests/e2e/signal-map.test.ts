@@ -107,6 +107,83 @@ describe('measured signal layer', () => {
     await context.close();
   }, 180_000);
 
+  it('keeps its choices in the address (reload and Back restore them) and shows a hexagon’s figures on click or from the keyboard', async () => {
+    const context = await browser.newContext({ viewport: { width: 1280, height: 860 } });
+    const page = await context.newPage();
+    await openMap(page, 'planner');
+    const param = (name: string) => new URL(page.url()).searchParams.get(name);
+    await page.getByTestId('signal-toggle').click();
+    await page.waitForFunction(() => new URL(location.href).searchParams.get('signal') === 'rsrp');
+    await page.getByRole('radio', { name: 'SINR' }).check({ force: true });
+    const operatorSelect = page.getByTestId('signal-operator');
+    const operatorId = (await operatorSelect.locator('option').nth(1).getAttribute('value'))!;
+    await operatorSelect.selectOption(operatorId);
+    await page.waitForFunction((id) => new URL(location.href).searchParams.get('signal_operator') === id, operatorId);
+    expect(param('signal')).toBe('sinr');
+
+    // A reload shows the same layer.
+    await page.reload();
+    await page.waitForFunction(() => !!window.bearlineMap && window.bearlineMap.isStyleLoaded(), undefined, { timeout: 60_000 });
+    await expect(page.getByTestId('signal-toggle').getAttribute('aria-checked')).resolves.toBe('true');
+    expect(await page.getByRole('radio', { name: 'SINR' }).isChecked()).toBe(true);
+    expect(await page.getByTestId('signal-operator').inputValue()).toBe(operatorId);
+
+    // Back undoes one choice at a time: first the operator, then the metric.
+    await page.goBack();
+    await page.waitForFunction(() => !new URL(location.href).searchParams.has('signal_operator'));
+    await page.waitForFunction(() => (document.querySelector('[data-testid=signal-operator]') as HTMLSelectElement | null)?.value === '');
+    expect(await page.getByRole('radio', { name: 'SINR' }).isChecked()).toBe(true);
+    await page.goBack();
+    await page.waitForFunction(() => new URL(location.href).searchParams.get('signal') === 'rsrp');
+    await page.waitForFunction(() => (document.querySelector('input[type=radio][value=rsrp]') as HTMLInputElement | null)?.checked === true);
+
+    // A click on a hexagon (away from mast marks) shows its readings and medians.
+    await drawnHexagons(page);
+    const spot = await page.evaluate((layer) => {
+      const map = window.bearlineMap!;
+      const rect = map.getCanvas().getBoundingClientRect();
+      const avoid = ['masts-symbol', 'mast-clusters', 'pending-sightings-symbol'].filter((id) => map.getLayer(id));
+      for (let y = 200; y < rect.height - 100; y += 23)
+        for (let x = 320; x < rect.width - 120; x += 23) {
+          const [hex] = map.queryRenderedFeatures([x, y], { layers: [layer] });
+          const marks = map.queryRenderedFeatures(
+            [
+              [x - 30, y - 30],
+              [x + 30, y + 30],
+            ],
+            { layers: avoid },
+          );
+          if (hex && marks.length === 0)
+            return {
+              x: rect.left + x,
+              y: rect.top + y,
+              readings: Number(hex.properties!.readings),
+              rsrp: hex.properties!.rsrp_median_dbm as number | undefined,
+            };
+        }
+      return null;
+    }, FILL_LAYER);
+    expect(spot).not.toBeNull();
+    await page.mouse.click(spot!.x, spot!.y);
+    const popup = page.getByTestId('signal-hex-popup');
+    await popup.waitFor();
+    expect((await page.getByTestId('signal-hex-readings').innerText()).replace(/,/g, '')).toBe(
+      `${spot!.readings} ${spot!.readings === 1 ? 'reading' : 'readings'}`,
+    );
+    // RSRP median to a tenth of a dB, graded like the legend; RSRQ and SINR beside it.
+    if (spot!.rsrp !== undefined) expect(await page.getByTestId('signal-hex-rsrp').innerText()).toContain(spot!.rsrp.toFixed(1).replace('-', ''));
+    for (const m of ['rsrq', 'sinr']) await page.getByTestId(`signal-hex-${m}`).waitFor();
+    expect(new URL(page.url()).searchParams.has('mast')).toBe(false);
+
+    // From the keyboard: the figures of the hexagon at the map centre, with the focus on them.
+    await page.keyboard.press('Escape');
+    await page.getByTestId('signal-centre').focus();
+    await page.keyboard.press('Enter');
+    await popup.waitFor();
+    await expect(page.evaluate(() => !!document.activeElement?.closest('[data-testid=signal-hex-popup]'))).resolves.toBe(true);
+    await context.close();
+  }, 180_000);
+
   it('fits a 390 px phone: the legend folds away and opens on demand', async () => {
     const context = await browser.newContext({ viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true });
     const page = await context.newPage();
