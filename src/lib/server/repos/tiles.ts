@@ -76,20 +76,25 @@ export const MAST_CLUSTER_BELOW_ZOOM = 9;
 /** Grid squares per tile side for clustering (a square is 1/32 of the tile, ~16 px on a 512 px tile). */
 export const MAST_CLUSTER_GRID = 32;
 
-/** Per-mast MVT features (layer `masts`) for the masts chosen by `idsSql` (a query yielding `id`). */
-function mastFeaturesSql(idsSql: string): string {
-  return `(SELECT coalesce(ST_AsMVT(q, 'masts', ${TILE_EXTENT}, 'geom', 'fid'), ''::bytea) FROM (
-      SELECT m.id AS fid, m.id, m.name, m.status, m.structure_type,
+/** The columns of one mast's MVT feature (alias m: masts, s: mast_cell_summaries; needs CTE `bounds`). */
+const MAST_FEATURE_COLUMNS = `m.id AS fid, m.id, m.name, m.status, m.structure_type,
         array_to_string(coalesce(s.op_ids, '{}'), ',') AS op_ids,
         coalesce(cardinality(s.op_ids), 0) AS op_count,
         array_to_string(coalesce(s.bands, '{}'), ',') AS bands,
         array_to_string(coalesce(s.techs, '{}'), ',') AS techs,
         coalesce(s.cell_count, 0) AS cell_count,
-        ST_AsMVTGeom(m.geom_3857, (SELECT env FROM bounds), ${TILE_EXTENT}, ${TILE_BUFFER}, true) AS geom
+        ST_AsMVTGeom(m.geom_3857, (SELECT env FROM bounds), ${TILE_EXTENT}, ${TILE_BUFFER}, true) AS geom`;
+
+/** Layer `masts` of the features yielded by `featuresSql` (rows of MAST_FEATURE_COLUMNS). */
+const mastLayerSql = (featuresSql: string) =>
+  `(SELECT coalesce(ST_AsMVT(q, 'masts', ${TILE_EXTENT}, 'geom', 'fid'), ''::bytea) FROM (${featuresSql}) q WHERE q.geom IS NOT NULL)`;
+
+/** Per-mast MVT features (layer `masts`) for the masts chosen by `idsSql` (a query yielding `id`). */
+function mastFeaturesSql(idsSql: string): string {
+  return mastLayerSql(`SELECT ${MAST_FEATURE_COLUMNS}
       FROM masts m LEFT JOIN mast_cell_summaries s ON s.mast_id = m.id
       WHERE m.id IN (${idsSql})
-      ORDER BY m.id
-    ) q WHERE q.geom IS NOT NULL)`;
+      ORDER BY m.id`);
 }
 
 /**
@@ -126,9 +131,12 @@ export function mastsTileQuery(db: Tx, t: TileAddress, filter: MastFilter): Tile
                 ST_AsMVTGeom(ST_SetSRID(ST_MakePoint(sq.cx, sq.cy), 3857), (SELECT env FROM bounds), ${TILE_EXTENT}, ${TILE_BUFFER}, true) AS geom
               FROM squares sq WHERE sq.n > 1 ORDER BY sq.n DESC, sq.id
             ) k WHERE k.geom IS NOT NULL) AS tile`
-    : `WITH bounds AS (SELECT ST_TileEnvelope(:z, :x, :y) AS env), pts AS (:inTile)
-       SELECT ${mastFeaturesSql('SELECT id FROM pts')} AS tile`;
-  return db.raw(sql, { z: t.z, x: t.x, y: t.y, inTile });
+    : `WITH bounds AS (SELECT ST_TileEnvelope(:z, :x, :y) AS env) SELECT ${mastLayerSql(':features')} AS tile`;
+  // From the clustering zoom on, one scan of the masts in the tile gives the features.
+  const features = clustered
+    ? null
+    : inTile.clearSelect().select(db.raw(MAST_FEATURE_COLUMNS)).leftJoin('mast_cell_summaries as s', 's.mast_id', 'm.id').orderBy('m.id');
+  return db.raw(sql, clustered ? { z: t.z, x: t.x, y: t.y, inTile } : { z: t.z, x: t.x, y: t.y, features: features! });
 }
 
 /** Half the width of the Web Mercator square (EPSG:3857), in metres. */
