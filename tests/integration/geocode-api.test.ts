@@ -133,4 +133,21 @@ describe('geocode API', () => {
     expect(await geocode(fake, '1.5, 2.5', 5)).toEqual([{ label: '1.5000, 2.5000', postcode: null, lat: 1.5, lon: 2.5, score: 1, kind: 'coordinates' }]);
     expect((await createGazetteerGeocoder(testDb()).search('greythorn', 3))[0]!.label).toMatch(/^Greythorn House/);
   });
+
+  it('answers a postcode typed in full without looking for near misses, which a partial one still gets', async () => {
+    await testDb().transaction((trx) =>
+      importAddresses(
+        trx,
+        [{ label: 'Quarry Cottage, Stone Row, Quarrendale', postcode: 'QD2 7XC', lat: -47.31, lon: -128.46 }],
+        { fileName: null, sha256: 'y', bytes: 0 },
+        null,
+      ),
+    );
+    // The near miss (one letter off) would take a trigram search over the whole gazetteer.
+    expect((await search('qd2 7xb')).body.items.map((i: { label: string }) => i.label)).toEqual(['Low Mill, Quarren Lane, Quarrendale']);
+    expect((await search('qd2 7x')).body.items.map((i: { label: string }) => i.label).sort()).toEqual([
+      'Low Mill, Quarren Lane, Quarrendale',
+      'Quarry Cottage, Stone Row, Quarrendale',
+    ]);
+  });
 });

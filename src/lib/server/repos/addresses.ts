@@ -137,11 +137,12 @@ export async function countAddresses(db: Tx): Promise<number> {
 // Two steps, cheapest first. Words: every word typed must start a word of the label or postcode
 // (the tsvector index; the last word may be unfinished, "mill fa" finds "Mill Farm"), or the
 // postcode typed in full (spaces and dashes aside; its expression index). Only when that finds
-// fewer than the limit does trigram word similarity look for near misses ("Crake Lnae"): it reads
-// far more of the index. Either way the score is the same: a postcode typed in full wins outright;
-// otherwise word similarity finds the query inside a longer label ("mill farm" in "Mill Farm, Crake
-// Lane, Kelvarrow KV3 2PL"), 0.45 letting one typo through in a short word while keeping unrelated
-// streets out, and whole similarity breaks ties towards the shorter, closer label.
+// fewer than the limit, and no postcode typed in full, does trigram word similarity look for near
+// misses ("Crake Lnae"): it reads far more of the index. Either way the score is the same: a
+// postcode typed in full wins outright; otherwise word similarity finds the query inside a longer
+// label ("mill farm" in "Mill Farm, Crake Lane, Kelvarrow KV3 2PL"), 0.45 letting one typo through
+// in a short word while keeping unrelated streets out, and whole similarity breaks ties towards the
+// shorter, closer label.
 const WORD_SIMILARITY_THRESHOLD = 0.45;
 /** Word matches ranked per query: a street found in every town ranks its first few hundred. */
 const WORD_MATCH_CAP = 300;
@@ -197,7 +198,10 @@ async function similarMatches(db: Tx, q: string, limit: number): Promise<ScoredR
 
 export async function searchGazetteer(db: Tx, q: string, limit: number): Promise<GazetteerHit[]> {
   let rows = await wordMatches(db, q, limit);
-  if (rows.length < limit) {
+  // A postcode typed in full (or a label typed exactly) scores 1: that is the answer, and near
+  // misses would cost a trigram search over the whole gazetteer (seconds at a million addresses).
+  const exact = rows.some((r) => Number(r.score) >= 1);
+  if (rows.length < limit && !exact) {
     const seen = new Set(rows.map((r) => String(r.id)));
     const more = (await similarMatches(db, q, limit)).filter((r) => !seen.has(String(r.id)));
     rows = [...rows, ...more]
