@@ -56,14 +56,23 @@ export async function listMasts(db: Tx, options: MastListOptions): Promise<{ ite
     .leftJoin('mast_cell_summaries as s', 's.mast_id', 'm.id')
     .limit(options.limit + 1);
   if (options.bbox) {
-    // A box holding more masts than the limit gives the ones nearest its centre (index order),
-    // so a wide view shows the masts around where the user looks, not the oldest ids anywhere.
+    // A box holding more masts than the limit gives the ones nearest its centre, so a wide view
+    // shows the masts around where the user looks, not the oldest ids anywhere. They are picked by
+    // a nearest-first walk of the spatial index (an ORDER BY of the distance alone); only those few
+    // are then sorted with the id as tie-break, never every mast in the box.
     const b = options.bbox;
-    q.whereRaw('m.geom && ST_MakeEnvelope(?, ?, ?, ?, 4326)', [b.minLon, b.minLat, b.maxLon, b.maxLat]);
-    q.orderByRaw('m.geom <-> ST_SetSRID(ST_MakePoint(?, ?), 4326)', [(b.minLon + b.maxLon) / 2, (b.minLat + b.maxLat) / 2]);
+    const centre = [(b.minLon + b.maxLon) / 2, (b.minLat + b.maxLat) / 2];
+    const nearest = db('masts as m')
+      .select('m.id')
+      .whereRaw('m.geom && ST_MakeEnvelope(?, ?, ?, ?, 4326)', [b.minLon, b.minLat, b.maxLon, b.maxLat])
+      .orderByRaw('m.geom <-> ST_SetSRID(ST_MakePoint(?, ?), 4326)', centre)
+      .limit(options.limit + 1);
+    applyMastFilter(db, nearest, options);
+    q.whereIn('m.id', nearest).orderByRaw('m.geom <-> ST_SetSRID(ST_MakePoint(?, ?), 4326)', centre);
+  } else {
+    applyMastFilter(db, q, options);
   }
   q.orderBy('m.id');
-  applyMastFilter(db, q, options);
   const [rows, operators] = await Promise.all([q, loadOperatorRefs(db)]);
   const items = (rows as Array<Record<string, unknown>>).slice(0, options.limit).map((r): MastSummary => ({
     ...MAST_PLACE.fromRow(r),
