@@ -5,7 +5,7 @@
 import type { Knex } from 'knex';
 import type { Readable } from 'node:stream';
 import { AddressRowSchema } from '../schemas/addresses';
-import { connectionOf, copyCsvIntoTable, MAX_LISTED_ROW_ERRORS, type RowCheck } from './csv-copy';
+import { allowLongStatements, connectionOf, copyCsvIntoTable, MAX_LISTED_ROW_ERRORS, type RowCheck } from './csv-copy';
 import { AppError, ValidationError } from './errors';
 import { recordAudit } from './repos/audit';
 import type { ImportSummary } from './repos/addresses';
@@ -39,7 +39,7 @@ export interface AddressImportMeta {
  */
 export async function importAddressCsv(trx: Knex.Transaction, input: Readable, meta: AddressImportMeta): Promise<ImportSummary> {
   // A large file takes longer than the default statement timeout.
-  await trx.raw("SET LOCAL statement_timeout = '30min'");
+  await allowLongStatements(trx, 30);
   await trx.raw(
     `CREATE TEMP TABLE address_import_rows (line int NOT NULL, label text NOT NULL, postcode text, lon float8 NOT NULL, lat float8 NOT NULL) ON COMMIT DROP`,
   );

@@ -2,6 +2,7 @@
 // never holding the whole file: rows flow through with backpressure, so memory stays flat however
 // large the upload. Used by the gazetteer and the readings imports; runs outside Vite too (scripts,
 // benchmarks), so it takes a pg connection rather than reading the app's config.
+import type { Knex } from 'knex';
 import { once } from 'node:events';
 import type { Readable } from 'node:stream';
 import Papa from 'papaparse';
@@ -137,4 +138,23 @@ export async function copyCsvIntoTable(conn: PoolClient, input: Readable, opts: 
 /** The raw pg connection of a Knex transaction (for COPY, which Knex does not speak). */
 export async function connectionOf(trx: { client: { acquireConnection(): Promise<unknown> } }): Promise<PoolClient> {
   return (await trx.client.acquireConnection()) as PoolClient;
+}
+
+/**
+ * Lets the statements of `trx` run for up to `minutes` (a large import's COPY and INSERT … SELECT):
+ * the server's statement_timeout for this transaction (SET LOCAL), and the client's own read
+ * timeout on its connection (db.ts gives up a few seconds after the server's default, which would
+ * otherwise cut a long COPY short), put back when the transaction ends.
+ */
+export async function allowLongStatements(trx: Knex.Transaction, minutes: number): Promise<void> {
+  await trx.raw(`SET LOCAL statement_timeout = '${Math.round(minutes)}min'`);
+  const params = (await connectionOf(trx)) as unknown as { connectionParameters?: { query_timeout?: number } };
+  const settings = params.connectionParameters;
+  if (!settings) return;
+  const before = settings.query_timeout;
+  settings.query_timeout = minutes * 60_000 + 5_000;
+  const restore = () => {
+    settings.query_timeout = before;
+  };
+  trx.executionPromise.then(restore, restore);
 }

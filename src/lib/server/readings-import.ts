@@ -9,7 +9,7 @@ import type { Knex } from 'knex';
 import type { Readable } from 'node:stream';
 import type PgBoss from 'pg-boss';
 import { checkReadingCsvHeader, checkReadingCsvRow } from '../domain/reading-csv';
-import { connectionOf, copyCsvIntoTable, type RowCheck } from './csv-copy';
+import { allowLongStatements, connectionOf, copyCsvIntoTable, type RowCheck } from './csv-copy';
 import { AppError, ValidationError } from './errors';
 import { hashingStream } from './hashing-stream';
 import { rowProblemsError } from './import-report';
@@ -56,7 +56,7 @@ export async function stageReadingsUpload(
   meta: { fileName: string | null; ownerId: string | null; now: Date },
 ): Promise<StagedImport> {
   // A large upload takes longer than the default statement timeout.
-  await trx.raw("SET LOCAL statement_timeout = '30min'");
+  await allowLongStatements(trx, 30);
   const [{ id: importId }] = await trx('reading_imports').insert({ owner_id: meta.ownerId, file_name: meta.fileName }).returning<{ id: string }[]>('id');
   const hashed = hashingStream(input);
   const conn = await connectionOf(trx);
