@@ -133,6 +133,18 @@ describe('QueryRunner', () => {
     await done;
     expect(r.last()).toEqual({ data: null, error: null, loading: false });
   });
+
+  it('reset({ keepData }) stops loading but keeps the last answer on show', async () => {
+    const r = recorder<QueryState<number>>();
+    const runner = new QueryRunner<number>(r.publish);
+    await runner.run(async () => 5);
+    const slow = deferred<number>();
+    const done = runner.run(() => slow.promise);
+    runner.reset({ keepData: true });
+    slow.resolve(6);
+    await done;
+    expect(r.last()).toEqual({ data: 5, error: null, loading: false });
+  });
 });
 
 describe('Submitter', () => {

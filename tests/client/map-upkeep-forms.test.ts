@@ -2,7 +2,7 @@
 import { describe, expect, it } from 'vitest';
 import { CellInputSchema, MastInputSchema, type CellJson } from '../../src/lib/schemas/masts';
 import type { MastDetailJson } from '../../src/lib/schemas/mast-responses';
-import { checkWith } from '../../src/lib/client/planning-api';
+import { checkWith } from '../../src/lib/client/api';
 import { changedMastFields, mastDraftOf, mastInputOf, newMastDraft, readNumber } from '../../src/components/map/mast-form';
 import { bandChoices, bandForTech, cellDraftOf, cellInputOf, changedCellFields, describeChannel, newCellDraft } from '../../src/components/map/cell-form';
 

@@ -9,7 +9,7 @@ import { useAccountSubmit } from './useAccountSubmit';
 export default function ForgotForm() {
   const [email, setEmail] = useState('');
   const [done, setDone] = useState<string | null>(null);
-  const { busy, fields, error, submit } = useAccountSubmit(ForgotSchema, (b) => accountsApi.forgot(b.email!));
+  const { busy, fields, error, submit } = useAccountSubmit(ForgotSchema, (b) => accountsApi.forgot({ email: b.email! }));
 
   async function onSubmit(e: FormEvent) {
     e.preventDefault();

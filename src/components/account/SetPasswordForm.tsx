@@ -17,7 +17,7 @@ export default function SetPasswordForm({ token, email, submitLabel }: Props) {
   const [password, setPassword] = useState('');
   const [show, setShow] = useState(false);
   const [done, setDone] = useState(false);
-  const { busy, fields, error, submit } = useAccountSubmit(SetPasswordSchema, (b) => accountsApi.setPassword(b.token!, b.password!));
+  const { busy, fields, error, submit } = useAccountSubmit(SetPasswordSchema, (b) => accountsApi.setPassword({ token: b.token!, password: b.password! }));
 
   async function onSubmit(e: FormEvent) {
     e.preventDefault();

@@ -13,7 +13,7 @@ interface Props {
 // not use up the link.
 export default function VerifyForm({ token, email }: Props) {
   const [done, setDone] = useState(false);
-  const { busy, error, submit } = useAccountSubmit(VerifySchema, (b) => accountsApi.verify(b.token!));
+  const { busy, error, submit } = useAccountSubmit(VerifySchema, (b) => accountsApi.verify({ token: b.token! }));
 
   async function onSubmit(e: FormEvent) {
     e.preventDefault();

@@ -1,6 +1,7 @@
 import { useRef, useState, type FormEvent } from 'react';
 import { ApiError } from '../../lib/client/api';
-import { addressesApi, type AddressImportJson, type AddressJson } from '../../lib/client/planning-api';
+import { addressesApi } from '../../lib/client/addresses-api';
+import type { AddressImportJson, AddressJson } from '../../lib/schemas/addresses';
 import { MISSING, formatNumber } from '../../lib/domain/format';
 import { SortableTable, type Column } from '../ui/SortableTable';
 import { useQuery } from '../ui/use-api';

@@ -1,6 +1,7 @@
 import { useRef, useState } from 'react';
-import { localCheckError } from '../../lib/client/api';
-import { elevationApi, type ElevationGridJson, type UploadProgress } from '../../lib/client/elevation-api';
+import { elevationApi } from '../../lib/client/elevation-api';
+import type { ElevationGridJson } from '../../lib/schemas/elevation';
+import { localCheckError, type UploadProgress } from '../../lib/client/api';
 import { ELEVATION_FILE_ACCEPT, ELEVATION_FORMAT_LABELS, MAX_ELEVATION_UPLOAD_BYTES } from '../../lib/domain/elevation-formats';
 import type { Column } from '../ui/SortableTable';
 import { useQuery, useSubmit } from '../ui/use-api';

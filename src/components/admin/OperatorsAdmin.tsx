@@ -1,5 +1,6 @@
 import { useEffect, useMemo, useState, type ChangeEvent } from 'react';
-import { operatorsApi, type OperatorJson } from '../../lib/client/api';
+import { operatorsApi } from '../../lib/client/operators-api';
+import type { OperatorJson } from '../../lib/schemas/operators';
 import { OPERATOR_PALETTE } from '../../lib/domain/operator-palette';
 import type { Column } from '../ui/SortableTable';
 import { useQuery, useSubmit } from '../ui/use-api';

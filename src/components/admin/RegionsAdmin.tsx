@@ -1,5 +1,7 @@
 import { useMemo, useRef, useState } from 'react';
-import { localCheckError, regionsApi, type RegionJson } from '../../lib/client/api';
+import { localCheckError } from '../../lib/client/api';
+import { regionsApi } from '../../lib/client/regions-api';
+import type { RegionJson } from '../../lib/schemas/regions';
 import type { Column } from '../ui/SortableTable';
 import { useQuery, useSubmit } from '../ui/use-api';
 import { DeleteAction, FormCard, InputField, ListCard, SelectField, upsertById, withoutId, useNotice } from './parts';

@@ -1,5 +1,6 @@
 import { useState, type ChangeEvent } from 'react';
-import { usersApi, type UserDto } from '../../lib/client/api';
+import { usersApi } from '../../lib/client/users-api';
+import type { UserListItemJson } from '../../lib/schemas/users';
 import { ROLES, ROLE_LABELS, type Role } from '../../lib/domain/roles';
 import { TOKEN_LIFETIME_MIN } from '../../lib/domain/account-tokens';
 import type { Column } from '../ui/SortableTable';
@@ -19,9 +20,9 @@ export default function UsersAdmin({ currentUserId }: Props) {
   const { notice, setNotice, attempt } = useNotice();
   const [form, setForm] = useState(EMPTY_FORM);
 
-  const replace = (u: UserDto) => users.setData((list) => upsertById(list, u));
+  const replace = (u: UserListItemJson) => users.setData((list) => upsertById(list, u));
 
-  const change = (u: UserDto, patch: { role?: Role; disabled?: boolean }) =>
+  const change = (u: UserListItemJson, patch: { role?: Role; disabled?: boolean }) =>
     attempt(async () => {
       const updated = await usersApi.update(u.id, patch);
       replace(updated);
@@ -41,14 +42,14 @@ export default function UsersAdmin({ currentUserId }: Props) {
     );
   }
 
-  const resend = (u: UserDto) =>
+  const resend = (u: UserListItemJson) =>
     attempt(async () => {
       const updated = await usersApi.resendInvite(u.id);
       replace(updated);
       return updated.mail_sent ? `New invitation sent to ${updated.email}; older links no longer work` : 'The invitation could not be mailed. Try again later.';
     }, 'Could not send the invitation');
 
-  const columns: Column<UserDto>[] = [
+  const columns: Column<UserListItemJson>[] = [
     { key: 'name', label: 'Name', sortValue: (u) => u.name.toLowerCase(), render: (u) => <span className="font-semibold">{u.name}</span> },
     { key: 'email', label: 'E-mail', sortValue: (u) => u.email.toLowerCase(), render: (u) => u.email },
     {

@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { checkWith } from '../../lib/client/api';
-import { catalogueApi, type AntennaBody, type AntennaJson, type CableBody, type CableJson } from '../../lib/client/planning-api';
+import { type AntennaBody, type CableBody, catalogueApi } from '../../lib/client/catalogue-api';
+import type { AntennaJson, CableJson } from '../../lib/schemas/catalogue';
 import { ANTENNA_KINDS, ANTENNA_KIND_LABELS, type AntennaKind } from '../../lib/domain/antenna-kinds';
 import type { Column } from '../ui/SortableTable';
 import { useQuery, useSubmit } from '../ui/use-api';

@@ -1,6 +1,9 @@
 import { useCallback, useEffect, useState, type ReactNode } from 'react';
 import { ApiError, type FieldErrors } from '../../lib/client/api';
-import { customersApi, plansApi, type CustomerJson, type HistoryEntryJson, type PlanDetailJson } from '../../lib/client/planning-api';
+import { customersApi } from '../../lib/client/customers-api';
+import { plansApi } from '../../lib/client/plans-api';
+import type { CustomerJson, HistoryEntryJson } from '../../lib/schemas/customers';
+import type { PlanDetailJson } from '../../lib/schemas/plans';
 import { hasFigures } from '../../lib/schemas/plans';
 import { PLAN_STATES, PLAN_STATE_LABELS, isKitLocked, type PlanState } from '../../lib/domain/plan-state';
 import InstallCheckForm from './InstallCheckForm';

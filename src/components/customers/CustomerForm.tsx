@@ -1,14 +1,11 @@
 import { useEffect, useState, type FormEvent, type ReactNode } from 'react';
-import { ApiError, type FieldErrors } from '../../lib/client/api';
-import {
-  catalogueApi,
-  checkWith,
-  referenceApi,
-  type AntennaJson,
-  type CustomerBody,
-  type CustomerJson,
-  type OperatorChoice,
-} from '../../lib/client/planning-api';
+import { ApiError, checkWith, type FieldErrors } from '../../lib/client/api';
+import { catalogueApi } from '../../lib/client/catalogue-api';
+import { operatorsApi } from '../../lib/client/operators-api';
+import type { AntennaJson } from '../../lib/schemas/catalogue';
+import type { CustomerBody } from '../../lib/client/customers-api';
+import type { CustomerJson } from '../../lib/schemas/customers';
+import type { OperatorJson } from '../../lib/schemas/operators';
 import AddressSearch from '../planner/AddressSearch';
 
 interface Props {
@@ -81,7 +78,7 @@ function Field({ id, label, error, children }: { id: string; label: string; erro
 /** Customer details; the address comes from the gazetteer (or typed coordinates) and stays editable. */
 export default function CustomerForm({ customer, submitLabel, onSave, onCancel }: Props) {
   const [form, setForm] = useState<Form>(() => fromCustomer(customer));
-  const [operators, setOperators] = useState<OperatorChoice[]>([]);
+  const [operators, setOperators] = useState<OperatorJson[]>([]);
   const [antennas, setAntennas] = useState<AntennaJson[]>([]);
   const [fields, setFields] = useState<FieldErrors>({});
   const [formError, setFormError] = useState<string | null>(null);
@@ -89,7 +86,7 @@ export default function CustomerForm({ customer, submitLabel, onSave, onCancel }
   const idp = customer ? `cu-${customer.id}` : 'cu-new';
 
   useEffect(() => {
-    referenceApi.operators().then(
+    operatorsApi.list().then(
       (r) => setOperators(r.items),
       () => setOperators([]),
     );

@@ -1,6 +1,7 @@
 import { useEffect, useState } from 'react';
 import { ApiError } from '../../lib/client/api';
-import { customersApi, type CustomerJson } from '../../lib/client/planning-api';
+import { customersApi } from '../../lib/client/customers-api';
+import type { CustomerJson } from '../../lib/schemas/customers';
 import { PLAN_STATES, PLAN_STATE_LABELS, isPlanState, type PlanState } from '../../lib/domain/plan-state';
 import { formatDate } from '../../lib/domain/format';
 import { SortableTable, type Column } from '../ui/SortableTable';

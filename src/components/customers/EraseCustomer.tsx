@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { ApiError } from '../../lib/client/api';
-import { customersApi, type CustomerErasureJson } from '../../lib/client/planning-api';
+import { customersApi } from '../../lib/client/customers-api';
+import type { CustomerErasureJson } from '../../lib/schemas/customers';
 
 interface Props {
   customerId: string;

@@ -1,6 +1,6 @@
 import { useState, type FormEvent } from 'react';
 import { ApiError, type FieldErrors } from '../../lib/client/api';
-import { plansApi, type InstallCheckBody } from '../../lib/client/planning-api';
+import { type InstallCheckBody, plansApi } from '../../lib/client/plans-api';
 
 interface ReadingRow {
   pci: string;

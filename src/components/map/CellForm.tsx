@@ -1,5 +1,7 @@
 import { useEffect, useRef, useState, type FormEvent } from 'react';
-import { cellsApi, checkWith, type CellJson } from '../../lib/client/api';
+import { cellsApi } from '../../lib/client/masts-api';
+import { checkWith } from '../../lib/client/api';
+import type { CellJson } from '../../lib/schemas/masts';
 import { TECHS, type Tech } from '../../lib/schemas/mast-enums';
 import { CellInputSchema } from '../../lib/schemas/masts';
 import { bandChoices, bandForTech, cellDraftOf, cellInputOf, changedCellFields, describeChannel, newCellDraft, type CellDraft } from './cell-form';

@@ -1,5 +1,7 @@
 import { useEffect, useId, useRef, useState, type KeyboardEvent } from 'react';
-import { ApiError, mapApi, type SearchHitJson } from '../../lib/client/api';
+import { ApiError } from '../../lib/client/api';
+import { mapApi } from '../../lib/client/masts-api';
+import type { SearchHitJson } from '../../lib/schemas/mast-responses';
 
 interface Props {
   onPick: (hit: SearchHitJson) => void;

@@ -2,10 +2,11 @@ import 'maplibre-gl/dist/maplibre-gl.css';
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import Map, { Layer, Marker, NavigationControl, ScaleControl, Source, type MapLayerMouseEvent, type MapRef, type MarkerDragEvent } from 'react-map-gl/maplibre';
 import type { Map as MaplibreMap } from 'maplibre-gl';
-import { mastsApi, type SearchHitJson } from '../../lib/client/api';
+import { mastsApi } from '../../lib/client/masts-api';
+import type { SearchHitJson } from '../../lib/schemas/mast-responses';
+import { sightingsApi } from '../../lib/client/sightings-api';
 import { readMapUrl } from '../../lib/client/map-url';
 import { saveView } from '../../lib/client/map-view-state';
-import { sightingsApi } from '../../lib/client/sightings-api';
 import type { PendingSightingCollectionJson } from '../../lib/schemas/sightings';
 import {
   MAST_CLUSTER_COUNT_LAYER,

@@ -1,5 +1,8 @@
 import { useEffect, useRef, useState } from 'react';
-import { ApiError, cellsApi, mastsApi, type CellJson, type MastDetailJson } from '../../lib/client/api';
+import { ApiError } from '../../lib/client/api';
+import { cellsApi, mastsApi } from '../../lib/client/masts-api';
+import type { CellJson } from '../../lib/schemas/masts';
+import type { MastDetailJson } from '../../lib/schemas/mast-responses';
 import { SortableTable, type Column } from '../ui/SortableTable';
 import { MISSING, formatDate, formatNumber } from '../../lib/domain/format';
 import CellForm from './CellForm';

@@ -1,5 +1,7 @@
 import { useEffect, useRef, useState, type FormEvent } from 'react';
-import { checkWith, mastsApi, type MastJson } from '../../lib/client/api';
+import { checkWith } from '../../lib/client/api';
+import { mastsApi } from '../../lib/client/masts-api';
+import type { MastJson } from '../../lib/schemas/masts';
 import { elevationApi } from '../../lib/client/elevation-api';
 import { MastInputSchema } from '../../lib/schemas/masts';
 import { FormActions, FormAlert } from './form-parts';

@@ -1,5 +1,7 @@
 import { useState, type FormEvent } from 'react';
-import { checkWith, mastsApi, type MastDetailJson } from '../../lib/client/api';
+import { checkWith } from '../../lib/client/api';
+import { mastsApi } from '../../lib/client/masts-api';
+import type { MastDetailJson } from '../../lib/schemas/mast-responses';
 import { MastChangeSchema } from '../../lib/schemas/masts';
 import { FormActions, FormAlert } from './form-parts';
 import { changedMastFields, mastDraftOf, type MastDraft } from './mast-form';

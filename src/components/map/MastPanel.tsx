@@ -1,5 +1,6 @@
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
-import { mastsApi, type MastDetailJson, type ReadingJson } from '../../lib/client/api';
+import { mastsApi } from '../../lib/client/masts-api';
+import type { MastDetailJson, ReadingJson } from '../../lib/schemas/mast-responses';
 import { useQuery } from '../ui/use-api';
 import { STRUCTURE_TYPE_LABELS, type StructureType } from '../../lib/schemas/mast-enums';
 import { SortableTable, type Column } from '../ui/SortableTable';

@@ -1,7 +1,8 @@
 // The cell form's text fields and what they become in an API body, and the band a channel number
 // falls in, shown while typing. Pure: the form checks the result with the API's own schema.
 import { isKnownBand, listBands, lookupChannel } from '../../lib/domain/channels';
-import type { CellJson } from '../../lib/client/api';
+import type { CellBody } from '../../lib/client/masts-api';
+import type { CellJson } from '../../lib/schemas/masts';
 import type { Tech } from '../../lib/schemas/mast-enums';
 import { readNumber } from './mast-form';
 
@@ -48,10 +49,11 @@ export function cellDraftOf(c: CellJson): CellDraft {
 }
 
 /** The body of POST /api/masts/:id/cells (also what an edited cell must satisfy as a whole). */
-export function cellInputOf(d: CellDraft): Record<string, unknown> {
+export function cellInputOf(d: CellDraft): CellBody {
   const body: Record<string, unknown> = { operator_id: d.operator_id, tech: d.tech, band: d.band.trim() === '' ? null : d.band };
   for (const k of NUMBER_KEYS) body[k] = readNumber(d[k], k !== 'channel' && k !== 'rs_power_dbm');
-  return body;
+  // As typed; CellInputSchema checks it before it is sent.
+  return body as CellBody;
 }
 
 /** The fields that differ from the stored cell, in the API's names. */

@@ -1,6 +1,6 @@
 // Small derivations the map draws from loaded data. Pure.
 import type { FeatureCollection } from 'geojson';
-import type { RegionJson } from '../../lib/client/api';
+import type { RegionJson } from '../../lib/schemas/regions';
 
 /** Region outlines as a GeoJSON source (numeric feature ids for hover state). */
 export function regionFeatures(regions: readonly RegionJson[]): FeatureCollection {

@@ -1,6 +1,7 @@
 // The mast form's text fields and what they become in an API body. Pure: the create and edit
 // forms use these, and the same schemas as the API check the result before it is sent.
-import type { MastDetailJson } from '../../lib/client/api';
+import type { MastBody } from '../../lib/client/masts-api';
+import type { MastDetailJson } from '../../lib/schemas/mast-responses';
 import type { MastStatus, StructureType } from '../../lib/schemas/mast-enums';
 
 export type MastDraft = Record<'name' | 'reference' | 'structure_height_m' | 'ground_elevation_m' | 'lat' | 'lon' | 'access_notes', string> & {
@@ -54,7 +55,8 @@ export function readNumber(text: string, nullable: boolean): number | string | n
 }
 
 /** The body of POST /api/masts. */
-export function mastInputOf(d: MastDraft): Record<string, unknown> {
+export function mastInputOf(d: MastDraft): MastBody {
+  // As typed; MastInputSchema checks it before it is sent.
   return {
     name: d.name,
     reference: d.reference.trim() === '' ? null : d.reference,
@@ -65,7 +67,7 @@ export function mastInputOf(d: MastDraft): Record<string, unknown> {
     lat: readNumber(d.lat, false),
     lon: readNumber(d.lon, false),
     access_notes: d.access_notes.trim() === '' ? null : d.access_notes,
-  };
+  } as MastBody;
 }
 
 /** The fields that differ from the stored mast, in the API's names (lat and lon go together). */

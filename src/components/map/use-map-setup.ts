@@ -1,6 +1,10 @@
 import { useEffect, useState } from 'react';
 import type { StyleSpecification } from 'maplibre-gl';
-import { ApiError, mapApi, operatorsApi, regionsApi, type RegionJson } from '../../lib/client/api';
+import { ApiError } from '../../lib/client/api';
+import { mapApi } from '../../lib/client/masts-api';
+import { operatorsApi } from '../../lib/client/operators-api';
+import { regionsApi } from '../../lib/client/regions-api';
+import type { RegionJson } from '../../lib/schemas/regions';
 import { readMapUrl } from '../../lib/client/map-url';
 import { chooseInitialView, readSavedView, type InitialView } from '../../lib/client/map-view-state';
 import { loadLabelFonts } from './label-fonts';

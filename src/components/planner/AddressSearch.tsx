@@ -1,22 +1,21 @@
 import { useEffect, useId, useState } from 'react';
-import { ApiError } from '../../lib/client/api';
-import type { GeocodeMatch } from '../../lib/client/planner-api';
-import { addressesApi } from '../../lib/client/planning-api';
+import { asApiError } from '../../lib/client/api';
+import type { GeocodeMatchJson } from '../../lib/schemas/addresses';
+import { addressesApi } from '../../lib/client/addresses-api';
 import { useDebounced } from '../tools/useDebounced';
+import { useQuery } from '../ui/use-api';
 
 interface Props {
-  onPick: (m: GeocodeMatch) => void;
+  onPick: (m: GeocodeMatchJson) => void;
   /** Text to show when the position was set elsewhere (a map click, a shared link). */
   text?: string | null;
 }
 
+const NO_MATCH = 'No address matches. Try a postcode, or type coordinates like -47.21, -128.52.';
+
 /** Address or coordinates (decimal or DMS) → a position. Arrow keys and Enter work in the list. */
 export default function AddressSearch({ onPick, text }: Props) {
   const [q, setQ] = useState(text ?? '');
-  const [items, setItems] = useState<GeocodeMatch[]>([]);
-  // The query the listed suggestions answer: Enter before they catch up searches what was typed.
-  const [itemsFor, setItemsFor] = useState('');
-  const [error, setError] = useState<string | null>(null);
   const [active, setActive] = useState(0);
   const [open, setOpen] = useState(false);
   const settled = useDebounced(q.trim(), 200);
@@ -28,30 +27,19 @@ export default function AddressSearch({ onPick, text }: Props) {
     setOpen(false);
   }, [text]);
 
-  useEffect(() => {
-    if (settled.length < 2) {
-      setItems([]);
-      setItemsFor('');
-      setError(null);
-      return;
-    }
-    let live = true;
-    addressesApi.geocode(settled).then(
-      (r) => {
-        if (!live) return;
-        setItems(r.items);
-        setItemsFor(settled);
-        setActive(0);
-        setError(r.items.length ? null : 'No address matches. Try a postcode, or type coordinates like -47.21, -128.52.');
-      },
-      (e: unknown) => live && (setItems([]), setItemsFor(settled), setError(e instanceof ApiError ? e.message : 'Search failed')),
-    );
-    return () => {
-      live = false;
-    };
-  }, [settled]);
+  const found = useQuery(settled.length >= 2 ? settled : null, async () => ({ q: settled, items: (await addressesApi.geocode({ q: settled })).items }), {
+    failed: 'Search failed',
+    keepOnError: false,
+    onSuccess: () => setActive(0),
+  });
+  // A failed search on Enter, shown while its text stays in the box.
+  const [typedError, setTypedError] = useState<{ q: string; message: string } | null>(null);
+  const items = found.data?.items ?? [];
+  // The query the listed suggestions answer: Enter before they catch up searches what was typed.
+  const itemsFor = found.data?.q ?? (found.error ? settled : '');
+  const error = (typedError?.q === q.trim() ? typedError.message : null) ?? found.error?.message ?? (found.data && items.length === 0 ? NO_MATCH : null);
 
-  const pick = (m: GeocodeMatch) => {
+  const pick = (m: GeocodeMatchJson) => {
     onPick(m);
     setQ(m.label);
     setOpen(false);
@@ -59,14 +47,13 @@ export default function AddressSearch({ onPick, text }: Props) {
 
   /** Enter on text the suggestions do not answer yet (a paste): search it now and take its best match. */
   async function pickTyped(typed: string) {
+    setTypedError(null);
     try {
-      const r = await addressesApi.geocode(typed);
-      setItems(r.items);
-      setItemsFor(typed);
+      const r = await addressesApi.geocode({ q: typed });
+      found.setData(() => ({ q: typed, items: r.items }));
       if (r.items[0]) pick(r.items[0]);
-      else setError('No address matches. Try a postcode, or type coordinates like -47.21, -128.52.');
     } catch (e) {
-      setError(e instanceof ApiError ? e.message : 'Search failed');
+      setTypedError({ q: typed, message: asApiError(e, 'Search failed').message });
     }
   }
 

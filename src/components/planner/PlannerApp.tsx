@@ -1,11 +1,16 @@
 import { useEffect, useMemo, useRef, useState } from 'react';
-import { ApiError } from '../../lib/client/api';
-import { catalogueApi, plansApi, referenceApi } from '../../lib/client/planning-api';
-import type { PathResult } from '../../lib/client/tools-api';
-import { plannerApi, type AntennaOption, type CableOption, type OperatorOption, type Shortlist, type ShortlistItem } from '../../lib/client/planner-api';
+import { catalogueApi } from '../../lib/client/catalogue-api';
+import { operatorsApi } from '../../lib/client/operators-api';
+import { plansApi } from '../../lib/client/plans-api';
+import { shortlistApi } from '../../lib/client/shortlist-api';
+import { toolsApi } from '../../lib/client/tools-api';
+import type { PathJson } from '../../lib/schemas/tools';
+import type { AntennaJson } from '../../lib/schemas/catalogue';
+import type { ShortlistItemJson } from '../../lib/schemas/shortlist';
 import type { LatLon } from '../../lib/domain/geodesy';
 import { checkKitForm, chooseSelection, readMetres, readPlannerUrl, writePlannerUrl, type KitForm } from '../../lib/client/planner-state';
 import { useDebounced } from '../tools/useDebounced';
+import { useQuery, useSubmit } from '../ui/use-api';
 import AddressSearch from './AddressSearch';
 import PlannerMap from './PlannerMap';
 import ShortlistTable from './ShortlistTable';
@@ -50,9 +55,6 @@ export default function PlannerApp({ customer, canSave }: Props) {
   );
   const [addressLabel, setAddressLabel] = useState<string | null>(customer?.addressLabel ?? null);
   const [typedLabel, setTypedLabel] = useState<string | null>(position && !customer ? formatLatLon(position.lat, position.lon) : null);
-  const [antennas, setAntennas] = useState<AntennaOption[]>([]);
-  const [cables, setCables] = useState<CableOption[]>([]);
-  const [operators, setOperators] = useState<OperatorOption[]>([]);
   const [kit, setKit] = useState<KitForm>({
     antennaId: '',
     cableId: '',
@@ -62,32 +64,25 @@ export default function PlannerApp({ customer, canSave }: Props) {
     simOperator: customer?.currentOperatorId ?? '',
     ...fromUrl.kit,
   });
-  const [shortlist, setShortlist] = useState<Shortlist | null>(null);
-  const [loading, setLoading] = useState(false);
-  const [error, setError] = useState<{ message: string; fields: Record<string, string[]> } | null>(null);
   const [selected, setSelected] = useState<string | null>(fromUrl.cellId);
-  const [profile, setProfile] = useState<PathResult | null>(null);
   const wantedCell = useRef<string | null>(fromUrl.cellId);
   const shortlistAt = useRef<string>('');
   const kitErrors = checkKitForm(kit);
   const kitValid = Object.keys(kitErrors).length === 0;
 
-  useEffect(() => {
-    Promise.all([catalogueApi.antennas(), catalogueApi.cables(), referenceApi.operators()]).then(
-      ([a, c, o]) => {
-        setAntennas(a.items);
-        setCables(c.items);
-        setOperators(o.items);
-        const directional = a.items.find((x) => x.kind === 'directional') ?? a.items[0];
-        setKit((k) => ({
-          ...k,
-          antennaId: k.antennaId && a.items.some((x) => x.id === k.antennaId) ? k.antennaId : (directional?.id ?? ''),
-          cableId: fromUrl.kit.cableId !== undefined ? k.cableId : (c.items[0]?.id ?? ''),
-        }));
-      },
-      (e: unknown) => setError({ message: e instanceof ApiError ? e.message : 'Could not load the catalogue', fields: {} }),
-    );
-  }, [fromUrl.kit.cableId]);
+  // The kit to choose from, once; the first directional antenna and the first cable unless a link chose.
+  const choices = useQuery('choices', () => Promise.all([catalogueApi.antennas(), catalogueApi.cables(), operatorsApi.list()]), {
+    failed: 'Could not load the catalogue',
+    onSuccess: ([a, c]) => {
+      const directional = a.items.find((x) => x.kind === 'directional') ?? a.items[0];
+      setKit((k) => ({
+        ...k,
+        antennaId: k.antennaId && a.items.some((x) => x.id === k.antennaId) ? k.antennaId : (directional?.id ?? ''),
+        cableId: fromUrl.kit.cableId !== undefined ? k.cableId : (c.items[0]?.id ?? ''),
+      }));
+    },
+  });
+  const [antennas, cables, operators] = [choices.data?.[0].items ?? [], choices.data?.[1].items ?? [], choices.data?.[2].items ?? []];
 
   // The URL follows the planner: a new position is a new history entry (Back returns to the last one).
   const lastUrlPosition = useRef(positionKey(position));
@@ -116,63 +111,57 @@ export default function PlannerApp({ customer, canSave }: Props) {
   }, [customer]);
 
   const request = useDebounced(position && kit.antennaId && kitValid ? JSON.stringify({ ...position, ...kit }) : null, 300);
-  useEffect(() => {
-    if (!request) return;
-    const p = JSON.parse(request) as LatLon & KitForm;
-    let live = true;
-    setLoading(true);
-    plannerApi
-      .shortlist({
-        lat: p.lat,
-        lon: p.lon,
-        height_m: String(readMetres(p.heightM)),
-        antenna_id: p.antennaId,
-        cable_id: p.cableId,
-        cable_m: p.cableId ? String(readMetres(p.cableM)) : '0',
-        operator: p.operator,
-        sim_operator: p.simOperator,
+  const asked = request ? (JSON.parse(request) as LatLon & KitForm) : null;
+  const list = useQuery(
+    asked && `${request}|${customer?.currentAntennaId ?? ''}`,
+    () =>
+      shortlistApi.get({
+        lat: asked!.lat,
+        lon: asked!.lon,
+        height_m: readMetres(asked!.heightM),
+        antenna_id: asked!.antennaId,
+        cable_id: asked!.cableId,
+        cable_m: asked!.cableId ? readMetres(asked!.cableM) : 0,
+        operator: asked!.operator,
+        sim_operator: asked!.simOperator,
         current_antenna_id: customer?.currentAntennaId ?? '',
-      })
-      .then(
-        (s) => {
-          if (!live) return;
-          const at = positionKey(p);
-          const samePosition = shortlistAt.current === at;
-          shortlistAt.current = at;
-          setShortlist(s);
-          setError(null);
-          // Read the wanted cell now: React may run the updater after it has been cleared below.
-          const wanted = wantedCell.current;
-          setSelected((cur) => chooseSelection(s.items, cur, { samePosition, wanted }));
-          wantedCell.current = null;
-        },
-        (e: unknown) =>
-          live && setError(e instanceof ApiError ? { message: e.message, fields: e.fields } : { message: 'Could not build the shortlist', fields: {} }),
-      )
-      .finally(() => live && setLoading(false));
-    return () => {
-      live = false;
-    };
-  }, [request, customer?.currentAntennaId]);
+      }),
+    {
+      failed: 'Could not build the shortlist',
+      // An unfinished kit field keeps the last shortlist on show.
+      keepWhenIdle: true,
+      onSuccess: (s) => {
+        const at = positionKey(asked);
+        const samePosition = shortlistAt.current === at;
+        shortlistAt.current = at;
+        // Read the wanted cell now: React may run the updater after it has been cleared below.
+        const wanted = wantedCell.current;
+        setSelected((cur) => chooseSelection(s.items, cur, { samePosition, wanted }));
+        wantedCell.current = null;
+      },
+    },
+  );
+  const shortlist = list.data;
+  const error = list.error ?? choices.error;
 
   const chosen = useMemo(() => shortlist?.items.find((i) => i.cell_id === selected) ?? null, [shortlist, selected]);
 
-  useEffect(() => {
-    setProfile(null);
-    if (!chosen || !position || !kitValid) return;
-    let live = true;
-    plannerApi.profile(position, chosen, String(readMetres(kit.heightM))).then(
-      (p) => live && setProfile(p),
-      () => live && setProfile(null),
-    );
-    return () => {
-      live = false;
-    };
-    // Keyed on the cell and the position's values: a new object for the same place asks nothing new.
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [chosen?.cell_id, position?.lat, position?.lon, kit.heightM, kitValid]);
+  // Keyed on the cell and the position's values: a new object for the same place asks nothing new.
+  const path = useQuery(
+    chosen && position && kitValid ? `${chosen.cell_id}|${position.lat}|${position.lon}|${kit.heightM}` : null,
+    () =>
+      toolsApi.path({
+        from: `${position!.lat},${position!.lon}`,
+        to: `${chosen!.mast.lat},${chosen!.mast.lon}`,
+        freq_mhz: chosen!.freq_mhz,
+        h1_m: readMetres(kit.heightM),
+        h2_m: chosen!.antenna_height_m ?? 25,
+      }),
+    { keepOnError: false },
+  );
+  const profile = path.loading ? null : path.data;
 
-  const fieldError = (k: 'height_m' | 'cable_m') => kitErrors[k] ?? error?.fields[k]?.[0];
+  const fieldError = (k: 'height_m' | 'cable_m') => kitErrors[k] ?? list.fields[k]?.[0];
   const setK = (patch: Partial<KitForm>) => setKit((k) => ({ ...k, ...patch }));
 
   return (
@@ -326,9 +315,9 @@ export default function PlannerApp({ customer, canSave }: Props) {
             ))}
           </ul>
         )}
-        <section className="card min-w-0" aria-labelledby="shortlist-heading" aria-busy={loading}>
+        <section className="card min-w-0" aria-labelledby="shortlist-heading" aria-busy={list.loading}>
           <div className="mb-2 flex flex-wrap items-baseline gap-2">
-            <h2 id="shortlist-heading">Shortlist</h2>
+            <h2 id="shortlist-heading">ShortlistJson</h2>
             {shortlist && (
               <span className="text-sm text-ink-600">
                 {shortlist.total} cells within {formatDistance(shortlist.radius_m)} · {shortlist.kit.antenna.name}
@@ -338,7 +327,7 @@ export default function PlannerApp({ customer, canSave }: Props) {
                 ranked by RSRP and SINR
               </span>
             )}
-            {loading && (
+            {list.loading && (
               <span className="text-sm text-ink-500" role="status">
                 Calculating…
               </span>
@@ -368,14 +357,14 @@ export default function PlannerApp({ customer, canSave }: Props) {
 }
 
 function CandidateDetail(props: {
-  item: ShortlistItem;
-  profile: PathResult | null;
+  item: ShortlistItemJson;
+  profile: PathJson | null;
   canSave: boolean;
   customer: PlannerCustomer | null;
   addressLabel: string | null;
   position: LatLon;
   kit: KitForm;
-  antennas: AntennaOption[];
+  antennas: AntennaJson[];
 }) {
   const { item, profile } = props;
   return (
@@ -451,7 +440,7 @@ function SavePlan({
   position,
   kit,
 }: {
-  item: ShortlistItem;
+  item: ShortlistItemJson;
   customer: PlannerCustomer | null;
   addressLabel: string | null;
   position: LatLon;
@@ -459,27 +448,28 @@ function SavePlan({
 }) {
   const kitValid = Object.keys(checkKitForm(kit)).length === 0;
   const [name, setName] = useState('');
-  const [busy, setBusy] = useState(false);
-  const [error, setError] = useState<{ message: string; fields: Record<string, string[]> } | null>(null);
-  const nameError = error?.fields['customer.name']?.[0];
+  const saving = useSubmit({ failed: 'Could not save the plan' });
+  // Stays busy after the plan is saved, while the aim sheet opens.
+  const [leaving, setLeaving] = useState(false);
+  const busy = saving.pending || leaving;
+  const error = saving.error;
+  const nameError = saving.fields['customer.name']?.[0];
 
   async function save() {
-    setBusy(true);
-    setError(null);
-    try {
-      const who = customer
-        ? { customer_id: customer.id }
-        : {
-            customer: {
-              name: name.trim(),
-              address_label: addressLabel ?? formatLatLon(position.lat, position.lon),
-              lat: position.lat,
-              lon: position.lon,
-            },
-          };
-      // One request: the new customer and the plan are saved together or not at all, and the server
-      // computes the plan's figures from the same kit the shortlist used.
-      const plan = await plansApi.create({
+    const who = customer
+      ? { customer_id: customer.id }
+      : {
+          customer: {
+            name: name.trim(),
+            address_label: addressLabel ?? formatLatLon(position.lat, position.lon),
+            lat: position.lat,
+            lon: position.lon,
+          },
+        };
+    // One request: the new customer and the plan are saved together or not at all, and the server
+    // computes the plan's figures from the same kit the shortlist used.
+    const saved = await saving.submit(() =>
+      plansApi.create({
         ...who,
         cell_id: item.cell_id,
         antenna_id: kit.antennaId,
@@ -487,11 +477,11 @@ function SavePlan({
         cable_m: kit.cableId ? readMetres(kit.cableM) : null,
         mount_height_m: readMetres(kit.heightM),
         state: 'planned',
-      });
-      window.location.assign(`/plans/${plan.id}/sheet`);
-    } catch (e) {
-      setError(e instanceof ApiError ? { message: e.message, fields: e.fields } : { message: 'Could not save the plan', fields: {} });
-      setBusy(false);
+      }),
+    );
+    if (saved.ok) {
+      setLeaving(true);
+      window.location.assign(`/plans/${saved.data.id}/sheet`);
     }
   }
 

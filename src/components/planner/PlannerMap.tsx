@@ -5,8 +5,8 @@ import type { Map as MaplibreMap, StyleSpecification } from 'maplibre-gl';
 import type { FeatureCollection } from 'geojson';
 import { LABEL_FONTS, buildBasemapStyle } from '../map/map-style';
 import { getBearingLine, type LatLon } from '../../lib/domain/geodesy';
-import { regionsApi } from '../../lib/client/api';
-import type { ShortlistItem } from '../../lib/client/planner-api';
+import { regionsApi } from '../../lib/client/regions-api';
+import type { ShortlistItemJson } from '../../lib/schemas/shortlist';
 import { loadLabelFonts } from '../map/label-fonts';
 import { GRADE_COLOURS } from './grades';
 
@@ -18,7 +18,7 @@ declare global {
 
 interface Props {
   position: LatLon | null;
-  items: ShortlistItem[];
+  items: ShortlistItemJson[];
   selectedCellId: string | null;
   onPickPosition: (p: LatLon) => void;
   onSelect: (cellId: string) => void;

@@ -1,11 +1,11 @@
 import { useState } from 'react';
-import type { ShortlistItem } from '../../lib/client/planner-api';
+import type { ShortlistItemJson } from '../../lib/schemas/shortlist';
 import { SortableTable, type Column } from '../ui/SortableTable';
 import { GradeBadge, TERRAIN_LABELS, describeConfidence } from './grades';
 import { MISSING, formatDistance, formatNumber, formatSigned } from '../../lib/domain/format';
 
 interface Props {
-  items: ShortlistItem[];
+  items: ShortlistItemJson[];
   selectedCellId: string | null;
   onSelect: (cellId: string) => void;
 }
@@ -17,7 +17,7 @@ export default function ShortlistTable({ items, selectedCellId, onSelect }: Prop
   const [showAll, setShowAll] = useState(false);
   const selectedIndex = items.findIndex((i) => i.cell_id === selectedCellId);
   const visible = showAll ? items : items.slice(0, Math.max(FIRST_ROWS, selectedIndex + 1));
-  const columns: Column<ShortlistItem>[] = [
+  const columns: Column<ShortlistItemJson>[] = [
     { key: 'rank', label: '#', sortValue: (i) => i.rank, render: (i) => i.rank, className: 'hidden sm:table-cell' },
     {
       key: 'mast',
@@ -120,7 +120,7 @@ export default function ShortlistTable({ items, selectedCellId, onSelect }: Prop
         columns={columns}
         rowKey={(i) => i.cell_id}
         empty="No active LTE or NR cell within the search radius"
-        caption="Shortlist"
+        caption="ShortlistJson"
         rowClassName={(i) => (i.cell_id === selectedCellId ? 'bg-ember-50' : undefined)}
       />
       {items.length > visible.length && (

@@ -1,9 +1,9 @@
 import { Area, CartesianGrid, ComposedChart, Line, ReferenceDot, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
-import type { PathResult } from '../../lib/client/tools-api';
+import type { PathJson } from '../../lib/schemas/tools';
 import { formatDb, formatDistance, formatMetres } from '../../lib/domain/format';
 
 interface Props {
-  path: PathResult;
+  path: PathJson;
 }
 
 /** The series, drawn and named in the legend below the chart (which wraps on a phone instead of covering the axis). */

@@ -1,5 +1,7 @@
 import { useEffect, useRef, useState, type FormEvent } from 'react';
-import { ApiError, jobsApi, readingsApi, type JobJson } from '../../lib/client/readings-api';
+import { ApiError } from '../../lib/client/api';
+import { jobsApi, readingsApi } from '../../lib/client/readings-api';
+import type { JobJson } from '../../lib/schemas/jobs';
 
 type Stage =
   | { kind: 'idle' }
@@ -58,7 +60,7 @@ export default function ReadingsImport() {
     }
     setStage({ kind: 'uploading', fraction: 0 });
     try {
-      const started = await readingsApi.importFile(file, (fraction) => setStage({ kind: 'uploading', fraction }));
+      const started = await readingsApi.importFile(file, (p) => setStage({ kind: 'uploading', fraction: p.loaded / p.total }));
       setStage({ kind: 'job', job: null, jobId: started.job_id });
       if (input.current) input.current.value = '';
       setFile(null);

@@ -1,5 +1,5 @@
 import { pairCells } from '../../lib/domain/duplicates';
-import type { CellJson } from '../../lib/client/api';
+import type { CellJson } from '../../lib/schemas/masts';
 import type { SightingCellJson } from '../../lib/schemas/sightings';
 import { TECH_LABELS } from '../map/MapFilters';
 

@@ -1,7 +1,7 @@
 import { useCallback, useEffect, useMemo, useState, type FormEvent } from 'react';
-import { ApiError, type FieldErrors } from '../../lib/client/api';
-import { reviewApi, type DuplicateCandidateJson, type ReviewItemJson, type ReviewQueueJson } from '../../lib/client/review-api';
-import { checkWith } from '../../lib/client/planning-api';
+import { ApiError, checkWith, type FieldErrors } from '../../lib/client/api';
+import { reviewApi } from '../../lib/client/review-api';
+import type { DuplicateCandidateJson, ReviewItemJson, ReviewQueueJson } from '../../lib/schemas/review';
 import { DECISION_LABELS, DecisionSchema, type Decision } from '../../lib/schemas/review';
 import { STRUCTURE_TYPE_LABELS } from '../../lib/schemas/mast-enums';
 import ReviewMap from './ReviewMap';

@@ -1,7 +1,8 @@
 import { useState } from 'react';
 import { useIsLive } from '../ui/use-is-live';
 import { ApiError } from '../../lib/client/api';
-import { plansApi, type PlanDetailJson } from '../../lib/client/planning-api';
+import { plansApi } from '../../lib/client/plans-api';
+import type { PlanDetailJson } from '../../lib/schemas/plans';
 
 interface Props {
   planId: string;
@@ -24,7 +25,7 @@ export default function MarkInstalled({ planId, rowVersion, customerId, onInstal
     setStep('busy');
     setError(null);
     try {
-      const plan = await plansApi.markInstalled(planId, rowVersion);
+      const plan = await plansApi.markInstalled(planId, { row_version: rowVersion });
       setStep('done');
       onInstalled?.(plan);
     } catch (err) {

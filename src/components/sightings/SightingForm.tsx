@@ -2,7 +2,8 @@
 // sighting is kept on the device and sent when the connection returns).
 import { lazy, Suspense, useEffect, useMemo, useState, type ReactNode } from 'react';
 import exifr from 'exifr';
-import { operatorsApi, type OperatorJson } from '../../lib/client/api';
+import { operatorsApi } from '../../lib/client/operators-api';
+import type { OperatorJson } from '../../lib/schemas/operators';
 import { flushOutbox, keepFlushing, saveToOutbox } from '../../lib/client/sighting-outbox';
 import { IMAGE_SNIFF_BYTES, sniffImageType } from '../../lib/domain/image-type';
 import { TECHS, type Tech } from '../../lib/schemas/mast-enums';

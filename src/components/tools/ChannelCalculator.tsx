@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { formatMhz } from '../../lib/domain/format';
-import { toolsApi, type ChannelResult, type FrequencyResult } from '../../lib/client/tools-api';
+import { toolsApi } from '../../lib/client/tools-api';
+import type { ChannelJson, FrequencyJson } from '../../lib/schemas/tools';
 import { useDebounced } from './useDebounced';
 import { useQuery } from '../ui/use-api';
 import { ResultRow } from './ResultRow';
@@ -10,19 +11,20 @@ const TECHS = [
   { value: 'nr', label: '5G NR (NR-ARFCN)' },
   { value: 'umts', label: 'UMTS (UARFCN)' },
   { value: 'gsm', label: 'GSM (ARFCN)' },
-];
+] as const;
+type Tech = (typeof TECHS)[number]['value'];
 
 type Mode = 'channel' | 'frequency';
 
 export default function ChannelCalculator() {
-  const [tech, setTech] = useState('lte');
+  const [tech, setTech] = useState<Tech>('lte');
   const [mode, setMode] = useState<Mode>('channel');
   const [value, setValue] = useState('6300');
   const settled = useDebounced(`${tech}|${mode}|${value.trim()}`);
-  const [sTech, sMode, sValue] = settled.split('|');
-  const result = useQuery<ChannelResult | FrequencyResult>(
+  const [sTech, sMode, sValue] = settled.split('|') as [Tech, Mode, string];
+  const result = useQuery(
     sValue ? settled : null,
-    () => (sMode === 'channel' ? toolsApi.channel(sTech, sValue) : toolsApi.frequency(sTech, sValue)),
+    () => toolsApi.channel(sMode === 'channel' ? { tech: sTech, channel: sValue } : { tech: sTech, freq_mhz: sValue }),
     { failed: 'Could not calculate', keepOnError: false },
   );
   const fieldError = result.fields.channel?.[0] ?? result.fields.freq_mhz?.[0] ?? result.fields.tech?.[0] ?? result.error?.message;
@@ -38,7 +40,7 @@ export default function ChannelCalculator() {
           <label htmlFor="ch-tech" className="field-label">
             Technology
           </label>
-          <select id="ch-tech" className="field-input" value={tech} onChange={(e) => setTech(e.target.value)}>
+          <select id="ch-tech" className="field-input" value={tech} onChange={(e) => setTech(e.target.value as Tech)}>
             {TECHS.map((t) => (
               <option key={t.value} value={t.value}>
                 {t.label}
@@ -85,7 +87,7 @@ export default function ChannelCalculator() {
   );
 }
 
-function ChannelView({ r, fmt }: { r: ChannelResult; fmt: (n: number | null) => string }) {
+function ChannelView({ r, fmt }: { r: ChannelJson; fmt: (n: number | null) => string }) {
   return (
     <dl data-testid="channel-result">
       <ResultRow label="Band" value={r.band} testId="ch-band" />
@@ -103,7 +105,7 @@ function ChannelView({ r, fmt }: { r: ChannelResult; fmt: (n: number | null) => 
   );
 }
 
-function FrequencyView({ r }: { r: FrequencyResult }) {
+function FrequencyView({ r }: { r: FrequencyJson }) {
   return (
     <div data-testid="frequency-result">
       {r.ambiguous && <p className="mb-2 text-sm text-ember-700">{r.freq_mhz} MHz lies in more than one band: the frequency alone does not name the band.</p>}

@@ -1,5 +1,6 @@
 import { useState } from 'react';
-import { toolsApi, type PathResult } from '../../lib/client/tools-api';
+import { toolsApi } from '../../lib/client/tools-api';
+import type { PathJson } from '../../lib/schemas/tools';
 import { useDebounced } from './useDebounced';
 import { useQuery } from '../ui/use-api';
 import { ResultRow } from './ResultRow';
@@ -36,7 +37,7 @@ export default function PathCalculator({ today, initialFrom, initialTo }: { toda
   });
   const settled = useDebounced(form);
   const key = settled.from.trim() && settled.to.trim() ? JSON.stringify(settled) : null;
-  const result = useQuery<PathResult>(key, () => toolsApi.path(settled), { failed: 'Could not calculate', keepOnError: false });
+  const result = useQuery<PathJson>(key, () => toolsApi.path(settled), { failed: 'Could not calculate', keepOnError: false });
 
   return (
     <section className="card" aria-labelledby="path-heading">
@@ -86,7 +87,7 @@ export default function PathCalculator({ today, initialFrom, initialTo }: { toda
   );
 }
 
-function PathView({ r }: { r: PathResult }) {
+function PathView({ r }: { r: PathJson }) {
   return (
     <div className="mt-4 grid gap-4 lg:grid-cols-2" aria-live="polite">
       <dl data-testid="path-result">

@@ -14,6 +14,8 @@ export interface QueryOptions<T> {
   failed?: string;
   /** False: a failure drops the last answer (a result that belongs to the inputs that failed). */
   keepOnError?: boolean;
+  /** True: when there is nothing to ask (key null), keep showing the last answer instead of emptying. */
+  keepWhenIdle?: boolean;
   /** Called with an answer that is still wanted, before it is published. */
   onSuccess?: (data: T) => void;
 }
@@ -75,10 +77,10 @@ export class QueryRunner<T> {
     this.set({ data, error: null, loading: false });
   }
 
-  /** Back to nothing asked: drops any load under way. */
-  reset(): void {
+  /** Back to nothing asked: drops any load under way, and the answer unless `keepData`. */
+  reset(options: { keepData?: boolean } = {}): void {
     this.invalidate();
-    this.set(idleQuery());
+    this.set(options.keepData ? { ...this.state, loading: false } : idleQuery());
   }
 
   /** The island is going away: drops any load under way without publishing. */

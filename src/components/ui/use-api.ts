@@ -28,7 +28,7 @@ export interface Query<T> extends QueryState<T> {
 }
 
 /**
- * Loads whenever `key` changes (null: nothing to ask, state back to empty). `load` and `options`
+ * Loads whenever `key` changes (null: nothing to ask, state back to empty unless `keepWhenIdle`). `load` and `options`
  * are read when the load starts, so they may be new functions on every render; put everything the
  * answer depends on into `key`.
  */
@@ -46,7 +46,7 @@ export function useQuery<T>(key: string | null, load: Load<T>, options: QueryOpt
   }, [runner]);
   useEffect(() => {
     if (key === null) {
-      runner.reset();
+      runner.reset({ keepData: latest.current.options.keepWhenIdle });
       return;
     }
     void start();

@@ -1,12 +1,8 @@
-// The only place islands call fetch. Error bodies become ApiError.
-import type { Role } from '../domain/roles';
-import type { OperatorJson } from '../schemas/operators';
-import type { CellJson, MastJson } from '../schemas/masts';
-import type { MastDetailJson, MastFeatureCollectionJson, ReadingJson, SearchHitJson } from '../schemas/mast-responses';
-import type { RegionJson } from '../schemas/regions';
-import type { InvitedUserJson, UserListItemJson } from '../schemas/users';
-
-export type { OperatorJson, CellJson, MastDetailJson, MastJson, ReadingJson, SearchHitJson, RegionJson };
+// The only place islands call fetch: requests, the error shape (ApiError), query strings, form
+// uploads, and the browser-side form check. Each API resource has its own module beside this one
+// (customers-api.ts, plans-api.ts, …); bodies are typed from the endpoint's schema (`z.input`),
+// answers with the JSON types declared beside the schemas.
+import type { z } from 'zod';
 
 export type FieldErrors = Record<string, string[]>;
 
@@ -82,21 +78,13 @@ export interface List<T> {
   total: number;
 }
 
-export type UserDto = UserListItemJson;
-export type InvitedUserDto = InvitedUserJson;
+export type QueryParams = Record<string, string | number | readonly string[] | undefined | null>;
 
-export const usersApi = {
-  list: () => get<List<UserDto>>('/api/users'),
-  /** Makes the account and mails the person a link to choose their password. */
-  invite: (input: { email: string; name: string; role: Role }) => request<InvitedUserDto>('POST', '/api/users', input),
-  resendInvite: (id: string) => request<InvitedUserDto>('POST', `/api/users/${id}/invite`),
-  update: (id: string, change: { role?: Role; disabled?: boolean; name?: string }) => request<UserDto>('PATCH', `/api/users/${id}`, change),
-};
-
-// --- Map: style, operators, masts, regions, search ---------------------------------------------
+/** A query schema's parameters as a caller writes them: its input (text), numbers also as numbers. */
+export type QueryOf<S extends z.ZodTypeAny> = { [K in keyof z.input<S>]?: z.input<S>[K] | number };
 
 /** URL-encoded parameters without the `?`; undefined, null and empty values are left out, lists comma-joined. */
-export const queryString = (params: Record<string, string | number | readonly string[] | undefined | null>) => {
+export const queryString = (params: QueryParams) => {
   const q = new URLSearchParams();
   for (const [k, v] of Object.entries(params)) {
     if (v === undefined || v === null) continue;
@@ -106,47 +94,65 @@ export const queryString = (params: Record<string, string | number | readonly st
   return q.toString();
 };
 
-const query = (params: Record<string, string | number | readonly string[] | undefined>) => {
-  const s = queryString(params);
-  return s ? `?${s}` : '';
+/** `path` with the parameters that have a value (no `?` when none has). */
+export const withQuery = (path: string, params: QueryParams = {}) => {
+  const q = queryString(params);
+  return q ? `${path}?${q}` : path;
 };
 
-export const mapApi = {
-  /** The basemap style (MapLibre style JSON) with absolute tile URLs. */
-  style: <Style>() => get<Style>('/api/map/style.json'),
-  search: (q: string, limit = 8) => get<List<SearchHitJson>>(`/api/search${query({ q, limit })}`),
-};
+/** `encodeURIComponent` for one path segment (an id). */
+export const seg = encodeURIComponent;
 
-export const operatorsApi = {
-  list: () => get<List<OperatorJson>>('/api/operators'),
-  create: (input: { name: string; mcc: string; mnc: string; colour?: string }) => request<OperatorJson>('POST', '/api/operators', input),
-  update: (id: string, change: { name?: string; mcc?: string; mnc?: string; colour?: string }) =>
-    request<OperatorJson>('PATCH', `/api/operators/${id}`, change),
-};
+/** A multipart POST (files and fields); answers the body and the status (201 new, 200 already there). */
+export async function postForm<T>(url: string, form: FormData, failed: string): Promise<{ data: T; status: number }> {
+  let res: Response;
+  try {
+    res = await fetch(url, { method: 'POST', body: form, credentials: 'same-origin', headers: { Accept: 'application/json' } });
+  } catch {
+    throw networkError();
+  }
+  const data = await res.json().catch(() => null);
+  if (!res.ok) throw toApiError(res.status, data, failed);
+  return { data: data as T, status: res.status };
+}
 
-export const mastsApi = {
-  list: (filter: { bbox?: string; operator?: string[]; band?: string[]; tech?: string[]; status?: string[]; limit?: number } = {}) =>
-    get<MastFeatureCollectionJson>(`/api/masts${query(filter)}`),
-  get: (id: string) => get<MastDetailJson>(`/api/masts/${encodeURIComponent(id)}`),
-  /** A new mast (body as MastInputSchema); answers 201 with the mast. */
-  create: (input: Record<string, unknown>) => request<MastJson>('POST', '/api/masts', input),
-  /** Partial change; `row_version` must be the one last read, or the answer is 409 (CONFLICT). */
-  update: (id: string, change: Record<string, unknown> & { row_version: number }) => request<MastJson>('PATCH', `/api/masts/${encodeURIComponent(id)}`, change),
-};
+export interface UploadProgress {
+  loaded: number;
+  total: number;
+}
 
-export const cellsApi = {
-  /** A new cell on a mast (body as CellInputSchema: the channel must lie in the band). */
-  create: (mastId: string, input: Record<string, unknown>) => request<CellJson>('POST', `/api/masts/${encodeURIComponent(mastId)}/cells`, input),
-  /** Partial change, checked again as a whole; a stale `row_version` is refused with 409. */
-  update: (id: string, change: Record<string, unknown> & { row_version: number }) => request<CellJson>('PATCH', `/api/cells/${encodeURIComponent(id)}`, change),
-  /** Refused with 409 while a plan has chosen the cell. */
-  remove: (id: string) => request<void>('DELETE', `/api/cells/${encodeURIComponent(id)}`),
-};
-
-export const regionsApi = {
-  /** Outlines simplified to one pixel at `zoom` (never in full). */
-  list: (zoom: number) => get<List<RegionJson>>(`/api/regions?zoom=${zoom}`),
-  create: (input: { name: string; geometry: unknown }) => request<RegionJson>('POST', '/api/regions', input),
-  update: (id: string, change: { name?: string; geometry?: unknown }) => request<RegionJson>('PATCH', `/api/regions/${id}`, change),
-  remove: (id: string) => request<void>('DELETE', `/api/regions/${id}`),
-};
+/**
+ * A multipart POST of one file (field `file`) that reports progress as the bytes leave the
+ * browser: XMLHttpRequest rather than fetch, because only it reports upload progress.
+ */
+export function uploadFile<T>(
+  url: string,
+  file: File,
+  options: { onProgress?: (p: UploadProgress) => void; signal?: AbortSignal; failed: string },
+): Promise<T> {
+  return new Promise<T>((resolve, reject) => {
+    const xhr = new XMLHttpRequest();
+    xhr.open('POST', url);
+    xhr.setRequestHeader('Accept', 'application/json');
+    xhr.withCredentials = true;
+    xhr.upload.onprogress = (e) => {
+      if (e.lengthComputable) options.onProgress?.({ loaded: e.loaded, total: e.total });
+    };
+    xhr.onload = () => {
+      let data: ErrorBody = null;
+      try {
+        data = xhr.responseText ? JSON.parse(xhr.responseText) : null;
+      } catch {
+        data = null;
+      }
+      if (xhr.status >= 200 && xhr.status < 300) return resolve(data as T);
+      reject(toApiError(xhr.status, data, options.failed));
+    };
+    xhr.onerror = () => reject(networkError());
+    xhr.onabort = () => reject(new ApiError(0, 'ABORTED', 'Upload cancelled'));
+    options.signal?.addEventListener('abort', () => xhr.abort(), { once: true });
+    const form = new FormData();
+    form.set('file', file);
+    xhr.send(form);
+  });
+}

@@ -2,8 +2,8 @@
 // its client UUID, so sending it again after a lost answer finds the first one on the server.
 import { openDB, type DBSchema, type IDBPDatabase } from 'idb';
 import type { FieldErrors } from './api';
+import { sightingsApi, type PhotoFile } from './sightings-api';
 import type { SightingInputJson } from '../schemas/sightings';
-import { sendSighting, type PhotoFile } from './sightings-api';
 
 export interface OutboxEntry {
   clientUuid: string;
@@ -83,7 +83,7 @@ export function flushOutbox(): Promise<SendResult[]> {
 
 async function sendOne(entry: OutboxEntry): Promise<SendResult> {
   try {
-    const res = await sendSighting(entry.sighting, entry.photos);
+    const res = await sightingsApi.send(entry.sighting, entry.photos);
     await removeFromOutbox(entry.clientUuid);
     return { clientUuid: entry.clientUuid, outcome: 'sent', id: res.id };
   } catch (err) {

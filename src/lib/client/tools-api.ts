@@ -1,13 +1,9 @@
-import { get, queryString as qs } from './api';
-import type { ChannelJson, FrequencyJson, PathJson, ProfilePointJson } from '../schemas/tools';
-
-export type ChannelResult = ChannelJson;
-export type FrequencyResult = FrequencyJson;
-export type ProfilePoint = ProfilePointJson;
-export type PathResult = PathJson;
+// The calculators: channel number ↔ frequency, and a path (bearings, clearance, terrain profile).
+import { get, withQuery, type QueryOf } from './api';
+import type { ChannelJson, ChannelQuerySchema, FrequencyJson, PathJson, PathQuerySchema } from '../schemas/tools';
 
 export const toolsApi = {
-  channel: (tech: string, channel: string) => get<ChannelResult>(`/api/tools/channel?${qs({ tech, channel })}`),
-  frequency: (tech: string, freq_mhz: string) => get<FrequencyResult>(`/api/tools/channel?${qs({ tech, freq_mhz })}`),
-  path: (p: { from: string; to: string; freq_mhz?: string; h1_m?: string; h2_m?: string; date?: string }) => get<PathResult>(`/api/tools/path?${qs(p)}`),
+  /** With `channel`: its band and frequencies (ChannelJson); with `freq_mhz`: the channels that carry it (FrequencyJson). */
+  channel: (query: QueryOf<typeof ChannelQuerySchema>) => get<ChannelJson | FrequencyJson>(withQuery('/api/tools/channel', query)),
+  path: (query: QueryOf<typeof PathQuerySchema>) => get<PathJson>(withQuery('/api/tools/path', query)),
 };

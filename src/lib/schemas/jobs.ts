@@ -12,6 +12,13 @@ export const JobIdParamSchema = z.object({
 
 export const JobListQuerySchema = z.object({ ...pageParams });
 
+/** Answer of POST /api/readings/import (202): the job that loads the staged rows. */
+export interface ReadingsImportJson {
+  job_id: string;
+  import_id: string;
+  rows: number;
+}
+
 export interface JobErrorJson {
   line: number;
   messages: string[];
