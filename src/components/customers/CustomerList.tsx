@@ -1,11 +1,11 @@
-import { useEffect, useState } from 'react';
-import { ApiError } from '../../lib/client/api';
+import { useState } from 'react';
 import { customersApi } from '../../lib/client/customers-api';
 import type { CustomerJson } from '../../lib/schemas/customers';
 import { PLAN_STATES, PLAN_STATE_LABELS, isPlanState, type PlanState } from '../../lib/domain/plan-state';
 import { formatDate } from '../../lib/domain/format';
 import { SortableTable, type Column } from '../ui/SortableTable';
 import { useDebounced } from '../tools/useDebounced';
+import { useQuery } from '../ui/use-api';
 import CustomerForm from './CustomerForm';
 import { PlanStateBadge } from './PlanStateBadge';
 
@@ -30,19 +30,11 @@ export default function CustomerList({ canWrite, initialState = null }: Props) {
   const [query, setQuery] = useState('');
   const [state, setState] = useState<PlanState | null>(initialState);
   const q = useDebounced(query.trim(), 250);
-  const [data, setData] = useState<{ items: CustomerJson[]; total: number } | null>(null);
-  const [error, setError] = useState<string | null>(null);
-
-  useEffect(() => {
-    let live = true;
-    customersApi.list({ q: q || undefined, state: state ?? undefined, sort: 'updated_at', limit: LOAD_LIMIT }).then(
-      (r) => live && (setData(r), setError(null)),
-      (e: unknown) => live && setError(e instanceof ApiError ? e.message : 'Could not load customers'),
-    );
-    return () => {
-      live = false;
-    };
-  }, [q, state]);
+  const list = useQuery(JSON.stringify([q, state]), () => customersApi.list({ q, state: state ?? undefined, sort: 'updated_at', limit: LOAD_LIMIT }), {
+    failed: 'Could not load customers',
+  });
+  const data = list.data;
+  const error = list.error?.message;
 
   const columns: Column<CustomerJson>[] = [
     {

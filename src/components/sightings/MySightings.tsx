@@ -1,9 +1,10 @@
 // The signed-in person's sightings and what became of them, with those still on this device.
-import { useCallback, useEffect, useState } from 'react';
+import { useEffect } from 'react';
 import { keepFlushing } from '../../lib/client/sighting-outbox';
 import { sightingsApi } from '../../lib/client/sightings-api';
-import { SIGHTING_STATUS_LABELS, SIGHTING_STRUCTURE_LABELS, type SightingJson, type SightingStatus } from '../../lib/schemas/sightings';
+import { SIGHTING_STATUS_LABELS, SIGHTING_STRUCTURE_LABELS, type SightingStatus } from '../../lib/schemas/sightings';
 import OutboxList from './OutboxList';
+import { useQuery } from '../ui/use-api';
 import { formatDateTime, formatLatLon, formatMetres } from '../../lib/domain/format';
 
 const TONE: Record<SightingStatus, string> = {
@@ -16,27 +17,15 @@ const TONE: Record<SightingStatus, string> = {
 const when = formatDateTime;
 
 export default function MySightings() {
-  const [items, setItems] = useState<SightingJson[] | null>(null);
-  const [error, setError] = useState<string | null>(null);
+  const mine = useQuery('mine', () => sightingsApi.mine());
+  const items = mine.data?.items ?? null;
+  const error = mine.error?.message;
 
-  const load = useCallback(() => {
-    sightingsApi.mine().then(
-      (r) => {
-        setItems(r.items);
-        setError(null);
-      },
-      (e: Error) => setError(e.message),
-    );
-  }, []);
-
-  useEffect(() => {
-    load();
-    return keepFlushing();
-  }, [load]);
+  useEffect(() => keepFlushing(), []);
 
   return (
     <div className="mx-auto max-w-xl space-y-4">
-      <OutboxList onSent={load} />
+      <OutboxList onSent={mine.refetch} />
       {error && <p className="rounded-md border border-ember-500 bg-ember-50 p-3 text-ember-700">{error}</p>}
       {items === null && !error && <p className="text-ink-600">Loading…</p>}
       {items?.length === 0 && <p className="text-ink-600">No sightings sent yet.</p>}
