@@ -155,5 +155,5 @@ describe('map selection in the URL', () => {
     } finally {
       await context.close();
     }
-  });
+  }, 180_000); // two reloads and four history steps, each redrawing the map in software WebGL
 });
