@@ -64,10 +64,10 @@ describe('demo catalogue, gazetteer and customers', () => {
     expect((await geocoder.search(farm.postcode.toLowerCase(), 5))[0]).toMatchObject({ label: farm.label, score: 1 });
   });
 
-  it('gives a dozen customers plans in every state, each past enquiry aimed at a shortlisted cell', async () => {
-    expect(await testDb()('customers').count('* as n').first()).toEqual({ n: '12' });
+  it('gives sixteen customers plans in every state (three of them coverage gaps), each past enquiry aimed at a shortlisted cell', async () => {
+    expect(await testDb()('customers').count('* as n').first()).toEqual({ n: '16' });
     const states = await testDb()('plans').groupBy('state').select('state', testDb().raw('count(*)::int AS n'));
-    expect(Object.fromEntries(states.map((s) => [s.state, s.n]))).toEqual({ enquiry: 2, planned: 3, scheduled: 2, installed: 2, verified: 2 });
+    expect(Object.fromEntries(states.map((s) => [s.state, s.n]))).toEqual({ enquiry: 2, planned: 6, scheduled: 3, installed: 2, verified: 2 });
     const aimed = await testDb()('plans').whereNot('state', 'enquiry');
     for (const p of aimed) {
       expect(p.cell_id).not.toBeNull();
