@@ -1,27 +1,7 @@
 import type { ReactNode } from 'react';
 import type { FieldErrors } from '../../lib/client/api';
 
-/** A labelled input with its errors below it, tied to the input by `${id}-error`. */
-export function Field({ id, label, errors, hint, children }: { id: string; label: string; errors?: string[]; hint?: ReactNode; children: ReactNode }) {
-  return (
-    <div>
-      <label htmlFor={id} className="field-label">
-        {label}
-      </label>
-      {children}
-      {hint && (
-        <p id={`${id}-hint`} className="mt-1 text-xs text-ink-600">
-          {hint}
-        </p>
-      )}
-      {errors && errors.length > 0 && (
-        <p id={`${id}-error`} className="field-error">
-          {errors.join(' ')}
-        </p>
-      )}
-    </div>
-  );
-}
+export { Field } from '../ui/field';
 
 /** Props that tie an input to its draft value and its errors. */
 export function inputProps<D extends Record<string, string>>(
