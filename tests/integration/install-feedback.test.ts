@@ -8,6 +8,7 @@ import { getFreeSpacePathLossDb } from '../../src/lib/domain/link-budget';
 import { call } from '../helpers/endpoint';
 import { currentRowVersion, testDb, truncateAll } from '../helpers/db';
 import { asSessionUser, makeUser } from '../helpers/factories';
+import { insertPlanKit, plannedPlanBody } from '../helpers/plan-kit';
 import type { SessionUser } from '../../src/lib/server/session-user';
 
 let planner: SessionUser;
@@ -17,53 +18,28 @@ beforeEach(async () => {
   await truncateAll();
   planner = asSessionUser(await makeUser('planner'));
   const db = testDb();
-  const [op] = await db('operators').insert({ name: 'Test Mobile', mcc: '001', mnc: '01', colour: '#336699' }).returning('id');
-  const [mast] = await db('masts')
-    .insert({ name: 'Test Hill', geom: db.raw('ST_SetSRID(ST_MakePoint(-128.5, -47.1), 4326)'), ground_elevation_m: 50 })
-    .returning('id');
-  const [cell] = await db('cells')
-    .insert({
-      mast_id: mast.id,
-      operator_id: op.id,
-      tech: 'lte',
-      band: 'B20',
-      channel: 6300,
-      dl_mhz: 806,
-      pci: 101,
-      sector_azimuth_deg: 180,
-      antenna_height_m: 30,
-    })
-    .returning('id');
-  const flat = (g: number) =>
+  const flat = (key: string, value: number) =>
     JSON.stringify([
-      { freq_mhz: 700, gain_dbi: g },
-      { freq_mhz: 2700, gain_dbi: g },
+      { freq_mhz: 700, [key]: value },
+      { freq_mhz: 2700, [key]: value },
     ]);
-  const [ant] = await db('antennas')
-    .insert({ name: 'Panel', kind: 'directional', ports: 2, horizontal_beamwidth_deg: 40, gain_table: flat(8) })
-    .returning('id');
-  await db('antennas').insert({ name: 'Stub', kind: 'stub', ports: 1, horizontal_beamwidth_deg: 360, gain_table: flat(2) });
-  const [cable] = await db('cables')
-    .insert({
-      name: 'Feeder',
-      loss_table: JSON.stringify([
-        { freq_mhz: 700, loss_db_per_m: 0.2 },
-        { freq_mhz: 2700, loss_db_per_m: 0.2 },
-      ]),
-      connector_loss_db: 0.15,
-      connectors: 2,
-    })
-    .returning('id');
+  const kit = await insertPlanKit(db, {
+    mast: { ground_elevation_m: 50 },
+    cell: { antenna_height_m: 30 },
+    antenna: { gain_table: flat('gain_dbi', 8) },
+    cable: { loss_table: flat('loss_db_per_m', 0.2), connector_loss_db: 0.15, connectors: 2 },
+  });
+  await db('antennas').insert({ name: 'Stub', kind: 'stub', ports: 1, horizontal_beamwidth_deg: 360, gain_table: flat('gain_dbi', 2) });
   const [cust] = await db('customers')
     .insert({ name: 'Test Customer', address_label: 'Alder Farm', geom: db.raw('ST_SetSRID(ST_MakePoint(-128.52, -47.21), 4326)') })
     .returning('id');
-  Object.assign(ids, { cell: String(cell.id), antenna: String(ant.id), cable: String(cable.id), customer: String(cust.id) });
+  Object.assign(ids, { cell: kit.cellId, antenna: kit.antennaId, cable: kit.cableId, customer: String(cust.id) });
 });
 
 async function verifiedPlan(afterRsrp: number) {
   const plan = await call(createPlan, {
     user: planner,
-    json: { customer_id: ids.customer, cell_id: ids.cell, antenna_id: ids.antenna, cable_id: ids.cable, cable_m: 10, mount_height_m: 7, state: 'planned' },
+    json: plannedPlanBody({ cellId: ids.cell, antennaId: ids.antenna, cableId: ids.cable }, ids.customer, { cable_m: 10, mount_height_m: 7 }),
   });
   const id = plan.body.id;
   const patch = async (json: object) =>

@@ -5,7 +5,7 @@ import { GET as listChecks, POST as addCheck } from '../../src/pages/api/plans/[
 import { call } from '../helpers/endpoint';
 import { currentRowVersion, testDb, truncateAll } from '../helpers/db';
 import { asSessionUser, makeUser } from '../helpers/factories';
-import { insertPlanKit, type PlanKit } from '../helpers/plan-kit';
+import { KIT_CELL, insertPlanKit, type PlanKit } from '../helpers/plan-kit';
 import type { SessionUser } from '../../src/lib/server/session-user';
 
 interface Fixture extends PlanKit {
@@ -91,12 +91,7 @@ describe('plans API', () => {
         id: f.cellId,
         mast_name: 'Test Hill',
         operator_name: 'Test Mobile',
-        tech: 'lte',
-        band: 'B20',
-        channel: 6300,
-        dl_mhz: 806,
-        pci: 101,
-        sector_azimuth_deg: 180,
+        ...KIT_CELL,
         lat: -47.1,
         lon: -128.5,
       },
