@@ -29,6 +29,7 @@ describe('visit groups', () => {
     ['2026-12-06', 'scheduled', 'this-week'],
     ['2026-12-07', 'scheduled', 'later'],
     ['2026-12-01', 'installed', 'this-week'],
+    ['2026-11-27', 'installed', 'past-due'],
   ] as const)('a visit on %s (%s) is %s', (scheduledFor, state, group) => {
     expect(getVisitGroup({ scheduledFor, state }, today)).toBe(group);
   });

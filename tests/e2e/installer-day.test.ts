@@ -48,7 +48,7 @@ describe("installer's day", () => {
     // Address and postcode read "…, Town, AB-1234": no stray space before a comma.
     for (const text of await visits.allInnerTexts()) expect(text).not.toMatch(/\s,/);
 
-    // Take this week's first visit still to be installed (a past due one, once installed, leaves the schedule).
+    // Take this week's first visit still to be installed.
     const visit = page
       .getByTestId('visits-this-week')
       .locator('[data-testid=visit]', { has: page.getByRole('button', { name: 'Mark installed' }) })

@@ -8,7 +8,7 @@ import { groupVisits } from '../../src/lib/domain/schedule';
 import { call } from '../helpers/endpoint';
 import { currentRowVersion, testDb, truncateAll } from '../helpers/db';
 import { asSessionUser, makeUser } from '../helpers/factories';
-import { insertPlanKit, type PlanKit } from '../helpers/plan-kit';
+import { insertPlanKit, plannedPlanBody, type PlanKit } from '../helpers/plan-kit';
 import type { SessionUser } from '../../src/lib/server/session-user';
 
 interface Fixture extends PlanKit {
@@ -32,19 +32,10 @@ describe('installer schedule', () => {
   let surveyor: SessionUser;
   let f: Fixture;
 
+  const plan = async (name: string) =>
+    call(createPlan, { user: planner, json: plannedPlanBody(f, await f.customer(name), { cable_m: 10, mount_height_m: 6 }) });
   const book = async (name: string, scheduledFor: string) => {
-    const created = await call(createPlan, {
-      user: planner,
-      json: {
-        customer_id: await f.customer(name),
-        cell_id: f.cellId,
-        antenna_id: f.antennaId,
-        cable_id: f.cableId,
-        cable_m: 10,
-        mount_height_m: 6,
-        state: 'planned',
-      },
-    });
+    const created = await plan(name);
     expect(created.status).toBe(201);
     const id: string = created.body.id;
     const scheduled = await call(patchPlan, {
@@ -56,6 +47,8 @@ describe('installer schedule', () => {
     expect(scheduled.status).toBe(200);
     return id;
   };
+  /** When the plan was marked installed (the clock of the test run is not the schedule's `today`). */
+  const installedAt = (id: string, at: string) => testDb()('plans').where({ id }).update({ state_changed_at: at });
   const mark = (id: string, rowVersion: unknown, user: SessionUser | null = surveyor) =>
     call(markInstalled, { user, params: { id }, json: rowVersion === undefined ? {} : { row_version: rowVersion } });
 
@@ -105,18 +98,7 @@ describe('installer schedule', () => {
   });
 
   it('refuses to mark a plan installed that is not scheduled (409 naming where it can go)', async () => {
-    const created = await call(createPlan, {
-      user: planner,
-      json: {
-        customer_id: await f.customer('Dai Orme'),
-        cell_id: f.cellId,
-        antenna_id: f.antennaId,
-        cable_id: f.cableId,
-        cable_m: 10,
-        mount_height_m: 6,
-        state: 'planned',
-      },
-    });
+    const created = await plan('Dai Orme');
     const res = await mark(created.body.id, await currentRowVersion('plans', created.body.id));
     expect(res.status).toBe(409);
     expect(res.body.error.message).toMatch(/planned to installed/);
@@ -129,6 +111,7 @@ describe('installer schedule', () => {
     const doneThisWeek = await book('Done Dairy', '2026-11-30');
     const doneLastWeek = await book('Old Orchard', '2026-11-23');
     for (const id of [doneThisWeek, doneLastWeek]) expect((await mark(id, await currentRowVersion('plans', id))).status).toBe(200);
+    await installedAt(doneLastWeek, '2026-11-24T10:00:00Z');
 
     const visits = await listScheduledVisits(testDb(), '2026-12-02');
     expect(visits.map((v) => v.planId)).toEqual([late, doneThisWeek, today, later]);
@@ -160,6 +143,29 @@ describe('installer schedule', () => {
       ['this-week', ['Done Dairy', 'Today Toft']],
       ['later', ['Later Lane']],
     ]);
+  });
+
+  it('keeps a past due visit installed this week in view, as installed, with the past due visits', async () => {
+    const late = await book('Late Lodge', '2026-11-20');
+    const lateDone = await book('Mended Mill', '2026-11-18');
+    const thisWeek = await book('Today Toft', '2026-12-02');
+    expect((await mark(lateDone, await currentRowVersion('plans', lateDone))).status).toBe(200);
+    await installedAt(lateDone, '2026-12-02T09:30:00Z');
+
+    const visits = await listScheduledVisits(testDb(), '2026-12-02');
+    expect(visits.map((v) => [v.planId, v.state])).toEqual([
+      [lateDone, 'installed'],
+      [late, 'scheduled'],
+      [thisWeek, 'scheduled'],
+    ]);
+    const groups = groupVisits(visits, '2026-12-02');
+    expect(groups.map((g) => [g.group, g.visits.map((v) => v.customerName)])).toEqual([
+      ['past-due', ['Mended Mill', 'Late Lodge']],
+      ['this-week', ['Today Toft']],
+    ]);
+
+    // Once its week is over, the install leaves the schedule.
+    expect((await listScheduledVisits(testDb(), '2026-12-07')).map((v) => v.planId)).toEqual([late, thisWeek]);
   });
 
   it('filters customers by the state of their plans, and refuses an unknown state', async () => {

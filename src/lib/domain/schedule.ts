@@ -34,9 +34,14 @@ export function isPastDue(visit: VisitTiming, today: string): boolean {
   return visit.state === 'scheduled' && visit.scheduledFor < today;
 }
 
+/**
+ * The period a visit belongs to: past due while it waits after its day; an installed visit stays
+ * in the period it was due in (past due when that was before this week).
+ */
 export function getVisitGroup(visit: VisitTiming, today: string): VisitGroup {
-  if (isPastDue(visit, today)) return 'past-due';
-  return visit.scheduledFor <= getWeekOf(today).sunday ? 'this-week' : 'later';
+  const { monday, sunday } = getWeekOf(today);
+  if (isPastDue(visit, today) || visit.scheduledFor < monday) return 'past-due';
+  return visit.scheduledFor <= sunday ? 'this-week' : 'later';
 }
 
 /**

@@ -30,8 +30,9 @@ export interface ScheduledVisit {
 const num = (v: unknown) => (v === null || v === undefined ? null : Number(v));
 
 /**
- * Every scheduled plan (past due ones too), and the plans installed from this week's visits, so
- * the day's finished jobs stay in view until their install check is recorded.
+ * Every scheduled plan (past due ones too), and the installed plans that belong to the period on
+ * show: this week's visits, and visits due before this week that were installed this week (a past
+ * due job done today stays in view, as installed, so its install check can be recorded).
  */
 export async function listScheduledVisits(db: Tx, today: string): Promise<ScheduledVisit[]> {
   const { monday } = getWeekOf(today);
@@ -42,7 +43,13 @@ export async function listScheduledVisits(db: Tx, today: string): Promise<Schedu
     .leftJoin('operators as o', 'o.id', 'ce.operator_id')
     .leftJoin('antennas as a', 'a.id', 'p.antenna_id')
     .whereNotNull('p.scheduled_for')
-    .where((w) => w.where('p.state', 'scheduled').orWhere((i) => i.where('p.state', 'installed').where('p.scheduled_for', '>=', monday)))
+    .where((w) =>
+      w
+        .where('p.state', 'scheduled')
+        .orWhere((i) =>
+          i.where('p.state', 'installed').where((since) => since.where('p.scheduled_for', '>=', monday).orWhere('p.state_changed_at', '>=', monday)),
+        ),
+    )
     .orderBy([{ column: 'p.scheduled_for' }, { column: 'cu.name' }, { column: 'p.id' }])
     .select(
       'p.id',
