@@ -128,7 +128,7 @@ export const CELL_RADIO = (({ tech, band, channel, dl_mhz, pci, sector_azimuth_d
 );
 
 export type Cell = ValueOf<typeof CELL.fields>;
-export type CellJson = Omit<JsonOf<typeof CELL.fields>, 'operator_id'>; // operator_id is json: false (answered as `operator`)
+export type CellJson = JsonOf<typeof CELL.fields>;
 /** A checked cell: the band resolved and its downlink frequency (NaN when the channel is in no band). */
 export type CellInput = Omit<InputOf<typeof CELL.fields>, 'band'> & { band: string; dlMhz: number };
 

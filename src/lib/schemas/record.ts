@@ -11,7 +11,7 @@ export type Camel<S extends string> = S extends `${infer H}_${infer T}` ? `${H}$
 /** `sector_azimuth_deg` → `sectorAzimuthDeg`. */
 export const camel = <S extends string>(name: S): Camel<S> => name.replace(/_([a-z0-9])/g, (_, c: string) => c.toUpperCase()) as Camel<S>;
 
-export interface Field<T, J = T, I extends z.ZodTypeAny | undefined = z.ZodTypeAny | undefined, P extends boolean = boolean> {
+export interface Field<T, J = T, I extends z.ZodTypeAny | undefined = z.ZodTypeAny | undefined, P extends boolean = boolean, S extends boolean = boolean> {
   /** The zod type of the value in a create body; undefined: the server sets the field. */
   readonly input: I;
   /** A change body may set it (as an optional field of the same type). */
@@ -24,8 +24,8 @@ export interface Field<T, J = T, I extends z.ZodTypeAny | undefined = z.ZodTypeA
   readonly sql?: string;
   /** Listed in the audit view of the record. */
   readonly audit: boolean;
-  /** Shown in the JSON answer. */
-  readonly json: boolean;
+  /** Shown in the JSON answer (a literal, so that `JsonOf` leaves out a hidden field). */
+  readonly json: S;
   readonly fromRow: (stored: unknown) => T;
   readonly toJson: (value: T) => J;
   /** How the insert and patch store the value (default: as it is; e.g. a table as JSON text). */
@@ -33,11 +33,11 @@ export interface Field<T, J = T, I extends z.ZodTypeAny | undefined = z.ZodTypeA
 }
 
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
-type AnyField = Field<any, any, z.ZodTypeAny | undefined, boolean>;
+type AnyField = Field<any, any, z.ZodTypeAny | undefined, boolean, boolean>;
 export type Fields = Record<string, AnyField>;
 
-type ValueType<F> = F extends Field<infer T, infer _J, infer _I, infer _P> ? T : never;
-type JsonType<F> = F extends Field<infer _T, infer J, infer _I, infer _P> ? J : never;
+type ValueType<F> = F extends Field<infer T, infer _J, infer _I, infer _P, infer _S> ? T : never;
+type JsonType<F> = F extends Field<infer _T, infer J, infer _I, infer _P, infer _S> ? J : never;
 type InputKeys<F extends Fields> = { [K in keyof F & string]: F[K]['input'] extends z.ZodTypeAny ? K : never }[keyof F & string];
 type PatchKeys<F extends Fields> = { [K in InputKeys<F>]: F[K]['patch'] extends true ? K : never }[InputKeys<F>];
 type InputSchema<F extends Fields, K extends keyof F> = F[K]['input'] extends z.ZodTypeAny ? F[K]['input'] : never;
@@ -51,13 +51,12 @@ export type InputOf<F extends Fields> = { [K in InputKeys<F> as Camel<K>]: z.out
 /** A checked change body: a field left out is undefined. */
 export type ChangeOf<F extends Fields> = { [K in PatchKeys<F> as Camel<K>]: z.output<InputSchema<F, K>> | undefined };
 
-interface Options<P extends boolean> {
-  patch?: P;
+interface Options<S extends boolean> {
   column?: boolean;
   write?: boolean;
   sql?: string;
   audit?: boolean;
-  json?: boolean;
+  json?: S;
 }
 
 const asIs = <T>(v: unknown) => v as T;
@@ -65,29 +64,36 @@ const same = <T>(v: T) => v;
 
 /** A field a client writes: on create with `schema`, in a change as the same type made optional. Audited. */
 /** `fromRow` may give a narrower type than the body's (e.g. a band label the repo resolved). */
-function input<I extends z.ZodTypeAny, T = z.output<I>, J = T, P extends boolean = true>(
+function input<I extends z.ZodTypeAny, T = z.output<I>, J = T, P extends boolean = true, S extends boolean = true>(
   schema: I,
-  options: Options<P> & { fromRow?: (stored: unknown) => T; toJson?: (value: T) => J; toRow?: (value: T) => unknown } = {},
-): NoInfer<Field<T, J, I, P>> {
+  options: Options<S> & { patch?: P; fromRow?: (stored: unknown) => T; toJson?: (value: T) => J; toRow?: (value: T) => unknown } = {},
+): NoInfer<Field<T, J, I, P, S>> {
   const { fromRow = asIs<T>, toJson = same as (value: T) => J, ...rest } = options;
-  return { input: schema, patch: true as P, column: true, audit: true, json: true, write: true, ...rest, fromRow, toJson };
+  return { input: schema, patch: true as P, column: true, audit: true, json: true as S, write: true, ...rest, fromRow, toJson };
 }
 
+type ValueOptions<T, J> = Omit<Options<boolean>, 'json'> & {
+  fromRow?: (stored: unknown) => T;
+  toJson?: (value: T) => J;
+  toRow?: (value: T) => unknown;
+};
+
 /** A field the server keeps (row version, derived values), read and shown as stored unless told otherwise. */
-function value<T, J = T>(
-  options: Omit<Options<false>, 'patch'> & { fromRow?: (stored: unknown) => T; toJson?: (value: T) => J; toRow?: (value: T) => unknown } = {},
-): NoInfer<Field<T, J, undefined, false>> {
+// Two signatures, so that `field.value<string>({ json: false })` keeps the literal `false` with T given by hand.
+function value<T, J = T>(options: ValueOptions<T, J> & { json: false }): NoInfer<Field<T, J, undefined, false, false>>;
+function value<T, J = T>(options?: ValueOptions<T, J> & { json?: true }): NoInfer<Field<T, J, undefined, false, true>>;
+function value<T, J = T>(options: ValueOptions<T, J> & { json?: boolean } = {}): Field<T, J, undefined, false, boolean> {
   const { fromRow = asIs<T>, toJson = same as (value: T) => J, ...rest } = options;
   return { input: undefined, patch: false, column: true, audit: false, json: true, write: false, ...rest, fromRow, toJson };
 }
 
 function kept<T, J>(fromRow: (stored: unknown) => T, toJson: (value: T) => J) {
-  return (options: Omit<Options<false>, 'patch'> = {}): Field<T, J, undefined, false> => ({
+  return <S extends boolean = true>(options: Options<S> = {}): NoInfer<Field<T, J, undefined, false, S>> => ({
     input: undefined,
     patch: false,
     column: true,
     audit: false,
-    json: true,
+    json: true as S,
     write: false,
     ...options,
     fromRow,

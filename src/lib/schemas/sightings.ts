@@ -78,7 +78,7 @@ export const SIGHTING_CELL = defineRecord({
 });
 
 export type SightingCell = ValueOf<typeof SIGHTING_CELL.fields>;
-export type SightingCellJson = Omit<JsonOf<typeof SIGHTING_CELL.fields>, 'operator_id'>; // answered as `operator`
+export type SightingCellJson = JsonOf<typeof SIGHTING_CELL.fields>;
 /** A checked cell: the band resolved and its downlink frequency (NaN when the channel is in no band). */
 export type SightingCellInput = Omit<InputOf<typeof SIGHTING_CELL.fields>, 'band'> & { band: string; dlMhz: number };
 
@@ -120,9 +120,8 @@ export const SIGHTING_PHOTO = defineRecord({
 export type SightingPhoto = ValueOf<typeof SIGHTING_PHOTO.fields>;
 /** A photo stored before its sighting is written (keys into the photo storage). */
 export type NewSightingPhoto = Omit<SightingPhoto, 'id' | 'sightingId' | 'createdAt'>;
-/** The keys of the photo storage and the file's metadata stay on the server. */
-type HiddenPhotoFields = 'sighting_id' | 'original_name' | 'original_key' | 'display_key' | 'thumb_key' | 'gps_lat' | 'gps_lon' | 'created_at';
-export type SightingPhotoJson = Omit<JsonOf<typeof SIGHTING_PHOTO.fields>, HiddenPhotoFields> & {
+/** The keys of the photo storage and the file's metadata stay on the server (`json: false`). */
+export type SightingPhotoJson = JsonOf<typeof SIGHTING_PHOTO.fields> & {
   /** Re-encoded without metadata. */
   display_url: string;
   thumb_url: string;
