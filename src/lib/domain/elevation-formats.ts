@@ -1,8 +1,10 @@
 // The elevation file formats the admin page accepts, and its upload limit (no schema library here,
 // so the page loads little).
-export const ELEVATION_FORMATS = ['geotiff', 'hgt'] as const;
-export type ElevationFormat = (typeof ELEVATION_FORMATS)[number];
-export const ELEVATION_FORMAT_LABELS: Record<ElevationFormat, string> = { geotiff: 'GeoTIFF', hgt: 'SRTM .hgt' };
+import { defineChoices, type Choice } from './choices';
+
+export const ELEVATION_FORMAT = defineChoices(['geotiff', 'hgt'], { geotiff: 'GeoTIFF', hgt: 'SRTM .hgt' });
+export const { values: ELEVATION_FORMATS, labels: ELEVATION_FORMAT_LABELS } = ELEVATION_FORMAT;
+export type ElevationFormat = Choice<typeof ELEVATION_FORMAT>;
 
 /** Largest upload accepted, bytes. */
 export const MAX_ELEVATION_UPLOAD_BYTES = 100 * 1024 * 1024;

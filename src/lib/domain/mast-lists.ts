@@ -1,18 +1,13 @@
 // The fixed lists of the mast map: statuses, structure types and radio technologies, with the
 // words shown for them (no schema library here, so pages that only show them load little).
 import type { RadioTech } from './channels';
+import { defineChoices, type Choice } from './choices';
 
-export const MAST_STATUSES = ['active', 'planned', 'decommissioned'] as const;
-export type MastStatus = (typeof MAST_STATUSES)[number];
-export const MAST_STATUS_LABELS: Record<MastStatus, string> = {
-  active: 'Active',
-  planned: 'Planned',
-  decommissioned: 'Decommissioned',
-};
+export const MAST_STATUS = defineChoices(['active', 'planned', 'decommissioned'], { active: 'Active', planned: 'Planned', decommissioned: 'Decommissioned' });
+export const { values: MAST_STATUSES, labels: MAST_STATUS_LABELS } = MAST_STATUS;
+export type MastStatus = Choice<typeof MAST_STATUS>;
 
-export const STRUCTURE_TYPES = ['lattice_tower', 'monopole', 'guyed_mast', 'rooftop', 'pole', 'water_tower', 'other'] as const;
-export type StructureType = (typeof STRUCTURE_TYPES)[number];
-export const STRUCTURE_TYPE_LABELS: Record<StructureType, string> = {
+export const STRUCTURE_TYPE = defineChoices(['lattice_tower', 'monopole', 'guyed_mast', 'rooftop', 'pole', 'water_tower', 'other'], {
   lattice_tower: 'Lattice tower',
   monopole: 'Monopole',
   guyed_mast: 'Guyed mast',
@@ -20,7 +15,9 @@ export const STRUCTURE_TYPE_LABELS: Record<StructureType, string> = {
   pole: 'Pole',
   water_tower: 'Water tower',
   other: 'Other',
-};
+});
+export const { values: STRUCTURE_TYPES, labels: STRUCTURE_TYPE_LABELS } = STRUCTURE_TYPE;
+export type StructureType = Choice<typeof STRUCTURE_TYPE>;
 
 /** Technologies in display order (oldest first). */
 export const TECHS = ['gsm', 'umts', 'lte', 'nr'] as const satisfies readonly RadioTech[];

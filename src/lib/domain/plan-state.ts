@@ -4,21 +4,17 @@
  * readings per PCI against the predicted gain; the prediction is Bearline's own model in shortlist.ts).
  */
 import { can, type Permission, type Role } from './roles';
+import { defineChoices, type Choice } from './choices';
 
-export const PLAN_STATES = ['enquiry', 'planned', 'scheduled', 'installed', 'verified'] as const;
-export type PlanState = (typeof PLAN_STATES)[number];
-
-export const PLAN_STATE_LABELS: Record<PlanState, string> = {
+export const PLAN_STATE = defineChoices(['enquiry', 'planned', 'scheduled', 'installed', 'verified'], {
   enquiry: 'Enquiry',
   planned: 'Planned',
   scheduled: 'Scheduled',
   installed: 'Installed',
   verified: 'Verified',
-};
-
-export function isPlanState(value: unknown): value is PlanState {
-  return typeof value === 'string' && (PLAN_STATES as readonly string[]).includes(value);
-}
+});
+export const { values: PLAN_STATES, labels: PLAN_STATE_LABELS, is: isPlanState } = PLAN_STATE;
+export type PlanState = Choice<typeof PLAN_STATE>;
 
 // One step forward at a time. Back-steps cover the usual turns of a job: the customer wants
 // another option (planned → enquiry), the visit is called off (scheduled → planned), the

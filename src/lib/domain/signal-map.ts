@@ -2,12 +2,13 @@
 // one grid per level, the level following the map zoom. The grid is PostGIS's ST_Hexagon layout
 // (flat-topped hexagons, edge `size`, origin 0,0: hexagon i, j has its centre at x = 1.5·size·i,
 // y = √3·size·(j + ½ when i is odd)), so the database can draw any hexagon from its i, j alone.
+import { defineChoices, type Choice } from './choices';
 import { getGradeBands, type GradeBand, type GradedQuantity, type SignalGrade } from './measurements';
 
-export const SIGNAL_METRICS = ['rsrp', 'rsrq', 'sinr'] as const satisfies readonly GradedQuantity[];
-export type SignalMetric = (typeof SIGNAL_METRICS)[number];
+export const SIGNAL_METRIC = defineChoices(['rsrp', 'rsrq', 'sinr'] as const satisfies readonly GradedQuantity[], { rsrp: 'RSRP', rsrq: 'RSRQ', sinr: 'SINR' });
+export const { values: SIGNAL_METRICS, labels: SIGNAL_METRIC_LABELS } = SIGNAL_METRIC;
+export type SignalMetric = Choice<typeof SIGNAL_METRIC>;
 
-export const SIGNAL_METRIC_LABELS: Record<SignalMetric, string> = { rsrp: 'RSRP', rsrq: 'RSRQ', sinr: 'SINR' };
 export const SIGNAL_METRIC_UNITS: Record<SignalMetric, 'dBm' | 'dB'> = { rsrp: 'dBm', rsrq: 'dB', sinr: 'dB' };
 
 /** Hexagons holding fewer readings than this (of the metric shown) are drawn faint: their median says little. */

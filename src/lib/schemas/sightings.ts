@@ -5,28 +5,26 @@ import { z } from 'zod';
 import { getMeasurementRange, type MeasurementKind } from '../domain/measurements';
 import { CELL, CELL_RADIO, LatSchema, LonSchema, OperatorIdSchema, type OperatorRef } from './masts';
 import { BboxSchema } from './mast-query';
-import { STRUCTURE_TYPE_LABELS, type StructureType, type Tech } from './mast-enums';
+import { type Tech } from './mast-enums';
+import { STRUCTURE_TYPE } from '../domain/mast-lists';
+import { defineChoices, type Choice } from '../domain/choices';
 import { checkRadio } from './radio';
 import { enumOf, idParam, numberField, optionalText, pageParams } from './params';
 import { defineRecord, field, orNull, type InputOf, type JsonOf, type ValueOf } from './record';
 
-export const SIGHTING_STATUSES = ['pending', 'approved', 'merged', 'rejected'] as const;
-export type SightingStatus = (typeof SIGHTING_STATUSES)[number];
-export const SIGHTING_STATUS_LABELS: Record<SightingStatus, string> = {
+export const SIGHTING_STATUS = defineChoices(['pending', 'approved', 'merged', 'rejected'], {
   pending: 'Waiting for review',
   approved: 'Approved as a new mast',
   merged: 'Merged into a mast',
   rejected: 'Rejected',
-};
+});
+export const { values: SIGHTING_STATUSES, labels: SIGHTING_STATUS_LABELS } = SIGHTING_STATUS;
+export type SightingStatus = Choice<typeof SIGHTING_STATUS>;
 
-/** The structures a surveyor chooses from (a subset of the mast structure types). */
-export const SIGHTING_STRUCTURE_TYPES = ['lattice_tower', 'monopole', 'rooftop', 'water_tower', 'other'] as const satisfies readonly StructureType[];
-export type SightingStructureType = (typeof SIGHTING_STRUCTURE_TYPES)[number];
-/** The mast's own words for each. */
-export const SIGHTING_STRUCTURE_LABELS = Object.fromEntries(SIGHTING_STRUCTURE_TYPES.map((t) => [t, STRUCTURE_TYPE_LABELS[t]])) as Record<
-  SightingStructureType,
-  string
->;
+/** The structures a surveyor chooses from (a subset of the mast structure types, with the mast's own words). */
+export const SIGHTING_STRUCTURE = STRUCTURE_TYPE.pick(['lattice_tower', 'monopole', 'rooftop', 'water_tower', 'other']);
+export const { values: SIGHTING_STRUCTURE_TYPES, labels: SIGHTING_STRUCTURE_LABELS } = SIGHTING_STRUCTURE;
+export type SightingStructureType = Choice<typeof SIGHTING_STRUCTURE>;
 
 /** Where the position came from: a photo's GPS tags, the device's location, or a click on the map. */
 export const POSITION_SOURCES = ['photo', 'device', 'map'] as const;
