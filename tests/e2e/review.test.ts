@@ -5,7 +5,7 @@ import { randomUUID } from 'node:crypto';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
-import { APP_URL, demoEmail, launchBrowser, signIn, watchOutsideRequests } from '../helpers/browser';
+import { APP_URL, demoEmail, launchBrowser, signIn, waitForIslands, watchOutsideRequests } from '../helpers/browser';
 import { appFetch, signInCookie } from '../helpers/app';
 import { waitForMailTo } from '../helpers/mail';
 
@@ -149,6 +149,7 @@ describe('accounts by e-mail in the browser', () => {
     const email = `forgetful.${Date.now().toString(36)}@example.test`;
     const page = await browser.newPage({ viewport: { width: 390, height: 844 } });
     await page.goto(`${APP_URL}/signup`);
+    await waitForIslands(page);
     await page.fill('#su-name', 'Ovid Reth');
     await page.fill('#su-email', email);
     await page.fill('#su-password', 'the first long password');
@@ -161,12 +162,15 @@ describe('accounts by e-mail in the browser', () => {
     await page.waitForURL(/\/login/);
 
     await page.getByRole('link', { name: 'Forgotten your password?' }).click();
+    await page.waitForURL(/\/forgot/);
+    await waitForIslands(page);
     await page.fill('#fg-email', email);
     await page.getByRole('button', { name: 'Send me a link' }).click();
     await expect(page.getByTestId('form-notice').innerText()).resolves.toMatch(/If an account uses that address/);
     const mails = await waitForMailTo(email, 2);
     const link = /(https?:\/\/\S+\/reset\?token=[\w-]+)/.exec(mails[1]!.text)![1]!;
     await page.goto(link);
+    await waitForIslands(page);
     await page.fill('#sp-password', 'short');
     await page.getByRole('button', { name: 'Save the new password' }).click();
     await expect(page.locator('#sp-password-error').innerText()).resolves.toMatch(/At least 12 characters/);

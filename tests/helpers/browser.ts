@@ -28,6 +28,14 @@ export async function signIn(page: Page, email: string, password = DEMO_PASSWORD
   await Promise.all([page.waitForURL((u) => !u.pathname.startsWith('/login') || u.searchParams.has('error')), page.click('button[type=submit]')]);
 }
 
+/**
+ * Waits until every island on the page has hydrated (Astro drops the `ssr` attribute then), so
+ * that what a test types is not reset by React taking over the server-rendered inputs.
+ */
+export async function waitForIslands(page: Page): Promise<void> {
+  await page.waitForFunction(() => document.querySelectorAll('astro-island[ssr]').length === 0);
+}
+
 /** Records every request that leaves 127.0.0.1 / localhost. */
 export function watchOutsideRequests(page: Page): string[] {
   const outside: string[] = [];
