@@ -1,8 +1,9 @@
 // The review queue and a reviewer's decision on a sighting: schemas shared by the endpoint and
 // the review page, and the JSON shapes the API returns.
 import { z } from 'zod';
-import type { CellJson, MastJson, MastPlaceJson } from './masts';
-import type { SightingJson } from './sightings';
+import { MAST_PLACE, type Cell, type CellJson, type Mast, type MastJson, type MastPlace, type MastPlaceJson } from './masts';
+import { cellJson, mastJson } from './mast-responses';
+import { sightingJson, type Sighting, type SightingJson } from './sightings';
 import { IdRefSchema, enumOf, optionalText, pageParams } from './params';
 
 export const DECISIONS = ['approve', 'merge', 'reject'] as const;
@@ -38,13 +39,14 @@ export const ReviewQueueQuerySchema = z.object({ ...pageParams });
 
 // --- JSON ------------------------------------------------------------------------------------------
 
-/** How a submitter's earlier sightings fared. */
-export interface SubmitterRecordJson {
+/** How a submitter's earlier sightings fared (the same in JSON). */
+export interface SubmitterRecord {
   approved: number;
   merged: number;
   rejected: number;
   pending: number;
 }
+export type SubmitterRecordJson = SubmitterRecord;
 
 export type CandidateMastJson = MastPlaceJson;
 
@@ -75,3 +77,54 @@ export interface DecisionResultJson {
   added_cells: number;
   observed_cells: number;
 }
+
+// --- Records and their JSON ------------------------------------------------------------------------
+
+/** An existing mast near a sighting, as the repo reads it. */
+export interface DuplicateCandidate {
+  mast: MastPlace;
+  distanceM: number;
+  sharedCells: number;
+  cells: Cell[];
+}
+
+export interface ReviewItem {
+  sighting: Sighting;
+  submitter: SubmitterRecord;
+  candidates: DuplicateCandidate[];
+}
+
+/** What a decision did: the sighting as decided, the mast made or merged into, the cells added and confirmed. */
+export interface DecisionResult {
+  sighting: Sighting;
+  mast: Mast | null;
+  addedCells: Cell[];
+  observedCells: number;
+}
+
+export const duplicateCandidateJson = (c: DuplicateCandidate): DuplicateCandidateJson => ({
+  mast: MAST_PLACE.toJson(c.mast),
+  distance_m: Math.round(c.distanceM * 10) / 10,
+  shared_cells: c.sharedCells,
+  cells: c.cells.map(cellJson),
+});
+
+/** A reviewer sees the photos' originals. */
+export const reviewItemJson = (i: ReviewItem): ReviewItemJson => ({
+  sighting: sightingJson(i.sighting, { withOriginals: true }),
+  submitter: i.submitter,
+  candidates: i.candidates.map(duplicateCandidateJson),
+});
+
+export const reviewQueueJson = (queue: { items: ReviewItem[]; total: number }, radiusM: number): ReviewQueueJson => ({
+  items: queue.items.map(reviewItemJson),
+  total: queue.total,
+  radius_m: radiusM,
+});
+
+export const decisionResultJson = (r: DecisionResult): DecisionResultJson => ({
+  sighting: sightingJson(r.sighting, { withOriginals: true }),
+  mast: r.mast ? mastJson(r.mast) : null,
+  added_cells: r.addedCells.length,
+  observed_cells: r.observedCells,
+});

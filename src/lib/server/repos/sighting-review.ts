@@ -6,15 +6,14 @@ import type { Tx } from '../db';
 import { DUPLICATE_RADIUS_M, rankDuplicates, splitForMerge, type CellIdentity } from '../../domain/duplicates';
 import { CellInputSchema, MAST_PLACE, MastInputSchema, type Mast, type MastPlace } from '../../schemas/masts';
 import { STRUCTURE_TYPE_LABELS } from '../../schemas/mast-enums';
-import type { DecisionInput, DuplicateCandidateJson, ReviewItemJson, SubmitterRecordJson } from '../../schemas/review';
+import type { DecisionInput, DecisionResult, DuplicateCandidate, ReviewItem, SubmitterRecord } from '../../schemas/review';
 import { SIGHTING_STATUS_LABELS, type SightingStatus } from '../../schemas/sightings';
 import { ConflictError, NotFoundError, ValidationError } from '../errors';
 import { recordAudit } from './audit';
 import { recordColumns } from './record-sql';
 import { createCell, listCellsForMast, updateCell, type Cell } from './cells';
 import { createMast, markMastConfirmed } from './masts';
-import { cellJson } from '../../schemas/mast-responses';
-import { sightingAuditView as auditView, sightingJson } from '../../schemas/sightings';
+import { sightingAuditView as auditView } from '../../schemas/sightings';
 import { findSighting, listSightings, type Sighting, type SightingCell } from './sightings';
 
 type NearbyMast = MastPlace & { distanceM: number };
@@ -42,7 +41,7 @@ const identity = (c: { operator: { id: string }; tech: string; channel: number; 
 });
 
 /** Existing masts the sighting may be a second report of, ranked by shared cells and distance. */
-export async function listDuplicateCandidates(db: Tx, sighting: Sighting, radiusM = DUPLICATE_RADIUS_M): Promise<DuplicateCandidateJson[]> {
+export async function listDuplicateCandidates(db: Tx, sighting: Sighting, radiusM = DUPLICATE_RADIUS_M): Promise<DuplicateCandidate[]> {
   const nearby = await listNearbyMasts(db, sighting.lat, sighting.lon, radiusM);
   const withCells = await Promise.all(
     nearby.map(async (m) => {
@@ -51,20 +50,17 @@ export async function listDuplicateCandidates(db: Tx, sighting: Sighting, radius
     }),
   );
   const ranked = rankDuplicates(sighting.cells.map(identity), withCells, radiusM);
-  return ranked.map((r) => {
-    const m = withCells.find((w) => w.mastId === r.mastId)!.row;
-    return {
-      mast: MAST_PLACE.toJson(m),
-      distance_m: Math.round(r.distanceM * 10) / 10,
-      shared_cells: r.sharedCells,
-      cells: r.cells.map((c) => cellJson(c.cell)),
-    };
-  });
+  return ranked.map((r) => ({
+    mast: withCells.find((w) => w.mastId === r.mastId)!.row,
+    distanceM: r.distanceM,
+    sharedCells: r.sharedCells,
+    cells: r.cells.map((c) => c.cell),
+  }));
 }
 
 /** Sightings per status for each author. */
-export async function listSubmitterRecords(db: Tx, authorIds: string[]): Promise<Map<string, SubmitterRecordJson>> {
-  const out = new Map<string, SubmitterRecordJson>();
+export async function listSubmitterRecords(db: Tx, authorIds: string[]): Promise<Map<string, SubmitterRecord>> {
+  const out = new Map<string, SubmitterRecord>();
   if (authorIds.length === 0) return out;
   const rows = (await db('sightings')
     .whereIn('author_id', [...new Set(authorIds)])
@@ -84,7 +80,7 @@ export async function listSubmitterRecords(db: Tx, authorIds: string[]): Promise
 }
 
 /** Pending sightings, oldest first, each with its possible duplicates and its submitter's record. */
-export async function listReviewQueue(db: Tx, page: { limit: number; offset: number }): Promise<{ items: ReviewItemJson[]; total: number }> {
+export async function listReviewQueue(db: Tx, page: { limit: number; offset: number }): Promise<{ items: ReviewItem[]; total: number }> {
   const { items, total } = await listSightings(db, { status: 'pending', oldestFirst: true, limit: page.limit, offset: page.offset });
   const records = await listSubmitterRecords(
     db,
@@ -92,7 +88,7 @@ export async function listReviewQueue(db: Tx, page: { limit: number; offset: num
   );
   const out = await Promise.all(
     items.map(async (s) => ({
-      sighting: sightingJson(s, { withOriginals: true }),
+      sighting: s,
       submitter: records.get(s.author.id) ?? { approved: 0, merged: 0, rejected: 0, pending: 0 },
       candidates: await listDuplicateCandidates(db, s),
     })),
@@ -100,12 +96,7 @@ export async function listReviewQueue(db: Tx, page: { limit: number; offset: num
   return { items: out, total };
 }
 
-export interface DecisionResult {
-  sighting: Sighting;
-  mast: Mast | null;
-  addedCells: Cell[];
-  observedCells: number;
-}
+export type { DecisionResult };
 
 function cellInput(c: SightingCell, observedAt: Date) {
   return CellInputSchema.parse({

@@ -1,11 +1,9 @@
 import { getDb } from '../../../../lib/server/db';
 import { handler, json, parseBody, parseWith, requirePermission } from '../../../../lib/server/http';
 import { decideSighting } from '../../../../lib/server/repos/sighting-review';
-import { sightingJson } from '../../../../lib/schemas/sightings';
-import { mastJson } from '../../../../lib/schemas/mast-responses';
 import { notifySubmitter } from '../../../../lib/server/review-mail';
 import { linkOrigin } from '../../../../lib/server/accounts';
-import { DecisionSchema, type DecisionResultJson } from '../../../../lib/schemas/review';
+import { DecisionSchema, decisionResultJson } from '../../../../lib/schemas/review';
 import { IdParamSchema } from '../../../../lib/schemas/params';
 
 /**
@@ -19,11 +17,5 @@ export const POST = handler(async ({ locals, params, request, url }) => {
   const input = await parseBody(DecisionSchema, request);
   const result = await getDb().transaction((trx) => decideSighting(trx, id, input, actor.id));
   await notifySubmitter(getDb(), result, linkOrigin(url));
-  const body: DecisionResultJson = {
-    sighting: sightingJson(result.sighting, { withOriginals: true }),
-    mast: result.mast ? mastJson(result.mast) : null,
-    added_cells: result.addedCells.length,
-    observed_cells: result.observedCells,
-  };
-  return json(body);
+  return json(decisionResultJson(result));
 });
