@@ -1,6 +1,6 @@
 import { beforeEach, describe, expect, it } from 'vitest';
 import { GET as getSummary } from '../../src/pages/api/regions/[id]/summary';
-import { listRegionCounts } from '../../src/lib/server/repos/region-summary';
+import { listRegionCounts } from '../../src/lib/server/repos/region-counts';
 import { RegionSummarySchema } from '../../src/lib/schemas/region-summary';
 import { call } from '../helpers/endpoint';
 import { testDb, truncateAll } from '../helpers/db';

@@ -8,7 +8,6 @@ import {
   REGION_GAP_LIST_LIMIT,
   REGION_SIGHTING_LIST_LIMIT,
   type CoverageGapJson,
-  type RegionCountsJson,
   type RegionSummaryJson,
   type SightingRefJson,
 } from '../../schemas/region-summary';
@@ -219,29 +218,4 @@ export async function getRegionSummary(db: Tx, id: string, viewer: RegionViewer)
     sightings,
     customers,
   };
-}
-
-/** Every region with its key counts, by name. Readings at customers' homes and customers only for `seesCustomers`. */
-export async function listRegionCounts(db: Tx, viewer: Pick<RegionViewer, 'seesCustomers'>): Promise<RegionCountsJson[]> {
-  const homes = viewer.seesCustomers ? '' : 'AND x.install_check_id IS NULL';
-  const customers = viewer.seesCustomers ? '(SELECT count(*) FROM customers cu WHERE ST_Intersects(cu.geom, g.geom))::int' : 'NULL::int';
-  const found = await rows<{ id: string; name: string; area_km2: number; masts: number; cells: number; readings: number; customers: number | null }>(
-    db,
-    `SELECT g.id, g.name, ST_Area(g.geom::geography) / 1e6 AS area_km2,
-            (SELECT count(*) FROM masts m WHERE ST_Intersects(m.geom, g.geom))::int AS masts,
-            (SELECT coalesce(sum(s.cell_count), 0) FROM mast_cell_summaries s JOIN masts m ON m.id = s.mast_id WHERE ST_Intersects(m.geom, g.geom))::int AS cells,
-            (SELECT count(*) FROM readings x WHERE ST_Intersects(x.geom, g.geom) ${homes})::int AS readings,
-            ${customers} AS customers
-       FROM regions g ORDER BY g.name, g.id`,
-    [],
-  );
-  return found.map((r) => ({
-    id: String(r.id),
-    name: r.name,
-    area_km2: Math.round(r.area_km2 * 100) / 100,
-    masts: r.masts,
-    cells: r.cells,
-    readings: r.readings,
-    customers: r.customers,
-  }));
 }
