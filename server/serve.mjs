@@ -74,6 +74,20 @@ function preferredEncoding(accept, file) {
   return null;
 }
 
+/**
+ * Starts the app's own work (job queue, periodic jobs, change feed, shortlist warm-up) as soon as the
+ * worker listens, instead of on its first request: Astro loads the middleware module, which sets the
+ * hook (src/lib/server/process-start.ts), only when a request needs it. Health checks are answered
+ * meanwhile; without the module or hook, the first request starts the work as before.
+ */
+async function startAppWork() {
+  const middleware = join(DIST, 'server', '_astro-internal_middleware.mjs');
+  if (!existsSync(middleware)) return;
+  await import(pathToFileURL(middleware).href);
+  const start = globalThis[Symbol.for('bearline.startProcessWork')];
+  if (typeof start === 'function') start();
+}
+
 function startWorker() {
   process.env.ASTRO_NODE_AUTOSTART = 'disabled';
   return import(pathToFileURL(join(DIST, 'server', 'entry.mjs')).href).then(({ handler }) => {
@@ -111,6 +125,7 @@ function startWorker() {
     server.keepAliveTimeout = 65_000;
     server.listen(PORT, HOST, () => {
       if (!cluster.isWorker) log(`listening on http://${HOST}:${PORT}`);
+      startAppWork().catch((err) => console.error('[bearline] start-up work failed', err));
     });
     const stop = () => {
       server.close(() => process.exit(0));

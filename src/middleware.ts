@@ -3,16 +3,11 @@ import type { APIContext } from 'astro';
 import { AppError, ForbiddenError, type ErrorCode } from './lib/server/errors';
 import { lucia, setSessionCookie } from './lib/server/auth';
 import { validateSessionCached } from './lib/server/session-cache';
-import { startChangeFeed } from './lib/server/change-feed';
 import { noteLocalWrite } from './lib/server/write-epoch';
 import { errorResponse } from './lib/server/http';
 import { isForeignWrite } from './lib/server/origin';
-import { config } from './lib/server/config';
-import { getDb } from './lib/server/db';
-import { startResidualJob } from './lib/server/residual-job';
-import { startBackgroundWork } from './lib/server/background';
-import { warmShortlist } from './lib/server/shortlist-warmup';
-import { startJobQueueInBackground } from './lib/server/jobs/runtime';
+import { startProcessWork } from './lib/server/process-start';
+import { rememberRequestOrigin } from './lib/server/background';
 import { DATABASE_UNAVAILABLE_MESSAGE, isDatabaseUnavailable } from './lib/server/db-errors';
 import { allowedApiMethods, methodNotAllowed, PAGE_METHODS } from './lib/server/methods';
 import { API_CSP, COMMON_HEADERS, contentSecurityPolicy, inlineScriptHashes, mutable } from './lib/server/security-headers';
@@ -22,16 +17,11 @@ const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
 const isApiPath = (pathname: string) => pathname === '/api' || pathname.startsWith('/api/');
 
 export const onRequest = defineMiddleware(async (context, next) => {
-  // Stores model residuals for new or changed readings in the background (once per process).
-  if (config.databaseUrl) startResidualJob(getDb(), config.dataDir);
-  // Elevation grids in memory and the shortlist's code run once, before the first planner asks.
-  if (config.databaseUrl) void warmShortlist();
-  // Tells reviewers that sightings wait (at most hourly each; once per process).
-  if (config.databaseUrl) startBackgroundWork(context.url.origin);
-  // The job queue and this instance's workers (imports), once per process.
-  startJobQueueInBackground();
-  // Data versions and session changes pushed by PostgreSQL, once per process.
-  startChangeFeed(config.databaseUrl);
+  // Job queue, periodic work, change feed and shortlist warm-up: started by server/serve.mjs when the
+  // process starts; here only the first time for a server started otherwise (astro dev). No-op after.
+  startProcessWork();
+  // Links in reviewer alerts point where requests come, unless PUBLIC_ORIGIN says otherwise.
+  rememberRequestOrigin(context.url.origin);
   const api = isApiPath(context.url.pathname);
   const response = await answer(context, next, api);
   return secure(response, api);

@@ -107,27 +107,16 @@ export async function refreshResiduals(db: Knex, options: ResidualJobOptions): P
   return done;
 }
 
-/** Lock id for the background loop, so one app process at a time does the work. */
+/** Lock id of a round, so one at a time does the work (the benchmark may run the job itself). */
 const RESIDUAL_JOB_LOCK = 0x6265_6172; // 'bear'
-const INTERVAL_MS = 10_000;
-let started = false;
 
-/** Starts the background loop in this process (once); each round does a few batches under a lock. */
-export function startResidualJob(db: Knex, dataDir: string): void {
-  if (started) return;
-  started = true;
-  // RESIDUAL_JOB=off leaves the work to someone else (the benchmark runs the job itself).
-  if (process.env.RESIDUAL_JOB === 'off') return;
-  const round = async () => {
-    try {
-      await db.transaction(async (trx) => {
-        const { rows } = await trx.raw<{ rows: Array<{ got: boolean }> }>('SELECT pg_try_advisory_xact_lock(?) AS got', [RESIDUAL_JOB_LOCK]);
-        if (rows[0]?.got) await refreshResiduals(trx, { dataDir, maxBatches: 5 });
-      });
-    } catch (err) {
-      console.error('[bearline] residual job round failed', err instanceof Error ? err.message : err);
-    }
-  };
-  const timer = setInterval(round, INTERVAL_MS);
-  timer.unref();
+/**
+ * One round of the background job: a few batches under a lock, skipped while another round holds it.
+ * Run every 10 s by one app instance (background.ts). Returns the readings done.
+ */
+export async function runResidualRound(db: Knex, dataDir: string): Promise<number> {
+  return db.transaction(async (trx) => {
+    const { rows } = await trx.raw<{ rows: Array<{ got: boolean }> }>('SELECT pg_try_advisory_xact_lock(?) AS got', [RESIDUAL_JOB_LOCK]);
+    return rows[0]?.got ? refreshResiduals(trx, { dataDir, maxBatches: 5 }) : 0;
+  });
 }

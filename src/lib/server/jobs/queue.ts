@@ -47,16 +47,19 @@ export async function createBoss(connectionString: string, options: Partial<PgBo
   const boss = new PgBoss({ connectionString, max: 4, application_name: 'bearline-jobs', ...options });
   boss.on('error', (err) => console.error('[bearline] job queue', err instanceof Error ? err.message : err));
   await boss.start();
-  for (const queue of Object.values(QUEUES)) {
-    if (await boss.getQueue(queue.name)) continue;
-    try {
-      await boss.createQueue(queue.name, queue);
-    } catch (err) {
-      // Another instance created it at the same moment.
-      if (!(await boss.getQueue(queue.name))) throw err;
-    }
-  }
+  for (const queue of Object.values(QUEUES)) await ensureQueue(boss, queue);
   return boss;
+}
+
+/** Creates the queue with these options unless it exists (any instance may be first). */
+export async function ensureQueue(boss: PgBoss, queue: PgBoss.Queue): Promise<void> {
+  if (await boss.getQueue(queue.name)) return;
+  try {
+    await boss.createQueue(queue.name, queue);
+  } catch (err) {
+    // Another instance created it at the same moment.
+    if (!(await boss.getQueue(queue.name))) throw err;
+  }
 }
 
 /**

@@ -1,17 +1,17 @@
-// The app's job queue and workers: started once per process, on the first request (every app
-// instance works jobs; the start script's health check makes that happen at start-up).
+// The app's job queue and workers: started once per process (server/serve.mjs starts them when the
+// process starts, see process-start.ts; otherwise the first request does). Every app instance works
+// jobs; the periodic ones (background.ts) run once per period whatever the number of instances.
 import type PgBoss from 'pg-boss';
 import { config } from '../config';
 import { getDb } from '../db';
 import { readingsImportHandler } from '../readings-import';
 import { requestSignalHexesRefresh, signalHexesHandler } from '../signal-hexes-job';
+import { backgroundJobs, knownOrigin } from '../background';
 import { createBoss, READINGS_IMPORT_QUEUE, SIGNAL_HEXES_QUEUE, startWorkers, type JobHandler } from './queue';
-
-/** How often each instance looks for readings changed outside an import (install checks, deletes). */
-const SIGNAL_CHECK_MS = 10_000;
+import { startPeriodicJobs, type PeriodicJobs } from './periodic';
 
 let booting: Promise<PgBoss> | null = null;
-let signalTimer: ReturnType<typeof setInterval> | null = null;
+let periodic: Promise<PeriodicJobs | null> | null = null;
 
 const logFailure = (what: string) => (err: unknown) => console.error(`[bearline] ${what}`, err instanceof Error ? err.message : err);
 
@@ -30,10 +30,6 @@ export function getJobQueue(): Promise<PgBoss> {
         return outcome;
       };
       await startWorkers(db, boss, { [READINGS_IMPORT_QUEUE]: importThenRefresh, [SIGNAL_HEXES_QUEUE]: signalHexesHandler(db) });
-      const check = () => void requestSignalHexesRefresh(db, boss).catch(logFailure('signal map check failed'));
-      check();
-      signalTimer = setInterval(check, SIGNAL_CHECK_MS);
-      signalTimer.unref();
       return boss;
     })();
     booting.catch((err) => {
@@ -44,16 +40,33 @@ export function getJobQueue(): Promise<PgBoss> {
   return booting;
 }
 
-/** Starts the queue in the background (from the middleware), never failing a request. */
-export function startJobQueueInBackground(): void {
-  if (!booting && config.databaseUrl) getJobQueue().catch(() => undefined);
+/** Starts the queue and this instance's share of the periodic work, once per process, never failing a request. */
+export function startBackgroundWork(): void {
+  if (periodic || !config.databaseUrl) return;
+  periodic = getJobQueue()
+    .then((boss) =>
+      startPeriodicJobs(
+        boss,
+        backgroundJobs(getDb(), boss, {
+          dataDir: config.dataDir,
+          residuals: process.env.RESIDUAL_JOB !== 'off',
+          origin: () => knownOrigin(config.publicOrigin),
+        }),
+      ),
+    )
+    .catch((err) => {
+      logFailure('background work did not start')(err);
+      periodic = null;
+      return null;
+    });
 }
 
-/** Stops this instance's workers and the queue's connections (tests, shutdown). */
+/** Stops this instance's workers, periodic work and the queue's connections (tests, shutdown). */
 export async function stopJobQueue(): Promise<void> {
   const current = booting;
+  const work = periodic;
   booting = null;
-  if (signalTimer) clearInterval(signalTimer);
-  signalTimer = null;
+  periodic = null;
+  await (await work)?.stop();
   if (current) await (await current.catch(() => null))?.stop({ graceful: false, wait: true });
 }
