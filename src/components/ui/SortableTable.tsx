@@ -1,12 +1,9 @@
 import { useMemo, useState, type ReactNode } from 'react';
+import { DataTable, type TableColumn } from './DataTable';
 
-export interface Column<T> {
-  key: string;
-  label: string;
+export interface Column<T> extends TableColumn<T> {
   /** Value used for sorting; columns without it are not sortable. */
   sortValue?: (row: T) => string | number | null;
-  render: (row: T) => ReactNode;
-  className?: string;
 }
 
 interface Props<T> {
@@ -39,52 +36,26 @@ export function SortableTable<T>({ rows, columns, rowKey, initialSort, empty, ca
   const toggle = (key: string) => setSort((s) => (s?.key === key ? { key, dir: s.dir === 'asc' ? 'desc' : 'asc' } : { key, dir: 'asc' }));
 
   return (
-    <div className="overflow-x-auto">
-      <table className="data-table stack">
-        {caption && <caption className="sr-only">{caption}</caption>}
-        <thead>
-          <tr>
-            {columns.map((c) => (
-              <th
-                key={c.key}
-                scope="col"
-                className={c.className}
-                aria-sort={sort?.key === c.key ? (sort.dir === 'asc' ? 'ascending' : 'descending') : undefined}
-              >
-                {c.sortValue ? (
-                  <button type="button" className="inline-flex items-center gap-1 font-semibold" onClick={() => toggle(c.key)}>
-                    {c.label}
-                    <span aria-hidden="true" className="text-ink-400">
-                      {sort?.key === c.key ? (sort.dir === 'asc' ? '▲' : '▼') : '↕'}
-                    </span>
-                  </button>
-                ) : (
-                  c.label
-                )}
-              </th>
-            ))}
-          </tr>
-        </thead>
-        <tbody>
-          {sorted.length === 0 ? (
-            <tr>
-              <td colSpan={columns.length} className="py-6 text-center text-ink-500">
-                {empty ?? 'Nothing to show'}
-              </td>
-            </tr>
-          ) : (
-            sorted.map((row) => (
-              <tr key={rowKey(row)} className={rowClassName?.(row)}>
-                {columns.map((c) => (
-                  <td key={c.key} className={c.className} data-label={c.label}>
-                    {c.render(row)}
-                  </td>
-                ))}
-              </tr>
-            ))
-          )}
-        </tbody>
-      </table>
-    </div>
+    <DataTable
+      rows={sorted}
+      columns={columns}
+      rowKey={rowKey}
+      caption={caption}
+      empty={empty ?? 'Nothing to show'}
+      rowClassName={rowClassName}
+      headerProps={(c) => ({ 'aria-sort': sort?.key === c.key ? (sort.dir === 'asc' ? 'ascending' : 'descending') : undefined })}
+      header={(c) =>
+        c.sortValue ? (
+          <button type="button" className="inline-flex items-center gap-1 font-semibold" onClick={() => toggle(c.key)}>
+            {c.label}
+            <span aria-hidden="true" className="text-ink-400">
+              {sort?.key === c.key ? (sort.dir === 'asc' ? '▲' : '▼') : '↕'}
+            </span>
+          </button>
+        ) : (
+          c.label
+        )
+      }
+    />
   );
 }
