@@ -1,12 +1,13 @@
-import { useEffect, useState, type FormEvent, type ReactNode } from 'react';
-import { ApiError, checkWith, type FieldErrors } from '../../lib/client/api';
+import { useState, type FormEvent } from 'react';
+import { checkWith } from '../../lib/client/api';
 import { catalogueApi } from '../../lib/client/catalogue-api';
 import { operatorsApi } from '../../lib/client/operators-api';
-import type { AntennaJson } from '../../lib/schemas/catalogue';
 import type { CustomerBody } from '../../lib/client/customers-api';
 import type { CustomerJson } from '../../lib/schemas/customers';
-import type { OperatorJson } from '../../lib/schemas/operators';
 import AddressSearch from '../planner/AddressSearch';
+import { OperatorOptions } from '../map/form-parts';
+import { Field, fieldAria } from '../ui/field';
+import { useQuery, useSubmit } from '../ui/use-api';
 
 interface Props {
   /** Editing an existing customer, or null for a new one. */
@@ -59,101 +60,53 @@ function toBody(f: Form): CustomerBody {
   };
 }
 
-function Field({ id, label, error, children }: { id: string; label: string; error?: string[]; children: ReactNode }) {
-  return (
-    <div>
-      <label htmlFor={id} className="field-label">
-        {label}
-      </label>
-      {children}
-      {error?.map((m) => (
-        <p key={m} className="field-error" id={`${id}-error`}>
-          {m}
-        </p>
-      ))}
-    </div>
-  );
-}
-
 /** Customer details; the address comes from the gazetteer (or typed coordinates) and stays editable. */
 export default function CustomerForm({ customer, submitLabel, onSave, onCancel }: Props) {
   const [form, setForm] = useState<Form>(() => fromCustomer(customer));
-  const [operators, setOperators] = useState<OperatorJson[]>([]);
-  const [antennas, setAntennas] = useState<AntennaJson[]>([]);
-  const [fields, setFields] = useState<FieldErrors>({});
-  const [formError, setFormError] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
+  // Without the lists the choices stay at "Not known"; the rest of the form still works.
+  const operators = useQuery('operators', () => operatorsApi.list().then((r) => r.items));
+  const antennas = useQuery('antennas', () => catalogueApi.antennas().then((r) => r.items));
+  const saving = useSubmit({ failed: 'Could not save the customer' });
   const idp = customer ? `cu-${customer.id}` : 'cu-new';
 
-  useEffect(() => {
-    operatorsApi.list().then(
-      (r) => setOperators(r.items),
-      () => setOperators([]),
-    );
-    catalogueApi.antennas().then(
-      (r) => setAntennas(r.items),
-      () => setAntennas([]),
-    );
-  }, []);
-
   const set = (patch: Partial<Form>) => setForm((f) => ({ ...f, ...patch }));
+  /** The field of body key `key`: its id, label and errors, for `Field` and (with `fieldAria`) its control. */
+  const frame = (key: keyof Form, label: string, idSuffix: string = key) => ({ id: `${idp}-${idSuffix}`, label, errors: saving.fields[key] });
 
   async function submit(e: FormEvent) {
     e.preventDefault();
-    setFormError(null);
     const body = toBody(form);
     // The rules load when first needed, so the page itself ships without the schema library.
     const { CustomerInputSchema } = await import('../../lib/schemas/customers');
-    const problems = checkWith(CustomerInputSchema, body);
-    setFields(problems ?? {});
-    if (problems) {
-      setFormError('Some fields need attention');
-      return;
-    }
-    setBusy(true);
-    try {
-      await onSave(body);
-    } catch (err) {
-      if (err instanceof ApiError) {
-        setFields(err.fields);
-        setFormError(err.message);
-      } else setFormError('Could not save the customer');
-    } finally {
-      setBusy(false);
-    }
+    await saving.submit(() => onSave(body), { check: () => checkWith(CustomerInputSchema, body) });
   }
 
-  const err = (k: string) => fields[k];
+  const name = frame('name', 'Name');
+  const phone = frame('phone', 'Phone');
+  const email = frame('email', 'E-mail');
+  const address = frame('address_label', 'Address', 'label');
+  const postcode = frame('postcode', 'Postcode');
+  const lat = frame('lat', 'Latitude');
+  const lon = frame('lon', 'Longitude');
+  const operator = frame('current_operator_id', 'Current operator', 'operator');
+  const antenna = frame('current_antenna_id', 'Current antenna', 'antenna');
+  const notes = frame('notes', 'Notes');
   return (
     <form className="space-y-3" onSubmit={submit} noValidate data-testid="customer-form">
-      {formError && (
+      {saving.error && (
         <p role="alert" className="text-sm text-alarm-700">
-          {formError}
+          {saving.error.message}
         </p>
       )}
-      <Field id={`${idp}-name`} label="Name" error={err('name')}>
-        <input id={`${idp}-name`} className="field-input" value={form.name} onChange={(e) => set({ name: e.target.value })} aria-invalid={!!err('name')} />
+      <Field {...name}>
+        <input className="field-input" value={form.name} onChange={(e) => set({ name: e.target.value })} {...fieldAria(name)} />
       </Field>
       <div className="grid gap-3 sm:grid-cols-2">
-        <Field id={`${idp}-phone`} label="Phone" error={err('phone')}>
-          <input
-            id={`${idp}-phone`}
-            type="tel"
-            className="field-input"
-            value={form.phone}
-            onChange={(e) => set({ phone: e.target.value })}
-            aria-invalid={!!err('phone')}
-          />
+        <Field {...phone}>
+          <input type="tel" className="field-input" value={form.phone} onChange={(e) => set({ phone: e.target.value })} {...fieldAria(phone)} />
         </Field>
-        <Field id={`${idp}-email`} label="E-mail" error={err('email')}>
-          <input
-            id={`${idp}-email`}
-            type="email"
-            className="field-input"
-            value={form.email}
-            onChange={(e) => set({ email: e.target.value })}
-            aria-invalid={!!err('email')}
-          />
+        <Field {...email}>
+          <input type="email" className="field-input" value={form.email} onChange={(e) => set({ email: e.target.value })} {...fieldAria(email)} />
         </Field>
       </div>
       <fieldset className="space-y-3 rounded-md border border-ink-200 p-3">
@@ -168,67 +121,37 @@ export default function CustomerForm({ customer, submitLabel, onSave, onCancel }
             })
           }
         />
-        <Field id={`${idp}-label`} label="Address" error={err('address_label')}>
-          <input
-            id={`${idp}-label`}
-            className="field-input"
-            value={form.address_label}
-            onChange={(e) => set({ address_label: e.target.value })}
-            aria-invalid={!!err('address_label')}
-          />
+        <Field {...address}>
+          <input className="field-input" value={form.address_label} onChange={(e) => set({ address_label: e.target.value })} {...fieldAria(address)} />
         </Field>
         <div className="grid grid-cols-3 gap-2">
-          <Field id={`${idp}-postcode`} label="Postcode" error={err('postcode')}>
-            <input
-              id={`${idp}-postcode`}
-              className="field-input"
-              value={form.postcode}
-              onChange={(e) => set({ postcode: e.target.value })}
-              aria-invalid={!!err('postcode')}
-            />
+          <Field {...postcode}>
+            <input className="field-input" value={form.postcode} onChange={(e) => set({ postcode: e.target.value })} {...fieldAria(postcode)} />
           </Field>
-          <Field id={`${idp}-lat`} label="Latitude" error={err('lat')}>
-            <input
-              id={`${idp}-lat`}
-              inputMode="decimal"
-              className="field-input"
-              value={form.lat}
-              onChange={(e) => set({ lat: e.target.value })}
-              aria-invalid={!!err('lat')}
-            />
+          <Field {...lat}>
+            <input inputMode="decimal" className="field-input" value={form.lat} onChange={(e) => set({ lat: e.target.value })} {...fieldAria(lat)} />
           </Field>
-          <Field id={`${idp}-lon`} label="Longitude" error={err('lon')}>
-            <input
-              id={`${idp}-lon`}
-              inputMode="decimal"
-              className="field-input"
-              value={form.lon}
-              onChange={(e) => set({ lon: e.target.value })}
-              aria-invalid={!!err('lon')}
-            />
+          <Field {...lon}>
+            <input inputMode="decimal" className="field-input" value={form.lon} onChange={(e) => set({ lon: e.target.value })} {...fieldAria(lon)} />
           </Field>
         </div>
       </fieldset>
       <div className="grid gap-3 sm:grid-cols-2">
-        <Field id={`${idp}-operator`} label="Current operator" error={err('current_operator_id')}>
+        <Field {...operator}>
           <select
-            id={`${idp}-operator`}
             className="field-input"
             value={form.current_operator_id}
             onChange={(e) => set({ current_operator_id: e.target.value })}
+            {...fieldAria(operator)}
           >
             <option value="">Not known</option>
-            {operators.map((o) => (
-              <option key={o.id} value={o.id}>
-                {o.name}
-              </option>
-            ))}
+            <OperatorOptions operators={operators.data ?? []} />
           </select>
         </Field>
-        <Field id={`${idp}-antenna`} label="Current antenna" error={err('current_antenna_id')}>
-          <select id={`${idp}-antenna`} className="field-input" value={form.current_antenna_id} onChange={(e) => set({ current_antenna_id: e.target.value })}>
+        <Field {...antenna}>
+          <select className="field-input" value={form.current_antenna_id} onChange={(e) => set({ current_antenna_id: e.target.value })} {...fieldAria(antenna)}>
             <option value="">Not known</option>
-            {antennas.map((a) => (
+            {(antennas.data ?? []).map((a) => (
               <option key={a.id} value={a.id}>
                 {a.name}
               </option>
@@ -236,19 +159,19 @@ export default function CustomerForm({ customer, submitLabel, onSave, onCancel }
           </select>
         </Field>
       </div>
-      <Field id={`${idp}-notes`} label="Notes" error={err('notes')}>
+      <Field {...notes}>
         <textarea
-          id={`${idp}-notes`}
           rows={3}
           className="field-input"
           value={form.notes}
           onChange={(e) => set({ notes: e.target.value })}
           placeholder="Access, ladders, dogs, best times to visit"
+          {...fieldAria(notes)}
         />
       </Field>
       <div className="flex gap-2">
-        <button type="submit" className="btn-primary flex-1" disabled={busy}>
-          {busy ? 'Saving…' : submitLabel}
+        <button type="submit" className="btn-primary flex-1" disabled={saving.pending}>
+          {saving.pending ? 'Saving…' : submitLabel}
         </button>
         {onCancel && (
           <button type="button" className="btn-secondary" onClick={onCancel}>

@@ -1,7 +1,7 @@
 import { useState } from 'react';
-import { ApiError } from '../../lib/client/api';
 import { customersApi } from '../../lib/client/customers-api';
 import type { CustomerErasureJson } from '../../lib/schemas/customers';
+import { useSubmit } from '../ui/use-api';
 
 interface Props {
   customerId: string;
@@ -12,19 +12,12 @@ interface Props {
 /** Erasure of the customer's personal data on their request, behind an explicit confirmation. */
 export default function EraseCustomer({ customerId, customerName, onErased }: Props) {
   const [confirming, setConfirming] = useState(false);
-  const [busy, setBusy] = useState(false);
-  const [error, setError] = useState<string | null>(null);
+  const erasing = useSubmit({ failed: 'Could not erase the personal data' });
+  const busy = erasing.pending;
 
   async function erase() {
-    setBusy(true);
-    setError(null);
-    try {
-      onErased(await customersApi.erase(customerId));
-    } catch (e) {
-      setError(e instanceof ApiError ? e.message : 'Could not erase the personal data');
-    } finally {
-      setBusy(false);
-    }
+    const result = await erasing.submit(() => customersApi.erase(customerId));
+    if (result.ok) onErased(result.data);
   }
 
   if (!confirming) {
@@ -57,9 +50,9 @@ export default function EraseCustomer({ customerId, customerName, onErased }: Pr
           Cancel
         </button>
       </div>
-      {error && (
+      {erasing.error && (
         <p role="alert" className="mt-2 text-alarm-700">
-          {error}
+          {erasing.error.message}
         </p>
       )}
     </div>

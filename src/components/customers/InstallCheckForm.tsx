@@ -1,6 +1,7 @@
 import { useState, type FormEvent } from 'react';
-import { ApiError, type FieldErrors } from '../../lib/client/api';
+import type { FieldErrors } from '../../lib/client/api';
 import { type InstallCheckBody, plansApi } from '../../lib/client/plans-api';
+import { useSubmit } from '../ui/use-api';
 
 interface ReadingRow {
   pci: string;
@@ -58,49 +59,43 @@ function findTypingErrors(readings: ReadingRow[], speeds: SpeedRow[]): FieldErro
   return fields;
 }
 
+/** What the form sends: the rows with something typed in them, as numbers. */
+function toBody(phase: 'before' | 'after', notes: string, readings: ReadingRow[], speeds: SpeedRow[]): InstallCheckBody {
+  return {
+    phase,
+    notes: notes.trim() || null,
+    readings: readings
+      .filter((r) => r.pci.trim() || r.rsrp.trim() || r.rsrq.trim() || r.sinr.trim())
+      .map((r) => ({ pci: num(r.pci) as number, channel: num(r.channel), rsrp_dbm: num(r.rsrp) as number, rsrq_db: num(r.rsrq), sinr_db: num(r.sinr) })),
+    speed_tests: speeds
+      .filter((s) => s.down.trim() || s.up.trim())
+      .map((s) => ({ down_mbps: num(s.down) as number, up_mbps: num(s.up) as number, latency_ms: num(s.latency) })),
+  };
+}
+
 /** Before/after readings per PCI and speed tests, typed from the router's status page on site. */
 export default function InstallCheckForm({ planId, defaultChannel, defaultPci, phases, onSaved }: Props) {
   const [phase, setPhase] = useState<'before' | 'after'>(phases[0] ?? 'before');
   const [readings, setReadings] = useState<ReadingRow[]>([blankReading(defaultChannel, defaultPci)]);
   const [speeds, setSpeeds] = useState<SpeedRow[]>([]);
   const [notes, setNotes] = useState('');
-  const [errors, setErrors] = useState<{ message: string; fields: FieldErrors } | null>(null);
-  const [busy, setBusy] = useState(false);
+  const saving = useSubmit({ failed: 'Could not save the check', checkMessage: 'Some values are not numbers' });
 
   const setReading = (i: number, patch: Partial<ReadingRow>) => setReadings((rows) => rows.map((r, j) => (j === i ? { ...r, ...patch } : r)));
   const setSpeed = (i: number, patch: Partial<SpeedRow>) => setSpeeds((rows) => rows.map((r, j) => (j === i ? { ...r, ...patch } : r)));
-  const err = (key: string) => errors?.fields[key]?.[0];
+  const err = (key: string) => saving.fields[key]?.[0];
+  const errors = saving.error;
 
   async function submit(e: FormEvent) {
     e.preventDefault();
-    const typing = findTypingErrors(readings, speeds);
-    if (Object.keys(typing).length) {
-      setErrors({ message: 'Some values are not numbers', fields: typing });
-      return;
-    }
-    setBusy(true);
-    setErrors(null);
-    const body: InstallCheckBody = {
-      phase,
-      notes: notes.trim() || null,
-      readings: readings
-        .filter((r) => r.pci.trim() || r.rsrp.trim() || r.rsrq.trim() || r.sinr.trim())
-        .map((r) => ({ pci: num(r.pci) as number, channel: num(r.channel), rsrp_dbm: num(r.rsrp) as number, rsrq_db: num(r.rsrq), sinr_db: num(r.sinr) })),
-      speed_tests: speeds
-        .filter((s) => s.down.trim() || s.up.trim())
-        .map((s) => ({ down_mbps: num(s.down) as number, up_mbps: num(s.up) as number, latency_ms: num(s.latency) })),
-    };
-    try {
-      await plansApi.addCheck(planId, body);
-      setReadings([blankReading(defaultChannel, defaultPci)]);
-      setSpeeds([]);
-      setNotes('');
-      onSaved();
-    } catch (e2) {
-      setErrors(e2 instanceof ApiError ? { message: e2.message, fields: e2.fields } : { message: 'Could not save the check', fields: {} });
-    } finally {
-      setBusy(false);
-    }
+    const result = await saving.submit(() => plansApi.addCheck(planId, toBody(phase, notes, readings, speeds)), {
+      check: () => findTypingErrors(readings, speeds),
+    });
+    if (!result.ok) return;
+    setReadings([blankReading(defaultChannel, defaultPci)]);
+    setSpeeds([]);
+    setNotes('');
+    onSaved();
   }
 
   if (phases.length === 0) return null;
@@ -194,8 +189,8 @@ export default function InstallCheckForm({ planId, defaultChannel, defaultPci, p
           {errors.fields.readings ? `: ${errors.fields.readings[0]}` : ''}
         </p>
       )}
-      <button type="submit" className="btn-primary py-1.5" disabled={busy}>
-        {busy ? 'Saving…' : `Save ${phase === 'before' ? 'before' : 'after'} check`}
+      <button type="submit" className="btn-primary py-1.5" disabled={saving.pending}>
+        {saving.pending ? 'Saving…' : `Save ${phase === 'before' ? 'before' : 'after'} check`}
       </button>
     </form>
   );

@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { useIsLive } from '../ui/use-is-live';
-import { ApiError } from '../../lib/client/api';
+import { useSubmit } from '../ui/use-api';
 import { plansApi } from '../../lib/client/plans-api';
 import type { PlanDetailJson } from '../../lib/schemas/plans';
 
@@ -17,25 +17,15 @@ interface Props {
  * job on). A plan changed by someone else since the page loaded is refused (409): reload.
  */
 export default function MarkInstalled({ planId, rowVersion, customerId, onInstalled }: Props) {
-  const [step, setStep] = useState<'idle' | 'confirm' | 'busy' | 'done'>('idle');
-  const [error, setError] = useState<{ message: string; stale: boolean } | null>(null);
+  const [step, setStep] = useState<'idle' | 'confirm' | 'done'>('idle');
+  const marking = useSubmit({ failed: 'Could not mark the plan installed; try again' });
   const live = useIsLive();
+  const error = marking.error;
 
   async function confirm() {
-    setStep('busy');
-    setError(null);
-    try {
-      const plan = await plansApi.markInstalled(planId, { row_version: rowVersion });
-      setStep('done');
-      onInstalled?.(plan);
-    } catch (err) {
-      setStep('idle');
-      setError(
-        err instanceof ApiError
-          ? { message: err.message, stale: err.status === 409 }
-          : { message: 'Could not mark the plan installed; try again', stale: false },
-      );
-    }
+    const result = await marking.submit(() => plansApi.markInstalled(planId, { row_version: rowVersion }));
+    setStep(result.ok ? 'done' : 'idle');
+    if (result.ok) onInstalled?.(result.data);
   }
 
   if (step === 'done' && !onInstalled) {
@@ -51,13 +41,13 @@ export default function MarkInstalled({ planId, rowVersion, customerId, onInstal
 
   return (
     <div className="space-y-2">
-      {step === 'confirm' || step === 'busy' ? (
+      {step === 'confirm' ? (
         <div className="flex flex-wrap items-center gap-2" role="group" aria-label="Confirm the install">
           <span className="text-sm font-semibold">Antenna up, aimed and earthed?</span>
-          <button type="button" className="btn-primary py-1.5" disabled={step === 'busy'} onClick={confirm}>
+          <button type="button" className="btn-primary py-1.5" disabled={marking.pending} onClick={confirm}>
             Yes, mark installed
           </button>
-          <button type="button" className="btn-secondary py-1.5" disabled={step === 'busy'} onClick={() => setStep('idle')}>
+          <button type="button" className="btn-secondary py-1.5" disabled={marking.pending} onClick={() => setStep('idle')}>
             Not yet
           </button>
         </div>
@@ -69,7 +59,7 @@ export default function MarkInstalled({ planId, rowVersion, customerId, onInstal
       {error && (
         <p role="alert" className="rounded border border-alarm-500 bg-alarm-50 p-2 text-sm text-alarm-700">
           {error.message}
-          {error.stale && (
+          {error.status === 409 && (
             <>
               {' '}
               <a href="" className="font-semibold underline">
