@@ -10,12 +10,13 @@ import { warmShortlist } from './shortlist-warmup';
 let started = false;
 
 export function startProcessWork(): void {
+  if (!config.databaseUrl) return;
+  // Again on later calls until it has started (the database may have been down at first).
+  startBackgroundWork();
   if (started) return;
   started = true;
-  if (!config.databaseUrl) return;
   // Elevation grids in memory and the shortlist's code run once, before the first planner asks.
   void warmShortlist();
-  startBackgroundWork();
   startChangeFeed(config.databaseUrl);
 }
 

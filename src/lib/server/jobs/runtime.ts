@@ -40,7 +40,7 @@ export function getJobQueue(): Promise<PgBoss> {
   return booting;
 }
 
-/** Starts the queue and this instance's share of the periodic work, once per process, never failing a request. */
+/** Starts the queue and this instance's share of the periodic work once per process (tried again on the next call after a failure), never failing a request. */
 export function startBackgroundWork(): void {
   if (periodic || !config.databaseUrl) return;
   periodic = getJobQueue()
