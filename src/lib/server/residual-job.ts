@@ -6,7 +6,7 @@ import type { Knex } from 'knex';
 import { sampleElevationProfile, type ElevationGrid } from '../domain/elevation-grid';
 import type { LatLon } from '../domain/geodesy';
 import { findGridsInBox, loadElevationGrid } from './repos/elevation';
-import { listCandidateCellsByIds } from './repos/candidates';
+import { listCandidateCellsByIds, toMeasuredReading, type MeasuredReadingRow } from './repos/candidates';
 import { computeResidualDb, getResidualBasis, type ProfileProvider } from './shortlist-service';
 
 export interface ResidualJobOptions {
@@ -20,15 +20,7 @@ export interface ResidualJobOptions {
   box?: readonly [number, number, number, number];
 }
 
-interface TodoRow {
-  id: string;
-  cell_id: string;
-  lat: number;
-  lon: number;
-  rsrp_dbm: number;
-  antenna_gain_dbi: number | null;
-  height_m: number | null;
-}
+type TodoRow = MeasuredReadingRow & { id: string };
 
 function boxAround(points: LatLon[]): [number, number, number, number] {
   const lats = points.map((p) => p.lat);
@@ -84,15 +76,7 @@ export async function refreshResiduals(db: Knex, options: ResidualJobOptions): P
       ids.push(String(r.id));
       cellIds.push(String(r.cell_id));
       // A cell without a frequency cannot be modelled: its readings are marked done without a residual.
-      residuals.push(
-        cell
-          ? await computeResidualDb(
-              cell,
-              { position: { lat: r.lat, lon: r.lon }, rsrpDbm: r.rsrp_dbm, antennaGainDbi: r.antenna_gain_dbi, heightM: r.height_m },
-              profileFor,
-            )
-          : null,
-      );
+      residuals.push(cell ? await computeResidualDb(cell, toMeasuredReading(r), profileFor) : null);
     }
     // Only rows still as read: a reading re-matched meanwhile keeps its cleared residual for the next run.
     await db.raw(

@@ -17,7 +17,7 @@ import {
   type ShortlistEntry,
 } from '../domain/shortlist';
 import { shrinkCalibration, summariseResiduals, type Calibration, type ResidualSummary } from '../domain/calibration';
-import { findCandidateCell, listCandidateCells, listNearbyReadings, type CellReading } from './repos/candidates';
+import { findCandidateCell, listCandidateCells, listNearbyReadings, type MeasuredReading } from './repos/candidates';
 import { getDataVersion } from './data-version';
 import { ValidationError } from './errors';
 import { findAntenna, findCable, listAntennas, type Antenna, type Cable } from './repos/catalogue';
@@ -86,11 +86,7 @@ export async function getResidualBasis(db: Tx): Promise<string> {
 }
 
 /** A reading's residual against the model: measured minus modelled RSRP, in dB. */
-export async function computeResidualDb(
-  cell: CandidateCell,
-  r: Pick<CellReading, 'position' | 'rsrpDbm' | 'antennaGainDbi' | 'heightM'>,
-  profileFor: ProfileProvider,
-): Promise<number> {
+export async function computeResidualDb(cell: CandidateCell, r: MeasuredReading, profileFor: ProfileProvider): Promise<number> {
   const samples = toSamples(await profileFor(r.position, cell.mastPosition, { maxSamples: 64 }));
   const diffraction = samples
     ? analysePathProfile({
@@ -111,16 +107,15 @@ export async function computeResidualDb(
  * (or whose basis is stale) are computed here.
  */
 async function summariseCellResiduals(db: Tx, cells: CandidateCell[], at: LatLon, profileFor: ProfileProvider): Promise<Map<string, ResidualSummary | null>> {
-  const [readings, basis] = await Promise.all([
-    listNearbyReadings(
-      db,
-      cells.map((c) => c.cellId),
-      at,
-      CALIBRATION_RADIUS_M,
-      CALIBRATION_READINGS_PER_CELL,
-    ),
-    getResidualBasis(db),
-  ]);
+  // One after the other: `db` may be a transaction, and one connection runs one query at a time.
+  const basis = await getResidualBasis(db);
+  const readings = await listNearbyReadings(
+    db,
+    cells.map((c) => c.cellId),
+    at,
+    CALIBRATION_RADIUS_M,
+    CALIBRATION_READINGS_PER_CELL,
+  );
   const byCell = new Map(cells.map((c) => [c.cellId, c]));
   const residuals = new Map<string, number[]>();
   for (const r of readings) {

@@ -84,7 +84,9 @@ export async function listCandidateCells(db: Tx, q: CandidateQuery): Promise<Can
     .modify((b) => {
       if (q.operatorId) b.where('c.operator_id', q.operatorId);
     })
-    .orderByRaw('m.geom::geography <-> ?::geography', [point])
+    // The cells of one mast are equally near: the id decides which of them the limit keeps, so the
+    // same place always gets the same candidates (and the same co-channel neighbours).
+    .orderByRaw('m.geom::geography <-> ?::geography, c.id', [point])
     .limit(q.limit);
   return rows.map(toCandidate);
 }
@@ -95,13 +97,37 @@ export async function findCandidateCell(db: Tx, cellId: string): Promise<Candida
   return row ? toCandidate(row) : null;
 }
 
-export interface CellReading {
+/** A matched reading as the model residual takes it. */
+export interface MeasuredReading {
   cellId: string;
   position: LatLon;
   rsrpDbm: number;
   /** Net gain of the receiving antenna and feeder; null for a device's own antenna. */
   antennaGainDbi: number | null;
   heightM: number | null;
+}
+
+/** The columns of a reading row that make a `MeasuredReading` (`lat`, `lon` read from its point). */
+export interface MeasuredReadingRow {
+  cell_id: string;
+  lat: number;
+  lon: number;
+  rsrp_dbm: number;
+  antenna_gain_dbi: number | null;
+  height_m: number | null;
+}
+
+export function toMeasuredReading(r: MeasuredReadingRow): MeasuredReading {
+  return {
+    cellId: String(r.cell_id),
+    position: { lat: Number(r.lat), lon: Number(r.lon) },
+    rsrpDbm: Number(r.rsrp_dbm),
+    antennaGainDbi: r.antenna_gain_dbi,
+    heightM: r.height_m,
+  };
+}
+
+export interface CellReading extends MeasuredReading {
   /** The stored model residual and what it was computed with (null until the residual job reaches it). */
   residualDb: number | null;
   residualBasis: string | null;
@@ -115,18 +141,7 @@ function boxBounds([west, south, east, north]: [number, number, number, number])
 /** Up to `perCell` readings of each cell nearest to a point, within a radius. */
 export async function listNearbyReadings(db: Tx, cellIds: string[], at: LatLon, radiusM: number, perCell: number): Promise<CellReading[]> {
   if (cellIds.length === 0) return [];
-  const { rows } = await db.raw<{
-    rows: {
-      cell_id: string;
-      lat: number;
-      lon: number;
-      rsrp_dbm: number;
-      antenna_gain_dbi: number | null;
-      height_m: number | null;
-      model_residual_db: number | null;
-      residual_basis: string | null;
-    }[];
-  }>(
+  const { rows } = await db.raw<{ rows: Array<MeasuredReadingRow & { model_residual_db: number | null; residual_basis: string | null }> }>(
     `SELECT c.id AS cell_id, r.lat, r.lon, r.rsrp_dbm, r.antenna_gain_dbi, r.height_m, r.model_residual_db, r.residual_basis
        FROM unnest(?::bigint[]) AS c(id)
        CROSS JOIN LATERAL (
@@ -138,20 +153,13 @@ export async function listNearbyReadings(db: Tx, cellIds: string[], at: LatLon, 
             AND ST_X(geom) BETWEEN ? AND ? AND ST_Y(geom) BETWEEN ? AND ?
           -- ST_Distance rather than <->: the same order, but the planner reads the cell's own
           -- readings by index and sorts them, instead of walking every reading nearest the point.
-          ORDER BY ST_Distance(geom, ST_SetSRID(ST_MakePoint(?, ?), 4326))
+          -- Readings taken at one spot (an install's checks) are equally near: the id decides.
+          ORDER BY ST_Distance(geom, ST_SetSRID(ST_MakePoint(?, ?), 4326)), id
           LIMIT ?
        ) r`,
     [cellIds, ...boxBounds(getSearchBox(at, radiusM)), at.lon, at.lat, perCell],
   );
-  return rows.map((r) => ({
-    cellId: String(r.cell_id),
-    position: { lat: Number(r.lat), lon: Number(r.lon) },
-    rsrpDbm: Number(r.rsrp_dbm),
-    antennaGainDbi: r.antenna_gain_dbi,
-    heightM: r.height_m,
-    residualDb: r.model_residual_db,
-    residualBasis: r.residual_basis,
-  }));
+  return rows.map((r) => ({ ...toMeasuredReading(r), residualDb: r.model_residual_db, residualBasis: r.residual_basis }));
 }
 
 /** Cells by id as candidates (whatever their masts' status); cells without a frequency are left out. */
