@@ -2,8 +2,8 @@
 // imported through the same importer as an admin's upload (so the seed exercises it end to end).
 import type { Knex } from 'knex';
 import { resolve } from 'node:path';
-import { writeArrayBuffer } from 'geotiff';
 import { getDemoElevationM, getDemoIsland, getIslandBounds } from '../src/lib/demo/elevation';
+import { heightTiff } from '../src/lib/demo/height-tiff';
 import { importElevationFile } from '../src/lib/server/elevation-import';
 import { removeOrphanSampleFiles } from '../src/lib/server/repos/elevation';
 import { ROOT } from '../scripts/lib/project';
@@ -27,22 +27,10 @@ export function buildDemoElevationTiff(): Uint8Array {
   const north = Math.ceil(b.north * n) / n;
   const width = Math.round((east - west) * n) + 1;
   const height = Math.round((north - south) * n) + 1;
-  const values = new Float32Array(width * height);
-  for (let r = 0; r < height; r++) {
-    const lat = north - r / n;
-    for (let c = 0; c < width; c++) values[r * width + c] = Math.max(0, getDemoElevationM(lat, west + c / n));
-  }
-  const buffer = writeArrayBuffer(values, {
-    width,
-    height,
-    ModelPixelScale: [1 / n, 1 / n, 0],
-    ModelTiepoint: [0, 0, 0, west, north, 0],
-    GTModelTypeGeoKey: 2,
-    GTRasterTypeGeoKey: 2,
-    GeographicTypeGeoKey: 4326,
-    GDAL_NODATA: '-32768',
-  });
-  return new Uint8Array(buffer);
+  // Positions as r/n and c/n from the corner, as the demo grid has always been written (r·(1/n) may differ in the last bit).
+  return heightTiff({ west, north, step: 1 / n, width, height, noData: -32768 }, (_lat, _lon, c, r) =>
+    Math.max(0, getDemoElevationM(north - r / n, west + c / n)),
+  );
 }
 
 /** The app's data folder, read when the seed runs (test runs set DATA_DIR just before seeding). */

@@ -3,8 +3,8 @@
 // country of 200 towns in the South Pacific, four MCC 001 operators, masts clustered around the towns
 // plus a rural spread, 5 cells per mast, 20 readings per cell and a gazetteer of addresses.
 import type { Knex } from 'knex';
-import { writeArrayBuffer } from 'geotiff';
 import { importElevationFile } from '../../src/lib/server/elevation-import';
+import { heightTiff } from '../../src/lib/demo/height-tiff';
 import { seed as seedUsers } from '../../seeds/01_demo_users';
 import { seed as seedCatalogue } from '../../seeds/05_demo_catalogue';
 
@@ -177,22 +177,9 @@ async function importGrid(db: Knex, dataDir: string): Promise<void> {
   const size = Math.round(GRID_SPAN_DEG / GRID_STEP_DEG);
   const west = c.lon - GRID_SPAN_DEG / 2;
   const north = c.lat + GRID_SPAN_DEG / 2;
-  const values = new Float32Array(size * size);
-  for (let r = 0; r < size; r++) {
-    for (let k = 0; k < size; k++) {
-      values[r * size + k] = 300 + 180 * Math.sin(r / 97) * Math.cos(k / 131) + 90 * Math.sin((r + k) / 41) + 40 * Math.cos((r - 2 * k) / 17);
-    }
-  }
-  const bytes = new Uint8Array(
-    writeArrayBuffer(values, {
-      width: size,
-      height: size,
-      ModelPixelScale: [GRID_STEP_DEG, GRID_STEP_DEG, 0],
-      ModelTiepoint: [0, 0, 0, west, north, 0],
-      GTModelTypeGeoKey: 2,
-      GTRasterTypeGeoKey: 2,
-      GeographicTypeGeoKey: 4326,
-    }),
+  const bytes = heightTiff(
+    { west, north, step: GRID_STEP_DEG, width: size, height: size },
+    (_lat, _lon, k, r) => 300 + 180 * Math.sin(r / 97) * Math.cos(k / 131) + 90 * Math.sin((r + k) / 41) + 40 * Math.cos((r - 2 * k) / 17),
   );
   await importElevationFile(db, { fileName: 'bench-terrain.tif', bytes }, { dataDir, actorId: null });
 }

@@ -6,7 +6,7 @@ import { config } from '../../src/lib/server/config';
 import { getDemoElevationM } from '../../src/lib/demo/elevation';
 import { DEMO_ELEVATION_FILE_NAME, buildDemoElevationTiff, seed } from '../../seeds/08_demo_elevation';
 import { testDb, truncateAll } from '../helpers/db';
-import { heightTiff } from '../helpers/geotiff';
+import { heightTiff } from '../../src/lib/demo/height-tiff';
 
 /** A point-registered float32 GeoTIFF whose height is a plane: 1000 + 2000·(lon − west). */
 function planeTiff(west: number, north: number, size: number, stepDeg: number): Uint8Array {

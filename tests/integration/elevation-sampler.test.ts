@@ -1,27 +1,15 @@
-import { writeArrayBuffer } from 'geotiff';
 import { beforeEach, describe, expect, it, vi } from 'vitest';
 import { getAreaProfileSampler, selectGridsInBox, warmElevationGrids } from '../../src/lib/server/elevation-service';
 import { importElevationFile } from '../../src/lib/server/elevation-import';
 import { config } from '../../src/lib/server/config';
 import { findWarmupPosition } from '../../src/lib/server/repos/candidates';
 import { warmShortlist } from '../../src/lib/server/shortlist-warmup';
+import { heightTiff } from '../../src/lib/demo/height-tiff';
 import { testDb, truncateAll } from '../helpers/db';
 
 // Invented fixture: a flat 250 m square of ground, 0.1° a side, nodes every 0.002°.
 function flatTiff(west: number, north: number, heightM: number): Uint8Array {
-  const size = 51;
-  const step = 0.002;
-  return new Uint8Array(
-    writeArrayBuffer(new Float32Array(size * size).fill(heightM), {
-      width: size,
-      height: size,
-      ModelPixelScale: [step, step, 0],
-      ModelTiepoint: [0, 0, 0, west, north, 0],
-      GTModelTypeGeoKey: 2,
-      GTRasterTypeGeoKey: 2,
-      GeographicTypeGeoKey: 4326,
-    }),
-  );
+  return heightTiff({ west, north, step: 0.002, width: 51, height: 51 }, () => heightM);
 }
 
 const importTiff = (name: string, bytes: Uint8Array) => importElevationFile(testDb(), { fileName: name, bytes }, { dataDir: config.dataDir, actorId: null });

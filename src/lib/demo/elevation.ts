@@ -6,7 +6,6 @@ import { createIslandModel, getNormalisedRadius, type IslandModel } from './geog
 import { distanceKm, distanceToSegmentKm, isInRing, toGeo, toLocal, type LocalPoint } from './projection';
 import { createValueNoise } from './noise';
 import { hashString } from './random';
-import type { GridFrame } from '../domain/elevation-grid';
 
 export type ElevationFn = (p: LocalPoint) => number;
 
@@ -172,43 +171,4 @@ export function getIslandBounds(model: IslandModel, marginKm = 0): GeoBounds {
   const sw = toGeo({ x: Math.min(...xs) - marginKm, y: Math.min(...ys) - marginKm });
   const ne = toGeo({ x: Math.max(...xs) + marginKm, y: Math.max(...ys) + marginKm });
   return { west: sw.lon, south: sw.lat, east: ne.lon, north: ne.lat };
-}
-
-/**
- * A regular lat/lon elevation grid, point-registered (first/last rows and columns on the bounds, as in
- * .hgt tiles); an elevation-grid frame, so it can be stored as is.
- */
-export interface DemoElevationGrid extends GridFrame {
-  registration: 'point';
-  nodata: null;
-  /** Row-major, row 0 the northernmost, metres. */
-  values: Float32Array;
-}
-
-export function sampleElevationGrid(fn: (lat: number, lon: number) => number, bounds: GeoBounds, width: number, height: number): DemoElevationGrid {
-  const values = new Float32Array(width * height);
-  for (let r = 0; r < height; r++) {
-    const lat = bounds.north - ((bounds.north - bounds.south) * r) / (height - 1);
-    for (let c = 0; c < width; c++) {
-      const lon = bounds.west + ((bounds.east - bounds.west) * c) / (width - 1);
-      values[r * width + c] = fn(lat, lon);
-    }
-  }
-  return { ...bounds, width, height, registration: 'point', nodata: null, values };
-}
-
-/** Bilinear lookup in a grid made by sampleElevationGrid; null outside it. */
-export function lookupElevationGrid(grid: DemoElevationGrid, lat: number, lon: number): number | null {
-  const { width, height, values } = grid;
-  const fc = ((lon - grid.west) / (grid.east - grid.west)) * (width - 1);
-  const fr = ((grid.north - lat) / (grid.north - grid.south)) * (height - 1);
-  if (!(fc >= 0 && fc <= width - 1 && fr >= 0 && fr <= height - 1)) return null;
-  const c0 = Math.min(Math.floor(fc), width - 2);
-  const r0 = Math.min(Math.floor(fr), height - 2);
-  const tc = fc - c0;
-  const tr = fr - r0;
-  const v = (r: number, c: number) => values[r * width + c]!;
-  const top = v(r0, c0) + tc * (v(r0, c0 + 1) - v(r0, c0));
-  const bottom = v(r0 + 1, c0) + tc * (v(r0 + 1, c0 + 1) - v(r0 + 1, c0));
-  return top + tr * (bottom - top);
 }

@@ -1,4 +1,5 @@
-// Small elevation grids for tests, written as GeoTIFF the way the import reads them.
+// Synthetic ground written as a GeoTIFF the way the elevation import reads it: the demo seed's
+// island, the benchmark's hills and the tests' small fixtures.
 import { writeArrayBuffer } from 'geotiff';
 
 export interface GridSpec {
@@ -9,6 +10,8 @@ export interface GridSpec {
   step: number;
   width: number;
   height: number;
+  /** The value that marks a void (GDAL_NODATA), when the grid may hold one. */
+  noData?: number;
 }
 
 /**
@@ -18,7 +21,7 @@ export interface GridSpec {
  * point-registered rasters (2).
  */
 export function heightTiff(grid: GridSpec, heightAt: (lat: number, lon: number, col: number, row: number) => number): Uint8Array {
-  const { west, north, step, width, height } = grid;
+  const { west, north, step, width, height, noData } = grid;
   const values = new Float32Array(width * height);
   for (let r = 0; r < height; r++) {
     const lat = north - r * step;
@@ -33,6 +36,7 @@ export function heightTiff(grid: GridSpec, heightAt: (lat: number, lon: number, 
       GTModelTypeGeoKey: 2,
       GTRasterTypeGeoKey: 2,
       GeographicTypeGeoKey: 4326,
+      ...(noData === undefined ? {} : { GDAL_NODATA: String(noData) }),
     }),
   );
 }
