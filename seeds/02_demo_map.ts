@@ -4,6 +4,7 @@
 // seeds and tests can refer to them.
 import type { Knex } from 'knex';
 import { generateDemoScenario } from '../src/lib/demo';
+import { CELL, MAST } from '../src/lib/schemas/masts';
 
 const TABLES = ['readings', 'cells', 'masts', 'operators', 'regions', 'basemap_land', 'basemap_water', 'basemap_roads', 'basemap_places', 'basemap_landuse'];
 const BATCH = 1000;
@@ -28,44 +29,16 @@ export async function seed(knex: Knex): Promise<void> {
 
   await knex('operators').insert(scenario.operators.map((o) => ({ id: o.id, name: o.name, mcc: o.mcc, mnc: o.mnc, colour: o.colour })));
 
+  // Masts and cells as their record declarations write them (ids fixed, positions as points).
   await insertInBatches(
     knex,
     'masts',
-    scenario.masts.map((m) => ({
-      id: m.id,
-      name: m.name,
-      reference: m.reference,
-      geom: point(m.lon, m.lat),
-      ground_elevation_m: m.groundElevationM,
-      structure_height_m: m.structureHeightM,
-      structure_type: m.structureType,
-      status: m.status,
-      access_notes: m.accessNotes,
-      source: 'demo',
-      created_by: actor,
-      updated_by: actor,
-    })),
+    scenario.masts.map((m) => ({ id: m.id, ...MAST.insertRow({ ...m, source: 'demo' }), geom: point(m.lon, m.lat), created_by: actor, updated_by: actor })),
   );
-
   await insertInBatches(
     knex,
     'cells',
-    scenario.cells.map((c) => ({
-      id: c.id,
-      mast_id: c.mastId,
-      operator_id: c.operatorId,
-      tech: c.tech,
-      band: c.band,
-      channel: c.channel,
-      dl_mhz: c.dlMhz,
-      pci: c.pci,
-      cell_identity: c.cellIdentity,
-      sector_azimuth_deg: c.sectorAzimuthDeg,
-      antenna_height_m: c.antennaHeightM,
-      bandwidth_mhz: c.bandwidthMhz,
-      rs_power_dbm: c.rsPowerDbm,
-      last_observed_at: c.lastObservedAt,
-    })),
+    scenario.cells.map((c) => ({ id: c.id, mast_id: c.mastId, ...CELL.insertRow(c) })),
   );
 
   await insertInBatches(

@@ -5,6 +5,7 @@ import { evaluateCandidate, rankShortlist, type CandidateCell, type Kit } from '
 import { getDestination } from '../../src/lib/domain/geodesy';
 import { lookupChannel } from '../../src/lib/domain/channels';
 import { sampleElevationProfile, type ElevationGrid } from '../../src/lib/domain/elevation-grid';
+import { DEMO_ANTENNAS, DEMO_CABLES } from '../../seeds/05_demo_catalogue';
 
 export interface Result {
   name: string;
@@ -22,29 +23,9 @@ function bench(name: string, targetUs: number, iterations: number, fn: (i: numbe
 
 const customer = { lat: -47.2, lon: -128.5 };
 const profile: ProfileSample[] = Array.from({ length: 401 }, (_, i) => ({ distanceM: i * 25, groundM: 100 + 40 * Math.sin(i / 30) }));
-const kit: Kit = {
-  antenna: {
-    id: 'a',
-    name: 'Panel',
-    gainTable: [
-      { freqMhz: 700, gainDbi: 7 },
-      { freqMhz: 2700, gainDbi: 9 },
-    ],
-    horizontalBeamwidthDeg: 40,
-  },
-  cable: {
-    id: 'c',
-    name: 'Cable',
-    lossTable: [
-      { freqMhz: 700, dbPerM: 0.1 },
-      { freqMhz: 2700, dbPerM: 0.25 },
-    ],
-    connectorLossDb: 0.15,
-    connectors: 2,
-  },
-  cableM: 10,
-  mountHeightM: 6,
-};
+// The demo catalogue's panel and 6 mm feeder.
+const [panel] = DEMO_ANTENNAS;
+const kit: Kit = { antenna: { id: 'a', ...panel! }, cable: { id: 'c', ...DEMO_CABLES[1]! }, cableM: 10, mountHeightM: 6 };
 const cells: CandidateCell[] = Array.from({ length: 60 }, (_, i) => ({
   cellId: String(i),
   mastId: String(i),
