@@ -8,8 +8,9 @@ import { randomUUID } from 'node:crypto';
 import type { Knex } from 'knex';
 import type { Readable } from 'node:stream';
 import type PgBoss from 'pg-boss';
-import { checkReadingCsvHeader, checkReadingCsvRow } from '../domain/reading-csv';
-import { allowLongStatements, connectionOf, copyCsvIntoTable, type RowCheck } from './csv-copy';
+import { READING_CSV_COLUMNS, checkReadingCsvHeader, checkReadingCsvRow, type ReadingCsvRow } from '../domain/reading-csv';
+import { camel } from '../schemas/record';
+import { allowLongStatements, connectionOf, copyCsvIntoTable, type CopyValue, type RowCheck } from './csv-copy';
 import { AppError, ValidationError } from './errors';
 import { hashingStream } from './hashing-stream';
 import { rowProblemsError } from './import-report';
@@ -19,25 +20,18 @@ import { recordAudit } from './repos/audit';
 /** A reading matches a cell of the same technology, channel and PCI on a mast at most this far away (common practice). */
 export const CELL_MATCH_RADIUS_M = 30_000;
 
-const STAGING_COLUMNS = [
-  'import_id',
-  'line',
-  'taken_at',
-  'lon',
-  'lat',
-  'tech',
-  'channel',
-  'pci',
-  'rsrp_dbm',
-  'rsrq_db',
-  'sinr_db',
-  'rssi_dbm',
-  'mcc',
-  'mnc',
-  'device',
-  'antenna_gain_dbi',
-  'height_m',
-] as const;
+/** A checked row is staged under its CSV column names (`time` as `taken_at`). */
+const STAGED_FIELDS = READING_CSV_COLUMNS.map(({ name }) =>
+  name === 'time' ? { column: 'taken_at', key: 'takenAt' as const } : { column: name, key: camel(name) as keyof ReadingCsvRow },
+);
+const STAGING_COLUMNS = ['import_id', 'line', ...STAGED_FIELDS.map((f) => f.column)];
+
+function stagedValues(r: ReadingCsvRow): CopyValue[] {
+  return STAGED_FIELDS.map(({ key }) => {
+    const v = r[key];
+    return v instanceof Date ? v.toISOString() : v;
+  });
+}
 
 export interface StagedImport {
   importId: string;
@@ -67,29 +61,7 @@ export async function stageReadingsUpload(
     checkRow: (record, line): RowCheck => {
       const check = checkReadingCsvRow(record, meta.now);
       if (!check.ok) return check;
-      const r = check.row;
-      return {
-        ok: true,
-        values: [
-          importId,
-          line,
-          r.takenAt.toISOString(),
-          r.lon,
-          r.lat,
-          r.tech,
-          r.channel,
-          r.pci,
-          r.rsrpDbm,
-          r.rsrqDb,
-          r.sinrDb,
-          r.rssiDbm,
-          r.mcc,
-          r.mnc,
-          r.device,
-          r.antennaGainDbi,
-          r.heightM,
-        ],
-      };
+      return { ok: true, values: [importId, line, ...stagedValues(check.row)] };
     },
   });
   if (hashed.bytes() === 0) throw new ValidationError('The file is empty', { file: ['The file is empty'] });
