@@ -117,6 +117,19 @@ async function mailInvite(user: User, invitedBy: string, token: string, origin: 
   }
 }
 
+/** An invitation link for `user`, audited as the actor's invite (`extra` adds to the entry); returns the token to mail. */
+async function issueInvite(trx: Knex.Transaction, user: User, actorId: string, extra: { resent?: true }): Promise<string> {
+  const issued = await issueToken(trx, { purpose: 'invite', email: user.email, userId: user.id, createdBy: actorId });
+  await recordAudit(trx, {
+    userId: actorId,
+    action: 'invite',
+    entity: 'user',
+    entityId: user.id,
+    after: { expires_at: issued.record.expiresAt.toISOString(), ...extra },
+  });
+  return issued.token;
+}
+
 /** An admin makes an account and mails its owner a link to choose the password. */
 export async function inviteUser(
   db: Knex,
@@ -127,15 +140,7 @@ export async function inviteUser(
   const passwordHash = await unusablePasswordHash();
   const { user, token } = await db.transaction(async (trx) => {
     const created = await createUserWithHash(trx, { ...input, passwordHash }, actor.id, 'invite');
-    const issued = await issueToken(trx, { purpose: 'invite', email: created.email, userId: created.id, createdBy: actor.id });
-    await recordAudit(trx, {
-      userId: actor.id,
-      action: 'invite',
-      entity: 'user',
-      entityId: created.id,
-      after: { expires_at: issued.record.expiresAt.toISOString() },
-    });
-    return { user: created, token: issued.token };
+    return { user: created, token: await issueInvite(trx, created, actor.id, {}) };
   });
   return { user, mailSent: await mailInvite(user, actor.name, token, origin) };
 }
@@ -149,15 +154,7 @@ export async function resendInvite(db: Knex, userId: string, actor: { id: string
     }
     if (target.disabledAt) throw new ConflictError(`${target.name} is disabled. Enable the account first.`);
     await retireUserTokens(trx, target.id, ['invite']);
-    const issued = await issueToken(trx, { purpose: 'invite', email: target.email, userId: target.id, createdBy: actor.id });
-    await recordAudit(trx, {
-      userId: actor.id,
-      action: 'invite',
-      entity: 'user',
-      entityId: target.id,
-      after: { expires_at: issued.record.expiresAt.toISOString(), resent: true },
-    });
-    return { user: target, token: issued.token };
+    return { user: target, token: await issueInvite(trx, target, actor.id, { resent: true }) };
   });
   return { user, mailSent: await mailInvite(user, actor.name, token, origin) };
 }
