@@ -3,7 +3,7 @@
 import { z } from 'zod';
 import type { CableLossPoint, GainPoint } from '../domain/link-budget';
 import { enumOf, hasAnyField, numberField as num, requiredText } from './params';
-import { defineRecord, field, type JsonOf, type ValueOf } from './record';
+import { defineRecord, field, type Fields, type JsonOf, type RecordDeclaration, type ValueOf } from './record';
 
 import { ANTENNA_KINDS, type AntennaKind } from '../domain/antenna-kinds';
 
@@ -85,6 +85,14 @@ const lossTable = tableField<LossRow, CableLossPoint>(
   (points) => points.map((p) => ({ freq_mhz: p.freqMhz, loss_db_per_m: p.dbPerM })),
 );
 
+/** A change of a catalogue item: any of its fields, at least one, as the value repos take. */
+function changeSchema<F extends Fields>(record: RecordDeclaration<F>) {
+  return z
+    .object(record.changeShape)
+    .refine(hasAnyField, { message: 'Nothing to change' })
+    .transform((v) => record.toChange(v as Record<string, unknown>));
+}
+
 /** The fields every catalogue item ends with. */
 const notesAndTimes = { notes: field.input(notes), created_at: field.time(), updated_at: field.time() };
 
@@ -118,10 +126,7 @@ export const AntennaInputSchema = z
   .transform((v) => ({ ...ANTENNA.toInput(v), horizontalBeamwidthDeg: v.horizontal_beamwidth_deg ?? 360 }));
 export type AntennaInput = z.output<typeof AntennaInputSchema>;
 
-export const AntennaChangeSchema = z
-  .object(ANTENNA.changeShape)
-  .refine(hasAnyField, { message: 'Nothing to change' })
-  .transform((v) => ANTENNA.toChange(v));
+export const AntennaChangeSchema = changeSchema(ANTENNA);
 export type AntennaChange = Partial<z.output<typeof AntennaChangeSchema>>;
 
 const connectorLoss = num('Connector loss').min(0, 'Cannot be negative').max(3, 'At most 3 dB per connector');
@@ -146,8 +151,5 @@ export const cableJson = (c: Cable): CableJson => CABLE.toJson(c);
 export const CableInputSchema = z.object(CABLE.inputShape).transform((v) => CABLE.toInput(v));
 export type CableInput = z.output<typeof CableInputSchema>;
 
-export const CableChangeSchema = z
-  .object(CABLE.changeShape)
-  .refine(hasAnyField, { message: 'Nothing to change' })
-  .transform((v) => CABLE.toChange(v));
+export const CableChangeSchema = changeSchema(CABLE);
 export type CableChange = Partial<z.output<typeof CableChangeSchema>>;
