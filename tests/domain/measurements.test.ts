@@ -104,16 +104,14 @@ describe('report indices', () => {
 });
 
 describe('RSRP, RSSI and RSRQ', () => {
-  // TS 36.101 §5.6 Table 5.6-1
-  it.each([
-    [1.4, 6],
-    [3, 15],
-    [5, 25],
-    [10, 50],
-    [15, 75],
-    [20, 100],
-  ])('%s MHz carries %s resource blocks', (bw, rb) => {
-    expect(getLteResourceBlockCount(bw)).toBe(rb);
+  // TS 36.101 §5.6 Table 5.6-1: the transmission bandwidth (N_RB × 180 kHz) takes nine tenths of a
+  // 3–20 MHz channel (15 RB in 3 MHz … 100 RB in 20 MHz) and 1.08 MHz (6 RB) of a 1.4 MHz one.
+  it.each([3, 5, 10, 15, 20])('%s MHz carries resource blocks filling nine tenths of the channel', (bw) => {
+    expect(getLteResourceBlockCount(bw) * 0.18).toBeCloseTo(0.9 * bw, 9);
+  });
+
+  it('1.4 MHz carries 6 resource blocks (1.08 MHz)', () => {
+    expect(getLteResourceBlockCount(1.4)).toBe(6);
   });
 
   it('rejects a bandwidth LTE does not define', () => {

@@ -1,20 +1,12 @@
 // Map upkeep from the panel: a reviewer adds a mast by clicking the map, then adds, edits and
 // removes a cell; a removal the API refuses (a plan uses the cell) shows its reason and offers
 // decommissioning; other roles see no edit controls.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { mkdirSync } from 'node:fs';
-import type { Browser, Page } from 'playwright-core';
-import { APP_URL, demoEmail, launchBrowser, signIn, watchOutsideRequests } from '../helpers/browser';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { APP_URL, demoEmail, signIn, useBrowser, watchOutsideRequests } from '../helpers/browser';
 import { MAST_LAYER, settle, waitForMasts } from '../helpers/map-page';
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launchBrowser();
-  mkdirSync('test-results', { recursive: true });
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const browser = useBrowser();
 
 /** A point (page px) left of the panel with no mast mark or cluster within 40 px. */
 async function emptySpot(page: Page): Promise<{ x: number; y: number }> {
@@ -51,7 +43,7 @@ async function api<T>(page: Page, method: string, path: string): Promise<{ statu
 
 describe('map upkeep', () => {
   it('adds a mast by map click, then adds, edits and removes a cell with the API’s checks beside the fields', async () => {
-    const context = await browser.newContext({ viewport: { width: 1280, height: 860 } });
+    const context = await browser().newContext({ viewport: { width: 1280, height: 860 } });
     const page = await context.newPage();
     const outside = watchOutsideRequests(page);
     const errors: string[] = [];
@@ -198,7 +190,7 @@ describe('map upkeep', () => {
   }, 180_000);
 
   it('shows why a cell that a plan uses cannot be removed and offers decommissioning the mast', async () => {
-    const context = await browser.newContext({ viewport: { width: 390, height: 844 } });
+    const context = await browser().newContext({ viewport: { width: 390, height: 844 } });
     const page = await context.newPage();
     try {
       await signIn(page, demoEmail('admin'));
@@ -254,7 +246,7 @@ describe('map upkeep', () => {
   });
 
   it('shows no edit controls to roles that may not edit masts', async () => {
-    const context = await browser.newContext({ viewport: { width: 1280, height: 860 } });
+    const context = await browser().newContext({ viewport: { width: 1280, height: 860 } });
     const page = await context.newPage();
     try {
       await signIn(page, demoEmail('surveyor'));

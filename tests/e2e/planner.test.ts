@@ -1,21 +1,12 @@
 // Planning: a planner picks the best mast for an address, saves the plan and prints the aim sheet.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { mkdirSync } from 'node:fs';
-import type { Browser } from 'playwright-core';
-import { APP_URL, demoEmail, launchBrowser, signIn, watchOutsideRequests } from '../helpers/browser';
+import { describe, expect, it } from 'vitest';
+import { APP_URL, demoEmail, signIn, useBrowser, watchOutsideRequests } from '../helpers/browser';
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launchBrowser();
-  mkdirSync('test-results', { recursive: true });
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const browser = useBrowser();
 
 describe('planner journey', () => {
   it('searches an address, ranks candidates, shows the terrain profile, saves the plan and prints the aim sheet', async () => {
-    const page = await browser.newPage({ viewport: { width: 1300, height: 1000 } });
+    const page = await browser().newPage({ viewport: { width: 1300, height: 1000 } });
     const outside = watchOutsideRequests(page);
     const errors: string[] = [];
     page.on('pageerror', (e) => errors.push(e.message));
@@ -70,7 +61,7 @@ describe('planner journey', () => {
 
 describe('planner defects', () => {
   const open = async (width = 1300) => {
-    const page = await browser.newPage({ viewport: { width, height: 1000 } });
+    const page = await browser().newPage({ viewport: { width, height: 1000 } });
     await signIn(page, demoEmail('planner'));
     await page.goto(`${APP_URL}/plan`);
     return page;

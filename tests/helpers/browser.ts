@@ -1,4 +1,6 @@
 // Debian's Chromium driven by playwright-core, with the flags that keep it off the network.
+import { mkdirSync } from 'node:fs';
+import { afterAll, beforeAll } from 'vitest';
 import { chromium, type Browser, type Page } from 'playwright-core';
 
 export const APP_URL = process.env.APP_URL ?? 'http://127.0.0.1:4321';
@@ -16,6 +18,25 @@ export const CHROMIUM_ARGS = [
 
 export function launchBrowser(): Promise<Browser> {
   return chromium.launch({ executablePath: '/usr/bin/chromium', headless: true, args: CHROMIUM_ARGS });
+}
+
+/**
+ * One Chromium for a test file: launched before its tests (with `test-results/` ready for
+ * screenshots) and closed after them. Call at the top level; the getter gives the browser.
+ */
+export function useBrowser(): () => Browser {
+  let browser: Browser | undefined;
+  beforeAll(async () => {
+    browser = await launchBrowser();
+    mkdirSync('test-results', { recursive: true });
+  });
+  afterAll(async () => {
+    await browser?.close();
+  });
+  return () => {
+    if (!browser) throw new Error('The browser is not running: use it inside a test');
+    return browser;
+  };
 }
 
 export const DEMO_PASSWORD = 'bearline-demo';

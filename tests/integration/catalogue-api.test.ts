@@ -7,27 +7,7 @@ import { ROLES } from '../../src/lib/domain/roles';
 import { call } from '../helpers/endpoint';
 import { testDb, truncateAll } from '../helpers/db';
 import { asSessionUser, makeUser } from '../helpers/factories';
-
-// Common-practice customer panel: 7–9 dBi over 700–2700 MHz, ~40° beam.
-const PANEL = {
-  name: 'Test panel',
-  kind: 'directional',
-  ports: 2,
-  horizontal_beamwidth_deg: 40,
-  gain_table: [
-    { freq_mhz: 700, gain_dbi: 7 },
-    { freq_mhz: 1800, gain_dbi: 8.5 },
-    { freq_mhz: 2700, gain_dbi: 9 },
-  ],
-};
-// LL-10-class losses (10.3 mm foam datasheet formula, from memory, verify).
-const FEEDER = {
-  name: 'Test feeder',
-  loss_table: [
-    { freq_mhz: 800, loss_db_per_m: 0.12 },
-    { freq_mhz: 2600, loss_db_per_m: 0.23 },
-  ],
-};
+import { FEEDER_BODY, PANEL_BODY } from '../helpers/catalogue-bodies';
 
 describe('catalogue API', () => {
   beforeEach(truncateAll);
@@ -43,23 +23,23 @@ describe('catalogue API', () => {
   it.each(ROLES.filter((r) => r !== 'admin'))('lets a %s read but not write', async (role) => {
     const admin = asSessionUser(await makeUser('admin'));
     const user = asSessionUser(await makeUser(role));
-    const made = await call(createAntenna, { user: admin, json: PANEL });
+    const made = await call(createAntenna, { user: admin, json: PANEL_BODY });
     expect((await call(listAntennas, { user })).status).toBe(200);
     expect((await call(getAntenna, { user, params: { id: made.body.id } })).status).toBe(200);
-    const create = await call(createAntenna, { user, json: { ...PANEL, name: 'Other' } });
+    const create = await call(createAntenna, { user, json: { ...PANEL_BODY, name: 'Other' } });
     expect(create.status).toBe(403);
     expect(create.body.error.code).toBe('FORBIDDEN');
     expect((await call(patchAntenna, { method: 'PATCH', user, params: { id: made.body.id }, json: { ports: 4 } })).status).toBe(403);
     expect((await call(deleteAntenna, { method: 'DELETE', user, params: { id: made.body.id } })).status).toBe(403);
-    expect((await call(createCable, { user, json: FEEDER })).status).toBe(403);
+    expect((await call(createCable, { user, json: FEEDER_BODY })).status).toBe(403);
     expect(await testDb()('antennas').count('* as n').first()).toEqual({ n: '1' });
   });
 
   it('creates, lists, updates and deletes an antenna, each audited', async () => {
     const admin = asSessionUser(await makeUser('admin'));
-    const created = await call(createAntenna, { user: admin, json: { ...PANEL, notes: '  Wall bracket included ' } });
+    const created = await call(createAntenna, { user: admin, json: { ...PANEL_BODY, notes: '  Wall bracket included ' } });
     expect(created.status).toBe(201);
-    expect(created.body).toMatchObject({ ...PANEL, notes: 'Wall bracket included' });
+    expect(created.body).toMatchObject({ ...PANEL_BODY, notes: 'Wall bracket included' });
     const id = created.body.id;
     const list = await call(listAntennas, { user: admin });
     expect(list.body).toMatchObject({ total: 1, items: [{ id, name: 'Test panel' }] });
@@ -106,20 +86,20 @@ describe('catalogue API', () => {
       'gain_table.1.freq_mhz': ['Frequency must be at most 6000 MHz'],
       'gain_table.1.gain_dbi': ['Gain must be a number'],
     });
-    const unsorted = await call(createAntenna, { user: admin, json: { ...PANEL, gain_table: [PANEL.gain_table[1], PANEL.gain_table[0]] } });
+    const unsorted = await call(createAntenna, { user: admin, json: { ...PANEL_BODY, gain_table: [PANEL_BODY.gain_table[1], PANEL_BODY.gain_table[0]] } });
     expect(unsorted.body.error.fields).toEqual({ 'gain_table.1.freq_mhz': ['List frequencies from low to high, each once'] });
-    const empty = await call(createAntenna, { user: admin, json: { ...PANEL, gain_table: [] } });
+    const empty = await call(createAntenna, { user: admin, json: { ...PANEL_BODY, gain_table: [] } });
     expect(empty.body.error.fields.gain_table).toEqual(['Add at least one row']);
-    const directional = await call(createAntenna, { user: admin, json: { ...PANEL, horizontal_beamwidth_deg: undefined } });
+    const directional = await call(createAntenna, { user: admin, json: { ...PANEL_BODY, horizontal_beamwidth_deg: undefined } });
     expect(directional.body.error.fields.horizontal_beamwidth_deg).toEqual(['Required for a directional antenna']);
-    const omni = await call(createAntenna, { user: admin, json: { ...PANEL, kind: 'omni' } });
+    const omni = await call(createAntenna, { user: admin, json: { ...PANEL_BODY, kind: 'omni' } });
     expect(omni.body.error.fields.horizontal_beamwidth_deg).toEqual(['An omni antenna covers 360°']);
   });
 
   it('refuses a duplicate name (any case) with 409', async () => {
     const admin = asSessionUser(await makeUser('admin'));
-    await call(createAntenna, { user: admin, json: PANEL });
-    const dup = await call(createAntenna, { user: admin, json: { ...PANEL, name: 'TEST PANEL' } });
+    await call(createAntenna, { user: admin, json: PANEL_BODY });
+    const dup = await call(createAntenna, { user: admin, json: { ...PANEL_BODY, name: 'TEST PANEL' } });
     expect(dup.status).toBe(409);
     expect(dup.body.error.code).toBe('CONFLICT');
   });
@@ -134,10 +114,10 @@ describe('catalogue API', () => {
 
   it('creates a cable with common-practice connector defaults and edits it', async () => {
     const admin = asSessionUser(await makeUser('admin'));
-    const created = await call(createCable, { user: admin, json: FEEDER });
+    const created = await call(createCable, { user: admin, json: FEEDER_BODY });
     expect(created.status).toBe(201);
     // 0.1–0.2 dB per mated pair — common practice.
-    expect(created.body).toMatchObject({ ...FEEDER, connector_loss_db: 0.15, connectors: 2, notes: null });
+    expect(created.body).toMatchObject({ ...FEEDER_BODY, connector_loss_db: 0.15, connectors: 2, notes: null });
     const patched = await call(patchCable, { method: 'PATCH', user: admin, params: { id: created.body.id }, json: { connectors: 4 } });
     expect(patched.body.connectors).toBe(4);
     const nothing = await call(patchCable, { method: 'PATCH', user: admin, params: { id: created.body.id }, json: {} });
@@ -165,8 +145,8 @@ describe('catalogue API', () => {
 
   it('will not delete kit that a plan uses (409)', async () => {
     const admin = asSessionUser(await makeUser('admin'));
-    const antenna = await call(createAntenna, { user: admin, json: PANEL });
-    const cable = await call(createCable, { user: admin, json: FEEDER });
+    const antenna = await call(createAntenna, { user: admin, json: PANEL_BODY });
+    const cable = await call(createCable, { user: admin, json: FEEDER_BODY });
     const [customer] = await testDb()('customers')
       .insert({ name: 'Test customer', address_label: 'Test farm', geom: testDb().raw('ST_SetSRID(ST_MakePoint(-128.5, -47.2), 4326)') })
       .returning('id');

@@ -56,6 +56,7 @@ import { call, type CallResult } from '../helpers/endpoint';
 import { testDb, truncateAll } from '../helpers/db';
 import { asSessionUser, makeUser } from '../helpers/factories';
 import { SEA_SQUARE } from '../helpers/geojson';
+import { FEEDER_BODY, PANEL_BODY } from '../helpers/catalogue-bodies';
 
 const RUNS = { numRuns: 15 };
 // Tables a request may touch without storing anything of the client's: throttling counters and sessions.
@@ -246,16 +247,7 @@ const bodyCases: BodyCase[] = [
     route: createAntenna,
     method: 'POST',
     schema: AntennaInputSchema,
-    valid: () => ({
-      name: 'Probe panel',
-      kind: 'directional',
-      ports: 2,
-      horizontal_beamwidth_deg: 40,
-      gain_table: [
-        { freq_mhz: 700, gain_dbi: 7 },
-        { freq_mhz: 2700, gain_dbi: 9 },
-      ],
-    }),
+    valid: () => ({ ...PANEL_BODY, name: 'Probe panel' }),
   },
   {
     name: 'PATCH /api/catalogue/antennas/:id',
@@ -270,13 +262,7 @@ const bodyCases: BodyCase[] = [
     route: createCable,
     method: 'POST',
     schema: CableInputSchema,
-    valid: () => ({
-      name: 'Probe feeder',
-      loss_table: [
-        { freq_mhz: 800, loss_db_per_m: 0.12 },
-        { freq_mhz: 2600, loss_db_per_m: 0.23 },
-      ],
-    }),
+    valid: () => ({ ...FEEDER_BODY, name: 'Probe feeder' }),
   },
   {
     name: 'PATCH /api/catalogue/cables/:id',

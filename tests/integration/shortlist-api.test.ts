@@ -6,7 +6,8 @@ import { getDestination } from '../../src/lib/domain/geodesy';
 import { call } from '../helpers/endpoint';
 import { testDb, truncateAll } from '../helpers/db';
 import { asSessionUser, makeUser } from '../helpers/factories';
-import { heightTiff } from '../helpers/geotiff';
+import { heightTiff } from '../../src/lib/demo/height-tiff';
+import { insertB20Cell, insertMast } from '../helpers/shortlist-fixture';
 import type { SessionUser } from '../../src/lib/server/session-user';
 
 // Hand-built fixture (invented): customer on flat ground at 100 m; mast N 6 km due north behind a
@@ -33,36 +34,9 @@ const fixtureTiff = () =>
 const ids: Record<string, string> = {};
 let planner: SessionUser;
 
-async function mast(name: string, p: { lat: number; lon: number }, status = 'active') {
-  const [row] = await testDb()('masts')
-    .insert({
-      name,
-      geom: testDb().raw('ST_SetSRID(ST_MakePoint(?, ?), 4326)', [p.lon, p.lat]),
-      ground_elevation_m: 100,
-      structure_height_m: 40,
-      structure_type: 'lattice_tower',
-      status,
-    })
-    .returning('id');
-  return String(row.id);
-}
-
-async function cell(mastId: string, operatorId: string, azimuth: number, height: number, pci: number) {
-  const [row] = await testDb()('cells')
-    .insert({
-      mast_id: mastId,
-      operator_id: operatorId,
-      tech: 'lte',
-      band: 'B20',
-      channel: 6300,
-      dl_mhz: 806,
-      pci,
-      sector_azimuth_deg: azimuth,
-      antenna_height_m: height,
-    })
-    .returning('id');
-  return String(row.id);
-}
+const mast = (name: string, p: { lat: number; lon: number }, status = 'active') => insertMast(testDb(), name, p, { structure_type: 'lattice_tower', status });
+const cell = (mastId: string, operatorId: string, azimuth: number, height: number, pci: number) =>
+  insertB20Cell(testDb(), mastId, operatorId, { azimuthDeg: azimuth, heightM: height, pci });
 
 beforeAll(async () => {
   await truncateAll();

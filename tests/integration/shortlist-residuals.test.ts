@@ -7,7 +7,8 @@ import { getDestination } from '../../src/lib/domain/geodesy';
 import { call } from '../helpers/endpoint';
 import { testDb, truncateAll } from '../helpers/db';
 import { asSessionUser, makeUser } from '../helpers/factories';
-import { heightTiff } from '../helpers/geotiff';
+import { heightTiff } from '../../src/lib/demo/height-tiff';
+import { insertB20Cell, insertMast } from '../helpers/shortlist-fixture';
 import type { SessionUser } from '../../src/lib/server/session-user';
 
 // Invented fixture: customer on flat 100 m ground; a 180 m ridge 3 km north of it; one mast 6 km
@@ -36,32 +37,8 @@ beforeAll(async () => {
   planner = asSessionUser(await makeUser('planner'));
   const db = testDb();
   const [op] = await db('operators').insert({ name: 'Test op', mcc: '001', mnc: '01', colour: '#336699' }).returning('id');
-  const mast = async (name: string, p: { lat: number; lon: number }) =>
-    String(
-      (
-        await db('masts')
-          .insert({ name, geom: db.raw('ST_SetSRID(ST_MakePoint(?, ?), 4326)', [p.lon, p.lat]), ground_elevation_m: 100, structure_height_m: 40 })
-          .returning('id')
-      )[0].id,
-    );
-  const cell = async (mastId: string, azimuth: number, pci: number) =>
-    String(
-      (
-        await db('cells')
-          .insert({
-            mast_id: mastId,
-            operator_id: op.id,
-            tech: 'lte',
-            band: 'B20',
-            channel: 6300,
-            dl_mhz: 806,
-            pci,
-            sector_azimuth_deg: azimuth,
-            antenna_height_m: 30,
-          })
-          .returning('id')
-      )[0].id,
-    );
+  const mast = (name: string, p: { lat: number; lon: number }) => insertMast(db, name, p);
+  const cell = (mastId: string, azimuth: number, pci: number) => insertB20Cell(db, mastId, String(op.id), { azimuthDeg: azimuth, heightM: 30, pci });
   ids.north = await cell(await mast('North hill', north), 180, 11);
   ids.east = await cell(await mast('East farm', east), 270, 22);
   const gain = JSON.stringify([
