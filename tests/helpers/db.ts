@@ -17,13 +17,19 @@ export async function truncateAll(): Promise<void> {
   if (!rows.length) return;
   const sql = `TRUNCATE ${rows.map((r) => `"${r.tablename}"`).join(', ')} RESTART IDENTITY CASCADE`;
   // A background job of the app under test (the signal map's sweep, the job queue) may hold locks on
-  // some of these tables; PostgreSQL then picks one side of the deadlock (40P01) and the other goes on.
+  // some of these tables. PostgreSQL breaks a deadlock it sees (40P01); one that runs through the
+  // client it cannot see (a job's transaction awaiting its own progress update, queued behind this
+  // TRUNCATE), so the TRUNCATE gives up its place after a short lock wait (55P03) and tries again.
   for (let attempt = 1; ; attempt++) {
     try {
-      await db.raw(sql);
+      await db.transaction(async (trx) => {
+        await trx.raw(`SET LOCAL lock_timeout = '2s'`);
+        await trx.raw(sql);
+      });
       return;
     } catch (err) {
-      if ((err as { code?: string }).code !== '40P01' || attempt >= 5) throw err;
+      const code = (err as { code?: string }).code;
+      if (!(code === '40P01' || code === '55P03') || attempt >= 15) throw err;
       await new Promise((resolve) => setTimeout(resolve, 100 * attempt));
     }
   }
