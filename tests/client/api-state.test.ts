@@ -1,6 +1,6 @@
 // The state behind useQuery / useSubmit: only the latest answer is published, nothing after the
 // island is gone, failures keep the API's error shape (code, message, field errors).
-import { describe, expect, it } from 'vitest';
+import { afterEach, describe, expect, it, vi } from 'vitest';
 import { ApiError, checkWith } from '../../src/lib/client/api';
 import { QueryRunner, Submitter, fieldError, type QueryState, type SubmitState } from '../../src/components/ui/api-state';
 import { z } from 'zod';
@@ -144,6 +144,80 @@ describe('QueryRunner', () => {
     slow.resolve(6);
     await done;
     expect(r.last()).toEqual({ data: 5, error: null, loading: false });
+  });
+});
+
+describe('QueryRunner polling (a job under way)', () => {
+  afterEach(() => {
+    vi.useRealTimers();
+  });
+
+  /** A job whose answers go 10 %, 60 %, done; counts the asks. */
+  function job(failAt = -1) {
+    const answers = [10, 60, 100];
+    let asked = 0;
+    const load = async () => {
+      const n = asked++;
+      if (n === failAt) throw new ApiError(503, 'UNAVAILABLE', 'Try again later');
+      return { progress: answers[Math.min(n, answers.length - 1)] };
+    };
+    return { load, asked: () => asked };
+  }
+  const poll = { everyMs: 700, while: (j: { progress: number }) => j.progress < 100 };
+
+  it('asks again every interval while the answer says it is under way, then stops', async () => {
+    vi.useFakeTimers();
+    const r = recorder<QueryState<{ progress: number }>>();
+    const runner = new QueryRunner<{ progress: number }>(r.publish);
+    const j = job();
+    await runner.run(j.load, { poll });
+    expect(r.last().data).toEqual({ progress: 10 });
+    await vi.advanceTimersByTimeAsync(699);
+    expect(j.asked()).toBe(1);
+    await vi.advanceTimersByTimeAsync(1);
+    expect(j.asked()).toBe(2);
+    expect(r.last().data).toEqual({ progress: 60 });
+    await vi.advanceTimersByTimeAsync(700);
+    expect(r.last()).toEqual({ data: { progress: 100 }, error: null, loading: false });
+    await vi.advanceTimersByTimeAsync(10_000);
+    expect(j.asked()).toBe(3);
+    expect(vi.getTimerCount()).toBe(0);
+  });
+
+  it('stops at a failure and keeps its error', async () => {
+    vi.useFakeTimers();
+    const r = recorder<QueryState<{ progress: number }>>();
+    const runner = new QueryRunner<{ progress: number }>(r.publish);
+    const j = job(1);
+    await runner.run(j.load, { poll });
+    await vi.advanceTimersByTimeAsync(700);
+    expect(r.last().error?.message).toBe('Try again later');
+    await vi.advanceTimersByTimeAsync(10_000);
+    expect(j.asked()).toBe(2);
+  });
+
+  it('stops when the island goes away, is reset, or a newer load starts', async () => {
+    vi.useFakeTimers();
+    for (const end of ['stop', 'reset', 'newer'] as const) {
+      const runner = new QueryRunner<{ progress: number }>(() => undefined);
+      const j = job();
+      await runner.run(j.load, { poll });
+      if (end === 'stop') runner.stop();
+      else if (end === 'reset') runner.reset();
+      else await runner.run(async () => ({ progress: 100 }), { poll });
+      await vi.advanceTimersByTimeAsync(10_000);
+      expect(j.asked()).toBe(1);
+      expect(vi.getTimerCount()).toBe(0);
+    }
+  });
+
+  it('does not poll without the option', async () => {
+    vi.useFakeTimers();
+    const runner = new QueryRunner<{ progress: number }>(() => undefined);
+    const j = job();
+    await runner.run(j.load);
+    await vi.advanceTimersByTimeAsync(10_000);
+    expect(j.asked()).toBe(1);
   });
 });
 

@@ -6,6 +6,7 @@ import { TECHS, type Tech } from '../../lib/schemas/mast-enums';
 import { CellInputSchema } from '../../lib/schemas/masts';
 import { bandChoices, bandForTech, cellDraftOf, cellInputOf, changedCellFields, describeChannel, newCellDraft, type CellDraft } from './cell-form';
 import { Field, FormActions, FormAlert, OperatorOptions, inputProps } from './form-parts';
+import { ChoiceOptions } from '../ui/field';
 import { TECH_LABELS } from './MapFilters';
 import type { OperatorMark } from './mast-icons';
 import { useMapForm } from './use-map-form';
@@ -76,11 +77,7 @@ export default function CellForm({ mastId, cell, operators, onSaved, onCancel, o
         </Field>
         <Field id="cell-tech" label="Technology" errors={errors.tech}>
           <select {...input('tech')}>
-            {TECHS.map((t) => (
-              <option key={t} value={t}>
-                {TECH_LABELS[t]}
-              </option>
-            ))}
+            <ChoiceOptions values={TECHS} labels={TECH_LABELS} />
           </select>
         </Field>
         <Field id="cell-channel" label={`Channel (${CHANNEL_NAME[draft.tech]})`} errors={errors.channel} hint={channelHint}>

@@ -1,7 +1,8 @@
 import { useEffect, useId, useRef, useState, type KeyboardEvent } from 'react';
-import { ApiError } from '../../lib/client/api';
 import { mapApi } from '../../lib/client/masts-api';
 import type { SearchHitJson } from '../../lib/schemas/mast-responses';
+import { useDebounced } from '../tools/useDebounced';
+import { useQuery } from '../ui/use-api';
 
 interface Props {
   onPick: (hit: SearchHitJson) => void;
@@ -15,39 +16,18 @@ export default function MapSearch({ onPick }: Props) {
   const listId = `${id}-list`;
   const inputRef = useRef<HTMLInputElement>(null);
   const [text, setText] = useState('');
-  const [hits, setHits] = useState<SearchHitJson[]>([]);
   const [open, setOpen] = useState(false);
   const [active, setActive] = useState(-1);
-  const [message, setMessage] = useState<string | null>(null);
-
-  useEffect(() => {
-    const q = text.trim();
-    if (!q) {
-      setHits([]);
-      setMessage(null);
-      return;
-    }
-    let stale = false;
-    const timer = setTimeout(() => {
-      mapApi.search(q).then(
-        (r) => {
-          if (stale) return;
-          setHits(r.items);
-          setActive(r.items.length ? 0 : -1);
-          setMessage(r.items.length ? null : `Nothing found for “${q}”`);
-        },
-        (e: unknown) => {
-          if (stale) return;
-          setHits([]);
-          setMessage(e instanceof ApiError ? e.message : 'Search failed');
-        },
-      );
-    }, 180);
-    return () => {
-      stale = true;
-      clearTimeout(timer);
-    };
-  }, [text]);
+  const typed = text.trim();
+  const settled = useDebounced(typed, 180);
+  // Cleared text asks nothing at once; typed text is asked once it has settled.
+  const found = useQuery(typed && settled ? settled : null, async () => ({ q: settled, items: (await mapApi.search(settled)).items }), {
+    failed: 'Search failed',
+    keepOnError: false,
+    onSuccess: (r) => setActive(r.items.length ? 0 : -1),
+  });
+  const hits = found.data?.items ?? [];
+  const message = found.error?.message ?? (found.data && hits.length === 0 ? `Nothing found for “${found.data.q}”` : null);
 
   // "/" focuses the search box from anywhere on the map page.
   useEffect(() => {

@@ -1,14 +1,18 @@
-import { useEffect, useRef, useState, type FormEvent } from 'react';
-import { ApiError } from '../../lib/client/api';
+import { useRef, useState, type FormEvent } from 'react';
 import { jobsApi, readingsApi } from '../../lib/client/readings-api';
 import type { JobJson } from '../../lib/schemas/jobs';
+import { useQuery, useSubmit } from '../ui/use-api';
 
 type Stage =
   | { kind: 'idle' }
   | { kind: 'uploading'; fraction: number }
-  | { kind: 'job'; job: JobJson | null; jobId: string }
+  | { kind: 'job'; jobId: string }
   | { kind: 'rejected'; message: string; lines: Array<[string, string[]]> }
   | { kind: 'error'; message: string };
+
+/** How often the job is asked about while it runs. */
+const POLL_MS = 700;
+const isRunning = (job: JobJson) => job.state !== 'completed' && job.state !== 'failed';
 
 const lineOf = (key: string) => Number(key.replace(/\D/g, ''));
 
@@ -38,19 +42,12 @@ export default function ReadingsImport() {
   const [file, setFile] = useState<File | null>(null);
   const [stage, setStage] = useState<Stage>({ kind: 'idle' });
   const input = useRef<HTMLInputElement>(null);
-
+  const upload = useSubmit({ failed: 'Could not send the file' });
   const jobId = stage.kind === 'job' ? stage.jobId : null;
-  const finished = stage.kind === 'job' && (stage.job?.state === 'completed' || stage.job?.state === 'failed');
-  useEffect(() => {
-    if (!jobId || finished) return;
-    const t = setTimeout(() => {
-      jobsApi.get(jobId).then(
-        (job) => setStage({ kind: 'job', job, jobId }),
-        (e: ApiError) => setStage({ kind: 'error', message: e.message }),
-      );
-    }, 700);
-    return () => clearTimeout(t);
-  }, [jobId, finished, stage]);
+  const polled = useQuery(jobId, () => jobsApi.get(jobId!), { failed: 'Could not read the import job', poll: { everyMs: POLL_MS, while: isRunning } });
+  const job = jobId ? polled.data : null;
+  const jobError = jobId ? (polled.error?.message ?? null) : null;
+  const finished = jobError !== null || (job !== null && !isRunning(job));
 
   async function submit(e: FormEvent) {
     e.preventDefault();
@@ -59,28 +56,26 @@ export default function ReadingsImport() {
       return;
     }
     setStage({ kind: 'uploading', fraction: 0 });
-    try {
-      const started = await readingsApi.importFile(file, (p) => setStage({ kind: 'uploading', fraction: p.loaded / p.total }));
-      setStage({ kind: 'job', job: null, jobId: started.job_id });
+    const sent = await upload.submit(() => readingsApi.importFile(file, (p) => setStage({ kind: 'uploading', fraction: p.loaded / p.total })));
+    if (sent.ok) {
+      setStage({ kind: 'job', jobId: sent.data.job_id });
       if (input.current) input.current.value = '';
       setFile(null);
-    } catch (err) {
-      if (err instanceof ApiError) {
-        const lines = Object.entries(err.fields)
-          .filter(([k]) => k.startsWith('line '))
-          .sort(([a], [b]) => lineOf(a) - lineOf(b));
-        const fileProblems = err.fields.file ?? [];
-        setStage(
-          lines.length
-            ? { kind: 'rejected', message: err.message, lines }
-            : { kind: 'error', message: [err.message, ...fileProblems.filter((m) => m !== err.message)].join(' ') },
-        );
-      } else setStage({ kind: 'error', message: 'Could not send the file' });
+      return;
     }
+    const err = sent.error;
+    const lines = Object.entries(err.fields)
+      .filter(([k]) => k.startsWith('line '))
+      .sort(([a], [b]) => lineOf(a) - lineOf(b));
+    const fileProblems = err.fields.file ?? [];
+    setStage(
+      lines.length
+        ? { kind: 'rejected', message: err.message, lines }
+        : { kind: 'error', message: [err.message, ...fileProblems.filter((m) => m !== err.message)].join(' ') },
+    );
   }
 
   const busy = stage.kind === 'uploading' || (stage.kind === 'job' && !finished);
-  const job = stage.kind === 'job' ? stage.job : null;
 
   return (
     <div className="mt-4 max-w-3xl">
@@ -105,7 +100,7 @@ export default function ReadingsImport() {
           </a>
         </div>
         {stage.kind === 'uploading' && <ProgressBar label="Uploading and checking" percent={stage.fraction * 100} />}
-        {stage.kind === 'job' && <ProgressBar label={job?.phase ? `Job: ${job.phase}` : 'Job queued'} percent={job?.progress ?? 0} />}
+        {stage.kind === 'job' && !jobError && <ProgressBar label={job?.phase ? `Job: ${job.phase}` : 'Job queued'} percent={job?.progress ?? 0} />}
       </form>
 
       <div aria-live="polite">
@@ -118,7 +113,9 @@ export default function ReadingsImport() {
           </div>
         )}
         {job?.state === 'failed' && <p className="mt-4 rounded border border-red-300 bg-red-50 p-4 text-sm">{job.message}</p>}
-        {stage.kind === 'error' && <p className="mt-4 rounded border border-red-300 bg-red-50 p-4 text-sm">{stage.message}</p>}
+        {(stage.kind === 'error' || jobError) && (
+          <p className="mt-4 rounded border border-red-300 bg-red-50 p-4 text-sm">{stage.kind === 'error' ? stage.message : jobError}</p>
+        )}
         {stage.kind === 'rejected' && (
           <div className="mt-4 rounded border border-red-300 bg-red-50 p-4 text-sm" data-testid="import-report">
             <p className="font-medium">{stage.message}</p>

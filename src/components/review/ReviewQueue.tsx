@@ -1,12 +1,14 @@
-import { useCallback, useEffect, useMemo, useState, type FormEvent } from 'react';
-import { ApiError, checkWith, type FieldErrors } from '../../lib/client/api';
+import { useEffect, useMemo, useState, type FormEvent } from 'react';
+import { checkWith } from '../../lib/client/api';
 import { reviewApi } from '../../lib/client/review-api';
-import type { DuplicateCandidateJson, ReviewItemJson, ReviewQueueJson } from '../../lib/schemas/review';
+import type { DuplicateCandidateJson, ReviewItemJson } from '../../lib/schemas/review';
 import { DECISION_LABELS, DecisionSchema, type Decision } from '../../lib/schemas/review';
 import { STRUCTURE_TYPE_LABELS } from '../../lib/schemas/mast-enums';
 import ReviewMap from './ReviewMap';
 import CellsSideBySide from './CellsSideBySide';
 import { formatDateTime, formatDistance, formatLatLon } from '../../lib/domain/format';
+import { Field, fieldAria } from '../ui/field';
+import { useQuery, useSubmit } from '../ui/use-api';
 
 const fmtDate = formatDateTime;
 const count = (n: number, one: string) => `${n} ${one}${n === 1 ? '' : 's'}`;
@@ -40,9 +42,8 @@ function DecisionForm({ item, candidate, onDecided, onStale }: DecisionFormProps
   const [decision, setDecision] = useState<Decision>(suggested);
   const [name, setName] = useState(defaultName(item));
   const [reason, setReason] = useState('');
-  const [fields, setFields] = useState<FieldErrors>({});
-  const [error, setError] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
+  const saving = useSubmit({ failed: 'Could not save the decision' });
+  const fields = saving.fields;
   const id = item.sighting.id;
 
   useEffect(() => {
@@ -60,33 +61,27 @@ function DecisionForm({ item, candidate, onDecided, onStale }: DecisionFormProps
       name: decision === 'approve' ? name.trim() || null : null,
     };
     const local = checkWith(DecisionSchema, body);
-    if (local) {
-      setFields(local);
-      setError(local.mast_id ? 'Choose a mast from the list to merge into' : 'Some fields need attention');
+    const sent = await saving.submit(() => reviewApi.decide(id, body), {
+      check: () => local,
+      checkMessage: local?.mast_id ? 'Choose a mast from the list to merge into' : undefined,
+    });
+    if (!sent.ok) {
+      // Someone else decided first: the queue reloads and says so above it.
+      if (sent.error.status === 409) {
+        saving.fail(null);
+        onStale(sent.error.message);
+      }
       return;
     }
-    setBusy(true);
-    setFields({});
-    setError(null);
-    try {
-      const r = await reviewApi.decide(id, body);
-      const who = item.sighting.author.name;
-      onDecided(
-        r.sighting.status === 'approved'
-          ? `Approved: new mast "${r.mast?.name}" with ${count(r.added_cells, 'cell')}. ${who} gets an e-mail.`
-          : r.sighting.status === 'merged'
-            ? `Merged into "${r.mast?.name}": ${count(r.added_cells, 'new cell')}, ${r.observed_cells} confirmed. ${who} gets an e-mail.`
-            : `Rejected. ${who} gets an e-mail with your reason.`,
-      );
-    } catch (err) {
-      if (err instanceof ApiError && err.status === 409) onStale(err.message);
-      else if (err instanceof ApiError) {
-        setFields(err.fields);
-        setError(err.message);
-      } else setError('Could not save the decision');
-    } finally {
-      setBusy(false);
-    }
+    const r = sent.data;
+    const who = item.sighting.author.name;
+    onDecided(
+      r.sighting.status === 'approved'
+        ? `Approved: new mast "${r.mast?.name}" with ${count(r.added_cells, 'cell')}. ${who} gets an e-mail.`
+        : r.sighting.status === 'merged'
+          ? `Merged into "${r.mast?.name}": ${count(r.added_cells, 'new cell')}, ${r.observed_cells} confirmed. ${who} gets an e-mail.`
+          : `Rejected. ${who} gets an e-mail with your reason.`,
+    );
   }
 
   const choice = (d: Decision, disabled = false, hint?: string) => (
@@ -112,9 +107,9 @@ function DecisionForm({ item, candidate, onDecided, onStale }: DecisionFormProps
   return (
     <form className="space-y-3" onSubmit={submit} noValidate aria-labelledby={`decide-${id}`}>
       <h3 id={`decide-${id}`}>Decision</h3>
-      {error && (
+      {saving.error && (
         <p role="alert" className="rounded-md border border-alarm-100 bg-alarm-50 px-3 py-2 text-sm text-alarm-700">
-          {error}
+          {saving.error.message}
         </p>
       )}
       <fieldset className="space-y-2">
@@ -128,48 +123,28 @@ function DecisionForm({ item, candidate, onDecided, onStale }: DecisionFormProps
         {choice('reject', false, 'Nothing changes on the map; the reason goes to the submitter')}
       </fieldset>
       {decision === 'approve' && (
-        <div>
-          <label htmlFor={`name-${id}`} className="field-label">
-            Name of the new mast
-          </label>
+        <Field id={`name-${id}`} label="Name of the new mast" errors={fields.name}>
           <input
-            id={`name-${id}`}
+            {...fieldAria({ id: `name-${id}`, errors: fields.name })}
             className="field-input min-h-11 text-base sm:text-sm"
             value={name}
             onChange={(e) => setName(e.target.value)}
-            aria-invalid={fields.name ? true : undefined}
-            aria-describedby={fields.name ? `name-${id}-error` : undefined}
           />
-          {fields.name && (
-            <p id={`name-${id}-error`} className="field-error">
-              {fields.name.join(' ')}
-            </p>
-          )}
-        </div>
+        </Field>
       )}
-      <div>
-        <label htmlFor={`reason-${id}`} className="field-label">
-          {decision === 'reject' ? 'Reason (required)' : 'Note to the submitter (optional)'}
-        </label>
+      <Field id={`reason-${id}`} label={decision === 'reject' ? 'Reason (required)' : 'Note to the submitter (optional)'} errors={fields.reason}>
         <textarea
-          id={`reason-${id}`}
+          {...fieldAria({ id: `reason-${id}`, errors: fields.reason })}
           rows={3}
           className="field-input text-base sm:text-sm"
           value={reason}
           onChange={(e) => setReason(e.target.value)}
-          aria-invalid={fields.reason ? true : undefined}
-          aria-describedby={fields.reason ? `reason-${id}-error` : undefined}
           placeholder={decision === 'reject' ? 'e.g. This is a floodlight pole, not a mast' : ''}
         />
-        {fields.reason && (
-          <p id={`reason-${id}-error`} className="field-error">
-            {fields.reason.join(' ')}
-          </p>
-        )}
-      </div>
+      </Field>
       {fields.mast_id && <p className="field-error">{fields.mast_id.join(' ')}</p>}
-      <button type="submit" className={`${decision === 'reject' ? 'btn-danger' : 'btn-primary'} min-h-11 w-full`} disabled={busy}>
-        {busy
+      <button type="submit" className={`${decision === 'reject' ? 'btn-danger' : 'btn-primary'} min-h-11 w-full`} disabled={saving.pending}>
+        {saving.pending
           ? 'Saving…'
           : decision === 'approve'
             ? 'Approve as a new mast'
@@ -284,46 +259,29 @@ function SightingDetail({
 
 /** Pending sightings oldest first; the chosen one with its map, photos, possible duplicates and the decision. */
 export default function ReviewQueue() {
-  const [data, setData] = useState<ReviewQueueJson | null>(null);
-  const [loadError, setLoadError] = useState<string | null>(null);
-  const [selected, setSelected] = useState<string | null>(null);
+  const queue = useQuery('queue', () => reviewApi.queue({ limit: 50 }), { failed: 'Could not load the queue' });
+  const data = queue.data;
+  const [chosen, setChosen] = useState<string | null>(null);
   const [notice, setNotice] = useState<{ text: string; tone: 'ok' | 'warn' } | null>(null);
-
-  const load = useCallback(async (keep?: string | null) => {
-    try {
-      const q = await reviewApi.queue({ limit: 50 });
-      setData(q);
-      setLoadError(null);
-      setSelected((cur) => {
-        const want = keep === undefined ? cur : keep;
-        return q.items.some((i) => i.sighting.id === want) ? want : (q.items[0]?.sighting.id ?? null);
-      });
-    } catch (e) {
-      setLoadError(e instanceof ApiError ? e.message : 'Could not load the queue');
-    }
-  }, []);
-
-  useEffect(() => {
-    void load();
-  }, [load]);
-
-  const item = data?.items.find((i) => i.sighting.id === selected) ?? null;
+  // The sighting chosen while it waits, else the oldest (after a decision the decided one is gone).
+  const item = data?.items.find((i) => i.sighting.id === chosen) ?? data?.items[0] ?? null;
+  const selected = item?.sighting.id ?? null;
 
   function decided(message: string) {
     setNotice({ text: message, tone: 'ok' });
-    void load(null);
+    queue.refetch();
     document.getElementById('review-notice')?.focus();
   }
 
   function stale(message: string) {
     setNotice({ text: message, tone: 'warn' });
-    void load(null);
+    queue.refetch();
   }
 
-  if (loadError)
+  if (queue.error)
     return (
       <p role="alert" className="mt-4 text-alarm-700">
-        {loadError}
+        {queue.error.message}
       </p>
     );
   if (!data) return <p className="mt-4 text-ink-500">Loading the queue…</p>;
@@ -370,7 +328,7 @@ export default function ReviewQueue() {
                       type="button"
                       data-testid={`queue-item-${i.sighting.id}`}
                       aria-current={i.sighting.id === selected ? 'true' : undefined}
-                      onClick={() => setSelected(i.sighting.id)}
+                      onClick={() => setChosen(i.sighting.id)}
                       className={`flex min-h-11 w-full flex-col gap-0.5 rounded px-2 py-2 text-left text-sm ${i.sighting.id === selected ? 'bg-ink-100' : 'hover:bg-ink-50'}`}
                     >
                       <span className="flex justify-between gap-2">

@@ -2,22 +2,24 @@
 import { useEffect, useState } from 'react';
 import { SIGHTING_STRUCTURE_LABELS } from '../../lib/schemas/sightings';
 import { formatLatLon } from '../../lib/domain/format';
-import { flushOutbox, listOutbox, onOutboxChange, removeFromOutbox, saveToOutbox, type OutboxEntry } from '../../lib/client/sighting-outbox';
+import { flushOutbox, listOutbox, onOutboxChange, removeFromOutbox, saveToOutbox } from '../../lib/client/sighting-outbox';
+import { useQuery } from '../ui/use-api';
 
 export default function OutboxList({ onSent }: { onSent?: () => void }) {
-  const [entries, setEntries] = useState<OutboxEntry[]>([]);
+  // What this device keeps (IndexedDB); a device that cannot keep anything shows nothing.
+  const outbox = useQuery('outbox', () => listOutbox(), { keepOnError: false });
+  const entries = outbox.data ?? [];
+  const refetch = outbox.refetch;
   const [online, setOnline] = useState(true);
 
   useEffect(() => {
-    const load = () => listOutbox().then(setEntries, () => setEntries([]));
-    load();
     setOnline(navigator.onLine);
     const up = () => setOnline(true);
     const down = () => setOnline(false);
     window.addEventListener('online', up);
     window.addEventListener('offline', down);
     const off = onOutboxChange(() => {
-      load();
+      refetch();
       onSent?.();
     });
     return () => {
@@ -25,7 +27,7 @@ export default function OutboxList({ onSent }: { onSent?: () => void }) {
       window.removeEventListener('online', up);
       window.removeEventListener('offline', down);
     };
-  }, [onSent]);
+  }, [onSent, refetch]);
 
   if (entries.length === 0) return null;
   return (

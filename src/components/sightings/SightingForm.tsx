@@ -1,9 +1,8 @@
 // The surveyor's sighting form, phone first: one column, large targets, works with no signal (the
 // sighting is kept on the device and sent when the connection returns).
-import { lazy, Suspense, useEffect, useMemo, useState, type ReactNode } from 'react';
+import { lazy, Suspense, useEffect, useMemo, useState } from 'react';
 import exifr from 'exifr';
 import { operatorsApi } from '../../lib/client/operators-api';
-import type { OperatorJson } from '../../lib/schemas/operators';
 import { flushOutbox, keepFlushing, saveToOutbox } from '../../lib/client/sighting-outbox';
 import { IMAGE_SNIFF_BYTES, sniffImageType } from '../../lib/domain/image-type';
 import { TECHS, type Tech } from '../../lib/schemas/mast-enums';
@@ -20,6 +19,9 @@ import {
 } from '../../lib/schemas/sightings';
 import OutboxList from './OutboxList';
 import type { LatLon } from './PositionMap';
+import { ChoiceOptions, Field, FieldErrorText, fieldAria } from '../ui/field';
+import { OperatorOptions } from '../map/form-parts';
+import { useQuery } from '../ui/use-api';
 
 const PositionMap = lazy(() => import('./PositionMap'));
 
@@ -80,28 +82,12 @@ async function readGps(file: File): Promise<LatLon | null> {
   }
 }
 
-function Field({ id, label, error, hint, children }: { id: string; label: string; error?: string; hint?: string; children: ReactNode }) {
-  return (
-    <div>
-      <label htmlFor={id} className="field-label">
-        {label}
-      </label>
-      {children}
-      {hint && !error && <p className="mt-1 text-xs text-ink-600">{hint}</p>}
-      {error && (
-        <p className="field-error" id={`${id}-error`} role="alert">
-          {error}
-        </p>
-      )}
-    </div>
-  );
-}
-
 const INPUT = 'field-input min-h-12 text-base';
 const BIG_BUTTON = 'min-h-12 w-full text-base';
 
 export default function SightingForm({ fallbackCenter }: { fallbackCenter: LatLon }) {
-  const [operators, setOperators] = useState<OperatorJson[]>([]);
+  // Without a connection the list stays empty and the form still works.
+  const operators = useQuery('operators', () => operatorsApi.list()).data?.items ?? [];
   const [lat, setLat] = useState('');
   const [lon, setLon] = useState('');
   const [source, setSource] = useState<PositionSource>('map');
@@ -118,13 +104,7 @@ export default function SightingForm({ fallbackCenter }: { fallbackCenter: LatLo
   const [notice, setNotice] = useState<{ tone: 'ok' | 'wait' | 'bad'; text: string } | null>(null);
   const [busy, setBusy] = useState(false);
 
-  useEffect(() => {
-    operatorsApi.list().then(
-      (r) => setOperators(r.items),
-      () => undefined,
-    );
-    return keepFlushing();
-  }, []);
+  useEffect(() => keepFlushing(), []);
 
   const position = useMemo<LatLon | null>(() => {
     const a = Number(lat);
@@ -293,8 +273,16 @@ export default function SightingForm({ fallbackCenter }: { fallbackCenter: LatLo
     }
   }
 
-  const invalid = (key: string) => (errors[key] ? { 'aria-invalid': true as const, 'aria-describedby': `${key.replace(/\./g, '-')}-error` } : {});
-  const cellError = (i: number, field: string) => errors[`cells.${i}.${field}`];
+  /** A field's frame: its id, label, hint, and the message for `key` (the schema's name for it). */
+  const frame = (id: string, key: string, label: string, hint?: string) => ({ id, label, hint, errors: errors[key] ? [errors[key]] : undefined });
+  const field = {
+    structure: frame('structure_type', 'structure_type', 'Kind of structure'),
+    lat: frame('lat', 'lat', 'Latitude'),
+    lon: frame('lon', 'lon', 'Longitude'),
+    height: frame('height', 'estimated_height_m', 'Estimated height (m)', 'A guess is fine: a storey is about 3 m.'),
+    observedAt: frame('observed_at', 'observed_at', 'Seen at'),
+    notes: frame('notes', 'notes', 'Notes (optional)', 'Access, landmarks, anything a reviewer should know. No personal details.'),
+  };
 
   return (
     <div className="mx-auto max-w-xl space-y-5">
@@ -371,13 +359,12 @@ export default function SightingForm({ fallbackCenter }: { fallbackCenter: LatLo
             Tap the map to place the marker; drag it to correct. Without a connection the map may stay blank: type the position instead.
           </p>
           <div className="grid grid-cols-2 gap-3">
-            <Field id="lat" label="Latitude" error={errors.lat}>
+            <Field {...field.lat}>
               <input
-                id="lat"
+                {...fieldAria(field.lat)}
                 className={INPUT}
                 inputMode="decimal"
                 value={lat}
-                {...invalid('lat')}
                 onChange={(e) => {
                   setLat(e.target.value);
                   setSource('map');
@@ -386,13 +373,12 @@ export default function SightingForm({ fallbackCenter }: { fallbackCenter: LatLo
                 placeholder="-47.21"
               />
             </Field>
-            <Field id="lon" label="Longitude" error={errors.lon}>
+            <Field {...field.lon}>
               <input
-                id="lon"
+                {...fieldAria(field.lon)}
                 className={INPUT}
                 inputMode="decimal"
                 value={lon}
-                {...invalid('lon')}
                 onChange={(e) => {
                   setLon(e.target.value);
                   setSource('map');
@@ -423,7 +409,7 @@ export default function SightingForm({ fallbackCenter }: { fallbackCenter: LatLo
           <h2>The structure</h2>
           <fieldset>
             <legend className="field-label">Kind of structure</legend>
-            <div className="grid grid-cols-2 gap-2" role="radiogroup" {...invalid('structure_type')}>
+            <div className="grid grid-cols-2 gap-2" role="radiogroup" {...fieldAria(field.structure)}>
               {SIGHTING_STRUCTURE_TYPES.map((t) => (
                 <label
                   key={t}
@@ -434,21 +420,10 @@ export default function SightingForm({ fallbackCenter }: { fallbackCenter: LatLo
                 </label>
               ))}
             </div>
-            {errors.structure_type && (
-              <p className="field-error" id="structure_type-error" role="alert">
-                {errors.structure_type}
-              </p>
-            )}
+            <FieldErrorText id={field.structure.id} errors={field.structure.errors} />
           </fieldset>
-          <Field id="height" label="Estimated height (m)" error={errors.estimated_height_m} hint="A guess is fine: a storey is about 3 m.">
-            <input
-              id="height"
-              className={INPUT}
-              inputMode="decimal"
-              value={height}
-              {...invalid('estimated_height_m')}
-              onChange={(e) => setHeight(e.target.value)}
-            />
+          <Field {...field.height}>
+            <input {...fieldAria(field.height)} className={INPUT} inputMode="decimal" value={height} onChange={(e) => setHeight(e.target.value)} />
           </Field>
           <fieldset>
             <legend className="field-label">Operators seen (signs, equipment, the phone&apos;s network list)</legend>
@@ -475,6 +450,21 @@ export default function SightingForm({ fallbackCenter }: { fallbackCenter: LatLo
             const ranges = { rsrp: getReadingRange(c.tech, 'rsrp'), rsrq: getReadingRange(c.tech, 'rsrq'), sinr: getReadingRange(c.tech, 'sinr') };
             const id = (f: string) => `cell-${i}-${f}`;
             const rangeHint = (r: { min: number; max: number; unit: string } | null) => (r ? `${r.min} … ${r.max} ${r.unit}` : undefined);
+            const cell = {
+              operator: frame(id('operator'), `cells.${i}.operator_id`, 'Operator'),
+              tech: frame(id('tech'), `cells.${i}.tech`, 'Technology'),
+              channel: frame(
+                id('channel'),
+                `cells.${i}.channel`,
+                c.tech === 'nr' ? 'NR-ARFCN' : c.tech === 'lte' ? 'EARFCN' : c.tech === 'umts' ? 'UARFCN' : 'ARFCN',
+              ),
+              band: frame(id('band'), `cells.${i}.band`, 'Band (optional)'),
+              pci: frame(id('pci'), `cells.${i}.pci`, c.tech === 'umts' ? 'PSC' : 'PCI'),
+              azimuth: frame(id('azimuth'), `cells.${i}.sector_azimuth_deg`, 'Sector azimuth (°)', 'If known'),
+              rsrp: frame(id('rsrp'), `cells.${i}.rsrp_dbm`, 'RSRP', rangeHint(ranges.rsrp)),
+              rsrq: frame(id('rsrq'), `cells.${i}.rsrq_db`, 'RSRQ', rangeHint(ranges.rsrq)),
+              sinr: frame(id('sinr'), `cells.${i}.sinr_db`, 'SINR', rangeHint(ranges.sinr)),
+            };
             return (
               <fieldset key={c.key} className="space-y-3 rounded-md border border-ink-200 p-3" aria-label={`Cell ${i + 1}`}>
                 <div className="flex items-center justify-between">
@@ -487,51 +477,44 @@ export default function SightingForm({ fallbackCenter }: { fallbackCenter: LatLo
                     Remove cell {i + 1}
                   </button>
                 </div>
-                <Field id={id('operator')} label="Operator" error={cellError(i, 'operator_id')}>
-                  <select id={id('operator')} className={INPUT} value={c.operator_id} onChange={(e) => updateCell(c.key, { operator_id: e.target.value })}>
+                <Field {...cell.operator}>
+                  <select
+                    {...fieldAria(cell.operator)}
+                    className={INPUT}
+                    value={c.operator_id}
+                    onChange={(e) => updateCell(c.key, { operator_id: e.target.value })}
+                  >
                     <option value="">Choose…</option>
-                    {operators.map((o) => (
-                      <option key={o.id} value={o.id}>
-                        {o.name}
-                      </option>
-                    ))}
+                    <OperatorOptions operators={operators} />
                   </select>
                 </Field>
-                <Field id={id('tech')} label="Technology" error={cellError(i, 'tech')}>
-                  <select id={id('tech')} className={INPUT} value={c.tech} onChange={(e) => updateCell(c.key, { tech: e.target.value as Tech })}>
-                    {TECHS.map((t) => (
-                      <option key={t} value={t}>
-                        {TECH_LABELS[t]}
-                      </option>
-                    ))}
+                <Field {...cell.tech}>
+                  <select {...fieldAria(cell.tech)} className={INPUT} value={c.tech} onChange={(e) => updateCell(c.key, { tech: e.target.value as Tech })}>
+                    <ChoiceOptions values={TECHS} labels={TECH_LABELS} />
                   </select>
                 </Field>
                 <div className="grid grid-cols-2 gap-3">
-                  <Field
-                    id={id('channel')}
-                    label={c.tech === 'nr' ? 'NR-ARFCN' : c.tech === 'lte' ? 'EARFCN' : c.tech === 'umts' ? 'UARFCN' : 'ARFCN'}
-                    error={cellError(i, 'channel')}
-                  >
+                  <Field {...cell.channel}>
                     <input
-                      id={id('channel')}
+                      {...fieldAria(cell.channel)}
                       className={INPUT}
                       inputMode="numeric"
                       value={c.channel}
                       onChange={(e) => updateCell(c.key, { channel: e.target.value })}
                     />
                   </Field>
-                  <Field id={id('band')} label="Band (optional)" error={cellError(i, 'band')}>
+                  <Field {...cell.band}>
                     <input
-                      id={id('band')}
+                      {...fieldAria(cell.band)}
                       className={INPUT}
                       value={c.band}
                       placeholder={c.tech === 'nr' ? 'n78' : 'B20'}
                       onChange={(e) => updateCell(c.key, { band: e.target.value })}
                     />
                   </Field>
-                  <Field id={id('pci')} label={c.tech === 'umts' ? 'PSC' : 'PCI'} error={cellError(i, 'pci')}>
+                  <Field {...cell.pci}>
                     <input
-                      id={id('pci')}
+                      {...fieldAria(cell.pci)}
                       className={INPUT}
                       inputMode="numeric"
                       value={c.pci}
@@ -539,9 +522,9 @@ export default function SightingForm({ fallbackCenter }: { fallbackCenter: LatLo
                       onChange={(e) => updateCell(c.key, { pci: e.target.value })}
                     />
                   </Field>
-                  <Field id={id('azimuth')} label="Sector azimuth (°)" error={cellError(i, 'sector_azimuth_deg')} hint="If known">
+                  <Field {...cell.azimuth}>
                     <input
-                      id={id('azimuth')}
+                      {...fieldAria(cell.azimuth)}
                       className={INPUT}
                       inputMode="decimal"
                       value={c.sector_azimuth_deg}
@@ -551,27 +534,27 @@ export default function SightingForm({ fallbackCenter }: { fallbackCenter: LatLo
                 </div>
                 {ranges.rsrp && (
                   <div className="grid grid-cols-3 gap-2">
-                    <Field id={id('rsrp')} label="RSRP" error={cellError(i, 'rsrp_dbm')} hint={rangeHint(ranges.rsrp)}>
+                    <Field {...cell.rsrp}>
                       <input
-                        id={id('rsrp')}
+                        {...fieldAria(cell.rsrp)}
                         className={INPUT}
                         inputMode="decimal"
                         value={c.rsrp_dbm}
                         onChange={(e) => updateCell(c.key, { rsrp_dbm: e.target.value })}
                       />
                     </Field>
-                    <Field id={id('rsrq')} label="RSRQ" error={cellError(i, 'rsrq_db')} hint={rangeHint(ranges.rsrq)}>
+                    <Field {...cell.rsrq}>
                       <input
-                        id={id('rsrq')}
+                        {...fieldAria(cell.rsrq)}
                         className={INPUT}
                         inputMode="decimal"
                         value={c.rsrq_db}
                         onChange={(e) => updateCell(c.key, { rsrq_db: e.target.value })}
                       />
                     </Field>
-                    <Field id={id('sinr')} label="SINR" error={cellError(i, 'sinr_db')} hint={rangeHint(ranges.sinr)}>
+                    <Field {...cell.sinr}>
                       <input
-                        id={id('sinr')}
+                        {...fieldAria(cell.sinr)}
                         className={INPUT}
                         inputMode="decimal"
                         value={c.sinr_db}
@@ -590,18 +573,23 @@ export default function SightingForm({ fallbackCenter }: { fallbackCenter: LatLo
 
         <section className="card space-y-4">
           <h2>Notes</h2>
-          <Field id="observed_at" label="Seen at" error={errors.observed_at}>
+          <Field {...field.observedAt}>
             <input
-              id="observed_at"
+              {...fieldAria(field.observedAt)}
               type="datetime-local"
               className={INPUT}
               value={observedAt}
-              {...invalid('observed_at')}
               onChange={(e) => setObservedAt(e.target.value)}
             />
           </Field>
-          <Field id="notes" label="Notes (optional)" error={errors.notes} hint="Access, landmarks, anything a reviewer should know. No personal details.">
-            <textarea id="notes" className="field-input min-h-24 text-base" value={notes} onChange={(e) => setNotes(e.target.value)} maxLength={2000} />
+          <Field {...field.notes}>
+            <textarea
+              {...fieldAria(field.notes)}
+              className="field-input min-h-24 text-base"
+              value={notes}
+              onChange={(e) => setNotes(e.target.value)}
+              maxLength={2000}
+            />
           </Field>
         </section>
 

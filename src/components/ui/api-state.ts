@@ -18,6 +18,11 @@ export interface QueryOptions<T> {
   keepWhenIdle?: boolean;
   /** Called with an answer that is still wanted, before it is published. */
   onSuccess?: (data: T) => void;
+  /**
+   * Asks again `everyMs` after each answer for which `while` holds (a job under way). A failure, an
+   * answer for which it no longer holds, a newer load, `reset()` or `stop()` ends the polling.
+   */
+  poll?: { everyMs: number; while: (data: T) => boolean };
 }
 
 export type Load<T> = (signal: AbortSignal) => Promise<T>;
@@ -31,6 +36,7 @@ export const idleQuery = <T>(loading = false): QueryState<T> => ({ data: null, e
 export class QueryRunner<T> {
   private generation = 0;
   private controller: AbortController | null = null;
+  private pollTimer: ReturnType<typeof setTimeout> | null = null;
   private state: QueryState<T>;
 
   constructor(
@@ -52,6 +58,8 @@ export class QueryRunner<T> {
   private invalidate(): number {
     this.controller?.abort();
     this.controller = null;
+    if (this.pollTimer !== null) clearTimeout(this.pollTimer);
+    this.pollTimer = null;
     return ++this.generation;
   }
 
@@ -75,6 +83,13 @@ export class QueryRunner<T> {
     this.controller = null;
     options.onSuccess?.(data);
     this.set({ data, error: null, loading: false });
+    const poll = options.poll;
+    if (poll && generation === this.generation && poll.while(data)) {
+      this.pollTimer = setTimeout(() => {
+        this.pollTimer = null;
+        void this.run(load, options);
+      }, poll.everyMs);
+    }
   }
 
   /** Back to nothing asked: drops any load under way, and the answer unless `keepData`. */

@@ -41,3 +41,12 @@ export function Field({ id, label, errors, hint, children }: FieldFrame & { chil
     </div>
   );
 }
+
+/** A select's options for a fixed list of values, each shown with its words (technologies, kinds). */
+export function ChoiceOptions<V extends string>({ values, labels }: { values: readonly V[]; labels: Readonly<Partial<Record<V, string>>> }) {
+  return values.map((v) => (
+    <option key={v} value={v}>
+      {labels[v] ?? v}
+    </option>
+  ));
+}

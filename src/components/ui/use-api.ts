@@ -30,7 +30,7 @@ export interface Query<T> extends QueryState<T> {
 /**
  * Loads whenever `key` changes (null: nothing to ask, state back to empty unless `keepWhenIdle`). `load` and `options`
  * are read when the load starts, so they may be new functions on every render; put everything the
- * answer depends on into `key`.
+ * answer depends on into `key`. `options.poll` asks again while the answer says something is under way.
  */
 export function useQuery<T>(key: string | null, load: Load<T>, options: QueryOptions<T> = {}): Query<T> {
   const [state, setState] = useState<QueryState<T>>(() => idleQuery(key !== null));
@@ -41,8 +41,9 @@ export function useQuery<T>(key: string | null, load: Load<T>, options: QueryOpt
     latest.current = { key, load, options };
   });
   const start = useCallback(() => {
-    const { load: now, options: opts } = latest.current;
-    return runner.run(now, { ...opts, onSuccess: (data) => latest.current.options.onSuccess?.(data) });
+    const opts = latest.current.options;
+    // A poll asks again with the load of the latest render.
+    return runner.run((signal) => latest.current.load(signal), { ...opts, onSuccess: (data) => latest.current.options.onSuccess?.(data) });
   }, [runner]);
   useEffect(() => {
     if (key === null) {
