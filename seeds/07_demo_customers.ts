@@ -71,6 +71,12 @@ const BOOKED_DAYS_FROM_LOAD = [-3, 0, 9];
 function dayAfter(from: Date, days: number): string {
   return new Date(Date.UTC(from.getUTCFullYear(), from.getUTCMonth(), from.getUTCDate() + days)).toISOString().slice(0, 10);
 }
+/** Dates a plan's last change of state to the visit, not to the day the demo is loaded. */
+async function stateChangedOn(knex: Knex, planId: string, at: string): Promise<void> {
+  await knex('plans')
+    .where({ id: planId })
+    .update({ state_changed_at: new Date(at) });
+}
 const SHORTLIST_DATE = new Date('2026-11-02T00:00:00Z');
 
 /** Terrain profiles straight from the demo island's elevation function. */
@@ -197,8 +203,9 @@ export async function seed(knex: Knex): Promise<void> {
     await updatePlan(knex, plan.id, { state: 'scheduled', scheduledFor }, plannerId);
     if (c.target === 'scheduled') continue;
 
-    // At the visit: readings with the router's own antenna, the install, readings through the new kit.
-    const day = `2026-11-${String(12 + i * 2).padStart(2, '0')}`;
+    // At the visit, on its booked day: readings with the router's own antenna, the install, readings
+    // through the new kit.
+    const day = scheduledFor;
     const neighbour = items.find((e) => e.pci !== null && (e.pci !== chosen!.pci || e.channel !== chosen!.channel));
     const expected = chosen!.expected_gain_db ?? 6;
     const beforeMain = Math.min(-50, Math.max(-135, round1(chosen!.predicted_rsrp_dbm - expected + random.normal(0, 2))));
@@ -233,6 +240,7 @@ export async function seed(knex: Knex): Promise<void> {
       { state: 'installed', notes: `${plan.notes} Installed at ${kit.mountHeightM} m, ${kit.cableM} m of ${cable.name}.` },
       plannerId,
     );
+    await stateChangedOn(knex, plan.id, `${day}T11:30:00Z`);
     if (c.name === 'Edric Hollowmere') continue; // after-install check still to come
 
     // One install beats the prediction, another falls short (a hedge in the way); the rest near it.
@@ -262,6 +270,7 @@ export async function seed(knex: Knex): Promise<void> {
     );
     if (c.target === 'verified') {
       await updatePlan(knex, plan.id, { state: 'verified' }, plannerId);
+      await stateChangedOn(knex, plan.id, `${day}T12:30:00Z`);
       await syncInstallReadings(knex, plan.id);
     }
   }
