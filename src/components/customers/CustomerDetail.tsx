@@ -136,8 +136,8 @@ export default function CustomerDetail({ customerId, canWrite, canRecord }: Prop
                 <a className="btn-primary py-1.5" href={`/plan?customer=${customer.id}`}>
                   Plan on the map
                 </a>
-                <button type="button" className="btn-secondary py-1.5" onClick={newEnquiry}>
-                  New enquiry
+                <button type="button" className="btn-secondary py-1.5" onClick={newEnquiry} disabled={opening.pending}>
+                  {opening.pending ? 'Opening…' : 'New enquiry'}
                 </button>
               </span>
             )}
