@@ -7,13 +7,37 @@ interface Props {
   defaultOpen?: boolean;
 }
 
-function Swatch({ colour, line = false, dashed = false }: { colour: string; line?: boolean; dashed?: boolean }) {
+type SwatchProps = { colour: string; line?: boolean; dashed?: boolean };
+
+function Swatch({ colour, line = false, dashed = false }: SwatchProps) {
   return line ? (
     <span aria-hidden="true" className="inline-block h-0 w-5" style={{ borderTop: `3px ${dashed ? 'dashed' : 'solid'} ${colour}` }} />
   ) : (
     <span aria-hidden="true" className="inline-block h-3 w-5 rounded-sm border border-ink-200" style={{ background: colour }} />
   );
 }
+
+const P = BASEMAP_PALETTE;
+
+/** The mast marks of each status, in the order the legend lists them. */
+const MAST_STATUS_KEYS = [
+  ['active', 'Active'],
+  ['planned', 'Planned (hollow, dashed)'],
+  ['decommissioned', 'Decommissioned (grey, crossed)'],
+  ['sighting', 'Pending sighting'],
+] as const;
+
+/** The basemap's fills and lines. */
+const BASEMAP_KEYS: (SwatchProps & { label: string })[] = [
+  { colour: P.wood, label: 'Woods' },
+  { colour: P.farm, label: 'Farmland' },
+  { colour: P.settled, label: 'Built-up' },
+  { colour: P.water, label: 'Water' },
+  { colour: P.roadMajorCasing, line: true, label: 'Main road' },
+  { colour: P.roadMinorCasing, line: true, label: 'Road' },
+  { colour: P.track, line: true, dashed: true, label: 'Track' },
+  { colour: P.river, line: true, label: 'River' },
+];
 
 /** What the marks and colours on the map mean. */
 export default function MapLegend({ operators, defaultOpen = true }: Props) {
@@ -29,12 +53,10 @@ export default function MapLegend({ operators, defaultOpen = true }: Props) {
     }),
     [operators, allIds],
   );
-  const P = BASEMAP_PALETTE;
-
   return (
     <section
       aria-labelledby="legend-heading"
-      className={`pointer-events-auto rounded-lg ${open ? 'w-60' : 'w-auto'} border border-ink-200 bg-white/95 text-xs text-ink-800 shadow-md`}
+      className={`pointer-events-auto flex max-h-full min-h-0 flex-col rounded-lg ${open ? 'w-60' : 'w-auto'} border border-ink-200 bg-white/95 text-xs text-ink-800 shadow-md`}
       data-testid="map-legend"
     >
       <h2 id="legend-heading" className="text-sm">
@@ -47,7 +69,7 @@ export default function MapLegend({ operators, defaultOpen = true }: Props) {
       </h2>
       {open && (
         // A scrolling box is reachable by keyboard (tabIndex) so its lower entries can be scrolled to.
-        <div className="max-h-[45vh] space-y-3 overflow-y-auto px-3 pb-3" tabIndex={0} role="group" aria-label="Legend entries">
+        <div className="max-h-[45vh] min-h-0 space-y-3 overflow-y-auto px-3 pb-3" tabIndex={0} role="group" aria-label="Legend entries">
           <div>
             <h3 className="mb-1 font-semibold text-ink-600">Operators on a mast</h3>
             <ul className="space-y-1">
@@ -64,60 +86,24 @@ export default function MapLegend({ operators, defaultOpen = true }: Props) {
           <div>
             <h3 className="mb-1 font-semibold text-ink-600">Mast status</h3>
             <ul className="space-y-1">
-              <li className="flex items-center gap-2">
-                <img src={icons.active} alt="" width={24} height={24} />
-                Active
-              </li>
-              <li className="flex items-center gap-2">
-                <img src={icons.planned} alt="" width={24} height={24} />
-                Planned (hollow, dashed)
-              </li>
-              <li className="flex items-center gap-2">
-                <img src={icons.decommissioned} alt="" width={24} height={24} />
-                Decommissioned (grey, crossed)
-              </li>
-              <li className="flex items-center gap-2">
-                <img src={icons.sighting} alt="" width={24} height={24} />
-                Pending sighting
-              </li>
+              {MAST_STATUS_KEYS.map(([icon, label]) => (
+                <li key={icon} className="flex items-center gap-2">
+                  <img src={icons[icon]} alt="" width={24} height={24} />
+                  {label}
+                </li>
+              ))}
             </ul>
             <p className="mt-1 text-ink-500">Zoomed out, overlapping masts are thinned; zoom in to see all.</p>
           </div>
           <div>
             <h3 className="mb-1 font-semibold text-ink-600">Basemap</h3>
             <ul className="grid grid-cols-2 gap-x-2 gap-y-1">
-              <li className="flex items-center gap-2">
-                <Swatch colour={P.wood} />
-                Woods
-              </li>
-              <li className="flex items-center gap-2">
-                <Swatch colour={P.farm} />
-                Farmland
-              </li>
-              <li className="flex items-center gap-2">
-                <Swatch colour={P.settled} />
-                Built-up
-              </li>
-              <li className="flex items-center gap-2">
-                <Swatch colour={P.water} />
-                Water
-              </li>
-              <li className="flex items-center gap-2">
-                <Swatch colour={P.roadMajorCasing} line />
-                Main road
-              </li>
-              <li className="flex items-center gap-2">
-                <Swatch colour={P.roadMinorCasing} line />
-                Road
-              </li>
-              <li className="flex items-center gap-2">
-                <Swatch colour={P.track} line dashed />
-                Track
-              </li>
-              <li className="flex items-center gap-2">
-                <Swatch colour={P.river} line />
-                River
-              </li>
+              {BASEMAP_KEYS.map(({ label, ...swatch }) => (
+                <li key={label} className="flex items-center gap-2">
+                  <Swatch {...swatch} />
+                  {label}
+                </li>
+              ))}
             </ul>
           </div>
         </div>

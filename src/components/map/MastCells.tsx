@@ -1,9 +1,10 @@
-import { useEffect, useRef, useState } from 'react';
+import { useState } from 'react';
 import { ApiError } from '../../lib/client/api';
 import { cellsApi, mastsApi } from '../../lib/client/masts-api';
 import type { CellJson } from '../../lib/schemas/masts';
 import type { MastDetailJson } from '../../lib/schemas/mast-responses';
 import { SortableTable, type Column } from '../ui/SortableTable';
+import { FocusBlock } from '../ui/FocusBlock';
 import { MISSING, formatDate, formatNumber } from '../../lib/domain/format';
 import CellForm from './CellForm';
 import { TECH_LABELS } from './MapFilters';
@@ -36,15 +37,6 @@ export default function MastCells({ mast, operators, canEdit, onChanged }: Props
   const [refused, setRefused] = useState<{ cell: CellJson; message: string } | null>(null);
   const [error, setError] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
-  const confirmRef = useRef<HTMLDivElement>(null);
-  const refusedRef = useRef<HTMLDivElement>(null);
-
-  useEffect(() => {
-    if (mode.kind === 'remove') confirmRef.current?.focus();
-  }, [mode]);
-  useEffect(() => {
-    if (refused) refusedRef.current?.focus();
-  }, [refused]);
 
   const start = (next: Mode) => {
     setRefused(null);
@@ -161,9 +153,8 @@ export default function MastCells({ mast, operators, canEdit, onChanged }: Props
       )}
 
       {refused && (
-        <div
-          ref={refusedRef}
-          tabIndex={-1}
+        <FocusBlock
+          focusKey={refused}
           role="alert"
           className="space-y-2 rounded-md border border-alarm-100 bg-alarm-50 p-3 text-alarm-700"
           data-testid="cell-refused"
@@ -180,13 +171,12 @@ export default function MastCells({ mast, operators, canEdit, onChanged }: Props
               Dismiss
             </button>
           </div>
-        </div>
+        </FocusBlock>
       )}
 
       {mode.kind === 'remove' && (
-        <div
-          ref={confirmRef}
-          tabIndex={-1}
+        <FocusBlock
+          focusKey={mode}
           role="group"
           aria-labelledby="cell-remove-question"
           className="space-y-2 rounded-md border border-ember-100 bg-ember-50 p-3 text-ink-900"
@@ -204,7 +194,7 @@ export default function MastCells({ mast, operators, canEdit, onChanged }: Props
               Keep it
             </button>
           </div>
-        </div>
+        </FocusBlock>
       )}
 
       {(mode.kind === 'add' || mode.kind === 'edit') && (

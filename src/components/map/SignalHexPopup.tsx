@@ -1,7 +1,7 @@
-import { useEffect, useRef } from 'react';
 import { Popup } from 'react-map-gl/maplibre';
 import { formatCount, formatNumber, formatQuantity } from '../../lib/domain/format';
 import { SIGNAL_METRICS, SIGNAL_METRIC_LABELS, SIGNAL_METRIC_UNITS, SIGNAL_MIN_READINGS, getSignalClass } from '../../lib/domain/signal-map';
+import { FocusBlock } from '../ui/FocusBlock';
 import { SIGNAL_GRADE_LABELS, type HexFigures } from './signal-layers';
 
 export interface SignalHexPick {
@@ -13,15 +13,12 @@ export interface SignalHexPick {
 
 /** The figures of one measured-signal hexagon: how many readings, and each metric's median with its grade. */
 export default function SignalHexPopup({ pick, onClose }: { pick: SignalHexPick; onClose: () => void }) {
-  const ref = useRef<HTMLDivElement>(null);
-  // Keyboard and screen reader users land on the figures they asked for.
-  useEffect(() => ref.current?.focus(), [pick]);
   const f = pick.figures;
   return (
     <Popup longitude={pick.lon} latitude={pick.lat} anchor="bottom" offset={8} onClose={onClose} closeOnClick={false} maxWidth="18rem">
-      <div
-        ref={ref}
-        tabIndex={-1}
+      {/* Keyboard and screen reader users land on the figures they asked for. */}
+      <FocusBlock
+        focusKey={pick}
         role="group"
         aria-label="Measured signal in this hexagon"
         className="space-y-1.5 pr-4 text-sm text-ink-900 focus:outline-none"
@@ -66,7 +63,7 @@ export default function SignalHexPopup({ pick, onClose }: { pick: SignalHexPick;
             )}
           </>
         )}
-      </div>
+      </FocusBlock>
     </Popup>
   );
 }

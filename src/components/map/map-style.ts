@@ -1,6 +1,6 @@
 // Bearline's basemap style: a calm paper-and-slate palette over the app's own
 // vector tiles. Pure data; the style endpoint and the map island share it.
-import type { LayerSpecification, StyleSpecification, SymbolLayerSpecification } from 'maplibre-gl';
+import type { LayerSpecification, LineLayerSpecification, StyleSpecification, SymbolLayerSpecification } from 'maplibre-gl';
 
 /** The basemap colours, also used by the legend. */
 export const BASEMAP_PALETTE = {
@@ -60,6 +60,19 @@ const TRACKS = ['track', 'path', 'service', 'unpaved'];
 function roadWidth(major: number, secondary: number, minor: number, track: number) {
   const byClass = (scale: number) => ['match', kindOf, MAJOR_ROADS, major * scale, SECONDARY_ROADS, secondary * scale, TRACKS, track * scale, minor * scale];
   return ['interpolate', ['exponential', 1.5], ['zoom'], 8, byClass(0.35), 12, byClass(1), 16, byClass(3.2)];
+}
+
+/** The paved roads drawn once: the casing below, the fill above, major roads in their own colour. */
+function roadLine(id: string, [major, minor]: [string, string], width: unknown[], paint: LineLayerSpecification['paint'] = {}): LineLayerSpecification {
+  return {
+    id,
+    type: 'line',
+    ...src,
+    'source-layer': 'roads',
+    filter: ['!', kindIn(...TRACKS)] as never,
+    layout: { 'line-cap': 'round', 'line-join': 'round' },
+    paint: { 'line-color': ['match', kindOf, MAJOR_ROADS, major, minor] as never, 'line-width': width as never, ...paint },
+  };
 }
 
 /** A settlement label: placed where it fits around the point, higher-ranked places first. */
@@ -164,31 +177,8 @@ export const BASEMAP_LAYERS: LayerSpecification[] = [
     layout: { 'line-cap': 'round' },
     paint: { 'line-color': P.track, 'line-width': 1, 'line-dasharray': [3, 2] },
   },
-  {
-    id: 'road-casing',
-    type: 'line',
-    ...src,
-    'source-layer': 'roads',
-    filter: ['!', kindIn(...TRACKS)] as never,
-    layout: { 'line-cap': 'round', 'line-join': 'round' },
-    paint: {
-      'line-color': ['match', kindOf, MAJOR_ROADS, P.roadMajorCasing, P.roadMinorCasing] as never,
-      'line-width': roadWidth(5, 3.6, 2.6, 1) as never,
-      'line-gap-width': 0,
-    },
-  },
-  {
-    id: 'road-fill',
-    type: 'line',
-    ...src,
-    'source-layer': 'roads',
-    filter: ['!', kindIn(...TRACKS)] as never,
-    layout: { 'line-cap': 'round', 'line-join': 'round' },
-    paint: {
-      'line-color': ['match', kindOf, MAJOR_ROADS, P.roadMajor, P.roadMinor] as never,
-      'line-width': roadWidth(3.4, 2.2, 1.4, 0.6) as never,
-    },
-  },
+  roadLine('road-casing', [P.roadMajorCasing, P.roadMinorCasing], roadWidth(5, 3.6, 2.6, 1), { 'line-gap-width': 0 }),
+  roadLine('road-fill', [P.roadMajor, P.roadMinor], roadWidth(3.4, 2.2, 1.4, 0.6)),
   {
     id: 'label-water-line',
     type: 'symbol',

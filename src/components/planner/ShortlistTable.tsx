@@ -13,6 +13,23 @@ interface Props {
 /** Rows shown before "Show all": the best candidates matter, the tail is for completeness. */
 const FIRST_ROWS = 12;
 
+/** A right-aligned column of one figure: sorted by `value`, shown as `text` in even-width digits. */
+function figures(
+  key: string,
+  label: string,
+  value: (i: ShortlistItemJson) => number | null,
+  text: (i: ShortlistItemJson) => string,
+  className = '',
+): Column<ShortlistItemJson> {
+  return {
+    key,
+    label,
+    sortValue: value,
+    render: (i) => <span className={`${className} tabular-nums`.trim()}>{text(i)}</span>,
+    className: 'text-right',
+  };
+}
+
 export default function ShortlistTable({ items, selectedCellId, onSelect }: Props) {
   const [showAll, setShowAll] = useState(false);
   const selectedIndex = items.findIndex((i) => i.cell_id === selectedCellId);
@@ -38,31 +55,25 @@ export default function ShortlistTable({ items, selectedCellId, onSelect }: Prop
         </button>
       ),
     },
-    {
-      key: 'dist',
-      label: 'Distance',
-      sortValue: (i) => i.distance_m,
-      render: (i) => <span className="whitespace-nowrap tabular-nums">{formatDistance(i.distance_m)}</span>,
-      className: 'text-right',
-    },
-    {
-      key: 'bearing',
-      label: 'Aim °T / °M',
-      sortValue: (i) => i.bearing_true_deg,
-      render: (i) => (
-        <span className="tabular-nums">
-          {formatNumber(i.bearing_true_deg, 1)} / {formatNumber(i.bearing_magnetic_deg, 1)}
-        </span>
-      ),
-      className: 'text-right',
-    },
-    {
-      key: 'elev',
-      label: 'Tilt °',
-      sortValue: (i) => i.elevation_deg,
-      render: (i) => <span className="tabular-nums">{formatNumber(i.elevation_deg, 1)}</span>,
-      className: 'text-right',
-    },
+    figures(
+      'dist',
+      'Distance',
+      (i) => i.distance_m,
+      (i) => formatDistance(i.distance_m),
+      'whitespace-nowrap',
+    ),
+    figures(
+      'bearing',
+      'Aim °T / °M',
+      (i) => i.bearing_true_deg,
+      (i) => `${formatNumber(i.bearing_true_deg, 1)} / ${formatNumber(i.bearing_magnetic_deg, 1)}`,
+    ),
+    figures(
+      'elev',
+      'Tilt °',
+      (i) => i.elevation_deg,
+      (i) => formatNumber(i.elevation_deg, 1),
+    ),
     { key: 'terrain', label: 'Terrain', sortValue: (i) => i.terrain.diffraction_loss_db, render: (i) => TERRAIN_LABELS[i.terrain.status] },
     {
       key: 'rsrp',
@@ -96,13 +107,12 @@ export default function ShortlistTable({ items, selectedCellId, onSelect }: Prop
       ),
       className: 'text-right',
     },
-    {
-      key: 'gain',
-      label: 'Gain dB',
-      sortValue: (i) => i.expected_gain_db,
-      render: (i) => <span className="tabular-nums">{formatSigned(i.expected_gain_db, 1)}</span>,
-      className: 'text-right',
-    },
+    figures(
+      'gain',
+      'Gain dB',
+      (i) => i.expected_gain_db,
+      (i) => formatSigned(i.expected_gain_db, 1),
+    ),
     {
       key: 'cal',
       label: 'Confidence',
