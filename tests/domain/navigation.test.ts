@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { adminNavigationFor, headerNavigationFor } from '../../src/lib/domain/navigation';
+import { NAV_ITEMS, adminNavigationFor, headerNavigationFor } from '../../src/lib/domain/navigation';
 import { can, ROLES } from '../../src/lib/domain/roles';
 
 describe('navigation by role', () => {
@@ -20,5 +20,9 @@ describe('navigation by role', () => {
 
   it('gives every signed-in role the map, the regions and the tools', () => {
     for (const role of ROLES) expect(headerNavigationFor(role).map((i) => i.href)).toEqual(expect.arrayContaining(['/map', '/regions', '/tools']));
+  });
+
+  it('describes every page its card leads to, the Admin entry too (common practice: a card says what the page is for)', () => {
+    for (const item of [...NAV_ITEMS, ...headerNavigationFor('admin')]) expect(item.description.trim(), item.href).not.toBe('');
   });
 });
