@@ -1,6 +1,7 @@
 import { useState, type FormEvent } from 'react';
 import { accountsApi } from '../../lib/client/accounts-api';
 import { ForgotSchema } from '../../lib/schemas/accounts';
+import { SubmitButton } from '../ui/SubmitButton';
 import AccountField from './AccountField';
 import FormAlert from './FormAlert';
 import { useAccountSubmit } from './useAccountSubmit';
@@ -30,9 +31,7 @@ export default function ForgotForm() {
         onChange={(e) => setEmail(e.target.value)}
         errors={fields.email}
       />
-      <button type="submit" className="btn-primary min-h-11 w-full" disabled={busy}>
-        {busy ? 'Sending…' : done ? 'Send again' : 'Send me a link'}
-      </button>
+      <SubmitButton pending={busy} label={busy ? 'Sending…' : done ? 'Send again' : 'Send me a link'} className="btn-primary min-h-11 w-full" />
     </form>
   );
 }

@@ -2,6 +2,7 @@ import { useState, type FormEvent } from 'react';
 import { accountsApi } from '../../lib/client/accounts-api';
 import { SetPasswordSchema } from '../../lib/schemas/accounts';
 import { PASSWORD_MIN } from '../../lib/schemas/users';
+import { SubmitButton } from '../ui/SubmitButton';
 import AccountField from './AccountField';
 import FormAlert from './FormAlert';
 import { useAccountSubmit } from './useAccountSubmit';
@@ -45,9 +46,7 @@ export default function SetPasswordForm({ token, email, submitLabel }: Props) {
       <label className="flex min-h-11 items-center gap-2 text-sm text-ink-700">
         <input type="checkbox" className="h-5 w-5" checked={show} onChange={(e) => setShow(e.target.checked)} /> Show the password
       </label>
-      <button type="submit" className="btn-primary min-h-11 w-full" disabled={busy || done}>
-        {busy ? 'Saving…' : submitLabel}
-      </button>
+      <SubmitButton pending={busy || done} label={busy ? 'Saving…' : submitLabel} className="btn-primary min-h-11 w-full" />
     </form>
   );
 }

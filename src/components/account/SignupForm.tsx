@@ -1,5 +1,6 @@
 import { useState, type FormEvent } from 'react';
-import { useIsLive } from '../ui/use-is-live';
+import { bindText } from '../ui/bind-text';
+import { SubmitButton } from '../ui/SubmitButton';
 import { accountsApi } from '../../lib/client/accounts-api';
 import { SignupSchema } from '../../lib/schemas/accounts';
 import { PASSWORD_MIN } from '../../lib/schemas/users';
@@ -11,8 +12,9 @@ import { useAccountSubmit } from './useAccountSubmit';
 export default function SignupForm() {
   const [form, setForm] = useState({ name: '', email: '', password: '' });
   const [done, setDone] = useState<string | null>(null);
-  const live = useIsLive();
   const { busy, fields, error, submit } = useAccountSubmit(SignupSchema, (b) => accountsApi.signup({ name: b.name!, email: b.email!, password: b.password! }));
+
+  const field = bindText(form, setForm, fields);
 
   async function onSubmit(e: FormEvent) {
     e.preventDefault();
@@ -33,37 +35,17 @@ export default function SignupForm() {
   return (
     <form className="card space-y-4" onSubmit={onSubmit} noValidate>
       <FormAlert error={error} />
-      <AccountField
-        id="su-name"
-        label="Your name"
-        autoComplete="name"
-        value={form.name}
-        onChange={(e) => setForm({ ...form, name: e.target.value })}
-        errors={fields.name}
-      />
-      <AccountField
-        id="su-email"
-        label="E-mail"
-        type="email"
-        inputMode="email"
-        autoComplete="email"
-        value={form.email}
-        onChange={(e) => setForm({ ...form, email: e.target.value })}
-        errors={fields.email}
-      />
+      <AccountField id="su-name" label="Your name" autoComplete="name" {...field('name')} />
+      <AccountField id="su-email" label="E-mail" type="email" inputMode="email" autoComplete="email" {...field('email')} />
       <AccountField
         id="su-password"
         label="Password"
         type="password"
         autoComplete="new-password"
         hint={`At least ${PASSWORD_MIN} characters. A few unrelated words are easy to remember and hard to guess.`}
-        value={form.password}
-        onChange={(e) => setForm({ ...form, password: e.target.value })}
-        errors={fields.password}
+        {...field('password')}
       />
-      <button type="submit" className="btn-primary min-h-11 w-full" disabled={busy || !live}>
-        {busy ? 'Sending…' : 'Sign up'}
-      </button>
+      <SubmitButton pending={busy} label={busy ? 'Sending…' : 'Sign up'} className="btn-primary min-h-11 w-full" />
     </form>
   );
 }

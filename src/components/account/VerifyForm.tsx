@@ -1,6 +1,7 @@
 import { useState, type FormEvent } from 'react';
 import { accountsApi } from '../../lib/client/accounts-api';
 import { VerifySchema } from '../../lib/schemas/accounts';
+import { SubmitButton } from '../ui/SubmitButton';
 import FormAlert from './FormAlert';
 import { useAccountSubmit } from './useAccountSubmit';
 
@@ -29,9 +30,7 @@ export default function VerifyForm({ token, email }: Props) {
       <p className="text-sm text-ink-700">
         Confirm that <strong className="break-all">{email}</strong> is your address to finish your contributor account.
       </p>
-      <button type="submit" className="btn-primary min-h-11 w-full" disabled={busy || done}>
-        {busy ? 'Confirming…' : 'Confirm my e-mail'}
-      </button>
+      <SubmitButton pending={busy || done} label={busy ? 'Confirming…' : 'Confirm my e-mail'} className="btn-primary min-h-11 w-full" />
     </form>
   );
 }

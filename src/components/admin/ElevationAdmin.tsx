@@ -4,6 +4,7 @@ import type { ElevationGridJson } from '../../lib/schemas/elevation';
 import { localCheckError, type UploadProgress } from '../../lib/client/api';
 import { ELEVATION_FILE_ACCEPT, ELEVATION_FORMAT_LABELS, MAX_ELEVATION_UPLOAD_BYTES } from '../../lib/domain/elevation-formats';
 import type { Column } from '../ui/SortableTable';
+import { bindText } from '../ui/bind-text';
 import { useQuery, useSubmit } from '../ui/use-api';
 import { DeleteAction, FormCard, InputField, ListCard, SubmitButton, upsertById, withoutId, useNotice } from './parts';
 import { formatBytes, formatDate, formatMetres, formatNumber, formatPercent } from '../../lib/domain/format';
@@ -71,22 +72,32 @@ function ProgressBar({ progress }: { progress: UploadProgress | null }) {
   );
 }
 
+/** The two boxes of the point to check: key, label and an example in the placeholder. */
+const COORDINATES = [
+  ['lat', 'Latitude', '-47.2'],
+  ['lon', 'Longitude', '-128.5'],
+] as const;
+
+/** What is wrong with one coordinate box, if anything. An empty box is not 0°: ask for the number instead of checking 0, 0. */
+const coordinateProblem = (text: string, label: string): string | null =>
+  text.trim() === '' ? `Enter a ${label.toLowerCase()}` : Number.isFinite(Number(text)) ? null : `${label} must be a number`;
+
 function PointCheck() {
-  const [lat, setLat] = useState('');
-  const [lon, setLon] = useState('');
+  const [point, setPoint] = useState({ lat: '', lon: '' });
   const [answer, setAnswer] = useState<string | null>(null);
   const checking = useSubmit({ failed: 'Could not check the point' });
+  const coordinate = bindText(point, setPoint, checking.fields);
 
   async function check() {
     setAnswer(null);
-    // An empty box is not 0°: ask for both numbers instead of checking the point 0, 0.
-    const need = (v: string, what: string) =>
-      v.trim() === '' ? [`Enter a ${what}`] : Number.isFinite(Number(v)) ? null : [`${capitalise(what)} must be a number`];
-    const result = await checking.submit(() => elevationApi.sample(Number(lat), Number(lon)), {
-      check: () => {
-        const missing = { lat: need(lat, 'latitude'), lon: need(lon, 'longitude') };
-        return Object.fromEntries(Object.entries(missing).filter((e): e is [string, string[]] => e[1] !== null));
-      },
+    const result = await checking.submit(() => elevationApi.sample(Number(point.lat), Number(point.lon)), {
+      check: () =>
+        Object.fromEntries(
+          COORDINATES.flatMap(([key, label]) => {
+            const problem = coordinateProblem(point[key], label);
+            return problem ? [[key, [problem]]] : [];
+          }),
+        ),
     });
     if (result.ok) setAnswer(result.data.height_m === null ? 'No elevation data at this point' : `${formatMetres(result.data.height_m)} above sea level`);
     // A refusal that names no field (the server down) is the answer line's to tell.
@@ -99,8 +110,7 @@ function PointCheck() {
       title="Check a point"
       intro="The ground height the planner’s terrain profiles will use at a position."
       onSubmit={check}
-      error={null}
-      pending={checking.pending}
+      sending={{ pending: checking.pending, error: null }}
       submitLabel="Check height"
       actions={
         <>
@@ -112,30 +122,14 @@ function PointCheck() {
       }
     >
       <div className="grid grid-cols-2 gap-3">
-        <InputField
-          id="elev-lat"
-          label="Latitude"
-          inputMode="decimal"
-          placeholder="-47.2"
-          value={lat}
-          onChange={(e) => setLat(e.target.value)}
-          errors={checking.fields.lat}
-        />
-        <InputField
-          id="elev-lon"
-          label="Longitude"
-          inputMode="decimal"
-          placeholder="-128.5"
-          value={lon}
-          onChange={(e) => setLon(e.target.value)}
-          errors={checking.fields.lon}
-        />
+        {COORDINATES.map(([key, label, example]) => (
+          <InputField key={key} id={`elev-${key}`} label={label} inputMode="decimal" placeholder={example} {...coordinate(key)} />
+        ))}
       </div>
     </FormCard>
   );
 }
 
-const capitalise = (s: string) => s.charAt(0).toUpperCase() + s.slice(1);
 const tooLarge = `The file is larger than ${MAX_ELEVATION_UPLOAD_BYTES / (1024 * 1024)} MB: cut the area into tiles`;
 
 export default function ElevationAdmin() {
@@ -254,13 +248,8 @@ export default function ElevationAdmin() {
         id="elevation"
         title="Elevation grids"
         notice={notice}
-        rows={grids.data}
-        error={grids.error}
-        loadingText="Loading elevation grids…"
+        list={grids}
         columns={columns}
-        rowKey={(g) => g.id}
-        initialSort={{ key: 'name', dir: 'asc' }}
-        caption="Elevation grids"
         empty={
           <span className="block max-w-md mx-auto">
             <span className="block font-semibold text-ink-700">No elevation data yet</span>
@@ -274,8 +263,7 @@ export default function ElevationAdmin() {
           title="Import a grid"
           intro={`A single-band GeoTIFF in EPSG:4326 (WGS 84 latitude/longitude) with heights in metres, or an SRTM .hgt tile named by its south-west corner (e.g. S48W129.hgt). Up to ${MAX_ELEVATION_UPLOAD_BYTES / (1024 * 1024)} MB.`}
           onSubmit={upload}
-          error={uploading.error?.message}
-          pending={busy}
+          sending={{ pending: busy, error: uploading.error }}
           submitLabel="Import grid"
           actions={
             <>

@@ -1,10 +1,11 @@
-import { useEffect, useMemo, useState, type ChangeEvent } from 'react';
+import { useEffect, useMemo, useState } from 'react';
 import { operatorsApi } from '../../lib/client/operators-api';
 import type { OperatorJson } from '../../lib/schemas/operators';
 import { OPERATOR_PALETTE } from '../../lib/domain/operator-palette';
 import type { Column } from '../ui/SortableTable';
+import { bindText } from '../ui/bind-text';
 import { useQuery, useSubmit } from '../ui/use-api';
-import { FieldErrorText, FormCard, fieldAria, InputField, ListCard, upsertById, useNotice } from './parts';
+import { FieldErrorText, FormCard, fieldAria, InputField, ListBesideForm, ListCard, upsertById, useNotice } from './parts';
 import { mastIconDataUrl } from '../map/mast-icons';
 
 const HEX = /^#[0-9a-fA-F]{6}$/;
@@ -103,6 +104,7 @@ export default function OperatorsAdmin() {
   const adding = useSubmit({ failed: 'Could not add the operator' });
   const { notice, setNotice } = useNotice();
   const [form, setForm] = useState(EMPTY_FORM);
+  const field = bindText(form, setForm, adding.fields);
   const list = operators.data;
 
   const marks = useMemo(() => (list ?? []).map((o) => ({ id: o.id, name: o.name, colour: o.colour })), [list]);
@@ -157,14 +159,8 @@ export default function OperatorsAdmin() {
     { key: 'colour', label: 'Map colour', render: (o) => <ColourEditor op={o} all={list ?? []} onSaved={replace} /> },
   ];
 
-  const field = (key: keyof typeof EMPTY_FORM) => ({
-    value: form[key],
-    onChange: (e: ChangeEvent<HTMLInputElement>) => setForm({ ...form, [key]: e.target.value }),
-    errors: adding.fields[key],
-  });
-
   return (
-    <div className="mt-6 grid gap-6 lg:grid-cols-[1fr_20rem]">
+    <ListBesideForm>
       <ListCard
         id="operators"
         title="Operators"
@@ -176,22 +172,17 @@ export default function OperatorsAdmin() {
           )
         }
         notice={notice}
-        rows={list}
-        error={operators.error}
-        loadingText="Loading operators…"
+        list={operators}
         columns={columns}
-        rowKey={(o) => o.id}
         initialSort={{ key: 'plmn', dir: 'asc' }}
         empty="No operators yet"
-        caption="Operators"
       />
       <FormCard
         id="new-operator"
         title="New operator"
         intro="It takes the first unused colour of the colour-blind-safe palette; change it afterwards if you like."
         onSubmit={create}
-        error={adding.error?.message}
-        pending={adding.pending}
+        sending={adding}
         submitLabel="Add operator"
       >
         <InputField id="op-name" label="Name" {...field('name')} />
@@ -200,6 +191,6 @@ export default function OperatorsAdmin() {
           <InputField id="op-mnc" label="MNC" inputMode="numeric" className="font-mono" {...field('mnc')} />
         </div>
       </FormCard>
-    </div>
+    </ListBesideForm>
   );
 }

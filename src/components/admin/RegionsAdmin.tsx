@@ -4,7 +4,7 @@ import { regionsApi } from '../../lib/client/regions-api';
 import type { RegionJson } from '../../lib/schemas/regions';
 import type { Column } from '../ui/SortableTable';
 import { useQuery, useSubmit } from '../ui/use-api';
-import { DeleteAction, FormCard, InputField, ListCard, SelectField, upsertById, withoutId, useNotice } from './parts';
+import { DeleteAction, FormCard, InputField, ListBesideForm, ListCard, SelectField, upsertById, withoutId, useNotice } from './parts';
 import { formatArea, formatCount, formatDate } from '../../lib/domain/format';
 
 type Rings = number[][][];
@@ -157,27 +157,14 @@ export default function RegionsAdmin() {
   ];
 
   return (
-    <div className="mt-6 grid gap-6 lg:grid-cols-[1fr_22rem]">
-      <ListCard
-        id="regions"
-        title="Regions"
-        notice={notice}
-        rows={regions.data}
-        error={regions.error}
-        loadingText="Loading regions…"
-        columns={columns}
-        rowKey={(r) => r.id}
-        initialSort={{ key: 'name', dir: 'asc' }}
-        empty="No regions yet: import one"
-        caption="Regions"
-      />
+    <ListBesideForm form="wide">
+      <ListCard id="regions" title="Regions" notice={notice} list={regions} columns={columns} empty="No regions yet: import one" />
       <FormCard
         id="import-region"
         title="Import a region"
         intro="A GeoJSON file (WGS84 longitude, latitude) with a Polygon or MultiPolygon, bare or as a Feature."
         onSubmit={importRegion}
-        error={importing.error?.message}
-        pending={importing.pending}
+        sending={importing}
         submitLabel="Import region"
       >
         <InputField
@@ -210,6 +197,6 @@ export default function RegionsAdmin() {
         )}
         <InputField id="region-name" label="Name" value={name} onChange={(e) => setName(e.target.value)} errors={importing.fields.name} />
       </FormCard>
-    </div>
+    </ListBesideForm>
   );
 }

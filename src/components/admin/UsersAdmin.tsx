@@ -1,12 +1,13 @@
-import { useState, type ChangeEvent } from 'react';
+import { useState } from 'react';
 import { usersApi } from '../../lib/client/users-api';
 import type { UserListItemJson } from '../../lib/schemas/users';
 import { ROLES, ROLE_LABELS, type Role } from '../../lib/domain/roles';
 import { TOKEN_LIFETIME_MIN } from '../../lib/domain/account-tokens';
 import type { Column } from '../ui/SortableTable';
+import { bindText } from '../ui/bind-text';
 import { useQuery, useSubmit } from '../ui/use-api';
 import { formatDate } from '../../lib/domain/format';
-import { FormCard, InputField, ListCard, SelectField, upsertById, useNotice } from './parts';
+import { FormCard, InputField, ListBesideForm, ListCard, SelectField, upsertById, useNotice } from './parts';
 
 interface Props {
   currentUserId: string;
@@ -19,6 +20,7 @@ export default function UsersAdmin({ currentUserId }: Props) {
   const inviting = useSubmit({ failed: 'Could not invite the user' });
   const { notice, setNotice, attempt } = useNotice();
   const [form, setForm] = useState(EMPTY_FORM);
+  const field = bindText(form, setForm, inviting.fields);
 
   const replace = (u: UserListItemJson) => users.setData((list) => upsertById(list, u));
 
@@ -109,24 +111,14 @@ export default function UsersAdmin({ currentUserId }: Props) {
     },
   ];
 
-  const field = (key: 'name' | 'email') => ({
-    value: form[key],
-    onChange: (e: ChangeEvent<HTMLInputElement>) => setForm({ ...form, [key]: e.target.value }),
-    errors: inviting.fields[key],
-  });
-
   return (
-    <div className="mt-6 grid gap-6 lg:grid-cols-[1fr_20rem]">
+    <ListBesideForm>
       <ListCard
         id="users"
         title="Accounts"
         notice={notice}
-        rows={users.data}
-        error={users.error}
-        loadingText="Loading users…"
+        list={users}
         columns={columns}
-        rowKey={(u) => u.id}
-        initialSort={{ key: 'name', dir: 'asc' }}
         empty="No users yet"
         caption="Users"
         search={{
@@ -141,8 +133,7 @@ export default function UsersAdmin({ currentUserId }: Props) {
         title="Invite a user"
         intro={`They get an e-mail with a link to choose their own password. The link works for ${TOKEN_LIFETIME_MIN.invite / 1440} days.`}
         onSubmit={create}
-        error={inviting.error?.message}
-        pending={inviting.pending}
+        sending={inviting}
         submitLabel="Send invitation"
         pendingLabel="Inviting…"
       >
@@ -158,6 +149,6 @@ export default function UsersAdmin({ currentUserId }: Props) {
           errors={inviting.fields.role}
         />
       </FormCard>
-    </div>
+    </ListBesideForm>
   );
 }

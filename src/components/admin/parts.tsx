@@ -2,14 +2,22 @@
 // states, a sortable table with an optional search), labelled fields with their errors, a form card
 // whose submit waits for the island and shows the form's error, and a two-step delete.
 import { useCallback, useEffect, useMemo, useRef, useState, type FormEvent, type InputHTMLAttributes, type ReactNode, type Ref } from 'react';
-import { asApiError, type ApiError } from '../../lib/client/api';
+import { asApiError } from '../../lib/client/api';
+import type { QueryState, SubmitState } from '../ui/api-state';
 import { SortableTable, type Column } from '../ui/SortableTable';
-import { useIsLive } from '../ui/use-is-live';
+import { SubmitButton } from '../ui/SubmitButton';
 import { Field, FieldErrorText, fieldAria, type FieldFrame } from '../ui/field';
 
-export { Field, FieldErrorText, fieldAria };
+export { Field, FieldErrorText, SubmitButton, fieldAria };
 
 // --- Lists ------------------------------------------------------------------------------------------
+
+const FORM_COLUMN = { narrow: 'lg:grid-cols-[1fr_20rem]', wide: 'lg:grid-cols-[1fr_22rem]' } as const;
+
+/** An admin page's body: the list card, and beside it from 1024 px the card of the form that adds to it. */
+export function ListBesideForm({ form = 'narrow', children }: { form?: keyof typeof FORM_COLUMN; children: ReactNode }) {
+  return <div className={`mt-6 grid gap-6 ${FORM_COLUMN[form]}`}>{children}</div>;
+}
 
 interface Identified {
   id: string;
@@ -42,26 +50,39 @@ export function useNotice() {
 interface ListCardProps<T> {
   /** Prefix of the heading id and the notice's test id (`${id}-heading`, `${id}-notice`). */
   id: string;
-  title: ReactNode;
+  title: string;
   /** Beside the heading (a button, a preview). */
   tools?: ReactNode;
   /** The live line under the heading; leave it out when the page announces outcomes elsewhere. */
   notice?: ReactNode;
-  /** The list as loaded (null while it loads) and the failure that stopped it. */
-  rows: T[] | null;
-  error: ApiError | null;
-  loadingText: string;
+  /** The list's query: its rows as loaded (null while it loads) and the failure that stopped it. */
+  list: Pick<QueryState<T[]>, 'data' | 'error'>;
   columns: Column<T>[];
-  rowKey: (row: T) => string;
-  initialSort: { key: string; dir: 'asc' | 'desc' };
-  caption: string;
+  /** By name, A to Z, unless told otherwise. */
+  initialSort?: { key: string; dir: 'asc' | 'desc' };
+  /** What the rows are, in the table's caption for screen readers and the loading line; the title unless told otherwise. */
+  caption?: string;
   empty: ReactNode;
   /** A search box above the table that keeps the rows whose text contains what is typed. */
   search?: { label: string; placeholder: string; text: (row: T) => string; noMatch: string };
 }
 
-/** A card with a sortable table of records, its loading and error states and a live notice line; below 640 px the rows are cards. */
-export function ListCard<T>({ id, title, tools, notice, rows, error, loadingText, columns, rowKey, initialSort, caption, empty, search }: ListCardProps<T>) {
+const BY_NAME = { key: 'name', dir: 'asc' } as const;
+const rowId = (row: Identified) => row.id;
+
+/** A card with a sortable table of records (one row an id), its loading and error states and a live notice line; below 640 px the rows are cards. */
+export function ListCard<T extends Identified>({
+  id,
+  title,
+  tools,
+  notice,
+  list: { data: rows, error },
+  columns,
+  initialSort = BY_NAME,
+  caption = title,
+  empty,
+  search,
+}: ListCardProps<T>) {
   const [query, setQuery] = useState('');
   const q = query.trim().toLowerCase();
   const shown = useMemo(() => (rows && search && q ? rows.filter((r) => search.text(r).toLowerCase().includes(q)) : rows), [rows, search, q]);
@@ -82,16 +103,9 @@ export function ListCard<T>({ id, title, tools, notice, rows, error, loadingText
           {error.message}
         </p>
       ) : shown === null ? (
-        <p className="text-ink-500">{loadingText}</p>
+        <p className="text-ink-500">Loading {caption.toLowerCase()}…</p>
       ) : (
-        <SortableTable
-          rows={shown}
-          columns={columns}
-          rowKey={rowKey}
-          initialSort={initialSort}
-          empty={search && q ? search.noMatch : empty}
-          caption={caption}
-        />
+        <SortableTable rows={shown} columns={columns} rowKey={rowId} initialSort={initialSort} empty={search && q ? search.noMatch : empty} caption={caption} />
       )}
     </section>
   );
@@ -179,8 +193,8 @@ interface FormCardProps {
   title: ReactNode;
   intro?: ReactNode;
   onSubmit: () => void;
-  error: string | null | undefined;
-  pending: boolean;
+  /** The form's writes: pending while it sends, and the failure shown above the fields. */
+  sending: SubmitState;
   submitLabel: string;
   pendingLabel?: string;
   /** In place of the one submit button (e.g. Save beside Cancel). */
@@ -189,18 +203,8 @@ interface FormCardProps {
   className?: string;
 }
 
-/** A form's submit button: disabled while the form sends, and until the island is live so an early press is not lost. */
-export function SubmitButton({ pending = false, label, className = 'btn-primary w-full' }: { pending?: boolean; label: string; className?: string }) {
-  const live = useIsLive();
-  return (
-    <button type="submit" className={className} disabled={pending || !live}>
-      {label}
-    </button>
-  );
-}
-
 /** A card holding one form: heading, intro, the form's error, the fields and a submit that waits until the island is live. */
-export function FormCard({ id, title, intro, onSubmit, error, pending, submitLabel, pendingLabel, actions, children, className }: FormCardProps) {
+export function FormCard({ id, title, intro, onSubmit, sending: { pending, error }, submitLabel, pendingLabel, actions, children, className }: FormCardProps) {
   const submit = (e: FormEvent) => {
     e.preventDefault();
     onSubmit();
@@ -210,7 +214,7 @@ export function FormCard({ id, title, intro, onSubmit, error, pending, submitLab
       <h2 id={`${id}-heading`}>{title}</h2>
       {intro && <p className="mt-1 text-sm text-ink-600">{intro}</p>}
       <form className="mt-3 space-y-3" onSubmit={submit} noValidate>
-        <FormError error={error} />
+        <FormError error={error?.message} />
         {children}
         {actions ?? <SubmitButton pending={pending} label={pending && pendingLabel ? pendingLabel : submitLabel} />}
       </form>
@@ -222,7 +226,8 @@ export function FormCard({ id, title, intro, onSubmit, error, pending, submitLab
 
 /**
  * A row's Delete, asked twice: the first press offers "Delete <name>" beside "Keep" (which takes
- * the focus, so Enter twice does not delete); Keep goes back. `children` are the row's other actions.
+ * the focus, so Enter twice does not delete); Keep goes back. `children` are the row's other actions,
+ * kept on one line beside it from 640 px (a table row) and wrapping on a phone's card.
  */
 export function DeleteAction({ name, onDelete, children }: { name: string; onDelete: () => void; children?: ReactNode }) {
   const [asking, setAsking] = useState(false);
@@ -235,7 +240,7 @@ export function DeleteAction({ name, onDelete, children }: { name: string; onDel
     wasAsking.current = asking;
   }, [asking]);
   return (
-    <span className="flex flex-wrap gap-2">
+    <span className="flex flex-wrap gap-2 sm:flex-nowrap">
       {asking ? (
         <>
           <button

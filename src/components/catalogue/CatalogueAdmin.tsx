@@ -6,6 +6,7 @@ import { ANTENNA_KINDS, ANTENNA_KIND_LABELS, type AntennaKind } from '../../lib/
 import type { Column } from '../ui/SortableTable';
 import { useQuery, useSubmit } from '../ui/use-api';
 import { DeleteAction, Field, FormCard, InputField, ListCard, SelectField, SubmitButton, fieldAria, upsertById, withoutId, useNotice } from '../admin/parts';
+import { bindText } from '../ui/bind-text';
 import { FrequencyTableEditor, toNumber, type FrequencyRow } from './FrequencyTableEditor';
 import { formatNumber } from '../../lib/domain/format';
 
@@ -199,6 +200,8 @@ export default function CatalogueAdmin() {
   ];
 
   const err = (k: string) => fields[k];
+  const antennaText = bindText(aForm, setAForm, fields);
+  const cableText = bindText(cForm, setCForm, fields);
   const title = `${editing.id ? 'Edit' : 'New'} ${editing.what}`;
   const newButton = (what: 'antenna' | 'cable') => (
     <button type="button" className="btn-secondary ml-auto py-1" onClick={() => start({ what, id: null })}>
@@ -213,32 +216,8 @@ export default function CatalogueAdmin() {
       </div>
       <div className="mt-4 grid gap-6 lg:grid-cols-[1fr_24rem]">
         <div className="min-w-0 space-y-6">
-          <ListCard
-            id="antennas"
-            title="Antennas"
-            tools={newButton('antenna')}
-            rows={antennas.data}
-            error={antennas.error}
-            loadingText="Loading antennas…"
-            columns={antennaColumns}
-            rowKey={(a) => a.id}
-            initialSort={{ key: 'name', dir: 'asc' }}
-            empty="No antennas yet"
-            caption="Antennas"
-          />
-          <ListCard
-            id="cables"
-            title="Cables"
-            tools={newButton('cable')}
-            rows={cables.data}
-            error={cables.error}
-            loadingText="Loading cables…"
-            columns={cableColumns}
-            rowKey={(c) => c.id}
-            initialSort={{ key: 'name', dir: 'asc' }}
-            empty="No cables yet"
-            caption="Cables"
-          />
+          <ListCard id="antennas" title="Antennas" tools={newButton('antenna')} list={antennas} columns={antennaColumns} empty="No antennas yet" />
+          <ListCard id="cables" title="Cables" tools={newButton('cable')} list={cables} columns={cableColumns} empty="No cables yet" />
         </div>
 
         <FormCard
@@ -246,8 +225,7 @@ export default function CatalogueAdmin() {
           className="self-start"
           title={title}
           onSubmit={save}
-          error={saving.error?.message}
-          pending={saving.pending}
+          sending={saving}
           submitLabel={editing.id ? 'Save changes' : `Add ${editing.what}`}
           actions={
             <div className="flex gap-2">
@@ -266,7 +244,7 @@ export default function CatalogueAdmin() {
         >
           {editing.what === 'antenna' ? (
             <>
-              <InputField id="an-name" label="Name" value={aForm.name} onChange={(e) => setAForm({ ...aForm, name: e.target.value })} errors={err('name')} />
+              <InputField id="an-name" label="Name" {...antennaText('name')} />
               <div className="grid grid-cols-2 gap-3">
                 <SelectField
                   id="an-kind"
@@ -277,23 +255,15 @@ export default function CatalogueAdmin() {
                   onChange={(kind) => setAForm({ ...aForm, kind })}
                   errors={err('kind')}
                 />
-                <InputField
-                  id="an-ports"
-                  label="Ports (MIMO)"
-                  inputMode="numeric"
-                  value={aForm.ports}
-                  onChange={(e) => setAForm({ ...aForm, ports: e.target.value })}
-                  errors={err('ports')}
-                />
+                <InputField id="an-ports" label="Ports (MIMO)" inputMode="numeric" {...antennaText('ports')} />
               </div>
               <InputField
                 id="an-beam"
                 label="Horizontal beamwidth, °"
                 inputMode="decimal"
+                {...antennaText('beam', 'horizontal_beamwidth_deg')}
                 value={aForm.kind === 'directional' ? aForm.beam : '360'}
                 disabled={aForm.kind !== 'directional'}
-                onChange={(e) => setAForm({ ...aForm, beam: e.target.value })}
-                errors={err('horizontal_beamwidth_deg')}
                 hint={aForm.kind === 'directional' ? 'Half-power (3 dB) beam; customer panels are commonly about 40°.' : 'Omni and stub antennas cover 360°.'}
               />
               <FrequencyTableEditor
@@ -309,7 +279,7 @@ export default function CatalogueAdmin() {
             </>
           ) : (
             <>
-              <InputField id="cb-name" label="Name" value={cForm.name} onChange={(e) => setCForm({ ...cForm, name: e.target.value })} errors={err('name')} />
+              <InputField id="cb-name" label="Name" {...cableText('name')} />
               <FrequencyTableEditor
                 field="loss_table"
                 valueKey="loss_db_per_m"
@@ -320,22 +290,8 @@ export default function CatalogueAdmin() {
                 errors={fields}
               />
               <div className="grid grid-cols-2 gap-3">
-                <InputField
-                  id="cb-conn"
-                  label="Connectors"
-                  inputMode="numeric"
-                  value={cForm.connectors}
-                  onChange={(e) => setCForm({ ...cForm, connectors: e.target.value })}
-                  errors={err('connectors')}
-                />
-                <InputField
-                  id="cb-closs"
-                  label="Loss per connector, dB"
-                  inputMode="decimal"
-                  value={cForm.connectorLoss}
-                  onChange={(e) => setCForm({ ...cForm, connectorLoss: e.target.value })}
-                  errors={err('connector_loss_db')}
-                />
+                <InputField id="cb-conn" label="Connectors" inputMode="numeric" {...cableText('connectors')} />
+                <InputField id="cb-closs" label="Loss per connector, dB" inputMode="decimal" {...cableText('connectorLoss', 'connector_loss_db')} />
               </div>
               <p className="text-xs text-ink-600">A mated pair below 3 GHz typically costs 0.1–0.2 dB; allow more for adapters and surge arresters.</p>
               <NotesField id="cb-notes" value={cForm.notes} onChange={(notes) => setCForm({ ...cForm, notes })} errors={err('notes')} />
