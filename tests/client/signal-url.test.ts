@@ -2,7 +2,7 @@
 import { describe, expect, it } from 'vitest';
 import { readMapUrl, writeMapUrl } from '../../src/lib/client/map-url';
 import { SIGNAL_OFF, hexFiguresOf } from '../../src/components/map/signal-layers';
-import { readSignalUrl, writeSignalUrl } from '../../src/components/map/signal-url';
+import { readSignalUrl, withKnownOperator, writeSignalUrl } from '../../src/components/map/signal-url';
 
 describe('signal layer in the map address', () => {
   it('reads back what it wrote, beside the mast and view', () => {
@@ -37,6 +37,23 @@ describe('signal layer in the map address', () => {
     expect(readSignalUrl('?signal=rsrq&signal_operator=2&signal_band=n78')).toEqual({ on: true, metric: 'rsrq', operatorId: '2', band: 'n78' });
     // A band is never written without its operator.
     expect(writeSignalUrl('', { on: true, metric: 'rsrp', operatorId: '', band: 'B20' })).toBe('?signal=rsrp');
+  });
+
+  it('ignores a band the signal tiles would refuse, and keeps every label that cells store (common practice: one check on both sides)', () => {
+    // ZZ999 looks like a band but no band table has it: the tiles would answer 400 for every tile.
+    expect(readSignalUrl('?signal=rsrp&signal_operator=2&signal_band=ZZ999')).toEqual({ on: true, metric: 'rsrp', operatorId: '2', band: '' });
+    expect(readSignalUrl(`?signal=rsrp&signal_operator=2&signal_band=${'B'.repeat(40)}`).band).toBe('');
+    expect(readSignalUrl(`?signal=rsrp&signal_operator=${'9'.repeat(30)}`).operatorId).toBe('');
+    // Labels as cells store them, not only B<n> and n<n>.
+    for (const band of ['B20', 'n78', 'B3']) expect(readSignalUrl(`?signal=rsrp&signal_operator=2&signal_band=${band}`).band).toBe(band);
+  });
+
+  it('drops an operator that is not on the map, and its band, once the operators are known', () => {
+    const linked = { on: true, metric: 'rsrp' as const, operatorId: '999999', band: 'B20' };
+    expect(withKnownOperator(linked, null)).toBe(linked);
+    expect(withKnownOperator(linked, [{ id: '1' }, { id: '2' }])).toEqual({ on: true, metric: 'rsrp', operatorId: '', band: '' });
+    const known = { ...linked, operatorId: '2' };
+    expect(withKnownOperator(known, [{ id: '1' }, { id: '2' }])).toBe(known);
   });
 });
 

@@ -49,6 +49,7 @@ import SignalHexPopup, { type SignalHexPick } from './SignalHexPopup';
 import SignalPanel from './SignalPanel';
 import { SIGNAL_FILL_LAYER_ID, hexFiguresOf } from './signal-layers';
 import { useSignalUrl } from './use-signal-url';
+import { withKnownOperator } from './signal-url';
 
 interface Props {
   canEditMasts: boolean;
@@ -78,7 +79,9 @@ export default function MapView({ canEditMasts }: Props) {
   const [pendingPick, setPendingPick] = useState<PendingSightingFeature | null>(null);
   const isPhone = useIsPhone();
   const [filtersOpen, setFiltersOpen] = useState(false);
-  const [signal, setSignal] = useSignalUrl();
+  const [linkedSignal, setSignal] = useSignalUrl();
+  // A link may name an operator that is not on the map (removed since, mistyped): show all operators then.
+  const signal = useMemo(() => withKnownOperator(linkedSignal, operators), [linkedSignal, operators]);
   const [hexPick, setHexPick] = useState<SignalHexPick | null>(null);
   // Adding a mast: first a click on the map (placing), then the form at that position.
   const [placing, setPlacing] = useState(false);
@@ -304,7 +307,9 @@ export default function MapView({ canEditMasts }: Props) {
       )}
 
       {operators && (
-        <div className="pointer-events-none absolute left-3 right-14 top-3 z-20 flex max-w-sm flex-col gap-2">
+        // One column down the left edge: the search, filters and signal choices at the top, the legend at
+        // the bottom; the legend gives way (its entries scroll) so that the two never overlap.
+        <div className="pointer-events-none absolute bottom-8 left-3 right-14 top-3 z-20 flex max-w-sm flex-col gap-2">
           <div className="pointer-events-auto flex gap-2">
             <MapSearch onPick={onPick} />
             <button
@@ -331,12 +336,11 @@ export default function MapView({ canEditMasts }: Props) {
             </div>
           )}
           <SignalPanel operators={operators} bands={bands} value={signal} onChange={setSignal} compact={isPhone} onShowCentre={pickHexAtCentre} />
-        </div>
-      )}
-
-      {operators && !(isPhone && panelOpen) && (
-        <div className="pointer-events-none absolute bottom-8 left-3 z-10">
-          <MapLegend operators={operators} defaultOpen={!isPhone} />
+          {!(isPhone && panelOpen) && (
+            <div className="flex min-h-0 flex-1 flex-col items-start justify-end">
+              <MapLegend operators={operators} defaultOpen={!isPhone} />
+            </div>
+          )}
         </div>
       )}
 

@@ -14,6 +14,9 @@ interface Props {
   bands?: readonly string[];
 }
 
+/** The whole outline clear of the controls: the signal switch at the top left, the zoom buttons at the top right, the link at the bottom. */
+const FIT_PADDING = { top: 56, right: 48, bottom: 40, left: 24 };
+
 /**
  * A small map of one region with the measured signal layer switched on, its choices and legend
  * (for the region page; mount with client:only="react"). The full map opens at the same region.
@@ -38,7 +41,9 @@ export default function RegionSignalMap({ regionId, bands = [] }: Props) {
       )}
       {style && operators && region && (
         <Map
-          initialViewState={{ bounds: region.bbox, fitBoundsOptions: { padding: 24 } }}
+          initialViewState={{ bounds: region.bbox, fitBoundsOptions: { padding: FIT_PADDING } }}
+          // Fitted again once the map has its size: the first fit can run before the frame is laid out.
+          onLoad={(e) => e.target.fitBounds(region.bbox, { padding: FIT_PADDING, duration: 0 })}
           mapStyle={style}
           maxZoom={16}
           attributionControl={{ compact: true }}

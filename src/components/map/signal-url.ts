@@ -1,24 +1,35 @@
 // The measured signal layer's choices in the map's address (`/map?signal=rsrp&signal_operator=2&signal_band=B20`),
 // beside the mast and view parameters of lib/client/map-url.ts. Pure.
-import { ID_PATTERN } from '../../lib/schemas/params';
+import { SignalTileQuerySchema } from '../../lib/schemas/signal-map';
 import { SIGNAL_METRICS, type SignalMetric } from '../../lib/domain/signal-map';
 import { SIGNAL_OFF, type SignalState } from './signal-layers';
 
 export const SIGNAL_URL_PARAMS = ['signal', 'signal_operator', 'signal_band'] as const;
 
-/** Band labels as stored on cells: B20, n78, B3 … */
-const BAND = /^[A-Za-z]{0,2}\d{1,4}[A-Za-z]?$/;
+/** Whether the signal tiles would take this operator and band (the tile endpoint's own check). */
+const tilesTake = (operator: string, band: string) => SignalTileQuerySchema.safeParse({ operator, band }).success;
 
-/** The layer's choices held by a map link: switched on by `signal=<metric>`; anything malformed is ignored. */
+/**
+ * The layer's choices held by a map link: switched on by `signal=<metric>`; anything the signal
+ * tiles would refuse is ignored (a malformed operator id, a band that no cell has, a band without
+ * its operator: a band is one operator's).
+ */
 export function readSignalUrl(search: string): SignalState {
   const p = new URLSearchParams(search);
   const metric = p.get('signal');
   if (!metric || !(SIGNAL_METRICS as readonly string[]).includes(metric)) return SIGNAL_OFF;
   const operator = p.get('signal_operator') ?? '';
-  const operatorId = ID_PATTERN.test(operator) ? operator : '';
+  const operatorId = tilesTake(operator, '') ? operator : '';
   const band = p.get('signal_band') ?? '';
-  // A band is one operator's: without an operator it means nothing.
-  return { on: true, metric: metric as SignalMetric, operatorId, band: operatorId && BAND.test(band) ? band : '' };
+  return { on: true, metric: metric as SignalMetric, operatorId, band: operatorId && tilesTake(operatorId, band) ? band : '' };
+}
+
+/**
+ * The choices with an operator that is not among `operators` (one since removed, a mistyped link)
+ * dropped, and its band with it; as they are while the operators are still loading (null).
+ */
+export function withKnownOperator(state: SignalState, operators: readonly { id: string }[] | null): SignalState {
+  return !operators || !state.operatorId || operators.some((o) => o.id === state.operatorId) ? state : { ...state, operatorId: '', band: '' };
 }
 
 /** The query string with the layer's choices written in (none while it is off); other parameters are kept. */
