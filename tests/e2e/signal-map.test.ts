@@ -199,4 +199,44 @@ describe('measured signal layer', () => {
     expect(await drawnHexagons(page)).not.toHaveLength(0);
     await context.close();
   });
+
+  it('keeps the open signal panel and the map legend apart at 1280 px', async () => {
+    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+    await openMap(page, 'reviewer');
+    await page.getByTestId('signal-toggle').click();
+    const panel = (await page.getByTestId('signal-panel').boundingBox())!;
+    const legend = (await page.getByTestId('map-legend').boundingBox())!;
+    // Common practice: overlays of a map do not cover one another.
+    expect(legend.y).toBeGreaterThanOrEqual(panel.y + panel.height);
+    await page.close();
+  });
+
+  it('shows what a link with bad signal choices can show: no refused tiles, no errors, the choices it could not use left out', async () => {
+    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+    const problems: string[] = [];
+    page.on('console', (m) => m.type() === 'error' && problems.push(m.text()));
+    page.on('pageerror', (e) => problems.push(String(e)));
+    page.on('response', (r) => r.status() >= 400 && problems.push(`${r.status()} ${r.url()}`));
+    await signIn(page, demoEmail('reviewer'));
+    const operator = await page.evaluate(() =>
+      fetch('/api/operators')
+        .then((r) => r.json())
+        .then((b) => b.items[0].id as string),
+    );
+    for (const [query, shown] of [
+      // A band no band table has, for a real operator: the operator stays, the band goes.
+      [`signal=rsrp&signal_operator=${operator}&signal_band=ZZ999`, { operator, band: '' }],
+      // An operator id that is well formed but not on the map: all operators.
+      ['signal=rsrq&signal_operator=999999&signal_band=B20', { operator: '', band: '' }],
+    ] as const) {
+      await page.goto(`${APP_URL}/map?${query}`);
+      await page.waitForFunction(() => !!window.bearlineMap && window.bearlineMap.isStyleLoaded(), undefined, { timeout: 60_000 });
+      await page.getByTestId('signal-panel').waitFor();
+      expect({ operator: await page.getByTestId('signal-operator').inputValue(), band: await page.getByTestId('signal-band').inputValue() }).toEqual(shown);
+      await page.waitForFunction(() => window.bearlineMap!.areTilesLoaded(), undefined, { timeout: 60_000 });
+      expect(await drawnHexagons(page)).not.toHaveLength(0);
+    }
+    expect(problems).toEqual([]);
+    await page.close();
+  });
 });
