@@ -4,7 +4,7 @@ import type { UserListItemJson } from '../../lib/schemas/users';
 import { ROLES, ROLE_LABELS, type Role } from '../../lib/domain/roles';
 import { TOKEN_LIFETIME_MIN } from '../../lib/domain/account-tokens';
 import type { Column } from '../ui/SortableTable';
-import { bindText } from '../ui/bind-text';
+import { bindChoice, bindText } from '../ui/bind-text';
 import { useQuery, useSubmit } from '../ui/use-api';
 import { formatDate } from '../../lib/domain/format';
 import { FormCard, InputField, ListBesideForm, ListCard, SelectField, upsertById, useNotice } from './parts';
@@ -21,6 +21,7 @@ export default function UsersAdmin({ currentUserId }: Props) {
   const { notice, setNotice, attempt } = useNotice();
   const [form, setForm] = useState(EMPTY_FORM);
   const field = bindText(form, setForm, inviting.fields);
+  const choice = bindChoice(form, setForm, inviting.fields);
 
   const replace = (u: UserListItemJson) => users.setData((list) => upsertById(list, u));
 
@@ -139,15 +140,7 @@ export default function UsersAdmin({ currentUserId }: Props) {
       >
         <InputField id="nu-name" label="Name" {...field('name')} />
         <InputField id="nu-email" label="E-mail" type="email" {...field('email')} />
-        <SelectField
-          id="nu-role"
-          label="Role"
-          value={form.role}
-          options={ROLES}
-          labels={ROLE_LABELS}
-          onChange={(role) => setForm({ ...form, role })}
-          errors={inviting.fields.role}
-        />
+        <SelectField id="nu-role" label="Role" options={ROLES} labels={ROLE_LABELS} {...choice('role')} />
       </FormCard>
     </ListBesideForm>
   );

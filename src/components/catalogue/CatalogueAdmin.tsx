@@ -6,7 +6,7 @@ import { ANTENNA_KINDS, ANTENNA_KIND_LABELS, type AntennaKind } from '../../lib/
 import type { Column } from '../ui/SortableTable';
 import { useQuery, useSubmit } from '../ui/use-api';
 import { DeleteAction, Field, FormCard, InputField, ListCard, SelectField, SubmitButton, fieldAria, upsertById, withoutId, useNotice } from '../admin/parts';
-import { bindText } from '../ui/bind-text';
+import { bindChoice, bindText } from '../ui/bind-text';
 import { FrequencyTableEditor, toNumber, type FrequencyRow } from './FrequencyTableEditor';
 import { formatNumber } from '../../lib/domain/format';
 
@@ -199,8 +199,9 @@ export default function CatalogueAdmin() {
     { key: 'actions', label: 'Actions', render: (c) => actions('cable', c.id, c.name) },
   ];
 
-  const err = (k: string) => fields[k];
   const antennaText = bindText(aForm, setAForm, fields);
+  const antennaChoice = bindChoice(aForm, setAForm, fields);
+  const cableChoice = bindChoice(cForm, setCForm, fields);
   const cableText = bindText(cForm, setCForm, fields);
   const title = `${editing.id ? 'Edit' : 'New'} ${editing.what}`;
   const newButton = (what: 'antenna' | 'cable') => (
@@ -246,15 +247,7 @@ export default function CatalogueAdmin() {
             <>
               <InputField id="an-name" label="Name" {...antennaText('name')} />
               <div className="grid grid-cols-2 gap-3">
-                <SelectField
-                  id="an-kind"
-                  label="Kind"
-                  value={aForm.kind}
-                  options={ANTENNA_KINDS}
-                  labels={ANTENNA_KIND_LABELS}
-                  onChange={(kind) => setAForm({ ...aForm, kind })}
-                  errors={err('kind')}
-                />
+                <SelectField id="an-kind" label="Kind" options={ANTENNA_KINDS} labels={ANTENNA_KIND_LABELS} {...antennaChoice('kind')} />
                 <InputField id="an-ports" label="Ports (MIMO)" inputMode="numeric" {...antennaText('ports')} />
               </div>
               <InputField
@@ -275,7 +268,7 @@ export default function CatalogueAdmin() {
                 onChange={(rows) => setAForm({ ...aForm, rows })}
                 errors={fields}
               />
-              <NotesField id="an-notes" value={aForm.notes} onChange={(notes) => setAForm({ ...aForm, notes })} errors={err('notes')} />
+              <NotesField id="an-notes" {...antennaChoice('notes')} />
             </>
           ) : (
             <>
@@ -294,7 +287,7 @@ export default function CatalogueAdmin() {
                 <InputField id="cb-closs" label="Loss per connector, dB" inputMode="decimal" {...cableText('connectorLoss', 'connector_loss_db')} />
               </div>
               <p className="text-xs text-ink-600">A mated pair below 3 GHz typically costs 0.1–0.2 dB; allow more for adapters and surge arresters.</p>
-              <NotesField id="cb-notes" value={cForm.notes} onChange={(notes) => setCForm({ ...cForm, notes })} errors={err('notes')} />
+              <NotesField id="cb-notes" {...cableChoice('notes')} />
             </>
           )}
         </FormCard>

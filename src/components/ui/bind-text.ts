@@ -1,4 +1,4 @@
-// Text inputs bound to one form object: each input shows one key, writes it back and shows that key's errors.
+// Inputs bound to one form object: each input shows one key, writes it back and shows that key's errors.
 import type { ChangeEvent } from 'react';
 import type { FieldErrors } from '../../lib/client/api';
 
@@ -9,9 +9,18 @@ type TextKey<F> = { [K in keyof F]: F[K] extends string ? K : never }[keyof F] &
  * and the errors under that key (or under `errorKey` where the request body names it otherwise).
  */
 export function bindText<F extends object>(form: F, setForm: (form: F) => void, errors: FieldErrors) {
-  return (key: TextKey<F>, errorKey: string = key) => ({
-    value: form[key] as string,
-    onChange: (e: ChangeEvent<HTMLInputElement>) => setForm({ ...form, [key]: e.target.value }),
+  const choice = bindChoice(form, setForm, errors);
+  return (key: TextKey<F>, errorKey: string = key) => {
+    const { onChange, ...bound } = choice(key, errorKey);
+    return { ...bound, value: bound.value as string, onChange: (e: ChangeEvent<HTMLInputElement>) => onChange(e.target.value as F[typeof key]) };
+  };
+}
+
+/** The same for a choice of fixed values (`SelectField`), whose change handler takes the value chosen. */
+export function bindChoice<F extends object>(form: F, setForm: (form: F) => void, errors: FieldErrors) {
+  return <K extends keyof F & string>(key: K, errorKey: string = key) => ({
+    value: form[key],
+    onChange: (value: F[K]) => setForm({ ...form, [key]: value }),
     errors: errors[errorKey],
   });
 }
