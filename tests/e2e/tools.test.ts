@@ -44,7 +44,7 @@ describe('calculators', () => {
   it('explains a channel in no band next to the field', async () => {
     await page.getByRole('radio', { name: 'Channel' }).check();
     await page.fill('#ch-value', '70000');
-    await expect(textOf('#ch-error', /no known LTE band/)).resolves.toContain('70000');
+    await expect(textOf('#ch-value-error', /no known LTE band/)).resolves.toContain('70000');
   });
 
   it('gives distance and bearings for a path, and flags a bad latitude inline', async () => {

@@ -5,6 +5,7 @@ import type { ChannelJson, FrequencyJson } from '../../lib/schemas/tools';
 import { useDebounced } from './useDebounced';
 import { useQuery } from '../ui/use-api';
 import { ResultRow } from './ResultRow';
+import { Field, fieldAria } from '../ui/field';
 
 const TECHS = [
   { value: 'lte', label: 'LTE (EARFCN)' },
@@ -28,6 +29,7 @@ export default function ChannelCalculator() {
     { failed: 'Could not calculate', keepOnError: false },
   );
   const fieldError = result.fields.channel?.[0] ?? result.fields.freq_mhz?.[0] ?? result.fields.tech?.[0] ?? result.error?.message;
+  const valueErrors = fieldError ? [fieldError] : undefined;
   // The number alone: the unit is printed beside it.
   const fmt = (mhz: number | null) => formatMhz(mhz, { unit: false });
 
@@ -59,25 +61,15 @@ export default function ChannelCalculator() {
             </label>
           </div>
         </fieldset>
-        <div>
-          <label htmlFor="ch-value" className="field-label">
-            {mode === 'channel' ? 'Channel number' : 'Frequency (MHz)'}
-          </label>
+        <Field id="ch-value" label={mode === 'channel' ? 'Channel number' : 'Frequency (MHz)'} errors={valueErrors} live>
           <input
-            id="ch-value"
             className="field-input"
             inputMode="decimal"
             value={value}
             onChange={(e) => setValue(e.target.value)}
-            aria-invalid={!!fieldError}
-            aria-describedby="ch-error"
+            {...fieldAria({ id: 'ch-value', errors: valueErrors })}
           />
-          {fieldError && (
-            <p id="ch-error" className="field-error" role="alert">
-              {fieldError}
-            </p>
-          )}
-        </div>
+        </Field>
       </form>
       <div className="mt-4" aria-live="polite">
         {result.data && 'band' in result.data && <ChannelView r={result.data} fmt={fmt} />}

@@ -14,18 +14,21 @@ export function fieldAria({ id, errors, hint }: Omit<FieldFrame, 'label'>) {
   return { id, 'aria-invalid': errors?.length ? true : undefined, 'aria-describedby': described || undefined };
 }
 
-/** The messages of one field, each on its line, under the id the control is described by. */
-export function FieldErrorText({ id, errors }: { id: string; errors?: string[] }) {
+/**
+ * The messages of one field, each on its line, under the id the control is described by. `live`:
+ * announced as they appear, for a field checked while it is typed in rather than on submit.
+ */
+export function FieldErrorText({ id, errors, live }: { id: string; errors?: string[]; live?: boolean }) {
   if (!errors?.length) return null;
   return (
-    <p className="field-error" id={`${id}-error`}>
+    <p className="field-error" id={`${id}-error`} role={live ? 'alert' : undefined}>
       {errors.join(' ')}
     </p>
   );
 }
 
 /** A label, the control (give it `fieldAria(…)`), a hint and the field's errors. */
-export function Field({ id, label, errors, hint, children }: FieldFrame & { children: ReactNode }) {
+export function Field({ id, label, errors, hint, live, children }: FieldFrame & { live?: boolean; children: ReactNode }) {
   return (
     <div>
       <label htmlFor={id} className="field-label">
@@ -37,7 +40,7 @@ export function Field({ id, label, errors, hint, children }: FieldFrame & { chil
           {hint}
         </p>
       )}
-      <FieldErrorText id={id} errors={errors} />
+      <FieldErrorText id={id} errors={errors} live={live} />
     </div>
   );
 }
