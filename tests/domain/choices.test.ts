@@ -2,7 +2,7 @@ import { describe, expect, expectTypeOf, it } from 'vitest';
 import { z } from 'zod';
 import { defineChoices, type Choice } from '../../src/lib/domain/choices';
 
-const SIZE = defineChoices(['small', 'medium', 'large'], { small: 'Small', medium: 'Medium', large: 'Large' });
+const SIZE = defineChoices({ small: 'Small', medium: 'Medium', large: 'Large' });
 type Size = Choice<typeof SIZE>;
 
 describe('defineChoices', () => {
@@ -17,6 +17,10 @@ describe('defineChoices', () => {
     expectTypeOf<z.infer<typeof schema>>().toEqualTypeOf<Size>();
     expect(schema.safeParse('medium').success).toBe(true);
     expect(schema.safeParse('huge').success).toBe(false);
+  });
+
+  it('refuses a list without values', () => {
+    expect(() => defineChoices({})).toThrow(/at least one value/);
   });
 
   it('tells values of the list from anything else', () => {

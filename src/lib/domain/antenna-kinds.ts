@@ -2,6 +2,6 @@
 // pages that only show them load little).
 import { defineChoices, type Choice } from './choices';
 
-export const ANTENNA_KIND = defineChoices(['directional', 'omni', 'stub'], { directional: 'Directional', omni: 'Omni', stub: 'Stub / whip' });
+export const ANTENNA_KIND = defineChoices({ directional: 'Directional', omni: 'Omni', stub: 'Stub / whip' });
 export const { values: ANTENNA_KINDS, labels: ANTENNA_KIND_LABELS } = ANTENNA_KIND;
 export type AntennaKind = Choice<typeof ANTENNA_KIND>;

@@ -1,6 +1,7 @@
-// A fixed list of values with the words shown for each. One declaration gives the values in their
-// order (a tuple, for z.enum and for menus), the labels, a type guard, and subsets that keep the
-// labels; the value type stays a union of literals: `Choice<typeof MAST_STATUS>`.
+// A fixed list of values with the words shown for each, declared once as `value: label` in display
+// order. It gives the values in that order (a tuple, for z.enum and for menus), the labels, a type
+// guard, and subsets that keep the labels; the value type stays a union of literals:
+// `Choice<typeof MAST_STATUS>`.
 
 export type ChoiceValues = readonly [string, ...string[]];
 
@@ -18,13 +19,20 @@ export interface Choices<V extends ChoiceValues> {
 /** The value type of a list: `Choice<typeof PLAN_STATE>` is `'enquiry' | 'planned' | …`. */
 export type Choice<C extends { readonly values: ChoiceValues }> = C['values'][number];
 
-export function defineChoices<const V extends ChoiceValues>(values: V, labels: Record<V[number], string>): Choices<V> {
+/** The list from its labels: the values are the keys, in the order written. */
+export function defineChoices<const L extends Readonly<Record<string, string>>>(labels: L): Choices<readonly [keyof L & string, ...(keyof L & string)[]]> {
+  const values = Object.keys(labels) as unknown as readonly [keyof L & string, ...(keyof L & string)[]];
+  if (values.length === 0) throw new Error('A list of choices needs at least one value');
+  return choicesOf(values, labels);
+}
+
+function choicesOf<const V extends ChoiceValues>(values: V, labels: Readonly<Record<V[number], string>>): Choices<V> {
   const known = new Set<string>(values);
   return {
     values,
     labels,
     is: (value: unknown): value is V[number] => typeof value === 'string' && known.has(value),
     pick: <const S extends readonly [V[number], ...V[number][]]>(subset: S) =>
-      defineChoices(subset, Object.fromEntries(subset.map((v) => [v, labels[v as V[number]]])) as Record<S[number], string>),
+      choicesOf(subset, Object.fromEntries(subset.map((v) => [v, labels[v as V[number]]])) as Record<S[number], string>),
   };
 }

@@ -2,7 +2,7 @@
 // so the page loads little).
 import { defineChoices, type Choice } from './choices';
 
-export const ELEVATION_FORMAT = defineChoices(['geotiff', 'hgt'], { geotiff: 'GeoTIFF', hgt: 'SRTM .hgt' });
+export const ELEVATION_FORMAT = defineChoices({ geotiff: 'GeoTIFF', hgt: 'SRTM .hgt' });
 export const { values: ELEVATION_FORMATS, labels: ELEVATION_FORMAT_LABELS } = ELEVATION_FORMAT;
 export type ElevationFormat = Choice<typeof ELEVATION_FORMAT>;
 

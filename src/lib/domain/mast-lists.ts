@@ -3,11 +3,11 @@
 import type { RadioTech } from './channels';
 import { defineChoices, type Choice } from './choices';
 
-export const MAST_STATUS = defineChoices(['active', 'planned', 'decommissioned'], { active: 'Active', planned: 'Planned', decommissioned: 'Decommissioned' });
+export const MAST_STATUS = defineChoices({ active: 'Active', planned: 'Planned', decommissioned: 'Decommissioned' });
 export const { values: MAST_STATUSES, labels: MAST_STATUS_LABELS } = MAST_STATUS;
 export type MastStatus = Choice<typeof MAST_STATUS>;
 
-export const STRUCTURE_TYPE = defineChoices(['lattice_tower', 'monopole', 'guyed_mast', 'rooftop', 'pole', 'water_tower', 'other'], {
+export const STRUCTURE_TYPE = defineChoices({
   lattice_tower: 'Lattice tower',
   monopole: 'Monopole',
   guyed_mast: 'Guyed mast',

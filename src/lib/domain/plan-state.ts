@@ -6,7 +6,7 @@
 import { can, type Permission, type Role } from './roles';
 import { defineChoices, type Choice } from './choices';
 
-export const PLAN_STATE = defineChoices(['enquiry', 'planned', 'scheduled', 'installed', 'verified'], {
+export const PLAN_STATE = defineChoices({
   enquiry: 'Enquiry',
   planned: 'Planned',
   scheduled: 'Scheduled',

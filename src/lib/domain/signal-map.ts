@@ -5,7 +5,7 @@
 import { defineChoices, type Choice } from './choices';
 import { getGradeBands, type GradeBand, type GradedQuantity, type SignalGrade } from './measurements';
 
-export const SIGNAL_METRIC = defineChoices(['rsrp', 'rsrq', 'sinr'] as const satisfies readonly GradedQuantity[], { rsrp: 'RSRP', rsrq: 'RSRQ', sinr: 'SINR' });
+export const SIGNAL_METRIC = defineChoices({ rsrp: 'RSRP', rsrq: 'RSRQ', sinr: 'SINR' } satisfies Partial<Record<GradedQuantity, string>>);
 export const { values: SIGNAL_METRICS, labels: SIGNAL_METRIC_LABELS } = SIGNAL_METRIC;
 export type SignalMetric = Choice<typeof SIGNAL_METRIC>;
 

@@ -12,7 +12,7 @@ import { checkRadio } from './radio';
 import { enumOf, idParam, numberField, optionalText, pageParams } from './params';
 import { defineRecord, field, orNull, type InputOf, type JsonOf, type ValueOf } from './record';
 
-export const SIGHTING_STATUS = defineChoices(['pending', 'approved', 'merged', 'rejected'], {
+export const SIGHTING_STATUS = defineChoices({
   pending: 'Waiting for review',
   approved: 'Approved as a new mast',
   merged: 'Merged into a mast',
