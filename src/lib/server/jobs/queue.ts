@@ -51,14 +51,21 @@ export async function createBoss(connectionString: string, options: Partial<PgBo
   return boss;
 }
 
-/** Creates the queue with these options unless it exists (any instance may be first). */
-export async function ensureQueue(boss: PgBoss, queue: PgBoss.Queue): Promise<void> {
-  if (await boss.getQueue(queue.name)) return;
-  try {
-    await boss.createQueue(queue.name, queue);
-  } catch (err) {
-    // Another instance created it at the same moment.
-    if (!(await boss.getQueue(queue.name))) throw err;
+/**
+ * Creates the queue with these options unless it exists (any instance may be first). Two instances
+ * starting together may both try: one gets a unique violation or is chosen as a deadlock's victim
+ * while the other's creation has not committed yet, so it looks again after a short pause.
+ */
+export async function ensureQueue(boss: PgBoss, queue: PgBoss.Queue, attempts = 4): Promise<void> {
+  for (let attempt = 1; ; attempt++) {
+    if (await boss.getQueue(queue.name)) return;
+    try {
+      await boss.createQueue(queue.name, queue);
+      return;
+    } catch (err) {
+      if (attempt >= attempts) throw err;
+      await new Promise((resolve) => setTimeout(resolve, 100 * attempt + Math.random() * 200));
+    }
   }
 }
 
