@@ -30,19 +30,29 @@ const errorMessage = (err: unknown) => (err instanceof Error ? err.message : Str
 /** Works the periodic queues on this instance and, with `timers` (default), offers their runs on time. */
 export async function startPeriodicJobs(boss: PgBoss, jobs: PeriodicJob[], opts: { timers?: boolean } = {}): Promise<PeriodicJobs> {
   const workers = new Map<string, string>();
-  for (const job of jobs) {
-    await ensureQueue(boss, { name: job.queue, policy: 'stately', retryLimit: 0, expireInSeconds: job.expireInSeconds ?? 300 });
-    // Polling is only the fallback: the instance that queues a run wakes its own worker at once.
-    const workerId = await boss.work(job.queue, { batchSize: 1, pollingIntervalSeconds: Math.max(2, job.everySeconds) }, async ([delivered]) => {
-      if (!delivered) return;
-      try {
-        await job.run((delivered.data ?? {}) as Record<string, unknown>);
-      } catch (err) {
-        console.error(`[bearline] ${job.queue} failed`, errorMessage(err));
-        throw err; // recorded as failed by pg-boss; the next period runs again
-      }
-    });
-    workers.set(job.queue, workerId);
+  // A queue that cannot start stops the workers already started here, so that a later try starts
+  // each one once.
+  try {
+    await startWorkers();
+  } catch (err) {
+    for (const queue of workers.keys()) await boss.offWork(queue).catch(() => undefined);
+    throw err;
+  }
+  async function startWorkers() {
+    for (const job of jobs) {
+      await ensureQueue(boss, { name: job.queue, policy: 'stately', retryLimit: 0, expireInSeconds: job.expireInSeconds ?? 300 });
+      // Polling is only the fallback: the instance that queues a run wakes its own worker at once.
+      const workerId = await boss.work(job.queue, { batchSize: 1, pollingIntervalSeconds: Math.max(2, job.everySeconds) }, async ([delivered]) => {
+        if (!delivered) return;
+        try {
+          await job.run((delivered.data ?? {}) as Record<string, unknown>);
+        } catch (err) {
+          console.error(`[bearline] ${job.queue} failed`, errorMessage(err));
+          throw err; // recorded as failed by pg-boss; the next period runs again
+        }
+      });
+      workers.set(job.queue, workerId);
+    }
   }
 
   const offerOne = async (job: PeriodicJob): Promise<boolean> => {
